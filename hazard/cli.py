@@ -1,0 +1,158 @@
+"""The ``hazard`` command line.
+
+Exit codes: 0 assessed; 1 internal error (traceback with ``--debug``); 2 bad input or usage (one line on
+stderr). Heavy libraries (pandas, reportlab, colour-science) are imported inside the commands that use
+them, so ``hazard --help`` answers fast.
+"""
+
+from __future__ import annotations
+
+import json
+import sys
+import traceback
+from pathlib import Path
+
+import click
+
+from hazard._version import __version__
+
+EXIT_OK, EXIT_INTERNAL, EXIT_INPUT = 0, 1, 2
+
+_RECORD_OPTIONS = [
+    click.option("--id", "id_", help="Product id (default: the spectrum file's stem)."),
+    click.option("--name", help="Product name."),
+    click.option("--quantity", type=click.Choice(["irradiance", "radiance"]), help="What the spectrum holds."),
+    click.option("--unit", help="Unit of the values, e.g. W/m2/nm, mW/m2/nm, uW/cm2/nm, W/m2/sr/nm."),
+    click.option("--column", help="Value column (header name or 1-based number) when the file has several."),
+    click.option("--distance-mm", type=float, help="Measurement distance [mm]."),
+    click.option("--source-diameter-mm", type=float, help="Diameter of a round source [mm]."),
+    click.option("--source-width-mm", type=float, help="Width of a rectangular source [mm]."),
+    click.option("--source-height-mm", type=float, help="Height of a rectangular source [mm]."),
+    click.option("--source-alpha-mrad", type=float, help="Angular subtense at --distance-mm [mrad]."),
+    click.option("--lamp-type", type=click.Choice(["gls", "other"]),
+                 help="gls: general lighting service (500 lx rule); other: 200 mm."),
+    click.option("--no-emission-outside", is_flag=True, default=None,
+                 help="The source emits nothing outside the measured range."),
+    click.option("--measurement-fov-mrad", type=float, help="Field of view of a radiance measurement [mrad]."),
+]
+
+
+def _record_options(func):
+    for option in reversed(_RECORD_OPTIONS):
+        func = option(func)
+    return func
+
+
+def _overrides(options: dict) -> dict:
+    fields = {("id" if k == "id_" else k): v for k, v in options.items()}
+    column = fields.get("column")
+    if isinstance(column, str) and column.isdigit():
+        fields["column"] = int(column)
+    return {k: v for k, v in fields.items() if v is not None}
+
+
+def write_atomic(path: Path, data: bytes) -> None:
+    """Write ``data`` to ``path`` through a temporary file in the same folder, then rename."""
+    import os
+    import tempfile
+
+    path.parent.mkdir(parents=True, exist_ok=True)
+    handle, temp = tempfile.mkstemp(prefix=f".{path.name}.", dir=path.parent)
+    try:
+        with os.fdopen(handle, "wb") as out:
+            out.write(data)
+        os.replace(temp, path)
+    except BaseException:
+        Path(temp).unlink(missing_ok=True)
+        raise
+
+
+class _Group(click.Group):
+    """Turns input errors into one line and exit 2, anything else into exit 1."""
+
+    def invoke(self, ctx: click.Context):
+        from hazard.errors import InputError
+
+        try:
+            return super().invoke(ctx)
+        except InputError as exc:
+            click.echo(f"hazard: error: {exc}", err=True)
+            ctx.exit(EXIT_INPUT)
+        except (click.exceptions.Exit, click.exceptions.Abort, click.ClickException):
+            raise
+        except Exception as exc:  # noqa: BLE001 - the last line of defence, reported as internal
+            if ctx.obj and ctx.obj.get("debug"):
+                traceback.print_exc()
+            else:
+                click.echo(f"hazard: internal error: {type(exc).__name__}: {exc} (rerun with --debug for "
+                           f"the traceback, and please report it)", err=True)
+            ctx.exit(EXIT_INTERNAL)
+
+
+@click.group(cls=_Group, context_settings={"help_option_names": ["-h", "--help"]})
+@click.version_option(__version__, prog_name="hazard")
+@click.option("--debug", is_flag=True, help="Show tracebacks of internal errors.")
+@click.pass_context
+def main(ctx: click.Context, debug: bool) -> None:
+    """Photobiological safety pre-screen of lamps (IEC 62471 / CIE S 009 method).
+
+    A pre-screen, not a certification: final classification belongs to an accredited laboratory.
+    """
+    ctx.obj = {"debug": debug}
+
+
+@main.command()
+@click.argument("product", type=click.Path(dir_okay=False, path_type=Path))
+@_record_options
+@click.option("--format", "output_format", type=click.Choice(["text", "json"]), default="text",
+              show_default=True, help="Output format.")
+@click.option("--output", type=click.Path(dir_okay=False, path_type=Path),
+              help="Write the output to this file (atomically) instead of the terminal.")
+def assess(product: Path, output_format: str, output: Path | None, **options) -> None:
+    """Assess one product: RECORD.toml, or a spectrum file with record options.
+
+    Example: hazard assess lamp.csv --distance-mm 200 --source-diameter-mm 5
+    """
+    from hazard.engine import assess as run_assessment
+
+    assessment = run_assessment(product, _overrides(options))
+    if output_format == "json":
+        text = assessment.model_dump_json(indent=2) + "\n"
+    else:
+        from hazard.textout import render_text
+
+        text = render_text(assessment)
+    if output is None:
+        click.echo(text, nl=False)
+    else:
+        write_atomic(output, text.encode("utf-8"))
+        click.echo(f"wrote {output} ({assessment.id}: {assessment.risk_group})", err=True)
+
+
+@main.command()
+def tables() -> None:
+    """List the weighting tables with source, range, interpolation and SHA-256."""
+    from weighting_tables import TABLE_NAMES, load_table
+
+    for name in TABLE_NAMES:
+        t = load_table(name)
+        lo, hi = t.range_nm
+        click.echo(f"{t.symbol:<5} {name:<16} {lo:g}–{hi:g} nm, {t.wavelength_nm.size} rows, "
+                   f"{t.interpolation} interpolation, zero outside")
+        click.echo(f"      source: {t.metadata['source']}")
+        click.echo(f"      sha256: {t.sha256}")
+
+
+@main.command()
+@click.argument("which", type=click.Choice(["record", "result"]))
+def schema(which: str) -> None:
+    """Print the JSON Schema of a product record or of an assessment result."""
+    from hazard.record import ProductRecord
+    from hazard.result import Assessment
+
+    model = ProductRecord if which == "record" else Assessment
+    click.echo(json.dumps(model.model_json_schema(), indent=2, ensure_ascii=False))
+
+
+if __name__ == "__main__":
+    sys.exit(main())

@@ -1,0 +1,301 @@
+"""``assess``: one product from record to :class:`~hazard.result.Assessment`.
+
+Data flows one way: record and spectrum (:mod:`hazard.inputs`) → weighted integrals on the spectrum's own
+grid (:mod:`hazard.weighting`) → values, limits and groups (:mod:`hazard.evaluate`) → a frozen result.
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import numpy as np
+
+from hazard._version import __version__
+from hazard.cautions import select_cautions
+from hazard.evaluate import Evaluation, ProductArrays, evaluate, integral_specs
+from hazard.geometry import FIVE_TIMES_RULE, SourceShape
+from hazard.hazards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
+from hazard.inputs import LoadedProduct, load_product, product_from_record
+from hazard.photometry import VISIBLE_BAND_NM, cct_from_xyz, cmf_quadrature
+from hazard.record import ProductRecord
+from hazard.result import Assessment, Geometry, HazardResult, Photometry, Provenance
+from hazard.weighting import coarse_steps_in, quadrature_matrix
+from weighting_tables import TABLE_NAMES, load_table
+
+__all__ = ["assess", "METHOD_TEXT", "STEEP_REGIONS_NM", "MAX_STEEP_STEP_NM"]
+
+METHOD_TEXT = ("Trapezoid rule on the spectrum's own grid, band ends inserted by linear interpolation of the "
+               "spectrum; weights interpolated onto the grid (S_UV, B, R log-linear; V linear), zero outside "
+               "their tables.")
+STEEP_REGIONS_NM = ((200.0, 400.0), (380.0, 500.0))
+"""Where the weights change steeply: sampling coarser than :data:`MAX_STEEP_STEP_NM` is flagged [nm]."""
+MAX_STEEP_STEP_NM = 5.0
+PLAUSIBLE_MAX_ILLUMINANCE_LX = 200e3
+"""Above this illuminance at the assessment distance a unit slip is likely (method §5) [lx]."""
+PLAUSIBLE_PEAK_IRRADIANCE = (1e-9, 1e4)
+"""Peak spectral irradiance outside this range suggests a unit slip by 10³ or 10⁴ (common practice, no
+published source) [W m⁻² nm⁻¹]."""
+_GROUP_KEYS = GROUPS[:3]
+
+
+def _weight_function(table: str | None):
+    return None if table is None else load_table(table).at
+
+
+def raw_integrals(grid_nm: np.ndarray, values: np.ndarray, limit_set: LimitSet) -> np.ndarray:
+    """Weighted integrals of spectra on one grid, in the order of :func:`integral_specs`.
+
+    Parameters
+    ----------
+    grid_nm : numpy.ndarray
+        (m,) wavelengths [nm].
+    values : numpy.ndarray
+        (m,) or (n, m) spectral values [W m⁻² nm⁻¹ or W m⁻² sr⁻¹ nm⁻¹].
+
+    Returns
+    -------
+    numpy.ndarray
+        (k,) or (n, k) integrals [W m⁻² or W m⁻² sr⁻¹].
+    """
+    specs = integral_specs(limit_set)
+    matrix = quadrature_matrix(grid_nm, [(s.band_nm, _weight_function(s.table)) for s in specs])
+    return values @ matrix
+
+
+def coverage(range_nm: tuple[float, float], no_emission_outside: bool, limit_set: LimitSet) -> np.ndarray:
+    """Which integrals the spectrum can be trusted for: it spans the band, or the record rules out emission
+    outside the measured range (method §5)."""
+    lo, hi = range_nm
+    return np.array([no_emission_outside or (lo <= s.band_nm[0] and hi >= s.band_nm[1])
+                     for s in integral_specs(limit_set)])
+
+
+def source_shape(records: list[ProductRecord]) -> SourceShape:
+    """Source sizes of records in metres; a source given by α becomes a disc of diameter α·d."""
+    width, height = [], []
+    for r in records:
+        if r.source_diameter_mm is not None:
+            width.append(r.source_diameter_mm), height.append(np.nan)
+        elif r.source_width_mm is not None:
+            width.append(r.source_width_mm), height.append(r.source_height_mm)
+        else:
+            width.append(r.source_alpha_mrad * 1e-3 * r.distance_mm), height.append(np.nan)
+    return SourceShape(np.array(width) * 1e-3, np.array(height) * 1e-3)
+
+
+def product_arrays(records: list[ProductRecord], raw: np.ndarray, covered: np.ndarray) -> ProductArrays:
+    """Stack records and their integrals for :func:`~hazard.evaluate.evaluate`."""
+    return ProductArrays(
+        raw=np.atleast_2d(raw), covered=np.atleast_2d(covered),
+        is_radiance=np.array([r.quantity == "radiance" for r in records]),
+        measurement_distance_m=np.array([np.nan if r.distance_mm is None else r.distance_mm * 1e-3
+                                         for r in records]),
+        shape=source_shape(records), is_gls=np.array([r.lamp_type == "gls" for r in records]))
+
+
+def _float(x) -> float | None:
+    x = float(x)
+    return None if np.isnan(x) else x
+
+
+def _missing_text(range_nm: tuple[float, float], band: tuple[float, float]) -> str:
+    gaps = []
+    if range_nm[0] > band[0]:
+        gaps.append(f"{band[0]:g}–{min(range_nm[0], band[1]):g} nm")
+    if range_nm[1] < band[1]:
+        gaps.append(f"{max(range_nm[1], band[0]):g}–{band[1]:g} nm")
+    return " and ".join(gaps)
+
+
+def _hazard_results(ev: Evaluation, i: int, spectrum_range: tuple[float, float]) -> dict[str, HazardResult]:
+    results = {}
+    for symbol, h in ev.hazards.items():
+        if not h.applicable[i]:
+            continue
+        spec = h.hazard
+        grouped = spec.limits is not None
+        limits = {g: float(h.limits[i, k]) for k, g in enumerate(_GROUP_KEYS)} if grouped else {}
+        compared = {g: float(h.compared[i, k]) for k, g in enumerate(_GROUP_KEYS)} if grouped else {}
+        band = f"{spec.band_nm[0]:g}–{spec.band_nm[1]:g} nm"
+        if not h.assessed[i]:
+            note = (f"Not assessed: the spectrum covers {spectrum_range[0]:g}–{spectrum_range[1]:g} nm and the "
+                    f"band needs {band} (missing {_missing_text(spectrum_range, spec.band_nm)}); measure the "
+                    f"missing range, or set no_emission_outside if the source emits nothing there.")
+        elif not grouped:
+            note = f"Assessed over {band}; exposure limit only, IEC 62471 gives this hazard no risk group."
+        else:
+            note = f"Assessed over {band}."
+            if spec.exposure_limit is None and h.group_index[i] > 0:
+                note += " Above the limit for exposures longer than 10 s; that limit defines no t_max."
+        results[symbol] = HazardResult(
+            symbol=symbol, title=spec.title, band_nm=spec.band_nm,
+            weighting=None if spec.table is None else load_table(spec.table).symbol,
+            value=float(h.value[i]) if h.assessed[i] else None, unit=spec.unit,
+            t_max_s=_float(h.t_max_s[i]) if h.assessed[i] else None,
+            risk_group=GROUPS[h.group_index[i]] if (h.assessed[i] and grouped) else None,
+            assessed=bool(h.assessed[i]), limits=limits, compared=compared,
+            margins={g: compared[g] / limits[g] for g in limits} if h.assessed[i] else {},
+            fov_rad=dict(zip(_GROUP_KEYS, spec.fov_rad)) if spec.fov_rad else {},
+            alpha_rad={g: float(h.alpha_bounded[i, k]) for k, g in enumerate(_GROUP_KEYS)}
+            if spec.limits_over_alpha else {},
+            time_bases_s={g: float(t) for g, t in zip(_GROUP_KEYS, spec.time_bases_s)} if grouped else {},
+            exposure_limit=None if spec.exposure_limit is None else spec.exposure_limit.text, note=note)
+    return results
+
+
+def _photometry(loaded: LoadedProduct, ev: Evaluation, i: int, covered: bool) -> Photometry:
+    illuminance = float(ev.illuminance_lx[i])
+    x = y = cct = duv = np.nan
+    if illuminance > 0 and covered:
+        spectrum = loaded.spectrum
+        xyz = spectrum.value @ cmf_quadrature(spectrum.wavelength_nm)
+        x, y, cct, duv = (float(v[0]) for v in cct_from_xyz(xyz[None, :]))
+    return Photometry(illuminance_lx=illuminance, luminance_cd_m2=float(ev.luminance_cd_m2[i]),
+                      cct_k=_float(cct), duv=_float(duv),
+                      chromaticity_xy=None if np.isnan(x) else (float(x), float(y)), covered=covered)
+
+
+def _warnings(loaded: LoadedProduct, ev: Evaluation, i: int, v_covered: bool) -> list[str]:
+    record, spectrum = loaded.record, loaded.spectrum
+    warnings = list(spectrum.warnings)
+    lo, hi = spectrum.range_nm
+    for region in STEEP_REGIONS_NM:
+        step = coarse_steps_in(spectrum.wavelength_nm, region, MAX_STEEP_STEP_NM)
+        if step is not None and lo < region[1] and hi > region[0]:
+            warnings.append(f"sampling step up to {step:g} nm in {region[0]:g}–{region[1]:g} nm, where the "
+                            f"weights change steeply; values there are approximate (use ≤ {MAX_STEEP_STEP_NM:g} "
+                            f"nm)")
+    d_a_mm = float(ev.assessment_distance_m[i]) * 1e3
+    size_mm = record.largest_dimension_mm
+    if record.quantity == "irradiance" and abs(d_a_mm - record.distance_mm) > 1e-9:
+        near = min(d_a_mm, record.distance_mm)
+        if near < FIVE_TIMES_RULE * size_mm:
+            warnings.append(f"inverse-square scaling from {record.distance_mm:g} mm to {d_a_mm:.4g} mm with a "
+                            f"{size_mm:g} mm source: {near:.4g} mm is under five source sizes, so the scaled "
+                            f"values are approximate; measure at the assessment distance")
+    if not v_covered:
+        warnings.append(f"the spectrum covers {lo:g}–{hi:g} nm, not all of V(λ)'s {VISIBLE_BAND_NM[0]:g}–"
+                        f"{VISIBLE_BAND_NM[1]:g} nm: illuminance and luminance are lower bounds, and so is the "
+                        f"weak-visual-stimulus test")
+    if ev.illuminance_lx[i] > PLAUSIBLE_MAX_ILLUMINANCE_LX:
+        warnings.append(f"illuminance {ev.illuminance_lx[i]:.3g} lx at the assessment distance is above "
+                        f"{PLAUSIBLE_MAX_ILLUMINANCE_LX:.0f} lx: check the unit and the distance")
+    if record.quantity == "irradiance":
+        peak = float(spectrum.value.max())
+        if not PLAUSIBLE_PEAK_IRRADIANCE[0] <= peak <= PLAUSIBLE_PEAK_IRRADIANCE[1]:
+            warnings.append(f"peak spectral irradiance {peak:.3g} W/m2/nm is implausible for a lamp: check "
+                            f"the unit ({record.unit_text!r}); a factor of 10^3 or 10^4 is a common slip")
+    if record.quantity == "radiance":
+        fov = record.measurement_fov_mrad
+        if fov is None:
+            warnings.append("measurement_fov_mrad not given: a radiance measured over a wider field than the "
+                            "limits' fields of view underestimates hot spots")
+        elif fov > 11.0:
+            warnings.append(f"radiance measured over {fov:g} mrad, wider than the 11 and 1.7 mrad fields of the "
+                            f"RG1/RG2 limits: hot spots may be underestimated")
+    return warnings
+
+
+def _assumptions(loaded: LoadedProduct, ev: Evaluation, i: int) -> list[str]:
+    record, (lo, hi) = loaded.record, loaded.spectrum.range_nm
+    assumptions = []
+    if record.no_emission_outside:
+        assumptions.append(f"The record states the source emits nothing outside {lo:g}–{hi:g} nm; band parts "
+                           f"outside that range count as zero.")
+    if record.source_alpha_mrad is not None:
+        assumptions.append(f"Source given by its angular subtense {record.source_alpha_mrad:g} mrad at "
+                           f"{record.distance_mm:g} mm, treated as a disc of {record.largest_dimension_mm:.4g} mm.")
+    d_a_mm = float(ev.assessment_distance_m[i]) * 1e3
+    if record.quantity == "irradiance":
+        if abs(d_a_mm - record.distance_mm) > 1e-9:
+            assumptions.append(f"Irradiance scaled from {record.distance_mm:g} mm to {d_a_mm:.4g} mm by the "
+                               f"inverse-square law (point source).")
+        assumptions.append("Radiance derived as E/Ω_s from the irradiance and the stated source size, i.e. a "
+                           "uniform source; LED arrays and hot spots can exceed this average.")
+    else:
+        assumptions.append("Irradiance derived as L·Ω_s from the measured radiance and the stated source size "
+                           "(uniform source).")
+    return assumptions
+
+
+def _distance_rule(record: ProductRecord, d_a_mm: float) -> str:
+    if record.lamp_type != "gls":
+        return "200 mm: the standard's distance for lamps other than general lighting service"
+    if d_a_mm > 200.0 + 1e-9:
+        return "500 lx rule: general lighting service lamp, assessed where it gives 500 lx"
+    return "200 mm: general lighting service lamp that gives 500 lx nearer than 200 mm, so the minimum applies"
+
+
+def build_assessment(loaded: LoadedProduct, ev: Evaluation, i: int, covered: np.ndarray, raw: np.ndarray,
+                     limit_set: LimitSet) -> Assessment:
+    """The result of product ``i`` of an evaluation."""
+    record, spectrum = loaded.record, loaded.spectrum
+    keys = [s.key for s in integral_specs(limit_set)]
+    v_covered = bool(covered[keys.index("V")])
+    hazards = _hazard_results(ev, i, spectrum.range_nm)
+    groups = {s: h.risk_group for s, h in hazards.items()}
+    e_s = raw[keys.index("E_S")]
+    uvc_fraction = float(raw[keys.index("UVC")] / e_s) if e_s > 0 else 0.0
+    overall = GROUPS[ev.group_index[i]]
+    d_a_mm = float(ev.assessment_distance_m[i]) * 1e3
+    tables = {name: {"symbol": t.symbol, "source": t.metadata["source"], "edition": t.metadata["edition"],
+                     "sha256": t.sha256} for name in TABLE_NAMES for t in [load_table(name)]}
+    peak = int(np.argmax(spectrum.value))
+    return Assessment(
+        id=record.id, name=record.name, risk_group=overall, complete=bool(ev.complete[i]),
+        assessment_distance_mm=d_a_mm, alpha_rad=float(ev.alpha_rad[i]),
+        illuminance_lx=float(ev.illuminance_lx[i]), hazards=hazards,
+        not_assessed=[s for s, h in hazards.items() if not h.assessed],
+        deciding_hazards=[s for s, g in groups.items() if g == overall],
+        geometry=Geometry(
+            measurement_distance_mm=record.distance_mm, assessment_distance_mm=d_a_mm,
+            distance_rule=_distance_rule(record, d_a_mm), alpha_rad=float(ev.alpha_rad[i]),
+            source_solid_angle_sr=float(ev.source_solid_angle_sr[i]),
+            largest_dimension_mm=float(record.largest_dimension_mm), small_source=bool(ev.small_source[i]),
+            weak_visual_stimulus=bool(ev.weak_visual_stimulus[i])),
+        photometry=_photometry(loaded, ev, i, v_covered),
+        spectrum={"path": spectrum.path, "quantity": spectrum.quantity, "unit_given": record.unit_text,
+                  "points": int(spectrum.wavelength_nm.size), "min_nm": spectrum.range_nm[0],
+                  "max_nm": spectrum.range_nm[1], "peak_nm": float(spectrum.wavelength_nm[peak]),
+                  "peak_value_si": float(spectrum.value[peak])},
+        record=record.model_dump(exclude_none=True), warnings=_warnings(loaded, ev, i, v_covered),
+        assumptions=_assumptions(loaded, ev, i),
+        cautions=select_cautions(groups, bool(ev.complete[i]), uvc_fraction),
+        provenance=Provenance(tool_version=__version__, limit_set=limit_set.name, tables=tables,
+                              inputs=dict(sorted(loaded.inputs.items())), method=METHOD_TEXT))
+
+
+def assess(product: str | Path | ProductRecord | LoadedProduct, overrides: dict | None = None,
+           limit_set: LimitSet = DEFAULT_LIMIT_SET) -> Assessment:
+    """Pre-screen one product.
+
+    Parameters
+    ----------
+    product : str, Path, ProductRecord or LoadedProduct
+        A ``RECORD.toml``, a spectrum file (with ``overrides`` as record fields), a record (its spectrum path
+        relative to the working folder), or an already loaded product.
+    overrides : dict, optional
+        Record fields that replace the record's own (as the CLI options do).
+    limit_set : LimitSet
+        Limits to apply; IEC 62471:2006 by default.
+
+    Returns
+    -------
+    Assessment
+
+    Raises
+    ------
+    hazard.errors.InputError
+        Bad record or spectrum.
+    """
+    if isinstance(product, LoadedProduct):
+        loaded = product
+    elif isinstance(product, ProductRecord):
+        loaded = product_from_record(product, Path.cwd(), product.id)
+    else:
+        loaded = load_product(product, overrides)
+    spectrum = loaded.spectrum
+    raw = raw_integrals(spectrum.wavelength_nm, spectrum.value, limit_set)
+    covered = coverage(spectrum.range_nm, loaded.record.no_emission_outside, limit_set)
+    ev = evaluate(product_arrays([loaded.record], raw, covered), limit_set)
+    return build_assessment(loaded, ev, 0, covered, raw, limit_set)

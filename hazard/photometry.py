@@ -1,0 +1,73 @@
+"""Photometry and colour (method §6): illuminance, luminance, chromaticity and CCT.
+
+Illuminance is E_v = K_m·∫E_λ V(λ) dλ with K_m = 683 lm·W⁻¹ (CIE 1924 V(λ), CIE S 010); it uses the same
+quadrature as the hazard quantities. Chromaticity comes from the CIE 1931 2° colour-matching functions
+(colour-science's copy of the CIE data) on the spectrum's own grid, and CCT with Duv from colour-science's
+Ohno (2013) method. colour-science is imported only when a CCT is asked for.
+"""
+
+from __future__ import annotations
+
+import warnings
+
+import numpy as np
+
+from hazard.weighting import quadrature_matrix
+
+__all__ = ["K_M_LM_PER_W", "VISIBLE_BAND_NM", "CCT_DUV_LIMIT", "cmf_quadrature", "cct_from_xyz"]
+
+K_M_LM_PER_W = 683.0
+"""Maximum luminous efficacy for photopic vision (CIE S 010:2004) [lm W⁻¹]."""
+VISIBLE_BAND_NM = (360.0, 830.0)
+"""Band of V(λ) and of the CIE 1931 colour-matching functions [nm]."""
+CCT_DUV_LIMIT = 0.05
+"""Beyond this distance from the Planckian locus a CCT is not meaningful (CIE 15:2018, 9.5) [1]."""
+
+
+def _colour():
+    """Import colour-science without its notices about optional plotting and SciPy features."""
+    with warnings.catch_warnings():
+        warnings.filterwarnings("ignore", message=".*related API features are not available.*")
+        import colour
+    return colour
+
+
+def cmf_quadrature(grid_nm: np.ndarray) -> np.ndarray:
+    """Quadrature matrix (grid, 3) giving CIE 1931 X, Y, Z of a spectrum on ``grid_nm`` [nm].
+
+    The colour-matching functions are interpolated linearly (CIE 15 recommends linear interpolation of
+    1 nm data) and are zero outside 360–830 nm.
+    """
+    cmfs = _colour().MSDS_CMFS["CIE 1931 2 Degree Standard Observer"]
+    wl, values = np.asarray(cmfs.wavelengths, dtype=float), np.asarray(cmfs.values, dtype=float)
+    bands = [(VISIBLE_BAND_NM, (lambda x, col=col: np.interp(x, wl, values[:, col], left=0.0, right=0.0)))
+             for col in range(3)]
+    return quadrature_matrix(grid_nm, bands)
+
+
+def cct_from_xyz(xyz: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+    """Chromaticity, CCT and Duv from tristimulus values (rows of X, Y, Z).
+
+    Parameters
+    ----------
+    xyz : numpy.ndarray
+        Shape (n, 3) [any common scale].
+
+    Returns
+    -------
+    x, y, cct_k, duv : numpy.ndarray
+        CIE 1931 chromaticity [1], CCT [K] and Duv [1]; NaN where Y ≤ 0. CCT is NaN where
+        |Duv| > :data:`CCT_DUV_LIMIT`.
+    """
+    colour = _colour()
+    xyz = np.atleast_2d(np.asarray(xyz, dtype=float))
+    total = xyz.sum(axis=1)
+    ok = (xyz[:, 1] > 0) & (total > 0)
+    safe = np.where(ok[:, None], xyz, [[0.95, 1.0, 1.09]])
+    xy = colour.XYZ_to_xy(safe)
+    uv = colour.xy_to_UCS_uv(xy)
+    cct_duv = colour.temperature.uv_to_CCT(uv, method="Ohno 2013")
+    cct, duv = np.atleast_2d(cct_duv)[:, 0], np.atleast_2d(cct_duv)[:, 1]
+    nan = np.full(len(xyz), np.nan)
+    cct = np.where(ok & (np.abs(duv) <= CCT_DUV_LIMIT), cct, nan)
+    return (np.where(ok, xy[:, 0], nan), np.where(ok, xy[:, 1], nan), cct, np.where(ok, duv, nan))

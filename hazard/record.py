@@ -1,0 +1,164 @@
+"""The product record: one flat set of fields, the same in a TOML file, a CSV row and CLI options.
+
+Field names are a contract other tooling relies on; see README "Record fields".
+"""
+
+from __future__ import annotations
+
+import difflib
+import re
+import tomllib
+from pathlib import Path
+from typing import Literal
+
+from pydantic import BaseModel, ConfigDict, Field, ValidationError, model_validator
+
+from hazard.errors import InputError
+from hazard.units import parse_spectral_unit
+
+__all__ = ["ProductRecord", "load_record", "record_from_fields"]
+
+_DEFAULT_UNIT = {"irradiance": "W/m2/nm", "radiance": "W/m2/sr/nm"}
+
+
+class ProductRecord(BaseModel):
+    """What the user tells about one product: where its spectrum is and how it was measured."""
+
+    model_config = ConfigDict(extra="forbid", frozen=True)
+
+    id: str = Field(min_length=1, description="Product identifier, unique within a batch.")
+    name: str | None = Field(None, description="Human-readable product name.")
+    spectrum: str | None = Field(None, description="Spectrum file, relative to the record file's folder.")
+    quantity: Literal["irradiance", "radiance"] = Field(
+        "irradiance", description="What the spectrum holds: spectral irradiance or spectral radiance.")
+    unit: str | None = Field(None, description="Unit of the spectral values, e.g. W/m2/nm, mW/m2/nm, "
+                                               "uW/cm2/nm, W/m2/sr/nm. Default by quantity.")
+    column: str | int | None = Field(None, description="Value column to use when the file has several "
+                                                       "(header name or 1-based index).")
+    distance_mm: float | None = Field(None, gt=0, description="Distance at which the spectrum was measured "
+                                                              "[mm]; required for irradiance.")
+    source_diameter_mm: float | None = Field(None, gt=0, description="Diameter of a round source [mm].")
+    source_width_mm: float | None = Field(None, gt=0, description="Width of a rectangular source [mm].")
+    source_height_mm: float | None = Field(None, gt=0, description="Height of a rectangular source [mm].")
+    source_alpha_mrad: float | None = Field(None, gt=0, description="Angular subtense of the source at "
+                                                                    "distance_mm [mrad].")
+    lamp_type: Literal["gls", "other"] = Field(
+        "other", description="'gls': general lighting service, assessed where it gives 500 lx (not nearer "
+                             "than 200 mm); 'other': assessed at 200 mm.")
+    no_emission_outside: bool = Field(False, description="The source emits nothing outside the measured "
+                                                         "wavelength range; gaps in a band count as zero.")
+    measurement_fov_mrad: float | None = Field(None, gt=0, description="Field of view of a radiance "
+                                                                       "measurement [mrad].")
+
+    @model_validator(mode="after")
+    def _consistent(self) -> "ProductRecord":
+        rect = (self.source_width_mm, self.source_height_mm)
+        forms = [self.source_diameter_mm is not None, any(v is not None for v in rect),
+                 self.source_alpha_mrad is not None]
+        if sum(forms) == 0:
+            raise ValueError("missing source size: give source_diameter_mm, or source_width_mm and "
+                             "source_height_mm, or source_alpha_mrad")
+        if sum(forms) > 1:
+            raise ValueError("give exactly one source size: source_diameter_mm, or source_width_mm + "
+                             "source_height_mm, or source_alpha_mrad")
+        if any(v is not None for v in rect) and None in rect:
+            raise ValueError("source_width_mm and source_height_mm go together: give both")
+        if self.quantity == "irradiance" and self.distance_mm is None:
+            raise ValueError("distance_mm is required for an irradiance spectrum (the measurement distance)")
+        if self.source_alpha_mrad is not None and self.distance_mm is None:
+            raise ValueError("source_alpha_mrad needs distance_mm, the distance at which it was measured")
+        try:
+            unit = parse_spectral_unit(self.unit_text)
+        except ValueError as exc:
+            raise ValueError(str(exc)) from None
+        if unit.per_steradian != (self.quantity == "radiance"):
+            raise ValueError(f"unit {self.unit_text!r} does not fit quantity {self.quantity!r}: radiance units "
+                             f"have /sr, irradiance units do not")
+        return self
+
+    @property
+    def unit_text(self) -> str:
+        """The unit as given, or the default for the quantity."""
+        return self.unit or _DEFAULT_UNIT[self.quantity]
+
+    @property
+    def largest_dimension_mm(self) -> float | None:
+        """Largest linear dimension of the source [mm], where the record gives it (or α and distance)."""
+        if self.source_diameter_mm is not None:
+            return self.source_diameter_mm
+        if self.source_width_mm is not None:
+            return max(self.source_width_mm, self.source_height_mm)
+        return self.source_alpha_mrad * 1e-3 * self.distance_mm
+
+
+def _line_of(text: str, key: str) -> int | None:
+    match = re.search(rf"^\s*{re.escape(key)}\s*=", text, flags=re.MULTILINE)
+    return None if match is None else text.count("\n", 0, match.start()) + 1
+
+
+def _as_input_error(exc: ValidationError, path: str, text: str | None, option_names: bool) -> InputError:
+    """The first pydantic error as one line naming the field (or option), its line and the fix."""
+    error = exc.errors()[0]
+    key = str(error["loc"][0]) if error["loc"] else None
+    line = _line_of(text, key) if (text and key) else None
+    message = error["msg"].removeprefix("Value error, ")
+    label = f"--{key.replace('_', '-')}" if (option_names and key) else key
+    if error["type"] == "extra_forbidden":
+        close = difflib.get_close_matches(key, ProductRecord.model_fields, n=1)
+        hint = f"did you mean {close[0]!r}?" if close else "see 'hazard schema record' for the fields"
+        return InputError(f"unknown field {key!r}", hint, path, line)
+    if error["type"] == "missing":
+        return InputError(f"required field {label!r} is missing", f"add {label}", path, line)
+    if key:
+        return InputError(f"{label}: {message}", "correct this field (see 'hazard schema record')", path, line)
+    return InputError(message, "correct the record (see 'hazard schema record')", path, line)
+
+
+def record_from_fields(fields: dict, *, path: str, text: str | None = None,
+                       option_names: bool = False) -> ProductRecord:
+    """Validate a dict of record fields (from TOML, a CSV row or CLI options).
+
+    Parameters
+    ----------
+    fields : dict
+        Field name → value.
+    path : str
+        Where the fields came from, for messages.
+    text : str, optional
+        The file's text, to find line numbers.
+    option_names : bool
+        Name fields as CLI options (``--distance-mm``) in messages.
+
+    Raises
+    ------
+    InputError
+    """
+    try:
+        return ProductRecord(**fields)
+    except ValidationError as exc:
+        raise _as_input_error(exc, path, text, option_names) from None
+
+
+def load_record(path: str | Path, overrides: dict | None = None) -> ProductRecord:
+    """Read a TOML product record; ``overrides`` (e.g. CLI options) replace fields.
+
+    Raises
+    ------
+    InputError
+        Unreadable TOML, unknown or invalid fields.
+    """
+    path = Path(path)
+    try:
+        text = path.read_text(encoding="utf-8-sig")
+    except FileNotFoundError:
+        raise InputError("record file not found", "check the path", str(path)) from None
+    except UnicodeDecodeError:
+        raise InputError("record is not UTF-8 text", "save the TOML file as UTF-8", str(path)) from None
+    try:
+        fields = tomllib.loads(text)
+    except tomllib.TOMLDecodeError as exc:
+        match = re.search(r"line (\d+)", str(exc))
+        raise InputError(f"not valid TOML ({exc})", "write one 'field = value' per line; quote text values",
+                         str(path), int(match.group(1)) if match else None) from None
+    fields.update(overrides or {})
+    return record_from_fields(fields, path=str(path), text=text)

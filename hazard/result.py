@@ -1,0 +1,107 @@
+"""The assessment result: frozen pydantic models, the JSON contract of ``hazard assess --format json``.
+
+Reports render these and never compute hazard quantities themselves; a saved JSON file loads back with
+:meth:`Assessment.model_validate_json`.
+"""
+
+from __future__ import annotations
+
+from typing import Literal
+
+from pydantic import BaseModel, ConfigDict, Field
+
+__all__ = ["HazardResult", "Provenance", "Photometry", "Geometry", "Assessment", "RiskGroup"]
+
+RiskGroup = Literal["Exempt", "RG1", "RG2", "RG3"]
+
+
+class _Frozen(BaseModel):
+    model_config = ConfigDict(frozen=True, extra="forbid")
+
+
+class HazardResult(_Frozen):
+    """One hazard quantity at the assessment distance."""
+
+    symbol: str = Field(description="Quantity symbol, e.g. E_S, L_B.")
+    title: str = Field(description="What the hazard is.")
+    band_nm: tuple[float, float] = Field(description="Integration band [nm].")
+    weighting: str | None = Field(description="Weighting function symbol, or null for an unweighted band.")
+    value: float | None = Field(description="Value at the assessment distance; for radiance quantities the "
+                                            "source's own radiance E/Ω_s [unit].")
+    unit: str = Field(description="Unit of value and limits.")
+    t_max_s: float | None = Field(description="Exposure time at which the exposure limit is reached [s]; null "
+                                              "when not reached within the limit's time range.")
+    risk_group: RiskGroup | None = Field(description="Group of this hazard; null when not assessed or when "
+                                                     "the hazard has no risk groups (E_H).")
+    assessed: bool = Field(description="False when the spectrum does not cover the band.")
+    limits: dict[str, float] = Field(description="Group limits as applied (after α bounds) [unit].")
+    compared: dict[str, float] = Field(description="Value compared with each limit: the field-of-view "
+                                                   "average for radiance quantities [unit].")
+    margins: dict[str, float] = Field(description="compared / limit per group boundary [1]; ≤ 1 is within.")
+    fov_rad: dict[str, float] = Field(description="Averaging field of view per group (radiance) [rad].")
+    alpha_rad: dict[str, float] = Field(description="Bounded α used in each group limit (thermal) [rad].")
+    time_bases_s: dict[str, float] = Field(description="Exposure duration behind each group limit [s].")
+    exposure_limit: str | None = Field(description="The exposure limit formula.")
+    note: str = Field(description="Why the hazard was or was not assessed, in a sentence.")
+
+
+class Photometry(_Frozen):
+    """Photometric and colorimetric values."""
+
+    illuminance_lx: float | None = Field(description="Illuminance at the assessment distance [lx].")
+    luminance_cd_m2: float | None = Field(description="Average luminance of the source [cd/m2].")
+    cct_k: float | None = Field(description="Correlated colour temperature (CIE 1931 2°, Ohno 2013) [K].")
+    duv: float | None = Field(description="Distance from the Planckian locus in CIE 1960 uv [1].")
+    chromaticity_xy: tuple[float, float] | None = Field(description="CIE 1931 x, y [1].")
+    covered: bool = Field(description="The spectrum covers V(λ)'s 360–830 nm band (or the record says the "
+                                      "source emits nothing outside it).")
+
+
+class Geometry(_Frozen):
+    """Distances and source geometry."""
+
+    measurement_distance_mm: float | None = Field(description="Distance at which the spectrum was measured "
+                                                              "[mm].")
+    assessment_distance_mm: float = Field(description="Distance at which the hazards are assessed [mm].")
+    distance_rule: str = Field(description="Why this assessment distance.")
+    alpha_rad: float = Field(description="Angular subtense of the source at the assessment distance [rad].")
+    source_solid_angle_sr: float = Field(description="Solid angle of the source at the assessment distance "
+                                                     "[sr].")
+    largest_dimension_mm: float = Field(description="Largest linear dimension of the source [mm].")
+    small_source: bool = Field(description="α below 0.011 rad: blue light assessed as irradiance E_B.")
+    weak_visual_stimulus: bool = Field(description="Luminance below 10 cd/m2: L_IR assessed instead of L_R.")
+
+
+class Provenance(_Frozen):
+    """What produced the result, for traceability."""
+
+    tool_version: str
+    limit_set: str
+    tables: dict[str, dict[str, str]] = Field(description="Table name → source, edition, sha256.")
+    inputs: dict[str, str] = Field(description="Input file (as named in the record) → SHA-256.")
+    method: str = Field(description="Integration and interpolation rule.")
+
+
+class Assessment(_Frozen):
+    """The complete pre-screen of one product."""
+
+    id: str
+    name: str | None
+    risk_group: RiskGroup = Field(description="Highest group over the assessed hazards; a lower bound when "
+                                              "complete is false.")
+    complete: bool = Field(description="Every applicable hazard was assessed.")
+    assessment_distance_mm: float
+    alpha_rad: float
+    illuminance_lx: float | None
+    hazards: dict[str, HazardResult]
+    not_assessed: list[str] = Field(description="Applicable hazards whose band the spectrum does not cover.")
+    deciding_hazards: list[str] = Field(description="Hazards that set the overall group.")
+    geometry: Geometry
+    photometry: Photometry
+    spectrum: dict[str, float | int | str] = Field(description="Summary of the input spectrum.")
+    record: dict = Field(description="The product record as used.")
+    warnings: list[str]
+    assumptions: list[str]
+    cautions: list[str]
+    provenance: Provenance
+    kind: Literal["hazard.assessment"] = "hazard.assessment"

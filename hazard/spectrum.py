@@ -1,0 +1,143 @@
+"""A validated spectrum on its own wavelength grid, in SI units (method §5).
+
+:func:`validate_spectrum` applies every rule of the method to raw numbers read from a file: strictly
+monotonic wavelengths in nm (descending input reversed, duplicates refused), finite values, dark-noise
+negatives down to −1 % of the peak set to zero with a warning, larger negatives refused, µm-looking
+wavelength columns refused with the fix, and the unit converted to W·m⁻²·nm⁻¹ (or ·sr⁻¹).
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from hazard.errors import InputError
+
+__all__ = ["Spectrum", "validate_spectrum", "NEGATIVE_TOLERANCE"]
+
+NEGATIVE_TOLERANCE = 0.01
+"""Negatives down to this fraction of the peak are dark noise (method §5) [1]."""
+
+_UM_LOOKING_MAX_NM = 20.0  # an optical spectrum whose longest wavelength is below 20 "nm" was written in µm
+
+
+@dataclass(frozen=True)
+class Spectrum:
+    """Spectral irradiance or radiance on a strictly increasing grid.
+
+    Attributes
+    ----------
+    wavelength_nm : numpy.ndarray
+        Strictly increasing wavelengths [nm].
+    value : numpy.ndarray
+        Spectral irradiance [W m⁻² nm⁻¹] or radiance [W m⁻² sr⁻¹ nm⁻¹], or a relative spectrum [1].
+    quantity : str
+        ``"irradiance"``, ``"radiance"`` or ``"relative"``.
+    path : str
+        Where it was read from, as the user named it.
+    warnings : tuple of str
+        What validation tolerated and changed.
+    """
+
+    wavelength_nm: np.ndarray
+    value: np.ndarray
+    quantity: str
+    path: str
+    warnings: tuple[str, ...] = field(default=())
+
+    @property
+    def range_nm(self) -> tuple[float, float]:
+        """Shortest and longest wavelength [nm]."""
+        return float(self.wavelength_nm[0]), float(self.wavelength_nm[-1])
+
+    def scaled(self, factor: float, quantity: str) -> "Spectrum":
+        """The same spectrum multiplied by ``factor`` [1] and relabelled as ``quantity``."""
+        return Spectrum(self.wavelength_nm, self.value * factor, quantity, self.path, self.warnings)
+
+
+def validate_spectrum(wavelength_nm: np.ndarray, value: np.ndarray, lines: np.ndarray, path: str,
+                      factor_to_si: float, quantity: str) -> Spectrum:
+    """Apply the validation rules of method §5 and convert to SI.
+
+    Parameters
+    ----------
+    wavelength_nm, value : numpy.ndarray
+        Raw numbers as read [nm], [the file's unit].
+    lines : numpy.ndarray
+        1-based line number in the file of each row, for messages.
+    path : str
+        File name for messages.
+    factor_to_si : float
+        Multiplier from the file's unit to SI [1].
+    quantity : str
+        ``"irradiance"``, ``"radiance"`` or ``"relative"``.
+
+    Returns
+    -------
+    Spectrum
+
+    Raises
+    ------
+    InputError
+        For every breach of the method, naming the file, line and fix.
+
+    Examples
+    --------
+    >>> s = validate_spectrum(np.array([500., 400.]), np.array([2., 1.]), np.array([2, 3]), "x.csv", 1e-3,
+    ...                       "irradiance")
+    >>> s.wavelength_nm.tolist(), s.value.tolist()
+    ([400.0, 500.0], [0.001, 0.002])
+    """
+    wl = np.asarray(wavelength_nm, dtype=float)
+    val = np.asarray(value, dtype=float)
+    warnings: list[str] = []
+    if wl.size == 0:
+        raise InputError("no data rows", "give two columns: wavelength in nm, spectral value", path)
+    if wl.size == 1:
+        raise InputError("only one data row", "a spectrum needs at least two wavelengths", path, int(lines[0]))
+    for column, name in ((wl, "wavelength"), (val, "value")):
+        bad = np.flatnonzero(~np.isfinite(column))
+        if bad.size:
+            raise InputError(f"{name} is not a finite number (NaN or infinity)",
+                             "replace it with a measured value or remove the row", path, int(lines[bad[0]]))
+    if wl.max() < _UM_LOOKING_MAX_NM:
+        raise InputError(f"wavelengths run from {wl.min():g} to {wl.max():g}: this looks like µm, not nm",
+                         "multiply the wavelength column by 1000 so it is in nm", path, int(lines[0]))
+    nonpositive = np.flatnonzero(wl <= 0)
+    if nonpositive.size:
+        raise InputError(f"wavelength {wl[nonpositive[0]]:g} nm is not positive",
+                         "wavelengths are in nm and must be above zero", path, int(lines[nonpositive[0]]))
+    steps = np.diff(wl)
+    if np.all(steps < 0):
+        wl, val, lines = wl[::-1], val[::-1], lines[::-1]
+        steps = -steps[::-1]
+        warnings.append(f"{path}: wavelengths were in descending order and have been reversed")
+    duplicate = np.flatnonzero(steps == 0)
+    if duplicate.size:
+        i = duplicate[0]
+        raise InputError(f"duplicate wavelength {wl[i]:g} nm (also on line {int(lines[i])})",
+                         "remove or average one of the two rows", path, int(lines[i + 1]))
+    backwards = np.flatnonzero(steps < 0)
+    if backwards.size:
+        i = backwards[0] + 1
+        raise InputError(f"wavelength {wl[i]:g} nm breaks the order (previous row {wl[i - 1]:g} nm)",
+                         "sort the rows by wavelength", path, int(lines[i]))
+    peak = float(val.max())
+    if peak <= 0:
+        raise InputError("no positive value in the spectrum", "check the value column and its unit", path)
+    lowest = int(np.argmin(val))
+    if val[lowest] < -NEGATIVE_TOLERANCE * peak:
+        raise InputError(f"value {val[lowest]:g} at {wl[lowest]:g} nm is negative beyond dark noise "
+                         f"(more than {NEGATIVE_TOLERANCE:.0%} of the peak {peak:g})",
+                         "subtract the dark reading correctly or re-measure", path, int(lines[lowest]))
+    negatives = val < 0
+    if negatives.any():
+        warnings.append(f"{path}: {int(negatives.sum())} small negative value(s) (down to {val[lowest]:g}, "
+                        f"within {NEGATIVE_TOLERANCE:.0%} of the peak) set to zero as dark noise")
+        val = np.where(negatives, 0.0, val)
+    wl = wl.copy()
+    si = val * factor_to_si
+    wl.flags.writeable = False
+    si.flags.writeable = False
+    return Spectrum(wl, si, quantity, path, tuple(warnings))

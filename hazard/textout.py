@@ -1,0 +1,63 @@
+"""The terminal view of an assessment: a compact table a safety engineer reads at a glance."""
+
+from __future__ import annotations
+
+from hazard.formatting import UNIT_DISPLAY, format_duration_s, format_limit, format_margin, format_value
+from hazard.result import Assessment
+
+__all__ = ["render_text"]
+
+_COLUMNS = ("Hazard", "Quantity", "Value", "Unit", "Exempt", "RG1", "RG2", "t_max", "Group", "Margin")
+
+
+def _rows(assessment: Assessment) -> list[tuple[str, ...]]:
+    rows = []
+    for symbol, h in assessment.hazards.items():
+        limits = [format_limit(h.limits.get(g)) for g in ("Exempt", "RG1", "RG2")]
+        rows.append((symbol, h.title, format_value(h.value) if h.assessed else "not assessed",
+                     UNIT_DISPLAY.get(h.unit, h.unit), *limits, format_duration_s(h.t_max_s),
+                     h.risk_group or ("EL only" if h.assessed else "—"), format_margin(h.risk_group, h.margins)))
+    return rows
+
+
+def _table(rows: list[tuple[str, ...]]) -> list[str]:
+    widths = [max(len(r[i]) for r in [_COLUMNS, *rows]) for i in range(len(_COLUMNS))]
+    line = lambda r: "  ".join(c.ljust(w) for c, w in zip(r, widths)).rstrip()  # noqa: E731
+    return [line(_COLUMNS), line(tuple("-" * w for w in widths)), *(line(r) for r in rows)]
+
+
+def render_text(assessment: Assessment) -> str:
+    """The assessment as plain text for a terminal.
+
+    Parameters
+    ----------
+    assessment : Assessment
+
+    Returns
+    -------
+    str
+    """
+    a, g, p = assessment, assessment.geometry, assessment.photometry
+    status = "complete" if a.complete else f"INCOMPLETE, lower bound: not assessed {', '.join(a.not_assessed)}"
+    decided = f"; set by {', '.join(a.deciding_hazards)}" if a.risk_group != "Exempt" else ""
+    title = f"{a.id}  {a.name}" if a.name else a.id
+    photometric = [f"{format_value(p.illuminance_lx)} lx"]
+    if p.cct_k is not None:
+        photometric.append(f"CCT {p.cct_k:.0f} K")
+    lines = [
+        title,
+        f"Overall risk group: {a.risk_group}  ({status}{decided})",
+        f"Assessed at {a.assessment_distance_mm:.0f} mm ({g.distance_rule})",
+        f"Source: α = {g.alpha_rad * 1e3:.3g} mrad, {g.largest_dimension_mm:g} mm"
+        f"{', small source (E_B)' if g.small_source else ''}"
+        f"{', weak visual stimulus (L_IR)' if g.weak_visual_stimulus else ''};  " + ", ".join(photometric),
+        "",
+        *_table(_rows(a)),
+        "Limits are those applied at each group boundary (thermal: after α bounds); margin is value/limit at "
+        "the group's upper boundary.",
+    ]
+    for heading, items in (("Warnings", a.warnings), ("Assumptions", a.assumptions)):
+        if items:
+            lines += ["", f"{heading}:"] + [f"  - {item}" for item in items]
+    lines += ["", f"Caution: {a.cautions[0]}"] + [f"         {c}" for c in a.cautions[1:]]
+    return "\n".join(lines) + "\n"
