@@ -28,6 +28,8 @@ AVOGADRO_PER_MOL = 6.02214076e23
 FWHM_PER_SIGMA = 2.0 * math.sqrt(2.0 * math.log(2.0))
 OUT_DIR = Path(__file__).resolve().parent / "lineup"
 COMPANY = "Corvel Lightworks"
+FLOOR = 1e-12
+"""Relative level below which a spectral value is written as zero [1]."""
 NOTICE = "Invented demo data: Corvel Lightworks (a made-up company). Not a real product or measurement."
 
 
@@ -143,15 +145,15 @@ def desk_lamp(irradiance_w_m2: float = 2.1, distance_mm: float = 500.0) -> Produ
                    scaled_to(wl, shape, 380.0, 780.0, irradiance_w_m2))
 
 
-def cool_spotlight(irradiance_w_m2: float = 27.0, distance_mm: float = 1000.0) -> Product:
+def cool_spotlight(irradiance_w_m2: float = 23.0, distance_mm: float = 1000.0) -> Product:
     """Cool-white chip-on-board LED spotlight, Corvel Beamline 65.
 
     Physical model: phosphor-converted white LED. Blue pump Gaussian 450 nm, FWHM 20 nm, 25 % of the
     radiant power; garnet phosphor Gaussian 550 nm, FWHM 110 nm, 59 %; nitride red phosphor Gaussian
     625 nm, FWHM 90 nm, 16 %. This gives a correlated colour temperature near 6500 K. A 19 mm COB
     (about 2000 lm) in a 60 mm faceted reflector, 24 degree beam; seen from the beam the reflector
-    aperture appears fully lit at the COB's luminance (about 3e6 cd/m2).
-    Level: irradiance_w_m2 [W/m2] over 380-780 nm on the beam axis at distance_mm [mm], about 8500 lx.
+    aperture appears fully lit at the COB's luminance (about 2.7e6 cd/m2).
+    Level: irradiance_w_m2 [W/m2] over 380-780 nm on the beam axis at distance_mm [mm], about 7400 lx.
     Grid 380-780 nm, 1 nm step; no emission outside it.
     """
     wl = grid(380.0, 780.0, 1.0)
@@ -161,7 +163,7 @@ def cool_spotlight(irradiance_w_m2: float = 27.0, distance_mm: float = 1000.0) -
                    scaled_to(wl, shape, 380.0, 780.0, irradiance_w_m2))
 
 
-def uva_curing_lamp(peak_nm: float = 365.0, fwhm_nm: float = 10.0, irradiance_w_m2: float = 110.0,
+def uva_curing_lamp(peak_nm: float = 365.0, fwhm_nm: float = 10.0, irradiance_w_m2: float = 90.0,
                     distance_mm: float = 300.0) -> Product:
     """365 nm UV-A LED curing lamp, Corvel Setfast 365 (adhesive and coating curing).
 
@@ -200,14 +202,14 @@ def germicidal_lamp(line_irradiance_w_m2: float = 0.36, slit_fwhm_nm: float = 1.
                    "other", wl, spectrum)
 
 
-def far_uvc_lamp(irradiance_w_m2: float = 0.028, distance_mm: float = 500.0) -> Product:
+def far_uvc_lamp(irradiance_w_m2: float = 0.02, distance_mm: float = 500.0) -> Product:
     """222 nm far-UV-C KrCl excimer lamp, Corvel Farline 222 (filtered, for occupied-room air treatment).
 
     Physical model: KrCl* B-X emission as a Gaussian at 222 nm, FWHM 4 nm. What the short-pass filter
     lets through of the longer-wavelength emission is modelled as two weak side bands: a Gaussian at
     235 nm, FWHM 10 nm, with 1 % of the main peak height, and a Gaussian at 255 nm, FWHM 12 nm, with
-    0.5 % of the main peak height. Emitting window 60 mm x 40 mm.
-    Level: irradiance_w_m2 [W/m2] over 200-400 nm at distance_mm [mm] (2.8 uW/cm2).
+    0.5 % of the main peak height. Emitting window 60 mm x 40 mm, about 16 mW of far-UV-C.
+    Level: irradiance_w_m2 [W/m2] over 200-400 nm at distance_mm [mm] (2 uW/cm2).
     Grid 200-400 nm, 0.5 nm step; no emission outside it.
     """
     wl = grid(200.0, 400.0, 0.5)
@@ -237,23 +239,25 @@ def ir_illuminator(peak_nm: float = 940.0, fwhm_nm: float = 40.0, irradiance_w_m
                    scaled_to(wl, gaussian(wl, peak_nm, fwhm_nm), 700.0, 1200.0, irradiance_w_m2))
 
 
-def radiant_heater(temperature_k: float = 2900.0, emissivity: float = 0.35, envelope_transmittance: float = 0.92,
-                   uv_edge_nm: float = 340.0, uv_edge_width_nm: float = 8.0, filament_width_mm: float = 1.6,
+def radiant_heater(temperature_k: float = 2900.0, emissivity: float = 0.35,
+                   envelope_transmittance: float = 0.92, uv_edge_nm: float = 370.0,
+                   uv_edge_width_nm: float = 8.0, filament_width_mm: float = 1.6,
                    filament_length_mm: float = 250.0, reflector_gain: float = 2.0,
                    distance_mm: float = 1250.0) -> Product:
     """Halogen radiant heater, Corvel Calora 2000 (2 kW quartz tungsten-halogen tube with reflector).
 
-    Physical model: grey-body tungsten coil, spectral radiance emissivity · Planck(temperature_k), with
+    Physical model: grey-body tungsten coil, spectral radiance emissivity x Planck(temperature_k), with
     temperature_k [K] and emissivity [1] constant over wavelength; Planck's law with the exact SI values
-    h = 6.62607015e-34 J s, c = 299792458 m/s, k = 1.380649e-23 J/K. The doped-quartz envelope transmits
-    envelope_transmittance [1] above a UV cut-on modelled as a logistic edge at uv_edge_nm [nm] of width
-    uv_edge_width_nm [nm]. The coil's projected area is filament_width_mm x filament_length_mm [mm]; the
-    reflector adds images of it, raising the on-axis intensity by reflector_gain [1]. Irradiance at
-    distance_mm [mm] = radiance x projected area x gain / distance². The coil radiates about
-    emissivity·sigma·T^4·pi·width·length = 1.8 kW. distance_mm is five coil lengths, so the far-field law
-    holds; scaling nearer overstates the irradiance of a line source (conservative).
-    Grid 300-3000 nm, 1 nm step. Nothing is emitted below 300 nm (envelope); emission beyond 3000 nm lies
-    outside every hazard band.
+    h = 6.62607015e-34 J s, c = 299792458 m/s, k = 1.380649e-23 J/K. The UV-blocking doped-quartz
+    envelope transmits envelope_transmittance [1] above a UV cut-on modelled as a logistic edge at
+    uv_edge_nm [nm] of width uv_edge_width_nm [nm]. The coil's projected area is filament_width_mm x
+    filament_length_mm [mm]; the reflector adds images of it, raising the on-axis intensity by
+    reflector_gain [1]. Irradiance at distance_mm [mm] = radiance x projected area x gain / distance^2.
+    The coil radiates about emissivity x sigma x T^4 x pi x width x length = 1.8 kW. distance_mm is five
+    coil lengths, so the far-field law holds; scaling nearer overstates a line source's irradiance
+    (conservative).
+    Grid 300-3000 nm, 1 nm step. Below 300 nm the envelope leaves a negligible tail, taken as zero;
+    emission beyond 3000 nm lies outside every hazard band.
     """
     wl = grid(300.0, 3000.0, 1.0)
     transmittance = envelope_transmittance / (1.0 + np.exp(-(wl - uv_edge_nm) / uv_edge_width_nm))
@@ -295,7 +299,7 @@ def indicator_led(peak_nm: float = 470.0, fwhm_nm: float = 25.0, irradiance_w_m2
     """
     wl = grid(380.0, 600.0, 1.0)
     return Product("CL-PIP-470", "Corvel Pip 470 blue indicator LED", distance_mm,
-                   {"source_alpha_mrad": 20.0}, "lit die, 2 mm, seen at distance_mm", "other", wl,
+                   {"source_alpha_mrad": 20.0}, "lit die, 2 mm (20 mrad at 100 mm)", "other", wl,
                    scaled_to(wl, gaussian(wl, peak_nm, fwhm_nm), 380.0, 600.0, irradiance_w_m2))
 
 
@@ -312,13 +316,18 @@ def parameters_text(model: Callable[..., Product]) -> str:
 
 
 def write_csv(product: Product, model: Callable[..., Product], folder: Path) -> Path:
-    """Write the spectrum CSV with its ``#`` header: notice, product, model, parameters, distance, unit."""
+    """Write the spectrum CSV with its ``#`` header: notice, product, model, parameters, distance, unit.
+
+    Values below :data:`FLOOR` times the peak are written as 0 (Gaussian tails far below any instrument's
+    dynamic range).
+    """
     header = [NOTICE, f"Company: {COMPANY} (fictional). Product: {product.id}, {product.name}."]
     header += [line for line in inspect.getdoc(model).splitlines() if line.strip()]
     header += [f"Parameters: {parameters_text(model)}",
                f"Measurement distance: {product.distance_mm:g} mm",
                "Quantity: spectral irradiance, unit W/m2/nm"]
-    rows = [f"{w:.1f},{max(v, 0.0):.6g}" for w, v in zip(product.wavelength_nm, product.irradiance)]
+    values = np.where(product.irradiance >= FLOOR * product.irradiance.max(), product.irradiance, 0.0)
+    rows = [f"{w:.1f},{v:.6g}" for w, v in zip(product.wavelength_nm, values)]
     path = folder / f"{product.stem}.csv"
     path.write_text("".join(f"# {line}\n" for line in header) + "wavelength_nm,irradiance_W_m2_nm\n"
                     + "\n".join(rows) + "\n", encoding="utf-8")
@@ -330,6 +339,8 @@ def write_record(product: Product, folder: Path) -> Path:
     size = "\n".join(f"{key} = {value:.1f}" for key, value in product.size.items())
     text = (f"# {NOTICE}\n"
             f"# Vendor: {COMPANY} (fictional). Source size: {product.size_note}.\n"
+            f"# Spectrum {product.wavelength_nm[0]:g}-{product.wavelength_nm[-1]:g} nm; the model emits "
+            "nothing else inside the 200-3000 nm hazard bands.\n"
             f'id = "{product.id}"\n'
             f'name = "{product.name}"\n'
             f'spectrum = "{product.stem}.csv"\n'

@@ -14,7 +14,7 @@ import numpy as np
 
 from hazard.weighting import quadrature_matrix
 
-__all__ = ["K_M_LM_PER_W", "VISIBLE_BAND_NM", "CCT_DUV_LIMIT", "cmf_quadrature", "cct_from_xyz"]
+__all__ = ["import_colour", "K_M_LM_PER_W", "VISIBLE_BAND_NM", "CCT_DUV_LIMIT", "cmf_quadrature", "cct_from_xyz"]
 
 K_M_LM_PER_W = 683.0
 """Maximum luminous efficacy for photopic vision (CIE S 010:2004) [lm W⁻¹]."""
@@ -24,7 +24,11 @@ CCT_DUV_LIMIT = 0.05
 """Beyond this distance from the Planckian locus a CCT is not meaningful (CIE 15:2018, 9.5) [1]."""
 
 
-def _colour():
+CCT_RANGE_K = (1000.0, 100000.0)
+"""Range of the Planckian table of colour-science's Ohno (2013) method (its defaults) [K]."""
+
+
+def import_colour():
     """Import colour-science without its notices about optional plotting and SciPy features."""
     with warnings.catch_warnings():
         warnings.filterwarnings("ignore", message=".*related API features are not available.*")
@@ -38,7 +42,7 @@ def cmf_quadrature(grid_nm: np.ndarray) -> np.ndarray:
     The colour-matching functions are interpolated linearly (CIE 15 recommends linear interpolation of
     1 nm data) and are zero outside 360–830 nm.
     """
-    cmfs = _colour().MSDS_CMFS["CIE 1931 2 Degree Standard Observer"]
+    cmfs = import_colour().MSDS_CMFS["CIE 1931 2 Degree Standard Observer"]
     wl, values = np.asarray(cmfs.wavelengths, dtype=float), np.asarray(cmfs.values, dtype=float)
     bands = [(VISIBLE_BAND_NM, (lambda x, col=col: np.interp(x, wl, values[:, col], left=0.0, right=0.0)))
              for col in range(3)]
@@ -57,17 +61,20 @@ def cct_from_xyz(xyz: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray, n
     -------
     x, y, cct_k, duv : numpy.ndarray
         CIE 1931 chromaticity [1], CCT [K] and Duv [1]; NaN where Y ≤ 0. CCT is NaN where
-        |Duv| > :data:`CCT_DUV_LIMIT`.
+        |Duv| > :data:`CCT_DUV_LIMIT` or outside :data:`CCT_RANGE_K`.
     """
-    colour = _colour()
+    colour = import_colour()
     xyz = np.atleast_2d(np.asarray(xyz, dtype=float))
     total = xyz.sum(axis=1)
     ok = (xyz[:, 1] > 0) & (total > 0)
     safe = np.where(ok[:, None], xyz, [[0.95, 1.0, 1.09]])
     xy = colour.XYZ_to_xy(safe)
     uv = colour.xy_to_UCS_uv(xy)
-    cct_duv = colour.temperature.uv_to_CCT(uv, method="Ohno 2013")
+    with warnings.catch_warnings():  # far off the locus: flagged below by the Duv and range tests instead
+        warnings.filterwarnings("ignore", message=".*planckian table bound.*")
+        cct_duv = colour.temperature.uv_to_CCT(uv, method="Ohno 2013")
     cct, duv = np.atleast_2d(cct_duv)[:, 0], np.atleast_2d(cct_duv)[:, 1]
     nan = np.full(len(xyz), np.nan)
-    cct = np.where(ok & (np.abs(duv) <= CCT_DUV_LIMIT), cct, nan)
+    in_range = (cct > CCT_RANGE_K[0]) & (cct < CCT_RANGE_K[1])
+    cct = np.where(ok & (np.abs(duv) <= CCT_DUV_LIMIT) & in_range, cct, nan)
     return (np.where(ok, xy[:, 0], nan), np.where(ok, xy[:, 1], nan), cct, np.where(ok, duv, nan))

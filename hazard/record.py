@@ -28,6 +28,8 @@ class ProductRecord(BaseModel):
 
     id: str = Field(min_length=1, description="Product identifier, unique within a batch.")
     name: str | None = Field(None, description="Human-readable product name.")
+    vendor: str | None = Field(None, description="Who makes or sells the product.")
+    model: str | None = Field(None, description="The vendor's model designation.")
     spectrum: str | None = Field(None, description="Spectrum file, relative to the record file's folder.")
     quantity: Literal["irradiance", "radiance"] = Field(
         "irradiance", description="What the spectrum holds: spectral irradiance or spectral radiance.")

@@ -1,0 +1,21 @@
+"""hazard: photobiological safety pre-screen of lamps and lamp systems (IEC 62471 / CIE S 009 method).
+
+A pre-screen, not a certification. Public API:
+
+- :func:`assess` — one product (TOML record, spectrum file + fields, or a record) → :class:`Assessment`
+- :func:`load_product` — read and validate a record and its spectrum
+- :class:`ProductRecord`, :class:`Assessment`, :class:`HazardResult` — the record and result models
+- :class:`InputError` — bad input, with file, line and fix
+- :data:`IEC_62471_2006` — the default limit set (hazard registry)
+"""
+
+from hazard._version import __version__
+from hazard.engine import assess
+from hazard.errors import InputError
+from hazard.hazards import IEC_62471_2006
+from hazard.inputs import load_product
+from hazard.record import ProductRecord
+from hazard.result import Assessment, HazardResult
+
+__all__ = ["__version__", "assess", "load_product", "ProductRecord", "Assessment", "HazardResult",
+           "InputError", "IEC_62471_2006"]

@@ -1,0 +1,35 @@
+"""Shared test helpers."""
+
+import pytest
+
+from hazard.photometry import import_colour
+
+
+@pytest.fixture(scope="session")
+def colour():
+    """colour-science (the reference library), imported without its notices about optional plotting and
+    SciPy features, which say nothing about the values tested."""
+    return import_colour()
+
+
+def write_spectrum(path, wavelength_nm, values, header="wavelength_nm,value"):
+    """Write a two-column CSV spectrum and return its path."""
+    lines = [header] + [f"{w!r},{v!r}" for w, v in zip(map(float, wavelength_nm), map(float, values))]
+    path.write_text("\n".join(lines) + "\n", encoding="utf-8")
+    return path
+
+
+def assess_arrays(folder, wavelength_nm, values, name="spectrum", **fields):
+    """Assess an in-memory spectrum: written to ``folder/name.csv`` and assessed with ``fields``."""
+    import hazard
+
+    path = write_spectrum(folder / f"{name}.csv", wavelength_nm, values)
+    defaults = {"distance_mm": 200.0, "source_diameter_mm": 5.0}
+    return hazard.assess(path, {**defaults, **fields})
+
+
+def triangle_line(grid_nm, centre_nm, peak, half_width_nm=1.0):
+    """A triangular line of the given peak and half-width at the base: area = peak × half-width."""
+    import numpy as np
+
+    return peak * np.clip(1 - np.abs(np.asarray(grid_nm) - centre_nm) / half_width_nm, 0, None)
