@@ -15,6 +15,7 @@ from pathlib import Path
 import click
 
 from hazard._version import __version__
+from hazard.atomic import write_atomic
 
 EXIT_OK, EXIT_INTERNAL, EXIT_INPUT = 0, 1, 2
 
@@ -51,22 +52,6 @@ def _overrides(options: dict) -> dict:
     return {k: v for k, v in fields.items() if v is not None}
 
 
-def write_atomic(path: Path, data: bytes) -> None:
-    """Write ``data`` to ``path`` through a temporary file in the same folder, then rename."""
-    import os
-    import tempfile
-
-    path.parent.mkdir(parents=True, exist_ok=True)
-    handle, temp = tempfile.mkstemp(prefix=f".{path.name}.", dir=path.parent)
-    try:
-        with os.fdopen(handle, "wb") as out:
-            out.write(data)
-        os.replace(temp, path)
-    except BaseException:
-        Path(temp).unlink(missing_ok=True)
-        raise
-
-
 class _Group(click.Group):
     """Turns input errors into one line and exit 2, anything else into exit 1."""
 
@@ -80,6 +65,11 @@ class _Group(click.Group):
             ctx.exit(EXIT_INPUT)
         except (click.exceptions.Exit, click.exceptions.Abort, click.ClickException):
             raise
+        except BrokenPipeError:  # output piped into e.g. `head`, which stopped reading
+            import os
+
+            os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
+            ctx.exit(EXIT_OK)
         except Exception as exc:  # noqa: BLE001 - the last line of defence, reported as internal
             if ctx.obj and ctx.obj.get("debug"):
                 traceback.print_exc()

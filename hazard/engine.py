@@ -18,7 +18,7 @@ from hazard.hazards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
 from hazard.inputs import LoadedProduct, load_product, product_from_record
 from hazard.photometry import VISIBLE_BAND_NM, cct_from_xyz, cmf_quadrature
 from hazard.record import ProductRecord
-from hazard.result import Assessment, Geometry, HazardResult, Photometry, Provenance
+from hazard.result import Assessment, Geometry, HazardResult, Photometry, Provenance, SpectrumSummary
 from hazard.weighting import coarse_steps_in, quadrature_matrix
 from weighting_tables import TABLE_NAMES, load_table
 
@@ -218,6 +218,29 @@ def _assumptions(loaded: LoadedProduct, ev: Evaluation, i: int) -> list[str]:
     return assumptions
 
 
+PREVIEW_BINS = 240
+"""Bins of the chart preview kept in the result, so reports render from saved JSON."""
+
+
+def _spectrum_summary(loaded: LoadedProduct) -> SpectrumSummary:
+    """Summary and a max-per-bin preview (keeps narrow lines visible) of the input spectrum."""
+    spectrum = loaded.spectrum
+    wl, value = spectrum.wavelength_nm, spectrum.value
+    edges = np.linspace(wl[0], wl[-1], PREVIEW_BINS + 1)
+    index = np.clip(np.searchsorted(edges, wl, side="right") - 1, 0, PREVIEW_BINS - 1)
+    binned = np.full(PREVIEW_BINS, -np.inf)
+    np.maximum.at(binned, index, value)
+    filled = np.isfinite(binned)
+    centres = (edges[:-1] + edges[1:]) / 2
+    peak = int(np.argmax(value))
+    return SpectrumSummary(
+        path=spectrum.path, quantity=spectrum.quantity, unit_given=loaded.record.unit_text,
+        points=int(wl.size), min_nm=float(wl[0]), max_nm=float(wl[-1]), peak_nm=float(wl[peak]),
+        peak_value_si=float(value[peak]),
+        preview_nm=[round(float(c), 2) for c in centres[filled]],
+        preview_value_si=[float(f"{v:.4g}") for v in binned[filled]])
+
+
 def _distance_rule(record: ProductRecord, d_a_mm: float) -> str:
     if record.lamp_type != "gls":
         return "200 mm: the standard's distance for lamps other than general lighting service"
@@ -240,7 +263,6 @@ def build_assessment(loaded: LoadedProduct, ev: Evaluation, i: int, covered: np.
     d_a_mm = float(ev.assessment_distance_m[i]) * 1e3
     tables = {name: {"symbol": t.symbol, "source": t.metadata["source"], "edition": t.metadata["edition"],
                      "sha256": t.sha256} for name in TABLE_NAMES for t in [load_table(name)]}
-    peak = int(np.argmax(spectrum.value))
     return Assessment(
         id=record.id, name=record.name, risk_group=overall, complete=bool(ev.complete[i]),
         assessment_distance_mm=d_a_mm, alpha_rad=float(ev.alpha_rad[i]),
@@ -254,10 +276,7 @@ def build_assessment(loaded: LoadedProduct, ev: Evaluation, i: int, covered: np.
             largest_dimension_mm=float(record.largest_dimension_mm), small_source=bool(ev.small_source[i]),
             weak_visual_stimulus=bool(ev.weak_visual_stimulus[i])),
         photometry=_photometry(loaded, ev, i, v_covered),
-        spectrum={"path": spectrum.path, "quantity": spectrum.quantity, "unit_given": record.unit_text,
-                  "points": int(spectrum.wavelength_nm.size), "min_nm": spectrum.range_nm[0],
-                  "max_nm": spectrum.range_nm[1], "peak_nm": float(spectrum.wavelength_nm[peak]),
-                  "peak_value_si": float(spectrum.value[peak])},
+        spectrum=_spectrum_summary(loaded),
         record=record.model_dump(exclude_none=True), warnings=_warnings(loaded, ev, i, v_covered),
         assumptions=_assumptions(loaded, ev, i),
         cautions=select_cautions(groups, bool(ev.complete[i]), uvc_fraction),

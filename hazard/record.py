@@ -47,8 +47,9 @@ class ProductRecord(BaseModel):
     lamp_type: Literal["gls", "other"] = Field(
         "other", description="'gls': general lighting service, assessed where it gives 500 lx (not nearer "
                              "than 200 mm); 'other': assessed at 200 mm.")
-    no_emission_outside: bool = Field(False, description="The source emits nothing outside the measured "
-                                                         "wavelength range; gaps in a band count as zero.")
+    no_emission_outside: bool = Field(False, description="Within the hazard bands (200-3000 nm) the source "
+                                                         "emits nothing outside the measured range; gaps in "
+                                                         "a band count as zero.")
     measurement_fov_mrad: float | None = Field(None, gt=0, description="Field of view of a radiance "
                                                                        "measurement [mrad].")
 

@@ -10,7 +10,7 @@ from typing import Literal
 
 from pydantic import BaseModel, ConfigDict, Field
 
-__all__ = ["HazardResult", "Provenance", "Photometry", "Geometry", "Assessment", "RiskGroup"]
+__all__ = ["HazardResult", "SpectrumSummary", "Provenance", "Photometry", "Geometry", "Assessment", "RiskGroup"]
 
 RiskGroup = Literal["Exempt", "RG1", "RG2", "RG3"]
 
@@ -72,6 +72,22 @@ class Geometry(_Frozen):
     weak_visual_stimulus: bool = Field(description="Luminance below 10 cd/m2: L_IR assessed instead of L_R.")
 
 
+class SpectrumSummary(_Frozen):
+    """The input spectrum in brief, with a preview for charts (not for computation)."""
+
+    path: str = Field(description="Spectrum file as named in the record.")
+    quantity: str = Field(description="irradiance or radiance.")
+    unit_given: str = Field(description="Unit of the file's values.")
+    points: int = Field(description="Number of samples.")
+    min_nm: float
+    max_nm: float
+    peak_nm: float = Field(description="Wavelength of the highest sample [nm].")
+    peak_value_si: float = Field(description="Highest sample [W/m2/nm or W/m2/sr/nm].")
+    preview_nm: list[float] = Field(description="Bin centres of the chart preview [nm].")
+    preview_value_si: list[float] = Field(description="Highest sample in each preview bin, 4 significant "
+                                                      "digits, for charts only [SI].")
+
+
 class Provenance(_Frozen):
     """What produced the result, for traceability."""
 
@@ -98,7 +114,7 @@ class Assessment(_Frozen):
     deciding_hazards: list[str] = Field(description="Hazards that set the overall group.")
     geometry: Geometry
     photometry: Photometry
-    spectrum: dict[str, float | int | str] = Field(description="Summary of the input spectrum.")
+    spectrum: SpectrumSummary
     record: dict = Field(description="The product record as used.")
     warnings: list[str]
     assumptions: list[str]

@@ -1,0 +1,1 @@
+"""PDF rendering of assessment results. Reads results; never computes a hazard quantity."""
