@@ -6,6 +6,7 @@ grid (:mod:`hazard.weighting`) → values, limits and groups (:mod:`hazard.evalu
 
 from __future__ import annotations
 
+from dataclasses import dataclass
 from pathlib import Path
 
 import numpy as np
@@ -16,13 +17,14 @@ from hazard.evaluate import Evaluation, ProductArrays, evaluate, integral_specs
 from hazard.geometry import FIVE_TIMES_RULE, SourceShape
 from hazard.hazards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
 from hazard.inputs import LoadedProduct, load_product, product_from_record
-from hazard.photometry import VISIBLE_BAND_NM, cct_from_xyz, cmf_quadrature
+from hazard.integrals import Integrated, integrate_spectra
+from hazard.photometry import VISIBLE_BAND_NM, cct_from_xyz
 from hazard.record import ProductRecord
 from hazard.result import Assessment, Geometry, HazardResult, Photometry, Provenance, SpectrumSummary
-from hazard.weighting import coarse_steps_in, quadrature_matrix
+from hazard.weighting import coarse_steps_in
 from weighting_tables import TABLE_NAMES, load_table
 
-__all__ = ["assess", "METHOD_TEXT", "STEEP_REGIONS_NM", "MAX_STEEP_STEP_NM"]
+__all__ = ["assess", "evaluate_loaded", "evaluate_products", "build_assessment", "BatchEvaluation", "METHOD_TEXT", "STEEP_REGIONS_NM", "MAX_STEEP_STEP_NM"]
 
 METHOD_TEXT = ("Trapezoid rule on the spectrum's own grid, band ends inserted by linear interpolation of the "
                "spectrum; weights interpolated onto the grid (S_UV, B, R log-linear; V linear), zero outside "
@@ -36,38 +38,6 @@ PLAUSIBLE_PEAK_IRRADIANCE = (1e-9, 1e4)
 """Peak spectral irradiance outside this range suggests a unit slip by 10³ or 10⁴ (common practice, no
 published source) [W m⁻² nm⁻¹]."""
 _GROUP_KEYS = GROUPS[:3]
-
-
-def _weight_function(table: str | None):
-    return None if table is None else load_table(table).at
-
-
-def raw_integrals(grid_nm: np.ndarray, values: np.ndarray, limit_set: LimitSet) -> np.ndarray:
-    """Weighted integrals of spectra on one grid, in the order of :func:`integral_specs`.
-
-    Parameters
-    ----------
-    grid_nm : numpy.ndarray
-        (m,) wavelengths [nm].
-    values : numpy.ndarray
-        (m,) or (n, m) spectral values [W m⁻² nm⁻¹ or W m⁻² sr⁻¹ nm⁻¹].
-
-    Returns
-    -------
-    numpy.ndarray
-        (k,) or (n, k) integrals [W m⁻² or W m⁻² sr⁻¹].
-    """
-    specs = integral_specs(limit_set)
-    matrix = quadrature_matrix(grid_nm, [(s.band_nm, _weight_function(s.table)) for s in specs])
-    return values @ matrix
-
-
-def coverage(range_nm: tuple[float, float], no_emission_outside: bool, limit_set: LimitSet) -> np.ndarray:
-    """Which integrals the spectrum can be trusted for: it spans the band, or the record rules out emission
-    outside the measured range (method §5)."""
-    lo, hi = range_nm
-    return np.array([no_emission_outside or (lo <= s.band_nm[0] and hi >= s.band_nm[1])
-                     for s in integral_specs(limit_set)])
 
 
 def source_shape(records: list[ProductRecord]) -> SourceShape:
@@ -143,15 +113,11 @@ def _hazard_results(ev: Evaluation, i: int, spectrum_range: tuple[float, float])
     return results
 
 
-def _photometry(loaded: LoadedProduct, ev: Evaluation, i: int, covered: bool) -> Photometry:
-    illuminance = float(ev.illuminance_lx[i])
-    x = y = cct = duv = np.nan
-    if illuminance > 0 and covered:
-        spectrum = loaded.spectrum
-        xyz = spectrum.value @ cmf_quadrature(spectrum.wavelength_nm)
-        x, y, cct, duv = (float(v[0]) for v in cct_from_xyz(xyz[None, :]))
-    return Photometry(illuminance_lx=illuminance, luminance_cd_m2=float(ev.luminance_cd_m2[i]),
-                      cct_k=_float(cct), duv=_float(duv),
+def _photometry(batch: "BatchEvaluation", i: int, covered: bool) -> Photometry:
+    x, y = batch.chromaticity_x[i], batch.chromaticity_y[i]
+    return Photometry(illuminance_lx=float(batch.evaluation.illuminance_lx[i]),
+                      luminance_cd_m2=float(batch.evaluation.luminance_cd_m2[i]),
+                      cct_k=_float(batch.cct_k[i]), duv=_float(batch.duv[i]),
                       chromaticity_xy=None if np.isnan(x) else (float(x), float(y)), covered=covered)
 
 
@@ -249,10 +215,45 @@ def _distance_rule(record: ProductRecord, d_a_mm: float) -> str:
     return "200 mm: general lighting service lamp that gives 500 lx nearer than 200 mm, so the minimum applies"
 
 
-def build_assessment(loaded: LoadedProduct, ev: Evaluation, i: int, covered: np.ndarray, raw: np.ndarray,
-                     limit_set: LimitSet) -> Assessment:
+@dataclass(frozen=True)
+class BatchEvaluation:
+    """Everything computed for n products: integrals, the method's arrays, and colour."""
+
+    limit_set: LimitSet
+    integrated: Integrated
+    evaluation: Evaluation
+    chromaticity_x: np.ndarray
+    chromaticity_y: np.ndarray
+    cct_k: np.ndarray
+    duv: np.ndarray
+
+
+def evaluate_products(records: list[ProductRecord], integrated: Integrated,
+                      limit_set: LimitSet = DEFAULT_LIMIT_SET) -> BatchEvaluation:
+    """Apply the method to n products whose integrals are known; colour only where V(λ) is covered and
+    there is light."""
+    ev = evaluate(product_arrays(records, integrated.raw, integrated.covered), limit_set)
+    v = [s.key for s in integral_specs(limit_set)].index("V")
+    nan = np.full(len(records), np.nan)
+    x, y, cct, duv = nan.copy(), nan.copy(), nan.copy(), nan.copy()
+    lit = integrated.covered[:, v] & (ev.illuminance_lx > 0)
+    if lit.any():
+        x[lit], y[lit], cct[lit], duv[lit] = cct_from_xyz(integrated.xyz[lit])
+    return BatchEvaluation(limit_set, integrated, ev, x, y, cct, duv)
+
+
+def evaluate_loaded(products: list[LoadedProduct], limit_set: LimitSet = DEFAULT_LIMIT_SET) -> BatchEvaluation:
+    """Integrate and evaluate loaded products (spectra sharing a grid share one matrix product)."""
+    integrated = integrate_spectra([p.spectrum.wavelength_nm for p in products],
+                                   [p.spectrum.value for p in products],
+                                   [p.record.no_emission_outside for p in products], limit_set)
+    return evaluate_products([p.record for p in products], integrated, limit_set)
+
+
+def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int) -> Assessment:
     """The result of product ``i`` of an evaluation."""
-    record, spectrum = loaded.record, loaded.spectrum
+    record, spectrum, limit_set = loaded.record, loaded.spectrum, batch.limit_set
+    ev, covered, raw = batch.evaluation, batch.integrated.covered[i], batch.integrated.raw[i]
     keys = [s.key for s in integral_specs(limit_set)]
     v_covered = bool(covered[keys.index("V")])
     hazards = _hazard_results(ev, i, spectrum.range_nm)
@@ -275,7 +276,7 @@ def build_assessment(loaded: LoadedProduct, ev: Evaluation, i: int, covered: np.
             source_solid_angle_sr=float(ev.source_solid_angle_sr[i]),
             largest_dimension_mm=float(record.largest_dimension_mm), small_source=bool(ev.small_source[i]),
             weak_visual_stimulus=bool(ev.weak_visual_stimulus[i])),
-        photometry=_photometry(loaded, ev, i, v_covered),
+        photometry=_photometry(batch, i, v_covered),
         spectrum=_spectrum_summary(loaded),
         record=record.model_dump(exclude_none=True), warnings=_warnings(loaded, ev, i, v_covered),
         assumptions=_assumptions(loaded, ev, i),
@@ -313,8 +314,4 @@ def assess(product: str | Path | ProductRecord | LoadedProduct, overrides: dict 
         loaded = product_from_record(product, Path.cwd(), product.id)
     else:
         loaded = load_product(product, overrides)
-    spectrum = loaded.spectrum
-    raw = raw_integrals(spectrum.wavelength_nm, spectrum.value, limit_set)
-    covered = coverage(spectrum.range_nm, loaded.record.no_emission_outside, limit_set)
-    ev = evaluate(product_arrays([loaded.record], raw, covered), limit_set)
-    return build_assessment(loaded, ev, 0, covered, raw, limit_set)
+    return build_assessment(loaded, evaluate_loaded([loaded], limit_set), 0)

@@ -10,8 +10,13 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from hazard.geometry import (GLS_ILLUMINANCE_LX, MIN_ASSESSMENT_DISTANCE_M, SourceShape, cone_solid_angle_sr,
-                             inverse_square_factor)
+from hazard.geometry import (
+    GLS_ILLUMINANCE_LX,
+    MIN_ASSESSMENT_DISTANCE_M,
+    SourceShape,
+    cone_solid_angle_sr,
+    inverse_square_factor,
+)
 from hazard.hazards import Hazard, LimitSet
 from hazard.photometry import K_M_LM_PER_W, VISIBLE_BAND_NM
 

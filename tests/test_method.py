@@ -4,8 +4,8 @@ import math
 
 import numpy as np
 import pytest
-
 from conftest import assess_arrays, triangle_line
+
 from hazard.geometry import SourceShape, cone_solid_angle_sr
 from hazard.hazards import IEC_62471_2006
 

@@ -1,0 +1,120 @@
+"""Weighted integrals of many spectra against one quadrature matrix per wavelength grid.
+
+The columns are the integrals of :func:`hazard.evaluate.integral_specs` followed by CIE 1931 X, Y, Z; the
+matrix comes from :mod:`hazard.weighting`, the one integration routine.
+
+Two ways to apply it, same numbers:
+
+- :func:`integrate_matrix`: n spectra on a common grid, one BLAS matrix product per bounded-memory chunk.
+  Fastest; its last bits may depend on how BLAS blocks the chunk.
+- :func:`integrate_spectra`: spectra read from files, each on its own grid (the matrix is built once per
+  distinct grid), each product summed on its own in a fixed order, so a product's result is bit-for-bit
+  the same whether it is assessed alone or in a batch. ``hazard assess`` and ``hazard batch`` use this.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from hazard.evaluate import integral_specs
+from hazard.hazards import LimitSet
+from hazard.photometry import cmf_quadrature
+from hazard.weighting import quadrature_matrix
+from weighting_tables import load_table
+
+__all__ = ["Integrated", "integral_matrix", "coverage", "integrate_matrix", "integrate_spectra", "CHUNK_ROWS"]
+
+CHUNK_ROWS = 4096
+"""Spectra multiplied at once; bounds the temporary float64 copy to CHUNK_ROWS × grid × 8 bytes."""
+
+
+@dataclass(frozen=True)
+class Integrated:
+    """Integrals of n spectra.
+
+    Attributes
+    ----------
+    raw : numpy.ndarray
+        (n, k) integrals in the order of :func:`integral_specs` [W m⁻² or W m⁻² sr⁻¹].
+    xyz : numpy.ndarray
+        (n, 3) CIE 1931 tristimulus integrals ∫X·x̄ dλ etc. (same scale as ``raw``).
+    covered : numpy.ndarray
+        (n, k) the integral's band is spanned by the spectrum, or emission outside it is ruled out.
+    """
+
+    raw: np.ndarray
+    xyz: np.ndarray
+    covered: np.ndarray
+
+
+def integral_matrix(grid_nm: np.ndarray, limit_set: LimitSet) -> np.ndarray:
+    """Quadrature matrix (grid, k + 3): every integral of the limit set, then X, Y, Z [nm]."""
+    specs = integral_specs(limit_set)
+    weights = [(s.band_nm, None if s.table is None else load_table(s.table).at) for s in specs]
+    return np.hstack([quadrature_matrix(grid_nm, weights), cmf_quadrature(grid_nm)])
+
+
+def coverage(range_nm: tuple[float, float], no_emission_outside: bool, limit_set: LimitSet) -> np.ndarray:
+    """Which integrals the spectrum can be trusted for: it spans the band, or the record rules out emission
+    outside the measured range (method §5)."""
+    lo, hi = range_nm
+    return np.array([no_emission_outside or (lo <= s.band_nm[0] and hi >= s.band_nm[1])
+                     for s in integral_specs(limit_set)])
+
+
+def _fill(out: Integrated, rows, products: np.ndarray, grid_nm: np.ndarray, no_emission_outside: np.ndarray,
+          limit_set: LimitSet) -> None:
+    """Store the integrals ``products`` (rows × (k + 3)) of spectra on ``grid_nm`` into rows ``rows``."""
+    k = out.raw.shape[1]
+    out.raw[rows], out.xyz[rows] = products[:, :k], products[:, k:]
+    spans = coverage((float(grid_nm[0]), float(grid_nm[-1])), False, limit_set)
+    out.covered[rows] = spans[None, :] | np.asarray(no_emission_outside, dtype=bool)[:, None]
+
+
+def _empty(n: int, limit_set: LimitSet) -> Integrated:
+    k = len(integral_specs(limit_set))
+    return Integrated(raw=np.empty((n, k)), xyz=np.empty((n, 3)), covered=np.empty((n, k), dtype=bool))
+
+
+def integrate_matrix(grid_nm: np.ndarray, values: np.ndarray, no_emission_outside: np.ndarray,
+                     limit_set: LimitSet, chunk_rows: int = CHUNK_ROWS) -> Integrated:
+    """Integrals of n spectra on one grid.
+
+    Parameters
+    ----------
+    grid_nm : numpy.ndarray
+        (m,) strictly increasing wavelengths [nm].
+    values : numpy.ndarray
+        (n, m) spectral values, any float dtype [W m⁻² nm⁻¹ or W m⁻² sr⁻¹ nm⁻¹].
+    no_emission_outside : numpy.ndarray
+        (n,) bool, per product.
+    chunk_rows : int
+        Rows converted to float64 and multiplied at once.
+    """
+    matrix = integral_matrix(grid_nm, limit_set)
+    flags = np.asarray(no_emission_outside, dtype=bool)
+    out = _empty(values.shape[0], limit_set)
+    for start in range(0, values.shape[0], chunk_rows):
+        rows = slice(start, start + chunk_rows)
+        _fill(out, rows, np.asarray(values[rows], dtype=float) @ matrix, grid_nm, flags[rows], limit_set)
+    return out
+
+
+def integrate_spectra(grids: list[np.ndarray], values: list[np.ndarray], no_emission_outside: list[bool],
+                      limit_set: LimitSet) -> Integrated:
+    """Integrals of n spectra, each on its own grid (a grid's matrix is built once and shared).
+
+    Each product is reduced on its own, ``Σ_i q_i·X_i`` in a fixed order, so its integrals do not depend
+    on which other products are in the batch.
+    """
+    matrices: dict[bytes, np.ndarray] = {}
+    out = _empty(len(grids), limit_set)
+    for i, (grid, value) in enumerate(zip(grids, values)):
+        key = np.ascontiguousarray(grid).tobytes()
+        if key not in matrices:
+            matrices[key] = integral_matrix(grid, limit_set)
+        products = np.sum(np.asarray(value, dtype=float)[:, None] * matrices[key], axis=0)
+        _fill(out, [i], products[None, :], grid, np.array([no_emission_outside[i]]), limit_set)
+    return out
