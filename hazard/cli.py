@@ -98,7 +98,9 @@ def main(ctx: click.Context, debug: bool) -> None:
               show_default=True, help="Output format.")
 @click.option("--output", type=click.Path(dir_okay=False, path_type=Path),
               help="Write the output to this file (atomically) instead of the terminal.")
-def assess(product: Path, output_format: str, output: Path | None, **options) -> None:
+@click.option("--pdf", "pdf_path", type=click.Path(dir_okay=False, path_type=Path),
+              help="Also render the PDF report to this file.")
+def assess(product: Path, output_format: str, output: Path | None, pdf_path: Path | None, **options) -> None:
     """Assess one product: RECORD.toml, or a spectrum file with record options.
 
     Example: hazard assess lamp.csv --distance-mm 200 --source-diameter-mm 5
@@ -106,6 +108,8 @@ def assess(product: Path, output_format: str, output: Path | None, **options) ->
     from hazard.engine import assess as run_assessment
 
     assessment = run_assessment(product, _overrides(options))
+    if pdf_path is not None:
+        _write_report(assessment, pdf_path)
     if output_format == "json":
         text = assessment.model_dump_json(indent=2) + "\n"
     else:
@@ -117,6 +121,91 @@ def assess(product: Path, output_format: str, output: Path | None, **options) ->
     else:
         write_atomic(output, text.encode("utf-8"))
         click.echo(f"wrote {output} ({assessment.id}: {assessment.risk_group})", err=True)
+
+
+def _write_report(assessment, pdf_path: Path) -> None:
+    from reports import render_assessment_pdf, report_time
+
+    write_atomic(pdf_path, render_assessment_pdf(assessment, report_time()))
+    click.echo(f"wrote {pdf_path}", err=True)
+
+
+@main.command()
+@click.argument("result", type=click.Path(dir_okay=False, path_type=Path))
+@click.option("--output", type=click.Path(dir_okay=False, path_type=Path), required=True,
+              help="PDF file to write.")
+def report(result: Path, output: Path) -> None:
+    """Render the PDF report of a saved JSON result (from `hazard assess --format json`), without
+    recomputing it."""
+    from pydantic import ValidationError
+
+    from hazard.errors import InputError
+    from hazard.result import Assessment
+
+    try:
+        assessment = Assessment.model_validate_json(result.read_bytes())
+    except FileNotFoundError:
+        raise InputError("result file not found", "give a JSON file written by 'hazard assess --format json'",
+                         str(result)) from None
+    except ValidationError as exc:
+        first = exc.errors()[0]
+        raise InputError(f"not an assessment result ({first['msg']} at {'.'.join(map(str, first['loc']))})",
+                         "give a JSON file written by 'hazard assess --format json' of this tool version",
+                         str(result)) from None
+    _write_report(assessment, output)
+
+
+def _finish_batch(outcome, output: Path, pdf: bool) -> None:
+    from hazard.textout import render_batch_table
+
+    click.echo(render_batch_table(outcome.ids, outcome.assessments, outcome.errors), nl=False)
+    written = "results.jsonl, summary.csv" + (", one PDF per product and summary.pdf" if pdf else "")
+    click.echo(f"\n{len(outcome.assessments)} assessed ({outcome.reused} reused), {len(outcome.errors)} failed; "
+               f"wrote {written} in {output}")
+    from hazard.cautions import PRE_SCREEN
+
+    click.echo(f"Caution: {PRE_SCREEN}")
+
+
+@main.command()
+@click.argument("manifest", type=click.Path(path_type=Path))
+@click.option("--output", type=click.Path(file_okay=False, path_type=Path), required=True,
+              help="Folder for results.jsonl, summary.csv and the PDFs.")
+@click.option("--pdf", is_flag=True, help="Also write one PDF per product and summary.pdf.")
+@click.option("--jobs", type=click.IntRange(min=1), default=1, show_default=True,
+              help="Worker processes for reading spectra and rendering PDFs.")
+@click.option("--resume", is_flag=True, help="Continue an interrupted run: skip products whose inputs are "
+                                             "unchanged since they were assessed.")
+def batch(manifest: Path, output: Path, pdf: bool, jobs: int, resume: bool) -> None:
+    """Assess every product of a CSV/.xlsx manifest or a folder of TOML records.
+
+    Exit code 0 when all were assessed, 3 when some failed, 2 when the manifest itself is unusable.
+    """
+    from hazard.batch import run_batch
+
+    outcome = run_batch(manifest, output, pdf=pdf, jobs=jobs, resume=resume)
+    _finish_batch(outcome, output, pdf)
+    sys.exit(outcome.exit_code)
+
+
+@main.command()
+@click.option("--output", type=click.Path(file_okay=False, path_type=Path), default=Path("hazard-demo"),
+              show_default=True, help="Folder for the demo's reports.")
+@click.option("--jobs", type=click.IntRange(min=1), default=1, show_default=True,
+              help="Worker processes for rendering PDFs.")
+def demo(output: Path, jobs: int) -> None:
+    """Assess the bundled line-up of invented products (Corvel Lightworks, a made-up company): one PDF and
+    one JSON per product, a summary CSV and summary.pdf."""
+    from importlib import resources
+
+    from hazard.batch import run_batch
+
+    lineup = resources.files("hazard.lineup")
+    click.echo("Demo: invented products of Corvel Lightworks, a made-up company; no real product or "
+               "measurement.\n")
+    outcome = run_batch(Path(str(lineup)), output, pdf=True, jobs=jobs, per_product_json=True)
+    _finish_batch(outcome, output, pdf=True)
+    sys.exit(outcome.exit_code)
 
 
 @main.command()

@@ -61,3 +61,34 @@ def render_text(assessment: Assessment) -> str:
             lines += ["", f"{heading}:"] + [f"  - {item}" for item in items]
     lines += ["", f"Caution: {a.cautions[0]}"] + [f"         {c}" for c in a.cautions[1:]]
     return "\n".join(lines) + "\n"
+
+
+def render_batch_table(ids: list[str], assessments: dict[str, Assessment], errors: dict[str, str]) -> str:
+    """One line per product: id, overall group, completeness, the deciding hazards, and any error.
+
+    Parameters
+    ----------
+    ids : list of str
+        Products in the order to show.
+    assessments : dict
+        id → Assessment for the products assessed.
+    errors : dict
+        id → one-line reason for the products that failed.
+    """
+    rows = []
+    for product_id in ids:
+        if product_id in errors:
+            rows.append((product_id, "error", "", "", errors[product_id]))
+            continue
+        a = assessments[product_id]
+        deciding = ", ".join(a.deciding_hazards) if a.risk_group != "Exempt" else ""
+        margin = ""
+        if a.deciding_hazards and a.risk_group != "Exempt":
+            h = a.hazards[a.deciding_hazards[0]]
+            margin = format_margin(h.risk_group, h.margins)
+        rows.append((product_id, a.risk_group, "complete" if a.complete else "INCOMPLETE", deciding, margin))
+    header = ("Product", "Group", "Assessment", "Set by", "Margin / error")
+    widths = [max(len(r[i]) for r in [header, *rows]) for i in range(4)]
+    line = lambda r: "  ".join([*(c.ljust(w) for c, w in zip(r[:4], widths)), r[4]]).rstrip()  # noqa: E731
+    return "\n".join([line(header), line(tuple("-" * w for w in widths) + ("-" * 14,)),
+                      *(line(r) for r in rows)]) + "\n"

@@ -1,0 +1,95 @@
+"""The A4 page every report shares: margins, a running header and the footer with "page N of M".
+
+The total page count is known only after the last page, so the canvas keeps each page's state and draws
+the header and footer when the document is saved.
+"""
+
+from __future__ import annotations
+
+import io
+from functools import partial
+
+from reportlab.lib.pagesizes import A4
+from reportlab.lib.units import mm
+from reportlab.pdfgen.canvas import Canvas
+from reportlab.platypus import Flowable, SimpleDocTemplate
+
+from reports.fonts import FontSet
+from reports.style import INK, MUTED, RULE
+from reports.wording import FOOTER
+
+__all__ = ["PAGE_WIDTH", "PAGE_HEIGHT", "MARGIN", "FRAME_WIDTH", "build_pdf"]
+
+PAGE_WIDTH, PAGE_HEIGHT = A4
+MARGIN = 15 * mm
+FRAME_WIDTH = PAGE_WIDTH - 2 * MARGIN
+_FOOTER_Y = 9 * mm
+_HEADER_Y = PAGE_HEIGHT - 9 * mm
+
+
+class _FramedCanvas(Canvas):
+    """A canvas that adds the running header (from page 2) and the footer to every page on save."""
+
+    def __init__(self, *args, fonts: FontSet, header: str, **kwargs) -> None:
+        super().__init__(*args, **kwargs)
+        self._fonts = fonts
+        self._header = fonts.clean(header)
+        self._pages: list[dict] = []
+
+    def showPage(self) -> None:  # noqa: N802 - reportlab's name
+        self._pages.append(dict(self.__dict__))
+        self._startPage()
+
+    def save(self) -> None:
+        total = len(self._pages)
+        for state in self._pages:
+            self.__dict__.update(state)
+            self._decorate(total)
+            super().showPage()
+        super().save()
+
+    def _decorate(self, total: int) -> None:
+        number = self.getPageNumber()
+        self.saveState()
+        self.setStrokeColor(RULE)
+        self.setLineWidth(0.5)
+        self.line(MARGIN, _FOOTER_Y + 9, PAGE_WIDTH - MARGIN, _FOOTER_Y + 9)
+        self.setFillColor(INK)
+        self.setFont(self._fonts.bold, 7.5)
+        self.drawString(MARGIN, _FOOTER_Y, FOOTER)
+        self.setFont(self._fonts.regular, 7.5)
+        self.drawRightString(PAGE_WIDTH - MARGIN, _FOOTER_Y, f"page {number} of {total}")
+        if number > 1:
+            self.setFillColor(MUTED)
+            self.drawString(MARGIN, _HEADER_Y, self._header)
+            self.line(MARGIN, _HEADER_Y - 4, PAGE_WIDTH - MARGIN, _HEADER_Y - 4)
+        self.restoreState()
+
+
+def build_pdf(flowables: list[Flowable], fonts: FontSet, title: str, header: str, author: str) -> bytes:
+    """Lay ``flowables`` out on A4 pages and return the PDF.
+
+    Parameters
+    ----------
+    flowables : list of Flowable
+        The story, in order.
+    fonts : FontSet
+        The registered report fonts (for header and footer).
+    title : str
+        Document title (PDF metadata).
+    header : str
+        Running header printed from page 2 on.
+    author : str
+        Producer named in the metadata, e.g. ``"hazard 0.1.0"``.
+
+    Returns
+    -------
+    bytes
+        The PDF; identical for identical input (reportlab's invariant mode fixes dates and ids).
+    """
+    buffer = io.BytesIO()
+    doc = SimpleDocTemplate(buffer, pagesize=A4, leftMargin=MARGIN, rightMargin=MARGIN, topMargin=MARGIN,
+                            bottomMargin=MARGIN + 4 * mm, title=title, author=author, creator=author,
+                            subject="Photobiological safety pre-screen", invariant=1)
+    doc.build(flowables, canvasmaker=partial(_FramedCanvas, fonts=fonts, header=header))
+    return buffer.getvalue()

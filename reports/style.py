@@ -1,0 +1,133 @@
+"""Colours, paragraph styles and table styles of the reports.
+
+The palette is our own: a pale-sage → saffron → burnt-orange → maroon ramp for the risk groups whose
+lightness falls steadily (grey levels about 94 %, 77 %, 55 % and 24 %), so the order survives greyscale
+printing. Colour never carries meaning alone: every group cell also says "Exempt", "RG1", "RG2" or "RG3".
+Text and lines are slate ink on white.
+"""
+
+from __future__ import annotations
+
+from xml.sax.saxutils import escape
+
+from reportlab.lib import colors
+from reportlab.lib.enums import TA_LEFT
+from reportlab.lib.styles import ParagraphStyle
+from reportlab.platypus import Paragraph, TableStyle
+
+from reports.fonts import FontSet
+
+__all__ = ["INK", "MUTED", "RULE", "PANEL", "GROUP_FILL", "GROUP_INK", "group_fill", "group_ink", "Styles",
+           "table_style"]
+
+INK = colors.HexColor("#1F2A36")
+"""Text, axes and the action-spectrum lines."""
+MUTED = colors.HexColor("#56626E")
+"""Secondary text: captions, units, labels."""
+RULE = colors.HexColor("#A7B1BA")
+"""Table rules and chart grid."""
+PANEL = colors.HexColor("#EEF1F4")
+"""Background of table headers and boxed notes."""
+SPECTRUM_FILL = colors.HexColor("#C5D3E0")
+"""Area under the relative spectrum in the spectrum chart."""
+SPECTRUM_EDGE = colors.HexColor("#3D5A78")
+"""Outline of the relative spectrum."""
+
+GROUP_FILL = {
+    "Exempt": colors.HexColor("#EEF3EA"),
+    "RG1": colors.HexColor("#E9C46A"),
+    "RG2": colors.HexColor("#D1793F"),
+    "RG3": colors.HexColor("#6B2737"),
+}
+"""Fill of a risk-group label, lightest for Exempt, darkest for RG3."""
+GROUP_INK = {"Exempt": INK, "RG1": INK, "RG2": INK, "RG3": colors.white}
+"""Text colour on each group fill (white only on the dark RG3 fill)."""
+
+
+def group_fill(group: str | None) -> colors.Color:
+    """Fill for a group label; white for a hazard without a group."""
+    return GROUP_FILL.get(group or "", colors.white)
+
+
+def group_ink(group: str | None) -> colors.Color:
+    """Text colour that reads on :func:`group_fill`."""
+    return GROUP_INK.get(group or "", INK)
+
+
+class Styles:
+    """Paragraph styles in the report fonts, and a helper that escapes and cleans text for them.
+
+    Parameters
+    ----------
+    fonts : FontSet
+        The registered report fonts.
+    """
+
+    def __init__(self, fonts: FontSet) -> None:
+        self.fonts = fonts
+        base = ParagraphStyle("body", fontName=fonts.regular, fontSize=8.5, leading=11, textColor=INK,
+                              alignment=TA_LEFT)
+        self.body = base
+        self.small = ParagraphStyle("small", base, fontSize=7.5, leading=9.4)
+        self.cell = ParagraphStyle("cell", base, fontSize=7.5, leading=9.2)
+        self.cell_bold = ParagraphStyle("cell_bold", self.cell, fontName=fonts.bold)
+        self.head = ParagraphStyle("head", self.cell, fontName=fonts.bold, fontSize=7.2, textColor=INK)
+        self.caption = ParagraphStyle("caption", base, fontSize=7, leading=8.8, textColor=MUTED)
+        self.kicker = ParagraphStyle("kicker", base, fontName=fonts.bold, fontSize=7.5, leading=9.5,
+                                     textColor=MUTED)
+        self.title = ParagraphStyle("title", base, fontName=fonts.bold, fontSize=20, leading=24)
+        self.subtitle = ParagraphStyle("subtitle", base, fontSize=11, leading=14)
+        self.h2 = ParagraphStyle("h2", base, fontName=fonts.bold, fontSize=10.5, leading=13, spaceBefore=8,
+                                 spaceAfter=3)
+        self.verdict = ParagraphStyle("verdict", base, fontName=fonts.bold, fontSize=30, leading=34,
+                                      alignment=1)
+        self.verdict_head = ParagraphStyle("verdict_head", base, fontName=fonts.bold, fontSize=11, leading=14)
+        self.banner = ParagraphStyle("banner", base, fontName=fonts.bold, fontSize=10, leading=13)
+
+    def text(self, text: str) -> str:
+        """``text`` escaped for a Paragraph and cleaned for the fonts."""
+        return escape(self.fonts.clean(text))
+
+    def p(self, text: str, style: ParagraphStyle | None = None, markup: str = "") -> Paragraph:
+        """A Paragraph of plain ``text`` (escaped), optionally preceded by trusted ``markup``.
+
+        Parameters
+        ----------
+        text : str
+            Plain text; escaped and cleaned for the fonts.
+        style : ParagraphStyle, optional
+            Defaults to :attr:`body`.
+        markup : str
+            Already-formed Paragraph markup put before ``text`` (e.g. a bold lead-in).
+        """
+        return Paragraph(markup + self.text(text), style or self.body)
+
+    def bold_lead(self, lead: str, text: str, style: ParagraphStyle | None = None) -> Paragraph:
+        """A Paragraph starting with ``lead`` in bold, then ``text``."""
+        return self.p(text, style, markup=f"<b>{self.text(lead)}</b> ")
+
+
+def table_style(header_rows: int = 1, extra: list[tuple] | None = None) -> TableStyle:
+    """The grid every report table uses: panel-coloured header, hairline rules, top-aligned cells.
+
+    Parameters
+    ----------
+    header_rows : int
+        Rows drawn as header.
+    extra : list of tuple, optional
+        Further TableStyle commands (e.g. group fills).
+    """
+    commands = [
+        ("VALIGN", (0, 0), (-1, -1), "TOP"),
+        ("LEFTPADDING", (0, 0), (-1, -1), 3),
+        ("RIGHTPADDING", (0, 0), (-1, -1), 3),
+        ("TOPPADDING", (0, 0), (-1, -1), 2),
+        ("BOTTOMPADDING", (0, 0), (-1, -1), 2.5),
+        ("LINEBELOW", (0, 0), (-1, -1), 0.35, RULE),
+        ("LINEABOVE", (0, 0), (-1, 0), 0.8, INK),
+        ("LINEBELOW", (0, -1), (-1, -1), 0.8, INK),
+    ]
+    if header_rows:
+        commands += [("BACKGROUND", (0, 0), (-1, header_rows - 1), PANEL),
+                     ("LINEBELOW", (0, header_rows - 1), (-1, header_rows - 1), 0.6, INK)]
+    return TableStyle(commands + (extra or []))

@@ -1,0 +1,31 @@
+"""Fixed report wording: what each risk group means, and the footer. Our own words.
+
+The sentences describe the groups plainly; they do not replace the cautions chosen for each product
+(``Assessment.cautions``), which the reports print in full.
+"""
+
+from __future__ import annotations
+
+__all__ = ["GROUP_NAME", "GROUP_MEANING", "FOOTER", "LOWER_BOUND"]
+
+GROUP_NAME = {"Exempt": "Exempt", "RG1": "Risk Group 1 (low risk)", "RG2": "Risk Group 2 (moderate risk)",
+              "RG3": "Risk Group 3 (high risk)"}
+"""Long name of each group, shown beside the short label."""
+
+GROUP_MEANING = {
+    "Exempt": "No photobiological hazard is expected under any foreseeable use: every assessed quantity stays "
+              "within the Exempt limits at the assessment distance.",
+    "RG1": "Low risk: ordinary use stays within the exposure limits; only unusually long exposure at close "
+           "range could come near one.",
+    "RG2": "Moderate risk: an exposure limit can be reached within minutes or seconds; safe use relies on "
+           "people turning away from the source or keeping each exposure short.",
+    "RG3": "High risk: an exposure limit can be reached even in a brief exposure; people must be kept out of "
+           "the direct emission by design, guarding or enclosure.",
+}
+"""One sentence per group: what it means for the user of the lamp."""
+
+LOWER_BOUND = "LOWER BOUND — not all hazards assessed"
+"""Shown prominently when ``Assessment.complete`` is false."""
+
+FOOTER = "Pre-screen only — not a certification or a laboratory classification"
+"""Left part of every page footer."""
