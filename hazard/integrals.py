@@ -79,8 +79,9 @@ def _empty(n: int, limit_set: LimitSet) -> Integrated:
 
 
 def integrate_matrix(grid_nm: np.ndarray, values: np.ndarray, no_emission_outside: np.ndarray,
-                     limit_set: LimitSet, chunk_rows: int = CHUNK_ROWS) -> Integrated:
-    """Integrals of n spectra on one grid.
+                     limit_set: LimitSet, factor_to_si: np.ndarray | None = None,
+                     chunk_rows: int = CHUNK_ROWS) -> Integrated:
+    """Integrals of n spectra on one grid; negative samples count as zero (dark noise, method §5).
 
     Parameters
     ----------
@@ -90,15 +91,23 @@ def integrate_matrix(grid_nm: np.ndarray, values: np.ndarray, no_emission_outsid
         (n, m) spectral values, any float dtype [W m⁻² nm⁻¹ or W m⁻² sr⁻¹ nm⁻¹].
     no_emission_outside : numpy.ndarray
         (n,) bool, per product.
+    factor_to_si : numpy.ndarray, optional
+        (n,) multiplier from each row's unit to SI [1]; applied to the integrals (they are linear).
     chunk_rows : int
-        Rows converted to float64 and multiplied at once.
+        Rows converted to float64 and multiplied at once; the caller's array is never modified.
     """
     matrix = integral_matrix(grid_nm, limit_set)
     flags = np.asarray(no_emission_outside, dtype=bool)
     out = _empty(values.shape[0], limit_set)
     for start in range(0, values.shape[0], chunk_rows):
         rows = slice(start, start + chunk_rows)
-        _fill(out, rows, np.asarray(values[rows], dtype=float) @ matrix, grid_nm, flags[rows], limit_set)
+        chunk = values[rows]
+        if chunk.min() < 0:
+            chunk = np.maximum(chunk, 0)
+        _fill(out, rows, chunk.astype(float, copy=False) @ matrix, grid_nm, flags[rows], limit_set)
+    if factor_to_si is not None:
+        out.raw[:] *= factor_to_si[:, None]
+        out.xyz[:] *= factor_to_si[:, None]
     return out
 
 

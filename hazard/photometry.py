@@ -3,7 +3,8 @@
 Illuminance is E_v = K_m·∫E_λ V(λ) dλ with K_m = 683 lm·W⁻¹ (CIE 1924 V(λ), CIE S 010); it uses the same
 quadrature as the hazard quantities. Chromaticity comes from the CIE 1931 2° colour-matching functions
 (colour-science's copy of the CIE data) on the spectrum's own grid, and CCT with Duv from colour-science's
-Ohno (2013) method. colour-science is imported only when a CCT is asked for.
+Robertson (1968) isotherm method (the method CIE 15 refers to; fast enough for batches of 10⁵ products).
+colour-science is imported only when colour is computed.
 """
 
 from __future__ import annotations
@@ -24,8 +25,9 @@ CCT_DUV_LIMIT = 0.05
 """Beyond this distance from the Planckian locus a CCT is not meaningful (CIE 15:2018, 9.5) [1]."""
 
 
-CCT_RANGE_K = (1000.0, 100000.0)
-"""Range of the Planckian table of colour-science's Ohno (2013) method (its defaults) [K]."""
+CCT_RANGE_K = (1670.0, 100000.0)
+"""Range over which a CCT is reported: Robertson's isotherm table starts at 600 MK⁻¹ (1667 K) and clamps
+chromaticities beyond it to that end [K]."""
 
 
 def import_colour():
@@ -70,9 +72,7 @@ def cct_from_xyz(xyz: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray, n
     safe = np.where(ok[:, None], xyz, [[0.95, 1.0, 1.09]])
     xy = colour.XYZ_to_xy(safe)
     uv = colour.xy_to_UCS_uv(xy)
-    with warnings.catch_warnings():  # far off the locus: flagged below by the Duv and range tests instead
-        warnings.filterwarnings("ignore", message=".*planckian table bound.*")
-        cct_duv = colour.temperature.uv_to_CCT(uv, method="Ohno 2013")
+    cct_duv = colour.temperature.uv_to_CCT(uv, method="Robertson 1968")
     cct, duv = np.atleast_2d(cct_duv)[:, 0], np.atleast_2d(cct_duv)[:, 1]
     nan = np.full(len(xyz), np.nan)
     in_range = (cct > CCT_RANGE_K[0]) & (cct < CCT_RANGE_K[1])

@@ -50,7 +50,7 @@ class Photometry(_Frozen):
 
     illuminance_lx: float | None = Field(description="Illuminance at the assessment distance [lx].")
     luminance_cd_m2: float | None = Field(description="Average luminance of the source [cd/m2].")
-    cct_k: float | None = Field(description="Correlated colour temperature (CIE 1931 2°, Ohno 2013) [K].")
+    cct_k: float | None = Field(description="Correlated colour temperature (CIE 1931 2°, Robertson 1968) [K].")
     duv: float | None = Field(description="Distance from the Planckian locus in CIE 1960 uv [1].")
     chromaticity_xy: tuple[float, float] | None = Field(description="CIE 1931 x, y [1].")
     covered: bool = Field(description="The spectrum covers V(λ)'s 360–830 nm band (or the record says the "

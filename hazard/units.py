@@ -9,6 +9,7 @@ from __future__ import annotations
 
 import re
 from dataclasses import dataclass
+from functools import lru_cache
 
 __all__ = ["SpectralUnit", "parse_spectral_unit", "IRRADIANCE_SI", "RADIANCE_SI"]
 
@@ -66,6 +67,7 @@ def _exponents(text: str) -> dict[str, int]:
     return exponents
 
 
+@lru_cache(maxsize=256)
 def parse_spectral_unit(text: str) -> SpectralUnit:
     """Parse a spectral irradiance or radiance unit.
 

@@ -17,7 +17,7 @@ from reportlab.platypus import Paragraph, TableStyle
 
 from reports.fonts import FontSet
 
-__all__ = ["INK", "MUTED", "RULE", "PANEL", "GROUP_FILL", "GROUP_INK", "group_fill", "group_ink", "Styles",
+__all__ = ["INK", "MUTED", "RULE", "PANEL", "SPECTRUM_FILL", "SPECTRUM_EDGE", "GROUP_FILL", "GROUP_INK", "group_fill", "group_ink", "Styles",
            "table_style"]
 
 INK = colors.HexColor("#1F2A36")

@@ -1,0 +1,170 @@
+"""``assess_many``: many products at once, as a pandas DataFrame (one row per product).
+
+The same method as :func:`hazard.assess` (the arrays of :mod:`hazard.evaluate`), without building a
+result object per product. Spectra come either from the records' files, or as one in-memory matrix on a
+common grid, which goes through one BLAS matrix product per chunk (:func:`hazard.integrals.integrate_matrix`).
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import numpy as np
+
+from hazard.engine import BatchEvaluation, evaluate_loaded, evaluate_products
+from hazard.errors import InputError
+from hazard.hazards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
+from hazard.inputs import LoadedProduct, load_product, product_from_record
+from hazard.integrals import CHUNK_ROWS, integrate_matrix
+from hazard.record import ProductRecord, load_record, record_from_fields
+from hazard.spectrum import NEGATIVE_TOLERANCE
+from hazard.units import parse_spectral_unit
+
+__all__ = ["assess_many", "frame_columns"]
+
+_BOUNDARIES = GROUPS[:3]
+
+
+def frame_columns(limit_set: LimitSet = DEFAULT_LIMIT_SET) -> list[str]:
+    """Columns of the DataFrame that :func:`assess_many` returns."""
+    columns = ["id", "status", "error", "risk_group", "complete", "assessment_distance_mm", "alpha_rad",
+               "illuminance_lx", "luminance_cd_m2", "cct_k", "duv", "small_source", "weak_visual_stimulus"]
+    for h in limit_set.hazards:
+        columns += [f"{h.symbol}_{part}" for part in ("applicable", "assessed", "value", "group", "t_max_s")]
+        columns += [f"{h.symbol}_margin_{g}" for g in _BOUNDARIES]
+    return columns
+
+
+def _prepare(item, i: int, read_spectrum: bool) -> ProductRecord | LoadedProduct:
+    """A record (and its spectrum, when ``read_spectrum``) from what the caller gave."""
+    origin = f"record {i + 1}"
+    if isinstance(item, (str, Path)):
+        return load_product(item) if read_spectrum else load_record(item)
+    if isinstance(item, dict):
+        fields = {k: v for k, v in item.items() if v is not None and not (isinstance(v, float) and np.isnan(v))}
+        record = record_from_fields(fields, path=origin)
+    elif isinstance(item, ProductRecord):
+        record = item
+    else:
+        raise TypeError(f"{origin}: expected a ProductRecord, a dict of record fields or a path, got {type(item)}")
+    return product_from_record(record, Path.cwd(), origin) if read_spectrum else record
+
+
+def _id_of(item, prepared) -> str:
+    if isinstance(prepared, LoadedProduct):
+        return prepared.record.id
+    if isinstance(prepared, ProductRecord):
+        return prepared.id
+    return str(item.get("id")) if isinstance(item, dict) else str(getattr(item, "id", item))
+
+
+def _check_spectra(wavelength_nm: np.ndarray, spectra: np.ndarray) -> list[str | None]:
+    """Why each row breaks the value rules of method §5 (None where it does not); a bad grid raises."""
+    grid = np.asarray(wavelength_nm, dtype=float)
+    if grid.ndim != 1 or spectra.ndim != 2 or spectra.shape[1] != grid.size:
+        raise ValueError(f"spectra must be (n, {grid.size}) for a grid of {grid.size} wavelengths, got "
+                         f"{spectra.shape}")
+    if not np.all(np.diff(grid) > 0):
+        raise ValueError("wavelength_nm must be strictly increasing [nm]")
+    reasons: list[str | None] = [None] * spectra.shape[0]
+    for start in range(0, spectra.shape[0], CHUNK_ROWS):
+        chunk = spectra[start:start + CHUNK_ROWS]
+        finite = np.isfinite(chunk).all(axis=1)
+        peak = np.where(finite, chunk.max(axis=1), 0.0)
+        lowest = np.where(finite, chunk.min(axis=1), 0.0)
+        for i in np.flatnonzero(~finite | (peak <= 0) | (lowest < -NEGATIVE_TOLERANCE * peak)):
+            reasons[start + i] = ("a value is not finite (NaN or infinity)" if not finite[i]
+                                  else "no positive value" if peak[i] <= 0
+                                  else f"negative beyond dark noise ({NEGATIVE_TOLERANCE:.0%} of the peak)")
+    return reasons
+
+
+def _frame(batch: BatchEvaluation | None, ids: list[str], good: list[int], errors: dict[int, str],
+           limit_set: LimitSet):
+    import pandas as pd
+
+    n = len(ids)
+
+    def spread(values, numeric: bool = True):
+        out = np.full(n, np.nan) if numeric else np.full(n, None, dtype=object)
+        if good:
+            out[good] = values
+        return out
+
+    data = {"id": ids, "status": ["error" if i in errors else "ok" for i in range(n)],
+            "error": [errors.get(i) for i in range(n)]}
+    if batch is not None:
+        ev = batch.evaluation
+        data.update({
+            "risk_group": spread(np.array(GROUPS, dtype=object)[ev.group_index], False),
+            "complete": spread(ev.complete, False),
+            "assessment_distance_mm": spread(ev.assessment_distance_m * 1e3), "alpha_rad": spread(ev.alpha_rad),
+            "illuminance_lx": spread(ev.illuminance_lx), "luminance_cd_m2": spread(ev.luminance_cd_m2),
+            "cct_k": spread(batch.cct_k), "duv": spread(batch.duv),
+            "small_source": spread(ev.small_source, False),
+            "weak_visual_stimulus": spread(ev.weak_visual_stimulus, False)})
+        for symbol, h in ev.hazards.items():
+            grouped = h.hazard.limits is not None
+            data[f"{symbol}_applicable"] = spread(h.applicable, False)
+            data[f"{symbol}_assessed"] = spread(h.assessed, False)
+            data[f"{symbol}_value"] = spread(np.where(h.assessed, h.value, np.nan))
+            names = np.array([*GROUPS, None], dtype=object)[np.where(h.assessed & grouped, h.group_index, -1)]
+            data[f"{symbol}_group"] = spread(names, False)
+            data[f"{symbol}_t_max_s"] = spread(np.where(h.assessed, h.t_max_s, np.nan))
+            for k, g in enumerate(_BOUNDARIES):
+                margin = h.compared[:, k] / h.limits[:, k] if grouped else np.nan
+                data[f"{symbol}_margin_{g}"] = spread(np.where(h.assessed, margin, np.nan))
+    return pd.DataFrame(data, columns=frame_columns(limit_set))
+
+
+def assess_many(records, wavelength_nm: np.ndarray | None = None, spectra: np.ndarray | None = None,
+                limit_set: LimitSet = DEFAULT_LIMIT_SET):
+    """Pre-screen many products; one row per product, in the order given.
+
+    Parameters
+    ----------
+    records : list or pandas.DataFrame
+        Product records: ``ProductRecord`` objects, dicts of record fields, paths of TOML records, or a
+        DataFrame whose columns are record fields. Record spectrum paths are relative to the working folder.
+    wavelength_nm : numpy.ndarray, optional
+        (m,) common grid of ``spectra`` [nm].
+    spectra : numpy.ndarray, optional
+        (n, m) spectral values in each record's unit, one row per record (float32 halves the memory);
+        when given, the records' ``spectrum`` files are not read.
+    limit_set : LimitSet
+
+    Returns
+    -------
+    pandas.DataFrame
+        Columns :func:`frame_columns`. A product that fails validation has ``status == "error"`` and its
+        reason in ``error``; values of hazards that do not apply or were not assessed are NaN.
+    """
+    if hasattr(records, "to_dict"):
+        records = records.to_dict("records")
+    records = list(records)
+    n = len(records)
+    if spectra is not None and spectra.shape[0] != n:
+        raise ValueError(f"{n} records but {spectra.shape[0]} spectra")
+    errors: dict[int, str] = {}
+    prepared: list = [None] * n
+    for i, item in enumerate(records):
+        try:
+            prepared[i] = _prepare(item, i, read_spectrum=spectra is None)
+        except InputError as exc:
+            errors[i] = str(exc)
+    ids = [_id_of(item, p) for item, p in zip(records, prepared)]
+    if spectra is not None:
+        for i, reason in enumerate(_check_spectra(wavelength_nm, spectra)):
+            if reason is not None and i not in errors:
+                errors[i] = f"record {i + 1} ({ids[i]}): {reason}"
+    good = [i for i in range(n) if i not in errors]
+    if not good:
+        return _frame(None, ids, good, errors, limit_set)
+    if spectra is None:
+        return _frame(evaluate_loaded([prepared[i] for i in good], limit_set), ids, good, errors, limit_set)
+    kept = [prepared[i] for i in good]
+    factors = np.array([parse_spectral_unit(r.unit_text).factor_to_si for r in kept])
+    integrated = integrate_matrix(np.asarray(wavelength_nm, dtype=float),
+                                  spectra if len(good) == n else spectra[good],
+                                  np.array([r.no_emission_outside for r in kept]), limit_set, factors)
+    return _frame(evaluate_products(kept, integrated, limit_set), ids, good, errors, limit_set)

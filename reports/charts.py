@@ -1,0 +1,259 @@
+"""The two report charts, drawn as vector graphics with ``reportlab.graphics``.
+
+- :func:`spectrum_chart`: the spectrum preview relative to its peak, with the action spectra S_UV(λ), B(λ)
+  and R(λ) on the same logarithmic axis.
+- :func:`margin_chart`: one row per hazard with risk groups; a marker at the value relative to its Exempt
+  limit and the group zones up to the RG1 and RG2 limits, so the nearest boundary shows at a glance.
+
+Both only scale what the result holds for drawing; neither computes a hazard quantity. Line styles (solid,
+dashed, dotted) and text labels carry the meaning, so the charts read in greyscale.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+from reportlab.graphics.shapes import Drawing, Group, Line, Polygon, PolyLine, Rect, String
+from reportlab.lib import colors
+from reportlab.pdfbase.pdfmetrics import stringWidth
+
+from hazard.formatting import format_margin
+from hazard.result import Assessment, HazardResult
+from reports.fonts import FontSet
+from reports.style import INK, MUTED, PANEL, RULE, SPECTRUM_EDGE, SPECTRUM_FILL, group_fill, group_ink
+from weighting_tables import load_table
+
+__all__ = ["ACTION_SPECTRA", "spectrum_chart", "margin_chart"]
+
+ACTION_SPECTRA = (("s_uv", "S_UV(λ) actinic UV", None, 1.1),
+                  ("blue_light", "B(λ) blue light", (4, 2.2), 1.1),
+                  ("retinal_thermal", "R(λ) retinal thermal", (0.9, 1.8), 1.4))
+"""Weighting table, legend text, dash pattern (None: solid) and line width of each overlaid action spectrum."""
+
+_Y_DECADES = (-4, 1)          # spectrum chart: 1e-4 … 10 (R peaks at 10)
+_X_DECADES = (-4, 6)          # margin chart: value ÷ Exempt limit from 1e-4 to 1e6
+_TICK = 6.5                   # tick label size [pt]
+
+
+def _power_of_ten(x: float, y: float, exponent: int, fonts: FontSet, anchor: str = "middle") -> Group:
+    """'10' with a raised exponent, as a tick label; ``anchor`` is middle or end at ``x``."""
+    base, sup = "10", str(exponent)
+    w_base = stringWidth(base, fonts.regular, _TICK)
+    w_sup = stringWidth(sup, fonts.regular, _TICK - 1.5)
+    left = x - (w_base + w_sup) / 2 if anchor == "middle" else x - w_base - w_sup
+    return Group(String(left, y, base, fontName=fonts.regular, fontSize=_TICK, fillColor=MUTED),
+                 String(left + w_base + 0.3, y + 2.6, sup, fontName=fonts.regular, fontSize=_TICK - 1.5,
+                        fillColor=MUTED))
+
+
+def _text(x: float, y: float, text: str, fonts: FontSet, size: float = 7, bold: bool = False,
+          color: colors.Color = INK, anchor: str = "start") -> String:
+    return String(x, y, fonts.clean(text), fontName=fonts.bold if bold else fonts.regular, fontSize=size,
+                  fillColor=color, textAnchor=anchor)
+
+
+def _segments(points: list[tuple[float, float]], keep: list[bool]) -> list[list[tuple[float, float]]]:
+    """Runs of consecutive points whose ``keep`` flag is set."""
+    runs: list[list[tuple[float, float]]] = []
+    current: list[tuple[float, float]] = []
+    for point, flag in zip(points, keep):
+        if flag:
+            current.append(point)
+        elif current:
+            runs.append(current)
+            current = []
+    if current:
+        runs.append(current)
+    return [run for run in runs if len(run) > 1]
+
+
+def _wavelength_range(assessment: Assessment) -> tuple[float, float, float]:
+    """x range of the spectrum chart and its grid step: the measured range and the action spectra's bands."""
+    s = assessment.spectrum
+    lo = min(200.0, math.floor(s.min_nm / 100) * 100)
+    hi = max(1400.0, math.ceil(s.max_nm / 100) * 100)
+    step = 100.0 if hi - lo <= 1400 else 200.0
+    return lo, hi, step
+
+
+def spectrum_chart(assessment: Assessment, width: float, height: float, fonts: FontSet) -> Drawing:
+    """The spectrum preview (relative to its peak) and the action spectra on one log axis.
+
+    Parameters
+    ----------
+    assessment : Assessment
+        Its ``spectrum.preview_nm`` / ``preview_value_si`` are drawn.
+    width, height : float
+        Size of the drawing [pt].
+    fonts : FontSet
+        Report fonts.
+
+    Returns
+    -------
+    Drawing
+    """
+    d = Drawing(width, height)
+    left, right, bottom, top = 34.0, 8.0, 24.0, 20.0
+    pw, ph = width - left - right, height - bottom - top
+    lo, hi, step = _wavelength_range(assessment)
+    y0, y1 = _Y_DECADES
+
+    def px(nm: float) -> float:
+        return left + (nm - lo) / (hi - lo) * pw
+
+    def py(value: float) -> float:
+        return bottom + (math.log10(value) - y0) / (y1 - y0) * ph
+
+    s = assessment.spectrum
+    for start, end in ((lo, s.min_nm), (s.max_nm, hi)):
+        if end > start:
+            d.add(Rect(px(start), bottom, px(end) - px(start), ph, fillColor=PANEL, strokeColor=None))
+            if px(end) - px(start) > 40:
+                d.add(_text((px(start) + px(end)) / 2, bottom + ph - 9, "not measured", fonts, 6, color=MUTED,
+                            anchor="middle"))
+    for decade in range(y0, y1 + 1):
+        d.add(Line(left, py(10.0 ** decade), left + pw, py(10.0 ** decade), strokeColor=RULE,
+                   strokeWidth=0.3 if decade else 0.7))
+        d.add(_power_of_ten(left - 3, py(10.0 ** decade) - 2.2, decade, fonts, anchor="end"))
+    for nm in np.arange(lo, hi + 0.5, step):
+        d.add(Line(px(nm), bottom, px(nm), bottom - 2.5, strokeColor=INK, strokeWidth=0.5))
+        d.add(_text(px(nm), bottom - 10, f"{nm:.0f}", fonts, _TICK, color=MUTED, anchor="middle"))
+    floor = 10.0 ** y0
+    peak = max(s.preview_value_si, default=0.0)
+    if peak > 0:
+        outline = [(px(nm), py(max(v / peak, floor))) for nm, v in zip(s.preview_nm, s.preview_value_si)]
+        area = [(outline[0][0], bottom), *outline, (outline[-1][0], bottom)]
+        d.add(Polygon([c for point in area for c in point], fillColor=SPECTRUM_FILL, strokeColor=None))
+        d.add(PolyLine([c for point in outline for c in point], strokeColor=SPECTRUM_EDGE, strokeWidth=0.6))
+    for name, _, dash, line_width in ACTION_SPECTRA:
+        table = load_table(name)
+        grid = np.arange(table.range_nm[0], table.range_nm[1] + 0.5, 1.0)
+        weights = table.at(grid)
+        points = [(px(nm), py(max(w, floor))) for nm, w in zip(grid, weights)]
+        for run in _segments(points, list(weights >= floor)):
+            d.add(PolyLine([c for point in run for c in point], strokeColor=INK, strokeWidth=line_width,
+                           strokeDashArray=dash, strokeLineCap=1 if dash and dash[0] < 1 else 0))
+    d.add(Rect(left, bottom, pw, ph, fillColor=None, strokeColor=INK, strokeWidth=0.6))
+    d.add(_text(left + pw / 2, 2, "wavelength λ [nm]", fonts, 7, color=MUTED, anchor="middle"))
+    d.add(_legend(left, height - 9, fonts))
+    return d
+
+
+def _legend(x: float, y: float, fonts: FontSet) -> Group:
+    """Legend row: the spectrum's swatch, then one sample line per action spectrum."""
+    g = Group()
+    label = "spectrum ÷ its peak (highest sample per bin)"
+    g.add(Rect(x, y - 1, 14, 6, fillColor=SPECTRUM_FILL, strokeColor=SPECTRUM_EDGE, strokeWidth=0.6))
+    g.add(_text(x + 18, y, label, fonts, 7))
+    cursor = x + 18 + stringWidth(fonts.clean(label), fonts.regular, 7) + 14
+    for _, text, dash, line_width in ACTION_SPECTRA:
+        g.add(Line(cursor, y + 2.5, cursor + 20, y + 2.5, strokeColor=INK, strokeWidth=line_width,
+                   strokeDashArray=dash, strokeLineCap=1 if dash and dash[0] < 1 else 0))
+        g.add(_text(cursor + 24, y, text, fonts, 7))
+        cursor += 24 + stringWidth(fonts.clean(text), fonts.regular, 7) + 14
+    return g
+
+
+def _chart_rows(assessment: Assessment) -> list[HazardResult]:
+    """Hazards that have risk groups (E_H has an exposure limit only), in report order."""
+    return [h for h in assessment.hazards.values() if h.limits]
+
+
+def margin_chart(assessment: Assessment, width: float, fonts: FontSet) -> Drawing:
+    """Each hazard's value relative to its Exempt limit, with its group zones, on one log axis.
+
+    A row's zones run Exempt up to the Exempt limit (1 on the axis), RG1 up to where the value would meet
+    the RG1 limit (``margins["Exempt"] / margins["RG1"]``), RG2 up to the RG2 limit, RG3 beyond. The
+    boundaries are where the same spectrum, scaled, would reach each limit, so field-of-view averaging at
+    each boundary is respected.
+
+    Parameters
+    ----------
+    assessment : Assessment
+    width : float
+        Width of the drawing [pt]; the height follows from the number of rows.
+    fonts : FontSet
+
+    Returns
+    -------
+    Drawing
+    """
+    rows = _chart_rows(assessment)
+    row_h, gap, label_w, result_w, bottom, top = 17.0, 3.0, 118.0, 118.0, 26.0, 12.0
+    height = bottom + top + len(rows) * (row_h + gap)
+    d = Drawing(width, height)
+    left, pw = label_w, width - label_w - result_w
+    x0, x1 = _X_DECADES
+
+    def px(ratio: float) -> float:
+        return left + (min(max(math.log10(ratio), x0), x1) - x0) / (x1 - x0) * pw
+
+    for decade in range(x0, x1 + 1):
+        x = px(10.0 ** decade)
+        d.add(Line(x, bottom, x, height - top, strokeColor=RULE, strokeWidth=0.3))
+        d.add(_power_of_ten(x, bottom - 10, decade, fonts))
+    for i, hazard in enumerate(rows):
+        y = height - top - (i + 1) * (row_h + gap) + gap
+        d.add(_text(0, y + row_h / 2 + 0.5, hazard.symbol, fonts, 8, bold=True))
+        d.add(_text(0, y + row_h / 2 - 7.5, hazard.title, fonts, 6.3, color=MUTED))
+        d.add(_row(hazard, left, y, pw, row_h, px, fonts))
+        d.add(_result(hazard, left + pw + 8, y, row_h, fonts))
+    one = px(1.0)
+    d.add(Line(one, bottom - 2, one, height - top + 2, strokeColor=INK, strokeWidth=0.9))
+    d.add(_text(one, height - top + 4, "Exempt limit", fonts, 6.5, bold=True, anchor="middle"))
+    d.add(_text(left + pw / 2, 2, "value ÷ Exempt limit (log scale); zones end where the value reaches "
+                "each group's limit", fonts, 7, color=MUTED, anchor="middle"))
+    return d
+
+
+def _row(hazard: HazardResult, left: float, y: float, pw: float, row_h: float, px, fonts: FontSet) -> Group:
+    """One hazard's band: group zones, boundary ticks and the value marker (or why there is none)."""
+    g = Group()
+    margins = hazard.margins
+    if not hazard.assessed or not margins or margins["Exempt"] <= 0:
+        reason = ("not assessed: the spectrum does not cover this band" if not hazard.assessed
+                  else "value 0: nothing emitted in this band")
+        g.add(Rect(left, y, pw, row_h, fillColor=colors.white, strokeColor=RULE, strokeWidth=0.5))
+        g.add(_text(left + 6, y + row_h / 2 - 2.5, reason, fonts, 7, color=MUTED))
+        return g
+    value = margins["Exempt"]
+    edges = [px(10.0 ** _X_DECADES[0]), px(1.0), px(value / margins["RG1"]), px(value / margins["RG2"]),
+             px(10.0 ** _X_DECADES[1])]
+    for group, start, end in zip(("Exempt", "RG1", "RG2", "RG3"), edges, edges[1:]):
+        if end - start <= 0:
+            continue
+        g.add(Rect(start, y, end - start, row_h, fillColor=group_fill(group), strokeColor=None))
+        if end - start >= stringWidth(group, fonts.bold, 6) + 6:
+            g.add(_text(start + 3, y + row_h - 6.5, group, fonts, 6, bold=True, color=group_ink(group)))
+    for edge in edges[1:4]:
+        g.add(Line(edge, y, edge, y + row_h, strokeColor=INK, strokeWidth=0.7))
+    g.add(Rect(left, y, pw, row_h, fillColor=None, strokeColor=INK, strokeWidth=0.5))
+    g.add(_marker(px(value), y + row_h / 2 - 2, value, fonts))
+    return g
+
+
+def _marker(x: float, y: float, value: float, fonts: FontSet) -> Group:
+    """A diamond at the value, or an arrow at the axis end when the value lies beyond it."""
+    r = 4.2
+    low, high = 10.0 ** _X_DECADES[0], 10.0 ** _X_DECADES[1]
+    if value < low:
+        points = [x + 1, y, x + 2 * r + 1, y + r, x + 2 * r + 1, y - r]
+    elif value > high:
+        points = [x - 1, y, x - 2 * r - 1, y + r, x - 2 * r - 1, y - r]
+    else:
+        points = [x, y + r, x + r, y, x, y - r, x - r, y]
+    return Group(Polygon(points, fillColor=INK, strokeColor=colors.white, strokeWidth=0.8))
+
+
+def _result(hazard: HazardResult, x: float, y: float, row_h: float, fonts: FontSet) -> Group:
+    """Right-hand column: the hazard's group as a labelled box, and its margin in words."""
+    g = Group()
+    group = hazard.risk_group
+    label = group or "—"
+    g.add(Rect(x, y + 2, 30, row_h - 4, fillColor=group_fill(group), strokeColor=INK, strokeWidth=0.5))
+    g.add(_text(x + 15, y + row_h / 2 - 2.5, label, fonts, 7, bold=True, color=group_ink(group),
+                anchor="middle"))
+    margin = format_margin(group, hazard.margins) if hazard.assessed else "not assessed"
+    g.add(_text(x + 35, y + row_h / 2 - 2.5, margin, fonts, 7))
+    return g

@@ -1,0 +1,92 @@
+"""Ranking a batch for the summary: pure functions of the results, no drawing.
+
+A product's *tightest margin* is the ratio value/limit at the boundary that matters (as
+:func:`hazard.formatting.margin_to_next` defines it) for the deciding hazard closest to the next group up:
+the largest such ratio among ``Assessment.deciding_hazards``. Products rank by overall group, highest first,
+then by that ratio, largest first (least headroom, or furthest over the RG2 limit), then by id.
+"""
+
+from __future__ import annotations
+
+from typing import NamedTuple
+
+from hazard.formatting import margin_to_next
+from hazard.hazards import GROUPS
+from hazard.result import Assessment
+
+__all__ = ["BORDERLINE_FACTOR", "Tightest", "tightest_margin", "is_borderline", "rank_assessments"]
+
+BORDERLINE_FACTOR = 1.25
+"""A value within this factor of a group boundary, on either side, is flagged borderline."""
+
+
+class Tightest(NamedTuple):
+    """The deciding hazard closest to the next boundary."""
+
+    symbol: str
+    boundary: str
+    ratio: float
+
+
+def tightest_margin(assessment: Assessment) -> Tightest | None:
+    """The deciding hazard with the largest value/limit ratio at its group's upper boundary.
+
+    Parameters
+    ----------
+    assessment : Assessment
+
+    Returns
+    -------
+    Tightest or None
+        None when no deciding hazard has groups (e.g. nothing could be assessed).
+    """
+    found = []
+    for symbol in assessment.deciding_hazards:
+        hazard = assessment.hazards[symbol]
+        margin = margin_to_next(hazard.risk_group, hazard.margins)
+        if margin is not None:
+            found.append(Tightest(symbol, *margin))
+    return max(found, key=lambda t: (t.ratio, t.symbol), default=None)
+
+
+def is_borderline(assessment: Assessment) -> bool:
+    """The tightest hazard lies within :data:`BORDERLINE_FACTOR` of a group boundary, either side.
+
+    The boundaries that can move the hazard's group are its group's upper limit and the limit of the group
+    below (for RG3 both are the RG2 limit); the hazard is borderline when its ratio value/limit at either
+    lies between 1/1.25 = 0.8 and 1.25.
+
+    Parameters
+    ----------
+    assessment : Assessment
+
+    Returns
+    -------
+    bool
+    """
+    tightest = tightest_margin(assessment)
+    if tightest is None:
+        return False
+    hazard = assessment.hazards[tightest.symbol]
+    rank = GROUPS.index(hazard.risk_group)
+    boundaries = {GROUPS[min(rank, 2)], GROUPS[max(rank - 1, 0)]}
+    return any(1 / BORDERLINE_FACTOR <= hazard.margins[b] <= BORDERLINE_FACTOR for b in boundaries)
+
+
+def rank_assessments(assessments: list[Assessment]) -> list[Assessment]:
+    """The batch in summary order: highest group first, then least headroom to the next boundary.
+
+    Parameters
+    ----------
+    assessments : list of Assessment
+
+    Returns
+    -------
+    list of Assessment
+        A new list; products without a tightest margin come last within their group, ties go by id.
+    """
+    def key(assessment: Assessment) -> tuple[int, float, str]:
+        tightest = tightest_margin(assessment)
+        return (-GROUPS.index(assessment.risk_group), -(tightest.ratio if tightest else -1.0), assessment.id)
+
+    return sorted(assessments, key=key)
