@@ -14,8 +14,9 @@ from hazard.engine import assess
 from hazard.errors import InputError
 from hazard.hazards import IEC_62471_2006
 from hazard.inputs import load_product
+from hazard.many import assess_many
 from hazard.record import ProductRecord
 from hazard.result import Assessment, HazardResult
 
-__all__ = ["__version__", "assess", "load_product", "ProductRecord", "Assessment", "HazardResult",
+__all__ = ["__version__", "assess", "assess_many", "load_product", "ProductRecord", "Assessment", "HazardResult",
            "InputError", "IEC_62471_2006"]

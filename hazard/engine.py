@@ -53,14 +53,20 @@ def source_shape(records: list[ProductRecord]) -> SourceShape:
     return SourceShape(np.array(width) * 1e-3, np.array(height) * 1e-3)
 
 
-def product_arrays(records: list[ProductRecord], raw: np.ndarray, covered: np.ndarray) -> ProductArrays:
-    """Stack records and their integrals for :func:`~hazard.evaluate.evaluate`."""
+def product_arrays(records: list[ProductRecord], raw: np.ndarray, covered: np.ndarray,
+                   index: np.ndarray | None = None) -> ProductArrays:
+    """Stack records and their integrals for :func:`~hazard.evaluate.evaluate`.
+
+    With ``index``, product i uses ``records[index[i]]`` (many products sharing one validated record's
+    geometry); otherwise product i uses ``records[i]``.
+    """
+    take = np.arange(len(records)) if index is None else np.asarray(index)
+    distance = np.array([np.nan if r.distance_mm is None else r.distance_mm * 1e-3 for r in records])
     return ProductArrays(
         raw=np.atleast_2d(raw), covered=np.atleast_2d(covered),
-        is_radiance=np.array([r.quantity == "radiance" for r in records]),
-        measurement_distance_m=np.array([np.nan if r.distance_mm is None else r.distance_mm * 1e-3
-                                         for r in records]),
-        shape=source_shape(records), is_gls=np.array([r.lamp_type == "gls" for r in records]))
+        is_radiance=np.array([r.quantity == "radiance" for r in records])[take],
+        measurement_distance_m=distance[take], shape=source_shape(records).take(take),
+        is_gls=np.array([r.lamp_type == "gls" for r in records])[take])
 
 
 def _float(x) -> float | None:
@@ -229,12 +235,12 @@ class BatchEvaluation:
 
 
 def evaluate_products(records: list[ProductRecord], integrated: Integrated,
-                      limit_set: LimitSet = DEFAULT_LIMIT_SET) -> BatchEvaluation:
+                      limit_set: LimitSet = DEFAULT_LIMIT_SET, index: np.ndarray | None = None) -> BatchEvaluation:
     """Apply the method to n products whose integrals are known; colour only where V(λ) is covered and
-    there is light."""
-    ev = evaluate(product_arrays(records, integrated.raw, integrated.covered), limit_set)
+    there is light. ``index`` maps products to ``records`` as in :func:`product_arrays`."""
+    ev = evaluate(product_arrays(records, integrated.raw, integrated.covered, index), limit_set)
     v = [s.key for s in integral_specs(limit_set)].index("V")
-    nan = np.full(len(records), np.nan)
+    nan = np.full(integrated.raw.shape[0], np.nan)
     x, y, cct, duv = nan.copy(), nan.copy(), nan.copy(), nan.copy()
     lit = integrated.covered[:, v] & (ev.illuminance_lx > 0)
     if lit.any():

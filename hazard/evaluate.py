@@ -112,8 +112,11 @@ def _assessment_distance_m(arrays: ProductArrays, v_raw: np.ndarray) -> np.ndarr
         lum_or_illum = K_M_LM_PER_W * v_raw
         from_irradiance = d_m * np.sqrt(lum_or_illum / GLS_ILLUMINANCE_LX)
         needed_sr = np.where(lum_or_illum > 0, GLS_ILLUMINANCE_LX / lum_or_illum, np.inf)
-    from_radiance = arrays.shape.distance_for_solid_angle_m(needed_sr)
-    d500 = np.where(arrays.is_radiance, from_radiance, from_irradiance)
+    d500 = from_irradiance
+    solve = np.flatnonzero(arrays.is_radiance & arrays.is_gls)
+    if solve.size:
+        d500 = d500.copy()
+        d500[solve] = arrays.shape.take(solve).distance_for_solid_angle_m(needed_sr[solve])
     return np.where(arrays.is_gls, np.fmax(MIN_ASSESSMENT_DISTANCE_M, np.nan_to_num(d500)),
                     MIN_ASSESSMENT_DISTANCE_M)
 

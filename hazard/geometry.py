@@ -53,6 +53,10 @@ class SourceShape:
     width_m: np.ndarray
     height_m: np.ndarray
 
+    def take(self, index: np.ndarray) -> "SourceShape":
+        """The shapes at ``index`` (positions or a boolean mask)."""
+        return SourceShape(self.width_m[index], self.height_m[index])
+
     @property
     def is_disc(self) -> np.ndarray:
         """True where the source is a disc."""

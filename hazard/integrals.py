@@ -80,8 +80,12 @@ def _empty(n: int, limit_set: LimitSet) -> Integrated:
 
 def integrate_matrix(grid_nm: np.ndarray, values: np.ndarray, no_emission_outside: np.ndarray,
                      limit_set: LimitSet, factor_to_si: np.ndarray | None = None,
-                     chunk_rows: int = CHUNK_ROWS) -> Integrated:
+                     has_negatives: np.ndarray | None = None, chunk_rows: int = CHUNK_ROWS) -> Integrated:
     """Integrals of n spectra on one grid; negative samples count as zero (dark noise, method §5).
+
+    float32 spectra are multiplied in float32 (half the memory traffic); every term is non-negative, so
+    the sum's relative rounding error stays below m·2⁻²⁴ (1.7e-4 for 2801 samples) and is typically about
+    1e-6, far below any measurement uncertainty. float64 spectra are multiplied in float64.
 
     Parameters
     ----------
@@ -93,18 +97,22 @@ def integrate_matrix(grid_nm: np.ndarray, values: np.ndarray, no_emission_outsid
         (n,) bool, per product.
     factor_to_si : numpy.ndarray, optional
         (n,) multiplier from each row's unit to SI [1]; applied to the integrals (they are linear).
+    has_negatives : numpy.ndarray, optional
+        (n,) rows known to hold negatives; found here when not given.
     chunk_rows : int
-        Rows converted to float64 and multiplied at once; the caller's array is never modified.
+        Rows multiplied at once; the caller's array is never modified.
     """
-    matrix = integral_matrix(grid_nm, limit_set)
+    dtype = np.float32 if values.dtype == np.float32 else np.float64
+    matrix = integral_matrix(grid_nm, limit_set).astype(dtype)
     flags = np.asarray(no_emission_outside, dtype=bool)
     out = _empty(values.shape[0], limit_set)
     for start in range(0, values.shape[0], chunk_rows):
         rows = slice(start, start + chunk_rows)
         chunk = values[rows]
-        if chunk.min() < 0:
+        negative = chunk.min() < 0 if has_negatives is None else has_negatives[rows].any()
+        if negative:
             chunk = np.maximum(chunk, 0)
-        _fill(out, rows, chunk.astype(float, copy=False) @ matrix, grid_nm, flags[rows], limit_set)
+        _fill(out, rows, chunk.astype(dtype, copy=False) @ matrix, grid_nm, flags[rows], limit_set)
     if factor_to_si is not None:
         out.raw[:] *= factor_to_si[:, None]
         out.xyz[:] *= factor_to_si[:, None]

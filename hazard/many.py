@@ -58,8 +58,9 @@ def _id_of(item, prepared) -> str:
     return str(item.get("id")) if isinstance(item, dict) else str(getattr(item, "id", item))
 
 
-def _check_spectra(wavelength_nm: np.ndarray, spectra: np.ndarray) -> list[str | None]:
-    """Why each row breaks the value rules of method §5 (None where it does not); a bad grid raises."""
+def _check_spectra(wavelength_nm: np.ndarray, spectra: np.ndarray) -> tuple[list[str | None], np.ndarray]:
+    """Why each row breaks the value rules of method §5 (None where it does not), and which rows hold
+    negatives (to be set to zero); a bad grid raises."""
     grid = np.asarray(wavelength_nm, dtype=float)
     if grid.ndim != 1 or spectra.ndim != 2 or spectra.shape[1] != grid.size:
         raise ValueError(f"spectra must be (n, {grid.size}) for a grid of {grid.size} wavelengths, got "
@@ -67,16 +68,35 @@ def _check_spectra(wavelength_nm: np.ndarray, spectra: np.ndarray) -> list[str |
     if not np.all(np.diff(grid) > 0):
         raise ValueError("wavelength_nm must be strictly increasing [nm]")
     reasons: list[str | None] = [None] * spectra.shape[0]
+    has_negatives = np.zeros(spectra.shape[0], dtype=bool)
     for start in range(0, spectra.shape[0], CHUNK_ROWS):
         chunk = spectra[start:start + CHUNK_ROWS]
-        finite = np.isfinite(chunk).all(axis=1)
-        peak = np.where(finite, chunk.max(axis=1), 0.0)
-        lowest = np.where(finite, chunk.min(axis=1), 0.0)
+        peak, lowest = chunk.max(axis=1), chunk.min(axis=1)  # NaN and ±inf show up in one of the two
+        finite = np.isfinite(peak) & np.isfinite(lowest)
+        has_negatives[start:start + chunk.shape[0]] = lowest < 0
         for i in np.flatnonzero(~finite | (peak <= 0) | (lowest < -NEGATIVE_TOLERANCE * peak)):
             reasons[start + i] = ("a value is not finite (NaN or infinity)" if not finite[i]
                                   else "no positive value" if peak[i] <= 0
                                   else f"negative beyond dark noise ({NEGATIVE_TOLERANCE:.0%} of the peak)")
-    return reasons
+    return reasons, has_negatives
+
+
+def _distinct(records) -> tuple[list, list[str], np.ndarray]:
+    """(distinct records without their ids, ids, index of each product's distinct record).
+
+    Products that share every field but the id share one validation: batches measured on one set-up
+    validate once.
+    """
+    if hasattr(records, "to_dict"):
+        fields = records.drop(columns=["id"], errors="ignore")
+        ids = records["id"].astype(str).tolist() if "id" in records else [""] * len(records)
+        if fields.shape[1] == 0:
+            return [{}], ids, np.zeros(len(records), dtype=int)
+        index = fields.groupby(list(fields.columns), dropna=False, sort=False).ngroup().to_numpy()
+        return fields.drop_duplicates().to_dict("records"), ids, index
+    items = list(records)
+    ids = [_id_of(item, None) for item in items]
+    return items, ids, np.arange(len(items))
 
 
 def _frame(batch: BatchEvaluation | None, ids: list[str], good: list[int], errors: dict[int, str],
@@ -86,6 +106,8 @@ def _frame(batch: BatchEvaluation | None, ids: list[str], good: list[int], error
     n = len(ids)
 
     def spread(values, numeric: bool = True):
+        if len(good) == n:
+            return values
         out = np.full(n, np.nan) if numeric else np.full(n, None, dtype=object)
         if good:
             out[good] = values
@@ -139,32 +161,51 @@ def assess_many(records, wavelength_nm: np.ndarray | None = None, spectra: np.nd
         Columns :func:`frame_columns`. A product that fails validation has ``status == "error"`` and its
         reason in ``error``; values of hazards that do not apply or were not assessed are NaN.
     """
-    if hasattr(records, "to_dict"):
-        records = records.to_dict("records")
-    records = list(records)
-    n = len(records)
-    if spectra is not None and spectra.shape[0] != n:
-        raise ValueError(f"{n} records but {spectra.shape[0]} spectra")
-    errors: dict[int, str] = {}
-    prepared: list = [None] * n
-    for i, item in enumerate(records):
+    if spectra is None:
+        items = records.to_dict("records") if hasattr(records, "to_dict") else list(records)
+        errors: dict[int, str] = {}
+        loaded: dict[int, LoadedProduct] = {}
+        for i, item in enumerate(items):
+            try:
+                loaded[i] = _prepare(item, i, read_spectrum=True)
+            except InputError as exc:
+                errors[i] = str(exc)
+        ids = [_id_of(item, loaded.get(i)) for i, item in enumerate(items)]
+        good = sorted(loaded)
+        batch = evaluate_loaded([loaded[i] for i in good], limit_set) if good else None
+        return _frame(batch, ids, good, errors, limit_set)
+    distinct, ids, index = _distinct(records)
+    if len(ids) != spectra.shape[0]:
+        raise ValueError(f"{len(ids)} records but {spectra.shape[0]} spectra")
+    validated: list[ProductRecord | str] = []
+    for k, item in enumerate(distinct):
         try:
-            prepared[i] = _prepare(item, i, read_spectrum=spectra is None)
+            record = _prepare({"id": "-", **item} if isinstance(item, dict) else item, k, read_spectrum=False)
+            validated.append(record)
         except InputError as exc:
-            errors[i] = str(exc)
-    ids = [_id_of(item, p) for item, p in zip(records, prepared)]
-    if spectra is not None:
-        for i, reason in enumerate(_check_spectra(wavelength_nm, spectra)):
-            if reason is not None and i not in errors:
-                errors[i] = f"record {i + 1} ({ids[i]}): {reason}"
-    good = [i for i in range(n) if i not in errors]
+            validated.append(str(exc))
+    reasons, has_negatives = _check_spectra(wavelength_nm, spectra)
+    errors = {}
+    for i, product_id in enumerate(ids):
+        problem = validated[index[i]]
+        if isinstance(problem, str):
+            errors[i] = f"{product_id}: {problem}"
+        elif not product_id:
+            errors[i] = f"record {i + 1}: the id is empty; fix: give every product an id"
+        elif reasons[i] is not None:
+            errors[i] = f"{product_id}: {reasons[i]}; fix: correct or remove this spectrum"
+    good = [i for i in range(len(ids)) if i not in errors]
     if not good:
         return _frame(None, ids, good, errors, limit_set)
-    if spectra is None:
-        return _frame(evaluate_loaded([prepared[i] for i in good], limit_set), ids, good, errors, limit_set)
-    kept = [prepared[i] for i in good]
-    factors = np.array([parse_spectral_unit(r.unit_text).factor_to_si for r in kept])
-    integrated = integrate_matrix(np.asarray(wavelength_nm, dtype=float),
-                                  spectra if len(good) == n else spectra[good],
-                                  np.array([r.no_emission_outside for r in kept]), limit_set, factors)
-    return _frame(evaluate_products(kept, integrated, limit_set), ids, good, errors, limit_set)
+    rows = slice(None) if len(good) == len(ids) else np.array(good)
+    usable = [k for k, r in enumerate(validated) if isinstance(r, ProductRecord)]
+    renumber = np.full(len(validated), -1)
+    renumber[usable] = np.arange(len(usable))
+    kept_records = [validated[k] for k in usable]
+    kept_index = renumber[index[rows]]
+    factors = np.array([parse_spectral_unit(r.unit_text).factor_to_si for r in kept_records])[kept_index]
+    flags = np.array([r.no_emission_outside for r in kept_records])[kept_index]
+    integrated = integrate_matrix(np.asarray(wavelength_nm, dtype=float), spectra[rows], flags, limit_set,
+                                  factors, has_negatives[rows])
+    batch = evaluate_products(kept_records, integrated, limit_set, kept_index)
+    return _frame(batch, ids, good, errors, limit_set)

@@ -180,7 +180,7 @@ def margin_chart(assessment: Assessment, width: float, fonts: FontSet) -> Drawin
     Drawing
     """
     rows = _chart_rows(assessment)
-    row_h, gap, label_w, result_w, bottom, top = 17.0, 3.0, 118.0, 118.0, 26.0, 12.0
+    row_h, gap, label_w, result_w, bottom, top = 15.0, 2.5, 118.0, 118.0, 24.0, 11.0
     height = bottom + top + len(rows) * (row_h + gap)
     d = Drawing(width, height)
     left, pw = label_w, width - label_w - result_w
@@ -195,8 +195,8 @@ def margin_chart(assessment: Assessment, width: float, fonts: FontSet) -> Drawin
         d.add(_power_of_ten(x, bottom - 10, decade, fonts))
     for i, hazard in enumerate(rows):
         y = height - top - (i + 1) * (row_h + gap) + gap
-        d.add(_text(0, y + row_h / 2 + 0.5, hazard.symbol, fonts, 8, bold=True))
-        d.add(_text(0, y + row_h / 2 - 7.5, hazard.title, fonts, 6.3, color=MUTED))
+        d.add(_text(0, y + row_h / 2 + 0.5, hazard.symbol, fonts, 7.5, bold=True))
+        d.add(_text(0, y + row_h / 2 - 6.5, hazard.title, fonts, 6.3, color=MUTED))
         d.add(_row(hazard, left, y, pw, row_h, px, fonts))
         d.add(_result(hazard, left + pw + 8, y, row_h, fonts))
     one = px(1.0)
@@ -225,17 +225,17 @@ def _row(hazard: HazardResult, left: float, y: float, pw: float, row_h: float, p
             continue
         g.add(Rect(start, y, end - start, row_h, fillColor=group_fill(group), strokeColor=None))
         if end - start >= stringWidth(group, fonts.bold, 6) + 6:
-            g.add(_text(start + 3, y + row_h - 6.5, group, fonts, 6, bold=True, color=group_ink(group)))
+            g.add(_text(start + 2.5, y + row_h - 6, group, fonts, 5.8, bold=True, color=group_ink(group)))
     for edge in edges[1:4]:
         g.add(Line(edge, y, edge, y + row_h, strokeColor=INK, strokeWidth=0.7))
     g.add(Rect(left, y, pw, row_h, fillColor=None, strokeColor=INK, strokeWidth=0.5))
-    g.add(_marker(px(value), y + row_h / 2 - 2, value, fonts))
+    g.add(_marker(px(value), y + 5, value))
     return g
 
 
-def _marker(x: float, y: float, value: float, fonts: FontSet) -> Group:
+def _marker(x: float, y: float, value: float) -> Group:
     """A diamond at the value, or an arrow at the axis end when the value lies beyond it."""
-    r = 4.2
+    r = 3.8
     low, high = 10.0 ** _X_DECADES[0], 10.0 ** _X_DECADES[1]
     if value < low:
         points = [x + 1, y, x + 2 * r + 1, y + r, x + 2 * r + 1, y - r]
@@ -251,9 +251,9 @@ def _result(hazard: HazardResult, x: float, y: float, row_h: float, fonts: FontS
     g = Group()
     group = hazard.risk_group
     label = group or "—"
-    g.add(Rect(x, y + 2, 30, row_h - 4, fillColor=group_fill(group), strokeColor=INK, strokeWidth=0.5))
-    g.add(_text(x + 15, y + row_h / 2 - 2.5, label, fonts, 7, bold=True, color=group_ink(group),
+    g.add(Rect(x, y + 2, 38, row_h - 4, fillColor=group_fill(group), strokeColor=INK, strokeWidth=0.5))
+    g.add(_text(x + 19, y + row_h / 2 - 2.5, label, fonts, 7, bold=True, color=group_ink(group),
                 anchor="middle"))
     margin = format_margin(group, hazard.margins) if hazard.assessed else "not assessed"
-    g.add(_text(x + 35, y + row_h / 2 - 2.5, margin, fonts, 7))
+    g.add(_text(x + 43, y + row_h / 2 - 2.5, margin, fonts, 7))
     return g

@@ -21,10 +21,10 @@ from reports.wording import FOOTER
 __all__ = ["PAGE_WIDTH", "PAGE_HEIGHT", "MARGIN", "FRAME_WIDTH", "build_pdf"]
 
 PAGE_WIDTH, PAGE_HEIGHT = A4
-MARGIN = 15 * mm
+MARGIN = 14 * mm
 FRAME_WIDTH = PAGE_WIDTH - 2 * MARGIN
-_FOOTER_Y = 9 * mm
-_HEADER_Y = PAGE_HEIGHT - 9 * mm
+_FOOTER_Y = 8 * mm
+_HEADER_Y = PAGE_HEIGHT - 8 * mm
 
 
 class _FramedCanvas(Canvas):
@@ -88,8 +88,8 @@ def build_pdf(flowables: list[Flowable], fonts: FontSet, title: str, header: str
         The PDF; identical for identical input (reportlab's invariant mode fixes dates and ids).
     """
     buffer = io.BytesIO()
-    doc = SimpleDocTemplate(buffer, pagesize=A4, leftMargin=MARGIN, rightMargin=MARGIN, topMargin=MARGIN,
-                            bottomMargin=MARGIN + 4 * mm, title=title, author=author, creator=author,
+    doc = SimpleDocTemplate(buffer, pagesize=A4, leftMargin=MARGIN, rightMargin=MARGIN, topMargin=12 * mm,
+                            bottomMargin=16 * mm, title=title, author=author, creator=author,
                             subject="Photobiological safety pre-screen", invariant=1)
     doc.build(flowables, canvasmaker=partial(_FramedCanvas, fonts=fonts, header=header))
     return buffer.getvalue()

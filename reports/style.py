@@ -69,16 +69,17 @@ class Styles:
                               alignment=TA_LEFT)
         self.body = base
         self.small = ParagraphStyle("small", base, fontSize=7.5, leading=9.4)
-        self.cell = ParagraphStyle("cell", base, fontSize=7.5, leading=9.2)
+        self.cell = ParagraphStyle("cell", base, fontSize=7.2, leading=8.8)
         self.cell_bold = ParagraphStyle("cell_bold", self.cell, fontName=fonts.bold)
-        self.head = ParagraphStyle("head", self.cell, fontName=fonts.bold, fontSize=7.2, textColor=INK)
+        self.head = ParagraphStyle("head", self.cell, fontName=fonts.bold, fontSize=7, textColor=INK)
+        self.digest = ParagraphStyle("digest", base, fontSize=6.4, leading=8.8)
         self.caption = ParagraphStyle("caption", base, fontSize=7, leading=8.8, textColor=MUTED)
         self.kicker = ParagraphStyle("kicker", base, fontName=fonts.bold, fontSize=7.5, leading=9.5,
                                      textColor=MUTED)
         self.title = ParagraphStyle("title", base, fontName=fonts.bold, fontSize=20, leading=24)
         self.subtitle = ParagraphStyle("subtitle", base, fontSize=11, leading=14)
-        self.h2 = ParagraphStyle("h2", base, fontName=fonts.bold, fontSize=10.5, leading=13, spaceBefore=8,
-                                 spaceAfter=3)
+        self.h2 = ParagraphStyle("h2", base, fontName=fonts.bold, fontSize=10.5, leading=13, spaceBefore=6,
+                                 spaceAfter=2)
         self.verdict = ParagraphStyle("verdict", base, fontName=fonts.bold, fontSize=30, leading=34,
                                       alignment=1)
         self.verdict_head = ParagraphStyle("verdict_head", base, fontName=fonts.bold, fontSize=11, leading=14)

@@ -1,0 +1,339 @@
+"""The PDF report of one product: page 1 at a glance, page 2 input, method and cautions.
+
+Everything printed comes from the :class:`~hazard.result.Assessment`; numbers are formatted by
+:mod:`hazard.formatting`, exactly as the text output prints them.
+"""
+
+from __future__ import annotations
+
+import datetime
+
+from reportlab.lib import colors
+from reportlab.pdfbase.pdfmetrics import stringWidth
+from reportlab.platypus import CondPageBreak, Flowable, KeepTogether, PageBreak, Spacer, Table
+
+from hazard.formatting import UNIT_DISPLAY, format_duration_s, format_limit, format_margin, format_value
+from hazard.result import Assessment, HazardResult
+from reports.charts import margin_chart, spectrum_chart
+from reports.fonts import report_fonts
+from reports.layout import FRAME_WIDTH, build_pdf
+from reports.style import INK, PANEL, Styles, group_fill, group_ink, table_style
+from reports.timestamp import format_report_time, report_time
+from reports.wording import GROUP_MEANING, GROUP_NAME, LOWER_BOUND
+
+__all__ = ["render_assessment_pdf"]
+
+_BOUNDARIES = ("Exempt", "RG1", "RG2")
+_SPECTRUM_UNIT = {"irradiance": "W/(m²·nm)", "radiance": "W/(m²·sr·nm)"}
+
+
+def _unit(unit: str) -> str:
+    return UNIT_DISPLAY.get(unit, unit)
+
+
+def _triple(values: dict[str, float], fmt, scale: float = 1.0) -> str:
+    """The Exempt / RG1 / RG2 entries of ``values`` as one string, or an em dash when there are none."""
+    if not values:
+        return "—"
+    return " / ".join(fmt(values[b] * scale) for b in _BOUNDARIES)
+
+
+def _record_value(value: object) -> str:
+    if isinstance(value, bool):
+        return "true" if value else "false"
+    if isinstance(value, float):
+        return f"{value:g}"
+    return str(value)
+
+
+def _group_label(hazard: HazardResult) -> str:
+    if not hazard.assessed:
+        return "not assessed"
+    return hazard.risk_group or "EL only"
+
+
+def _heading(a: Assessment, st: Styles, moment: datetime.datetime) -> Flowable:
+    p = a.provenance
+    left = [st.p(f"PHOTOBIOLOGICAL SAFETY PRE-SCREEN · {p.limit_set} method", st.kicker), st.p(a.id, st.title)]
+    if a.name:
+        left.append(st.p(a.name, st.subtitle))
+    maker = [f"{label} {a.record[key]}" for key, label in (("vendor", "Vendor:"), ("model", "Model:"))
+             if a.record.get(key)]
+    if maker:
+        left.append(st.p(" · ".join(maker), st.small))
+    right = [st.bold_lead("Report date", format_report_time(moment), st.small),
+             st.bold_lead("Tool", f"hazard {p.tool_version}", st.small),
+             st.bold_lead("Limit set", p.limit_set, st.small)]
+    table = Table([[left, right]], colWidths=[FRAME_WIDTH - 150, 150])
+    table.setStyle([("VALIGN", (0, 0), (-1, -1), "TOP"), ("LEFTPADDING", (0, 0), (-1, -1), 0),
+                    ("RIGHTPADDING", (0, 0), (-1, -1), 0), ("LINEBELOW", (0, 0), (-1, 0), 1.2, INK),
+                    ("BOTTOMPADDING", (0, 0), (-1, -1), 6)])
+    return table
+
+
+def _deciding(a: Assessment) -> str:
+    if not a.deciding_hazards:
+        return "none: no hazard with risk groups could be assessed"
+    parts = []
+    for symbol in a.deciding_hazards:
+        h = a.hazards[symbol]
+        parts.append(f"{symbol} ({h.title}, {format_margin(h.risk_group, h.margins)})")
+    return "; ".join(parts)
+
+
+def _verdict(a: Assessment, st: Styles) -> Flowable:
+    group = a.risk_group
+    label_style = st.verdict.clone("verdict_group", textColor=group_ink(group))
+    label = [st.p(group, label_style)]
+    if not a.complete:
+        label.append(st.p("lower bound", st.head.clone("lb", alignment=1, textColor=group_ink(group))))
+    text = [st.p(f"Overall risk group: {group} — {GROUP_NAME[group]}", st.verdict_head),
+            st.p(GROUP_MEANING[group]),
+            st.bold_lead("Decided by:", _deciding(a), st.small)]
+    rows = [[label, text]]
+    style = [("BACKGROUND", (0, 0), (0, 0), group_fill(group)), ("BOX", (0, 0), (0, 0), 1.2, INK),
+             ("VALIGN", (0, 0), (0, 0), "MIDDLE"), ("VALIGN", (1, 0), (1, 0), "TOP"),
+             ("LEFTPADDING", (1, 0), (1, 0), 10), ("TOPPADDING", (0, 0), (-1, -1), 5),
+             ("BOTTOMPADDING", (0, 0), (-1, -1), 6)]
+    if not a.complete:
+        missing = ", ".join(a.not_assessed)
+        rows.append([st.p(f"{LOWER_BOUND} (not assessed: {missing}). The product may belong to a higher "
+                          f"group.", st.banner), ""])
+        style += [("SPAN", (0, 1), (1, 1)), ("BOX", (0, 1), (1, 1), 2, INK), ("TOPPADDING", (0, 1), (1, 1), 5),
+                  ("LEFTPADDING", (0, 1), (1, 1), 7)]
+    table = Table(rows, colWidths=[96, FRAME_WIDTH - 96])
+    table.setStyle(style)
+    return table
+
+
+def _cautions(a: Assessment, st: Styles) -> Flowable:
+    rows = [[st.p("Cautions", st.cell_bold)]] + [[st.p(f"• {c}", st.small)] for c in a.cautions]
+    table = Table(rows, colWidths=[FRAME_WIDTH])
+    table.setStyle([("BACKGROUND", (0, 0), (-1, -1), PANEL), ("LINEBEFORE", (0, 0), (0, -1), 2.5, INK),
+                    ("LEFTPADDING", (0, 0), (-1, -1), 8), ("TOPPADDING", (0, 0), (-1, -1), 1.5),
+                    ("BOTTOMPADDING", (0, 0), (-1, -1), 1.5), ("TOPPADDING", (0, 0), (-1, 0), 4),
+                    ("BOTTOMPADDING", (0, -1), (-1, -1), 5)])
+    return table
+
+
+def _fit_widths(rows: list[list[str]], fonts, flexible: int, size: float, min_flexible: float = 96,
+                padding: float = 7) -> list[float]:
+    """Column widths that keep each column but ``flexible`` on one line where the page allows.
+
+    ``flexible`` takes what is left, at least ``min_flexible``; if the others need more than the rest of the
+    frame they shrink in proportion (and wrap).
+    """
+    natural = [max(stringWidth(fonts.clean(row[c]), fonts.bold, size) for row in rows) + padding
+               for c in range(len(rows[0]))]
+    others = sum(natural) - natural[flexible]
+    room = FRAME_WIDTH - max(min_flexible, FRAME_WIDTH - others)
+    widths = [w * min(1.0, room / others) for w in natural]
+    widths[flexible] = FRAME_WIDTH - sum(widths) + widths[flexible]
+    return widths
+
+
+def _hazard_table(a: Assessment, st: Styles) -> Flowable:
+    head = ["Symbol", "Hazard", "Value", "Unit", "Limits as applied", "", "", "t_max", "Group", "Margin"]
+    sub = ["", "", "", "", "Exempt", "RG1", "RG2", "", "", ""]
+    cells = [[h.symbol, h.title, format_value(h.value), _unit(h.unit),
+              *(format_limit(h.limits.get(b)) for b in _BOUNDARIES), format_duration_s(h.t_max_s),
+              _group_label(h), format_margin(h.risk_group, h.margins)] for h in a.hazards.values()]
+    rows = [[st.p(h, st.head) for h in head], [st.p(h, st.head) for h in sub]]
+    extra = [("SPAN", (4, 0), (6, 0))] + [("SPAN", (c, 0), (c, 1)) for c in (0, 1, 2, 3, 7, 8, 9)]
+    bold = {0, 2}
+    for i, (h, row) in enumerate(zip(a.hazards.values(), cells), start=2):
+        if not h.assessed:
+            rows.append([st.p(h.symbol, st.cell_bold), st.p(h.title, st.cell),
+                         st.bold_lead("not assessed:", h.note, st.cell)] + [""] * 7)
+            extra.append(("SPAN", (2, i), (9, i)))
+            continue
+        styles = [st.cell_bold if c in bold else st.cell for c in range(len(row))]
+        styles[8] = st.cell_bold.clone("group", textColor=group_ink(h.risk_group))
+        rows.append([st.p(text, style) for text, style in zip(row, styles)])
+        extra.append(("BACKGROUND", (8, i), (8, i), group_fill(h.risk_group)))
+    fitted = [row for h, row in zip(a.hazards.values(), cells) if h.assessed]
+    widths = _fit_widths([sub, ["Symbol", "Hazard", "Value", "Unit", "", "", "", "t_max", "Group", "Margin"],
+                          ["E_UVA", "", "", "W/(m²·sr)", "", "", "", "", "Exempt", "40% of Exempt limit"],
+                          *fitted], st.fonts, flexible=1, size=st.cell.fontSize)
+    table = Table(rows, colWidths=widths, repeatRows=2)
+    table.setStyle(table_style(header_rows=2, extra=extra))
+    return table
+
+
+def _hazard_caption(a: Assessment, st: Styles) -> Flowable:
+    return st.p("Radiance values (L_B, L_R, L_IR) are the source's own radiance; the limits are compared with "
+                "field-of-view averages (page 2). Thermal limits after the α bounds. t_max: time to reach the "
+                "exposure limit (—: not within its time range). Margin: value ÷ limit at the group's upper "
+                "boundary (RG3: multiple of the RG2 limit). EL only: exposure limit, no risk groups.",
+                st.caption)
+
+
+def _key_values(rows: list[tuple[str, str]], st: Styles, key_width: float = 104) -> Table:
+    table = Table([[st.p(k, st.cell_bold), st.p(v, st.cell)] for k, v in rows],
+                  colWidths=[key_width, FRAME_WIDTH - key_width])
+    table.setStyle([("VALIGN", (0, 0), (-1, -1), "TOP"), ("LEFTPADDING", (0, 0), (-1, -1), 0),
+                    ("TOPPADDING", (0, 0), (-1, -1), 1), ("BOTTOMPADDING", (0, 0), (-1, -1), 1.5),
+                    ("LINEBELOW", (0, 0), (-1, -1), 0.3, colors.HexColor("#D5DBE0"))])
+    return table
+
+
+def _geometry(a: Assessment, st: Styles) -> Flowable:
+    g, ph = a.geometry, a.photometry
+    source = (f"largest dimension {g.largest_dimension_mm:g} mm; α = {format_value(g.alpha_rad)} rad "
+              f"at the assessment distance; solid angle Ω_s = {format_value(g.source_solid_angle_sr)} sr")
+    if g.small_source:
+        source += "; small source (α < 0.011 rad): blue light assessed as irradiance E_B"
+    if g.weak_visual_stimulus:
+        source += "; weak visual stimulus (luminance below 10 cd/m²): L_IR assessed instead of L_R"
+    measured = ("" if g.measurement_distance_mm is None
+                else f"; spectrum measured at {g.measurement_distance_mm:g} mm")
+    rows = [("Assessment distance", f"{g.assessment_distance_mm:.0f} mm — {g.distance_rule}{measured}"),
+            ("Source", source),
+            ("Illuminance", f"{format_value(ph.illuminance_lx)} lx at the assessment distance; luminance "
+                            f"{format_value(ph.luminance_cd_m2)} cd/m²")]
+    if a.complete:
+        rows.append(("Completeness", "complete: every applicable hazard was assessed"))
+    else:
+        rows.append(("Completeness", f"INCOMPLETE — not assessed: {', '.join(a.not_assessed)} (why: see the "
+                                     f"table); the overall group is a lower bound"))
+    return _key_values(rows, st)
+
+
+def _charts(a: Assessment, st: Styles) -> list[Flowable]:
+    fonts = st.fonts
+    s = a.spectrum
+    peak = (f"Spectral {s.quantity}, {s.points} samples over {s.min_nm:g}–{s.max_nm:g} nm, peak "
+            f"{format_value(s.peak_value_si)} {_SPECTRUM_UNIT.get(s.quantity, 'SI')} at {s.peak_nm:g} nm, drawn "
+            f"relative to that peak (floor 10^-4); weights as tabulated (S_UV and B peak at 1, R at 10).")
+    return [KeepTogether([st.p("Spectrum and action spectra", st.h2),
+                          spectrum_chart(a, FRAME_WIDTH, 112, fonts), st.p(peak, st.caption)]),
+            KeepTogether([st.p("Distance to the group boundaries", st.h2), margin_chart(a, FRAME_WIDTH, fonts),
+                          st.p("Diamond: the hazard's value (an arrow: beyond the axis). Where two limits "
+                               "coincide (e.g. Exempt and RG1 of L_R) the zone between them is absent. E_H has "
+                               "no risk groups.", st.caption)])]
+
+
+def _record_table(a: Assessment, st: Styles) -> Flowable:
+    items = [(k, _record_value(v)) for k, v in a.record.items()]
+    if len(items) % 2:
+        items.append(("", ""))
+    half = len(items) // 2
+    rows = [[st.p(k1, st.cell_bold), st.p(v1, st.cell), st.p(k2, st.cell_bold), st.p(v2, st.cell)]
+            for (k1, v1), (k2, v2) in zip(items[:half], items[half:])]
+    table = Table(rows, colWidths=[w * FRAME_WIDTH for w in (0.2, 0.3, 0.2, 0.3)])
+    table.setStyle(table_style(header_rows=0))
+    return table
+
+
+def _compared(h: HazardResult) -> str:
+    """The values compared with the three limits; one value when they are the same (no FOV averaging)."""
+    if not h.assessed:
+        return "not assessed"
+    if not h.compared:
+        return "—"
+    if len(set(h.compared.values())) == 1:
+        return f"{format_value(h.value)} {_unit(h.unit)} at each"
+    return f"{_triple(h.compared, format_value)} {_unit(h.unit)}"
+
+
+def _detail_table(a: Assessment, st: Styles) -> Flowable:
+    head = ["Symbol", "Band, weight", "Exposure limit", "Time bases [s]", "FOV γ [mrad]", "α in limit [mrad]",
+            "Compared with limit"]
+    sub = ["", "", "", "Exempt / RG1 / RG2", "Exempt / RG1 / RG2", "Exempt / RG1 / RG2", "Exempt / RG1 / RG2"]
+    cells = []
+    for h in a.hazards.values():
+        lo, hi = h.band_nm
+        compared = _compared(h)
+        cells.append([h.symbol, f"{lo:g}–{hi:g} nm, {h.weighting or 'unweighted'}", h.exposure_limit or "—",
+                      _triple(h.time_bases_s, format_limit), _triple(h.fov_rad, format_limit, 1e3),
+                      _triple(h.alpha_rad, format_limit, 1e3), compared])
+    rows = [[st.p(x, st.head) for x in head], [st.p(x, st.head) for x in sub]]
+    rows += [[st.p(x, st.cell_bold if c == 0 else st.cell) for c, x in enumerate(row)] for row in cells]
+    widths = _fit_widths([["Symbol", "", "", *sub[3:]], *cells], st.fonts, flexible=2, size=st.cell.fontSize)
+    table = Table(rows, colWidths=widths, repeatRows=2)
+    table.setStyle(table_style(header_rows=2, extra=[("SPAN", (c, 0), (c, 1)) for c in (0, 1, 2)]))
+    return table
+
+
+def _bullets(items: list[str], st: Styles, empty: str) -> list[Flowable]:
+    return [st.p(f"• {item}", st.small) for item in items] or [st.p(empty, st.small)]
+
+
+def _hashes(rows: list[tuple[str, str, str]], head: tuple[str, str, str], st: Styles) -> Flowable:
+    """A table of (name, description, SHA-256) rows, the digest kept on one line."""
+    width = max(stringWidth(digest, st.fonts.regular, st.digest.fontSize) for _, _, digest in rows) + 7
+    body = [[st.p(x, st.head) for x in head]]
+    body += [[st.p(name, st.cell), st.p(text, st.cell), st.p(digest, st.digest)] for name, text, digest in rows]
+    table = Table(body, colWidths=[86, FRAME_WIDTH - 86 - width, width])
+    table.setStyle(table_style())
+    return table
+
+
+def _inputs(a: Assessment, st: Styles) -> list[Flowable]:
+    s, ph = a.spectrum, a.photometry
+    spectrum = f"{s.quantity} in {s.unit_given}, {s.points} samples, {s.min_nm:g}–{s.max_nm:g} nm"
+    colour = "—" if ph.cct_k is None else f"CCT {format_value(ph.cct_k)} K, Duv {format_value(ph.duv)}"
+    if ph.chromaticity_xy is not None:
+        colour += f"; CIE 1931 x, y = {ph.chromaticity_xy[0]:.4f}, {ph.chromaticity_xy[1]:.4f}"
+    files = [(path, spectrum if path == s.path else "product record" if path.endswith(".toml") else "input",
+              digest) for path, digest in a.provenance.inputs.items()]
+    return [st.p("Product record as used", st.h2), _record_table(a, st), Spacer(1, 4),
+            _hashes(files, ("Input file", "Content", "SHA-256"), st), Spacer(1, 3),
+            _key_values([("Colour", colour)], st)]
+
+
+def _method(a: Assessment, st: Styles) -> list[Flowable]:
+    p = a.provenance
+    tables = []
+    for name, t in p.tables.items():
+        source = t.get("source", "—")
+        edition = t.get("edition", "")
+        tables.append((f"{t.get('symbol', name)} ({name})",
+                       source if edition in source else f"{source}; edition {edition}", t.get("sha256", "—")))
+    return [st.p("Method and provenance", st.h2),
+            _key_values([("Limit set", p.limit_set), ("Integration", p.method)], st), Spacer(1, 4),
+            _hashes(tables, ("Weighting table", "Source", "SHA-256"), st)]
+
+
+def render_assessment_pdf(assessment: Assessment, rendered_at: datetime.datetime | None = None) -> bytes:
+    """One product's pre-screen report as a PDF (A4, normally two pages).
+
+    Parameters
+    ----------
+    assessment : Assessment
+        The result to render, e.g. from :func:`hazard.assess` or loaded from its JSON.
+    rendered_at : datetime.datetime, optional
+        Timezone-aware time printed as the report date; defaults to :func:`reports.report_time`
+        (``SOURCE_DATE_EPOCH`` when set, else now).
+
+    Returns
+    -------
+    bytes
+        The PDF. The same assessment and ``rendered_at`` give identical bytes.
+
+    Raises
+    ------
+    ValueError
+        When ``rendered_at`` has no timezone.
+    """
+    moment = rendered_at or report_time()
+    fonts = report_fonts()
+    st = Styles(fonts)
+    a = assessment
+    story: list[Flowable] = [
+        _heading(a, st, moment), Spacer(1, 8), _verdict(a, st), Spacer(1, 6), _cautions(a, st),
+        st.p("Hazards at the assessment distance", st.h2), _hazard_table(a, st), Spacer(1, 2),
+        _hazard_caption(a, st), Spacer(1, 5), _geometry(a, st), *_charts(a, st),
+        PageBreak(),
+        st.p("Input and method", st.title.clone("h1", fontSize=14, leading=18)),
+        *_inputs(a, st),
+        st.p("Hazard details", st.h2), _detail_table(a, st),
+        st.p("Warnings", st.h2), *_bullets(a.warnings, st, "none"),
+        st.p("Assumptions", st.h2), *_bullets(a.assumptions, st, "none"),
+        *_method(a, st),
+        CondPageBreak(60), st.p("Cautions", st.h2), *_bullets(a.cautions, st, "none"),
+    ]
+    title = f"{a.id} — photobiological safety pre-screen ({a.risk_group})"
+    header = f"{a.id}{' — ' + a.name if a.name else ''} · overall {a.risk_group}" + (
+        "" if a.complete else " (lower bound)")
+    return build_pdf(story, fonts, title=title, header=header, author=f"hazard {a.provenance.tool_version}")
