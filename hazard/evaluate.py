@@ -127,7 +127,7 @@ def _t_max_s(hazard: Hazard, value: np.ndarray, alpha: np.ndarray) -> np.ndarray
     if limit is None:
         return np.full(value.shape, np.nan)
     c = limit.coefficient / np.clip(alpha, *limit.alpha_bounds_rad) if limit.over_alpha else limit.coefficient
-    with np.errstate(divide="ignore", invalid="ignore"):
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):  # huge t is simply "not reached"
         t = (value / c) ** (1.0 / limit.exponent)
     return np.where((value > 0) & (t < limit.t_range_s[1]), t, np.nan)
 

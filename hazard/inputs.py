@@ -3,14 +3,15 @@
 from __future__ import annotations
 
 import hashlib
+import math
 from dataclasses import dataclass
 from pathlib import Path
 
 from hazard.errors import InputError
 from hazard.readers import read_spectrum
 from hazard.record import ProductRecord, load_record, record_from_fields
-from hazard.spectrum import Spectrum
-from hazard.units import parse_spectral_unit
+from hazard.spectrum import Spectrum, validate_spectrum
+from hazard.units import SpectralUnit, parse_spectral_unit
 
 __all__ = ["LoadedProduct", "load_product", "product_from_record"]
 
@@ -37,6 +38,23 @@ class LoadedProduct:
     metadata: dict
 
 
+def _resolve_unit(record: ProductRecord, header_unit: str | None, origin: str) -> SpectralUnit:
+    """The unit of the values: the record's, checked against the file's header when both state one."""
+    if header_unit is None:
+        return parse_spectral_unit(record.unit_text)
+    stated = parse_spectral_unit(header_unit)
+    if record.unit is None:
+        if stated.per_steradian != (record.quantity == "radiance"):
+            raise InputError(f"the file's header gives {header_unit!r}, which does not fit quantity "
+                             f"{record.quantity!r}", "set quantity (and unit) to match the file", origin)
+        return stated
+    given = parse_spectral_unit(record.unit)
+    if not math.isclose(given.factor_to_si, stated.factor_to_si) or given.per_steradian != stated.per_steradian:
+        raise InputError(f"the record says unit {record.unit!r} but the file's header says {header_unit!r}",
+                         "correct the record's unit, or remove it to use the header's", origin)
+    return given
+
+
 def product_from_record(record: ProductRecord, base_dir: Path, origin: str,
                         record_inputs: dict[str, str] | None = None) -> LoadedProduct:
     """Read the spectrum a record names, relative to ``base_dir``.
@@ -53,10 +71,12 @@ def product_from_record(record: ProductRecord, base_dir: Path, origin: str,
     """
     if not record.spectrum:
         raise InputError("the record names no spectrum file", "add spectrum = \"FILE.csv\"", origin)
-    unit = parse_spectral_unit(record.unit_text)
-    spectrum, metadata = read_spectrum(str(base_dir / record.spectrum), display_path=record.spectrum,
-                                       quantity=record.quantity, factor_to_si=unit.factor_to_si,
-                                       column=record.column)
+    raw, metadata = read_spectrum(str(base_dir / record.spectrum), display_path=record.spectrum,
+                                  column=record.column)
+    unit = _resolve_unit(record, raw.unit, origin)
+    metadata["unit_used"] = unit.text
+    spectrum = validate_spectrum(raw.wavelength_nm, raw.value, raw.lines, raw.path, unit.factor_to_si,
+                                 record.quantity, raw.warnings)
     inputs = dict(record_inputs or {})
     inputs[record.spectrum] = metadata["sha256"]
     return LoadedProduct(record=record, spectrum=spectrum, inputs=inputs, metadata=metadata)

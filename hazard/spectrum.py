@@ -57,7 +57,7 @@ class Spectrum:
 
 
 def validate_spectrum(wavelength_nm: np.ndarray, value: np.ndarray, lines: np.ndarray, path: str,
-                      factor_to_si: float, quantity: str) -> Spectrum:
+                      factor_to_si: float, quantity: str, warnings: tuple[str, ...] = ()) -> Spectrum:
     """Apply the validation rules of method §5 and convert to SI.
 
     Parameters
@@ -72,6 +72,8 @@ def validate_spectrum(wavelength_nm: np.ndarray, value: np.ndarray, lines: np.nd
         Multiplier from the file's unit to SI [1].
     quantity : str
         ``"irradiance"``, ``"radiance"`` or ``"relative"``.
+    warnings : tuple of str
+        Warnings the reader already recorded.
 
     Returns
     -------
@@ -91,7 +93,7 @@ def validate_spectrum(wavelength_nm: np.ndarray, value: np.ndarray, lines: np.nd
     """
     wl = np.asarray(wavelength_nm, dtype=float)
     val = np.asarray(value, dtype=float)
-    warnings: list[str] = []
+    warnings = list(warnings)
     if wl.size == 0:
         raise InputError("no data rows", "give two columns: wavelength in nm, spectral value", path)
     if wl.size == 1:

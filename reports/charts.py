@@ -110,7 +110,7 @@ def spectrum_chart(assessment: Assessment, width: float, height: float, fonts: F
         if end > start:
             d.add(Rect(px(start), bottom, px(end) - px(start), ph, fillColor=PANEL, strokeColor=None))
             if px(end) - px(start) > 40:
-                d.add(_text((px(start) + px(end)) / 2, bottom + ph - 9, "not measured", fonts, 6, color=MUTED,
+                d.add(_text((px(start) + px(end)) / 2, bottom + 3, "not measured", fonts, 6, color=MUTED,
                             anchor="middle"))
     for decade in range(y0, y1 + 1):
         d.add(Line(left, py(10.0 ** decade), left + pw, py(10.0 ** decade), strokeColor=RULE,
@@ -136,6 +136,8 @@ def spectrum_chart(assessment: Assessment, width: float, height: float, fonts: F
                            strokeDashArray=dash, strokeLineCap=1 if dash and dash[0] < 1 else 0))
     d.add(Rect(left, bottom, pw, ph, fillColor=None, strokeColor=INK, strokeWidth=0.6))
     d.add(_text(left + pw / 2, 2, "wavelength λ [nm]", fonts, 7, color=MUTED, anchor="middle"))
+    d.add(Group(_text(0, 0, "relative (log)", fonts, 6.5, color=MUTED, anchor="middle"),
+                transform=(0, 1, -1, 0, 6, bottom + ph / 2)))
     d.add(_legend(left, height - 9, fonts))
     return d
 
@@ -156,8 +158,8 @@ def _legend(x: float, y: float, fonts: FontSet) -> Group:
 
 
 def _chart_rows(assessment: Assessment) -> list[HazardResult]:
-    """Hazards that have risk groups (E_H has an exposure limit only), in report order."""
-    return [h for h in assessment.hazards.values() if h.limits]
+    """Assessed hazards that have risk groups (E_H has an exposure limit only), in report order."""
+    return [h for h in assessment.hazards.values() if h.assessed and h.limits]
 
 
 def margin_chart(assessment: Assessment, width: float, fonts: FontSet) -> Drawing:
@@ -180,7 +182,11 @@ def margin_chart(assessment: Assessment, width: float, fonts: FontSet) -> Drawin
     Drawing
     """
     rows = _chart_rows(assessment)
-    row_h, gap, label_w, result_w, bottom, top = 15.0, 2.5, 118.0, 118.0, 24.0, 11.0
+    if not rows:
+        d = Drawing(width, 14)
+        d.add(_text(0, 3, "No hazard with risk groups could be assessed, so there is nothing to draw.", fonts, 7.5))
+        return d
+    row_h, gap, label_w, result_w, bottom, top = 13.5, 1.5, 112.0, 126.0, 22.0, 10.0
     height = bottom + top + len(rows) * (row_h + gap)
     d = Drawing(width, height)
     left, pw = label_w, width - label_w - result_w
@@ -193,14 +199,16 @@ def margin_chart(assessment: Assessment, width: float, fonts: FontSet) -> Drawin
         x = px(10.0 ** decade)
         d.add(Line(x, bottom, x, height - top, strokeColor=RULE, strokeWidth=0.3))
         d.add(_power_of_ten(x, bottom - 10, decade, fonts))
-    for i, hazard in enumerate(rows):
-        y = height - top - (i + 1) * (row_h + gap) + gap
-        d.add(_text(0, y + row_h / 2 + 0.5, hazard.symbol, fonts, 7.5, bold=True))
-        d.add(_text(0, y + row_h / 2 - 6.5, hazard.title, fonts, 6.3, color=MUTED))
-        d.add(_row(hazard, left, y, pw, row_h, px, fonts))
-        d.add(_result(hazard, left + pw + 8, y, row_h, fonts))
     one = px(1.0)
     d.add(Line(one, bottom - 2, one, height - top + 2, strokeColor=INK, strokeWidth=0.9))
+    for i, hazard in enumerate(rows):
+        y = height - top - (i + 1) * (row_h + gap) + gap
+        title = fonts.clean(hazard.title)
+        title_size = min(6.3, (label_w - 4) / stringWidth(title, fonts.regular, 1))
+        d.add(_text(0, y + row_h / 2 + 0.8, hazard.symbol, fonts, 7.5, bold=True))
+        d.add(_text(0, y + row_h / 2 - 5.6, title, fonts, title_size, color=MUTED))
+        d.add(_row(hazard, left, y, pw, row_h, px, fonts))
+        d.add(_result(hazard, left + pw + 8, y, row_h, fonts))
     d.add(_text(one, height - top + 4, "Exempt limit", fonts, 6.5, bold=True, anchor="middle"))
     d.add(_text(left + pw / 2, 2, "value ÷ Exempt limit (log scale); zones end where the value reaches "
                 "each group's limit", fonts, 7, color=MUTED, anchor="middle"))
@@ -208,14 +216,12 @@ def margin_chart(assessment: Assessment, width: float, fonts: FontSet) -> Drawin
 
 
 def _row(hazard: HazardResult, left: float, y: float, pw: float, row_h: float, px, fonts: FontSet) -> Group:
-    """One hazard's band: group zones, boundary ticks and the value marker (or why there is none)."""
+    """One hazard's band: group zones, boundary lines and the value marker (or why there is none)."""
     g = Group()
     margins = hazard.margins
-    if not hazard.assessed or not margins or margins["Exempt"] <= 0:
-        reason = ("not assessed: the spectrum does not cover this band" if not hazard.assessed
-                  else "value 0: nothing emitted in this band")
+    if margins["Exempt"] <= 0:
         g.add(Rect(left, y, pw, row_h, fillColor=colors.white, strokeColor=RULE, strokeWidth=0.5))
-        g.add(_text(left + 6, y + row_h / 2 - 2.5, reason, fonts, 7, color=MUTED))
+        g.add(_text(left + 6, y + row_h / 2 - 2.5, "value 0: nothing emitted in this band", fonts, 7, color=MUTED))
         return g
     value = margins["Exempt"]
     edges = [px(10.0 ** _X_DECADES[0]), px(1.0), px(value / margins["RG1"]), px(value / margins["RG2"]),
@@ -225,17 +231,17 @@ def _row(hazard: HazardResult, left: float, y: float, pw: float, row_h: float, p
             continue
         g.add(Rect(start, y, end - start, row_h, fillColor=group_fill(group), strokeColor=None))
         if end - start >= stringWidth(group, fonts.bold, 6) + 6:
-            g.add(_text(start + 2.5, y + row_h - 6, group, fonts, 5.8, bold=True, color=group_ink(group)))
+            g.add(_text(start + 2.5, y + row_h - 5.6, group, fonts, 5.8, bold=True, color=group_ink(group)))
     for edge in edges[1:4]:
         g.add(Line(edge, y, edge, y + row_h, strokeColor=INK, strokeWidth=0.7))
     g.add(Rect(left, y, pw, row_h, fillColor=None, strokeColor=INK, strokeWidth=0.5))
-    g.add(_marker(px(value), y + 5, value))
+    g.add(_marker(px(value), y + 4.6, value))
     return g
 
 
 def _marker(x: float, y: float, value: float) -> Group:
     """A diamond at the value, or an arrow at the axis end when the value lies beyond it."""
-    r = 3.8
+    r = 3.6
     low, high = 10.0 ** _X_DECADES[0], 10.0 ** _X_DECADES[1]
     if value < low:
         points = [x + 1, y, x + 2 * r + 1, y + r, x + 2 * r + 1, y - r]
@@ -254,6 +260,6 @@ def _result(hazard: HazardResult, x: float, y: float, row_h: float, fonts: FontS
     g.add(Rect(x, y + 2, 38, row_h - 4, fillColor=group_fill(group), strokeColor=INK, strokeWidth=0.5))
     g.add(_text(x + 19, y + row_h / 2 - 2.5, label, fonts, 7, bold=True, color=group_ink(group),
                 anchor="middle"))
-    margin = format_margin(group, hazard.margins) if hazard.assessed else "not assessed"
-    g.add(_text(x + 43, y + row_h / 2 - 2.5, margin, fonts, 7))
+    margin = format_margin(group, hazard.margins)
+    g.add(_text(x + 42, y + row_h / 2 - 2.5, margin, fonts, 6.8))
     return g

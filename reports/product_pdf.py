@@ -17,9 +17,10 @@ from hazard.result import Assessment, HazardResult
 from reports.charts import margin_chart, spectrum_chart
 from reports.fonts import report_fonts
 from reports.layout import FRAME_WIDTH, build_pdf
-from reports.style import INK, PANEL, Styles, group_fill, group_ink, table_style
+from reports.ranking import tightest_margin
+from reports.style import INK, PANEL, Styles, fit_widths, group_fill, group_ink, table_style
 from reports.timestamp import format_report_time, report_time
-from reports.wording import GROUP_MEANING, GROUP_NAME, LOWER_BOUND
+from reports.wording import GROUP_MEANING, GROUP_NAME, LOWER_BOUND, LOWER_BOUND_MEANING
 
 __all__ = ["render_assessment_pdf"]
 
@@ -67,42 +68,42 @@ def _heading(a: Assessment, st: Styles, moment: datetime.datetime) -> Flowable:
     table = Table([[left, right]], colWidths=[FRAME_WIDTH - 150, 150])
     table.setStyle([("VALIGN", (0, 0), (-1, -1), "TOP"), ("LEFTPADDING", (0, 0), (-1, -1), 0),
                     ("RIGHTPADDING", (0, 0), (-1, -1), 0), ("LINEBELOW", (0, 0), (-1, 0), 1.2, INK),
-                    ("BOTTOMPADDING", (0, 0), (-1, -1), 6)])
+                    ("BOTTOMPADDING", (0, 0), (-1, -1), 5)])
     return table
 
 
-def _deciding(a: Assessment) -> str:
+def _deciding(a: Assessment) -> tuple[str, str]:
+    """Lead-in and text naming what sets the overall group."""
     if not a.deciding_hazards:
-        return "none: no hazard with risk groups could be assessed"
+        return "Decided by:", "none: no hazard with risk groups could be assessed"
+    if a.risk_group == "Exempt":
+        closest = tightest_margin(a)
+        h = a.hazards[closest.symbol]
+        return ("Closest to a boundary:", f"{closest.symbol} ({h.title}, {format_margin(h.risk_group, h.margins)}); "
+                                          f"every assessed hazard is within its Exempt limit")
     parts = []
     for symbol in a.deciding_hazards:
         h = a.hazards[symbol]
         parts.append(f"{symbol} ({h.title}, {format_margin(h.risk_group, h.margins)})")
-    return "; ".join(parts)
+    return "Decided by:", "; ".join(parts)
 
 
 def _verdict(a: Assessment, st: Styles) -> Flowable:
     group = a.risk_group
-    label_style = st.verdict.clone("verdict_group", textColor=group_ink(group))
+    size = min(st.verdict.fontSize, 80 / stringWidth(group, st.fonts.bold, 1))
+    label_style = st.verdict.clone("verdict_group", textColor=group_ink(group), fontSize=size, leading=size * 1.15)
     label = [st.p(group, label_style)]
+    text = [st.p(f"Overall risk group: {group} — {GROUP_NAME[group]}", st.verdict_head),
+            st.p(GROUP_MEANING[group] + ("" if a.complete else " " + LOWER_BOUND_MEANING)),
+            st.bold_lead(*_deciding(a), st.small)]
     if not a.complete:
         label.append(st.p("lower bound", st.head.clone("lb", alignment=1, textColor=group_ink(group))))
-    text = [st.p(f"Overall risk group: {group} — {GROUP_NAME[group]}", st.verdict_head),
-            st.p(GROUP_MEANING[group]),
-            st.bold_lead("Decided by:", _deciding(a), st.small)]
-    rows = [[label, text]]
-    style = [("BACKGROUND", (0, 0), (0, 0), group_fill(group)), ("BOX", (0, 0), (0, 0), 1.2, INK),
-             ("VALIGN", (0, 0), (0, 0), "MIDDLE"), ("VALIGN", (1, 0), (1, 0), "TOP"),
-             ("LEFTPADDING", (1, 0), (1, 0), 10), ("TOPPADDING", (0, 0), (-1, -1), 5),
-             ("BOTTOMPADDING", (0, 0), (-1, -1), 6)]
-    if not a.complete:
-        missing = ", ".join(a.not_assessed)
-        rows.append([st.p(f"{LOWER_BOUND} (not assessed: {missing}). The product may belong to a higher "
-                          f"group.", st.banner), ""])
-        style += [("SPAN", (0, 1), (1, 1)), ("BOX", (0, 1), (1, 1), 2, INK), ("TOPPADDING", (0, 1), (1, 1), 5),
-                  ("LEFTPADDING", (0, 1), (1, 1), 7)]
-    table = Table(rows, colWidths=[96, FRAME_WIDTH - 96])
-    table.setStyle(style)
+        text.insert(0, st.p(f"{LOWER_BOUND}: {', '.join(a.not_assessed)} not assessed", st.banner))
+    table = Table([[label, text]], colWidths=[96, FRAME_WIDTH - 96])
+    table.setStyle([("BACKGROUND", (0, 0), (0, 0), group_fill(group)), ("BOX", (0, 0), (0, 0), 1.2, INK),
+                    ("VALIGN", (0, 0), (0, 0), "MIDDLE"), ("VALIGN", (1, 0), (1, 0), "TOP"),
+                    ("LEFTPADDING", (1, 0), (1, 0), 10), ("TOPPADDING", (0, 0), (-1, -1), 4),
+                    ("BOTTOMPADDING", (0, 0), (-1, -1), 4)])
     return table
 
 
@@ -116,20 +117,9 @@ def _cautions(a: Assessment, st: Styles) -> Flowable:
     return table
 
 
-def _fit_widths(rows: list[list[str]], fonts, flexible: int, size: float, min_flexible: float = 96,
-                padding: float = 7) -> list[float]:
-    """Column widths that keep each column but ``flexible`` on one line where the page allows.
-
-    ``flexible`` takes what is left, at least ``min_flexible``; if the others need more than the rest of the
-    frame they shrink in proportion (and wrap).
-    """
-    natural = [max(stringWidth(fonts.clean(row[c]), fonts.bold, size) for row in rows) + padding
-               for c in range(len(rows[0]))]
-    others = sum(natural) - natural[flexible]
-    room = FRAME_WIDTH - max(min_flexible, FRAME_WIDTH - others)
-    widths = [w * min(1.0, room / others) for w in natural]
-    widths[flexible] = FRAME_WIDTH - sum(widths) + widths[flexible]
-    return widths
+_TYPICAL_ROW = ["E_UVA", "near-UV, eye (lens)", "7.50e-04", "W/(m²·sr)", "5.05e+05", "5.05e+05", "1.31e+06",
+                "4.4 min", "Exempt", "<0.01% of Exempt limit"]
+"""Wide entries of each hazard-table column, so the columns stay the same from report to report."""
 
 
 def _hazard_table(a: Assessment, st: Styles) -> Flowable:
@@ -143,74 +133,81 @@ def _hazard_table(a: Assessment, st: Styles) -> Flowable:
     bold = {0, 2}
     for i, (h, row) in enumerate(zip(a.hazards.values(), cells), start=2):
         if not h.assessed:
-            rows.append([st.p(h.symbol, st.cell_bold), st.p(h.title, st.cell),
-                         st.bold_lead("not assessed:", h.note, st.cell)] + [""] * 7)
+            rows.append([st.p(h.symbol, st.cell_bold), st.p(h.title, st.cell), st.p(h.note, st.cell)]
+                        + [""] * 7)
             extra.append(("SPAN", (2, i), (9, i)))
             continue
         styles = [st.cell_bold if c in bold else st.cell for c in range(len(row))]
         styles[8] = st.cell_bold.clone("group", textColor=group_ink(h.risk_group))
         rows.append([st.p(text, style) for text, style in zip(row, styles)])
         extra.append(("BACKGROUND", (8, i), (8, i), group_fill(h.risk_group)))
-    fitted = [row for h, row in zip(a.hazards.values(), cells) if h.assessed]
-    widths = _fit_widths([sub, ["Symbol", "Hazard", "Value", "Unit", "", "", "", "t_max", "Group", "Margin"],
-                          ["E_UVA", "", "", "W/(m²·sr)", "", "", "", "", "Exempt", "40% of Exempt limit"],
-                          *fitted], st.fonts, flexible=1, size=st.cell.fontSize)
+    fitted = [_TYPICAL_ROW] + [row for h, row in zip(a.hazards.values(), cells) if h.assessed]
+    header = [top if top != "Limits as applied" and top else below for top, below in zip(head, sub)]
+    widths = fit_widths(header, fitted, st.fonts, FRAME_WIDTH, flexible=1, size=st.cell.fontSize, bold={0, 2, 8})
     table = Table(rows, colWidths=widths, repeatRows=2)
     table.setStyle(table_style(header_rows=2, extra=extra))
     return table
 
 
 def _hazard_caption(a: Assessment, st: Styles) -> Flowable:
-    return st.p("Radiance values (L_B, L_R, L_IR) are the source's own radiance; the limits are compared with "
-                "field-of-view averages (page 2). Thermal limits after the α bounds. t_max: time to reach the "
-                "exposure limit (—: not within its time range). Margin: value ÷ limit at the group's upper "
-                "boundary (RG3: multiple of the RG2 limit). EL only: exposure limit, no risk groups.",
+    return st.p("L_B, L_R, L_IR: the source's own radiance, compared with field-of-view averages (page 2). "
+                "Thermal limits after the α bounds. t_max: time to the exposure limit (—: not within its range). "
+                "Margin: value ÷ limit at the group's upper boundary (RG3: × RG2 limit). EL only: no groups.",
                 st.caption)
 
 
 def _key_values(rows: list[tuple[str, str]], st: Styles, key_width: float = 104) -> Table:
     table = Table([[st.p(k, st.cell_bold), st.p(v, st.cell)] for k, v in rows],
                   colWidths=[key_width, FRAME_WIDTH - key_width])
-    table.setStyle([("VALIGN", (0, 0), (-1, -1), "TOP"), ("LEFTPADDING", (0, 0), (-1, -1), 0),
-                    ("TOPPADDING", (0, 0), (-1, -1), 1), ("BOTTOMPADDING", (0, 0), (-1, -1), 1.5),
-                    ("LINEBELOW", (0, 0), (-1, -1), 0.3, colors.HexColor("#D5DBE0"))])
+    table.setStyle(_KEY_VALUE_STYLE)
     return table
+
+
+_KEY_VALUE_STYLE = [("VALIGN", (0, 0), (-1, -1), "TOP"), ("LEFTPADDING", (0, 0), (-1, -1), 0),
+                    ("RIGHTPADDING", (0, 0), (-1, -1), 6), ("TOPPADDING", (0, 0), (-1, -1), 1),
+                    ("BOTTOMPADDING", (0, 0), (-1, -1), 1.5),
+                    ("LINEBELOW", (0, 0), (-1, -1), 0.3, colors.HexColor("#D5DBE0"))]
 
 
 def _geometry(a: Assessment, st: Styles) -> Flowable:
     g, ph = a.geometry, a.photometry
-    source = (f"largest dimension {g.largest_dimension_mm:g} mm; α = {format_value(g.alpha_rad)} rad "
-              f"at the assessment distance; solid angle Ω_s = {format_value(g.source_solid_angle_sr)} sr")
+    source = (f"largest dimension {g.largest_dimension_mm:g} mm; α = {format_value(g.alpha_rad)} rad at the "
+              f"assessment distance; Ω_s = {format_value(g.source_solid_angle_sr)} sr")
     if g.small_source:
-        source += "; small source (α < 0.011 rad): blue light assessed as irradiance E_B"
+        source += "; small source (α < 0.011 rad): blue light as irradiance E_B"
     if g.weak_visual_stimulus:
-        source += "; weak visual stimulus (luminance below 10 cd/m²): L_IR assessed instead of L_R"
+        source += "; weak visual stimulus (below 10 cd/m²): L_IR instead of L_R"
     measured = ("" if g.measurement_distance_mm is None
-                else f"; spectrum measured at {g.measurement_distance_mm:g} mm")
-    rows = [("Assessment distance", f"{g.assessment_distance_mm:.0f} mm — {g.distance_rule}{measured}"),
-            ("Source", source),
-            ("Illuminance", f"{format_value(ph.illuminance_lx)} lx at the assessment distance; luminance "
-                            f"{format_value(ph.luminance_cd_m2)} cd/m²")]
+                else f" (spectrum measured at {g.measurement_distance_mm:g} mm)")
     if a.complete:
-        rows.append(("Completeness", "complete: every applicable hazard was assessed"))
+        completeness = "complete: every applicable hazard was assessed"
     else:
-        rows.append(("Completeness", f"INCOMPLETE — not assessed: {', '.join(a.not_assessed)} (why: see the "
-                                     f"table); the overall group is a lower bound"))
-    return _key_values(rows, st)
+        completeness = (f"INCOMPLETE — not assessed: {', '.join(a.not_assessed)} (why: see the table); the "
+                        f"overall group is a lower bound")
+    cells = [("Distance", f"{g.assessment_distance_mm:.0f} mm{measured} — {g.distance_rule}"),
+             ("Source", source),
+             ("Photometry", f"{format_value(ph.illuminance_lx)} lx at the assessment distance; luminance "
+                            f"{format_value(ph.luminance_cd_m2)} cd/m²"),
+             ("Completeness", completeness)]
+    cells += [("Warning", warning) for warning in a.warnings]
+    return _key_values(cells, st, key_width=64)
 
 
 def _charts(a: Assessment, st: Styles) -> list[Flowable]:
     fonts = st.fonts
     s = a.spectrum
-    peak = (f"Spectral {s.quantity}, {s.points} samples over {s.min_nm:g}–{s.max_nm:g} nm, peak "
-            f"{format_value(s.peak_value_si)} {_SPECTRUM_UNIT.get(s.quantity, 'SI')} at {s.peak_nm:g} nm, drawn "
-            f"relative to that peak (floor 10^-4); weights as tabulated (S_UV and B peak at 1, R at 10).")
+    peak = (f"Spectral {s.quantity}, {s.points} samples, {s.min_nm:g}–{s.max_nm:g} nm; its peak, "
+            f"{format_value(s.peak_value_si)} {_SPECTRUM_UNIT.get(s.quantity, 'SI')} at {s.peak_nm:g} nm, is 1 "
+            f"on this axis. Weights as tabulated.")
+    missing = [symbol for symbol in a.not_assessed if a.hazards[symbol].limits]
+    drawn = len(missing) < sum(1 for h in a.hazards.values() if h.limits)
+    chart_note = " ".join((["Diamond: the value (arrow: beyond the axis). Coinciding limits (e.g. Exempt and RG1 "
+                            "of L_R) leave no zone between them. E_H has no risk groups."] if drawn else [])
+                          + ([f"Not assessed, so not drawn: {', '.join(missing)}."] if missing else []))
     return [KeepTogether([st.p("Spectrum and action spectra", st.h2),
-                          spectrum_chart(a, FRAME_WIDTH, 112, fonts), st.p(peak, st.caption)]),
+                          spectrum_chart(a, FRAME_WIDTH, 106, fonts), st.p(peak, st.caption)]),
             KeepTogether([st.p("Distance to the group boundaries", st.h2), margin_chart(a, FRAME_WIDTH, fonts),
-                          st.p("Diamond: the hazard's value (an arrow: beyond the axis). Where two limits "
-                               "coincide (e.g. Exempt and RG1 of L_R) the zone between them is absent. E_H has "
-                               "no risk groups.", st.caption)])]
+                          st.p(chart_note, st.caption)])]
 
 
 def _record_table(a: Assessment, st: Styles) -> Flowable:
@@ -237,9 +234,9 @@ def _compared(h: HazardResult) -> str:
 
 
 def _detail_table(a: Assessment, st: Styles) -> Flowable:
-    head = ["Symbol", "Band, weight", "Exposure limit", "Time bases [s]", "FOV γ [mrad]", "α in limit [mrad]",
-            "Compared with limit"]
-    sub = ["", "", "", "Exempt / RG1 / RG2", "Exempt / RG1 / RG2", "Exempt / RG1 / RG2", "Exempt / RG1 / RG2"]
+    head = ["Symbol", "Band, weight", "Exposure limit", "Time bases, Exempt / RG1 / RG2 [s]",
+            "FOV γ, Exempt / RG1 / RG2 [mrad]", "α in limit, Exempt / RG1 / RG2 [mrad]",
+            "Compared with the limits"]
     cells = []
     for h in a.hazards.values():
         lo, hi = h.band_nm
@@ -247,11 +244,12 @@ def _detail_table(a: Assessment, st: Styles) -> Flowable:
         cells.append([h.symbol, f"{lo:g}–{hi:g} nm, {h.weighting or 'unweighted'}", h.exposure_limit or "—",
                       _triple(h.time_bases_s, format_limit), _triple(h.fov_rad, format_limit, 1e3),
                       _triple(h.alpha_rad, format_limit, 1e3), compared])
-    rows = [[st.p(x, st.head) for x in head], [st.p(x, st.head) for x in sub]]
+    rows = [[st.p(x, st.head) for x in head]]
     rows += [[st.p(x, st.cell_bold if c == 0 else st.cell) for c, x in enumerate(row)] for row in cells]
-    widths = _fit_widths([["Symbol", "", "", *sub[3:]], *cells], st.fonts, flexible=2, size=st.cell.fontSize)
-    table = Table(rows, colWidths=widths, repeatRows=2)
-    table.setStyle(table_style(header_rows=2, extra=[("SPAN", (c, 0), (c, 1)) for c in (0, 1, 2)]))
+    widths = [36, 62, 0, 86, 52, 62, 82]
+    widths[2] = FRAME_WIDTH - sum(widths)
+    table = Table(rows, colWidths=widths, repeatRows=1)
+    table.setStyle(table_style())
     return table
 
 
@@ -272,14 +270,14 @@ def _hashes(rows: list[tuple[str, str, str]], head: tuple[str, str, str], st: St
 def _inputs(a: Assessment, st: Styles) -> list[Flowable]:
     s, ph = a.spectrum, a.photometry
     spectrum = f"{s.quantity} in {s.unit_given}, {s.points} samples, {s.min_nm:g}–{s.max_nm:g} nm"
-    colour = "—" if ph.cct_k is None else f"CCT {format_value(ph.cct_k)} K, Duv {format_value(ph.duv)}"
+    colour = [] if ph.cct_k is None else [f"CCT {format_value(ph.cct_k)} K, Duv {format_value(ph.duv)}"]
     if ph.chromaticity_xy is not None:
-        colour += f"; CIE 1931 x, y = {ph.chromaticity_xy[0]:.4f}, {ph.chromaticity_xy[1]:.4f}"
+        colour.append(f"CIE 1931 x, y = {ph.chromaticity_xy[0]:.4f}, {ph.chromaticity_xy[1]:.4f}")
     files = [(path, spectrum if path == s.path else "product record" if path.endswith(".toml") else "input",
               digest) for path, digest in a.provenance.inputs.items()]
     return [st.p("Product record as used", st.h2), _record_table(a, st), Spacer(1, 4),
             _hashes(files, ("Input file", "Content", "SHA-256"), st), Spacer(1, 3),
-            _key_values([("Colour", colour)], st)]
+            _key_values([("Colour", "; ".join(colour) or "—")], st)]
 
 
 def _method(a: Assessment, st: Styles) -> list[Flowable]:
@@ -321,9 +319,9 @@ def render_assessment_pdf(assessment: Assessment, rendered_at: datetime.datetime
     st = Styles(fonts)
     a = assessment
     story: list[Flowable] = [
-        _heading(a, st, moment), Spacer(1, 8), _verdict(a, st), Spacer(1, 6), _cautions(a, st),
+        _heading(a, st, moment), Spacer(1, 5), _verdict(a, st), Spacer(1, 4), _cautions(a, st),
         st.p("Hazards at the assessment distance", st.h2), _hazard_table(a, st), Spacer(1, 2),
-        _hazard_caption(a, st), Spacer(1, 5), _geometry(a, st), *_charts(a, st),
+        _hazard_caption(a, st), Spacer(1, 4), _geometry(a, st), *_charts(a, st),
         PageBreak(),
         st.p("Input and method", st.title.clone("h1", fontSize=14, leading=18)),
         *_inputs(a, st),

@@ -13,12 +13,13 @@ from xml.sax.saxutils import escape
 from reportlab.lib import colors
 from reportlab.lib.enums import TA_LEFT
 from reportlab.lib.styles import ParagraphStyle
+from reportlab.pdfbase.pdfmetrics import stringWidth
 from reportlab.platypus import Paragraph, TableStyle
 
 from reports.fonts import FontSet
 
 __all__ = ["INK", "MUTED", "RULE", "PANEL", "SPECTRUM_FILL", "SPECTRUM_EDGE", "GROUP_FILL", "GROUP_INK", "group_fill", "group_ink", "Styles",
-           "table_style"]
+           "table_style", "fit_widths"]
 
 INK = colors.HexColor("#1F2A36")
 """Text, axes and the action-spectrum lines."""
@@ -76,14 +77,16 @@ class Styles:
         self.caption = ParagraphStyle("caption", base, fontSize=7, leading=8.8, textColor=MUTED)
         self.kicker = ParagraphStyle("kicker", base, fontName=fonts.bold, fontSize=7.5, leading=9.5,
                                      textColor=MUTED)
-        self.title = ParagraphStyle("title", base, fontName=fonts.bold, fontSize=20, leading=24)
+        self.title = ParagraphStyle("title", base, fontName=fonts.bold, fontSize=19, leading=22)
         self.subtitle = ParagraphStyle("subtitle", base, fontSize=11, leading=14)
         self.h2 = ParagraphStyle("h2", base, fontName=fonts.bold, fontSize=10.5, leading=13, spaceBefore=6,
                                  spaceAfter=2)
         self.verdict = ParagraphStyle("verdict", base, fontName=fonts.bold, fontSize=30, leading=34,
                                       alignment=1)
         self.verdict_head = ParagraphStyle("verdict_head", base, fontName=fonts.bold, fontSize=11, leading=14)
-        self.banner = ParagraphStyle("banner", base, fontName=fonts.bold, fontSize=10, leading=13)
+        self.banner = ParagraphStyle("banner", base, fontName=fonts.bold, fontSize=9.5, leading=12,
+                                     borderWidth=1.5, borderColor=INK, borderPadding=(2, 4, 3, 4), spaceAfter=7,
+                                     leftIndent=4, rightIndent=4, spaceBefore=2)
 
     def text(self, text: str) -> str:
         """``text`` escaped for a Paragraph and cleaned for the fonts."""
@@ -132,3 +135,47 @@ def table_style(header_rows: int = 1, extra: list[tuple] | None = None) -> Table
         commands += [("BACKGROUND", (0, 0), (-1, header_rows - 1), PANEL),
                      ("LINEBELOW", (0, header_rows - 1), (-1, header_rows - 1), 0.6, INK)]
     return TableStyle(commands + (extra or []))
+
+
+def fit_widths(header: list[str], body: list[list[str]], fonts: FontSet, total: float, flexible: int,
+               size: float, bold: set[int], min_flexible: float = 90, padding: float = 7) -> list[float]:
+    """Table column widths that keep each body cell on one line where the page allows.
+
+    Parameters
+    ----------
+    header : list of str
+        Column headings, set in bold; they may wrap between words.
+    body : list of list of str
+        The cells' texts, row by row.
+    fonts : FontSet
+        Report fonts.
+    total : float
+        Width of the table [pt].
+    flexible : int
+        Column that takes what is left (at least ``min_flexible``) and wraps.
+    size : float
+        Font size of the cells [pt].
+    bold : set of int
+        Body columns set in bold.
+    min_flexible, padding : float
+        Least width of the flexible column; left plus right cell padding [pt].
+
+    Returns
+    -------
+    list of float
+        Widths adding up to ``total``. When the other columns need more than ``total - min_flexible`` they
+        shrink in proportion (and wrap), never below their longest heading word.
+    """
+    def width(text: str, face: str) -> float:
+        return stringWidth(fonts.clean(text), face, size)
+
+    floor = [max((width(word, fonts.bold) for word in head.split()), default=0.0) + padding for head in header]
+    natural = [max([floor[c]] + [width(row[c], fonts.bold if c in bold else fonts.regular) + padding
+                                 for row in body]) for c in range(len(header))]
+    others = [c for c in range(len(header)) if c != flexible]
+    room = total - max(min_flexible, total - sum(natural[c] for c in others))
+    stretch = sum(natural[c] - floor[c] for c in others)
+    share = 1.0 if stretch <= 0 else min(1.0, (room - sum(floor[c] for c in others)) / stretch)
+    widths = [floor[c] + (natural[c] - floor[c]) * share for c in range(len(header))]
+    widths[flexible] = total - sum(widths[c] for c in others)
+    return widths

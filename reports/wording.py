@@ -6,9 +6,9 @@ The sentences describe the groups plainly; they do not replace the cautions chos
 
 from __future__ import annotations
 
-__all__ = ["GROUP_NAME", "GROUP_MEANING", "FOOTER", "LOWER_BOUND"]
+__all__ = ["GROUP_NAME", "GROUP_MEANING", "FOOTER", "LOWER_BOUND", "LOWER_BOUND_MEANING"]
 
-GROUP_NAME = {"Exempt": "Exempt", "RG1": "Risk Group 1 (low risk)", "RG2": "Risk Group 2 (moderate risk)",
+GROUP_NAME = {"Exempt": "Exempt group (no risk)", "RG1": "Risk Group 1 (low risk)", "RG2": "Risk Group 2 (moderate risk)",
               "RG3": "Risk Group 3 (high risk)"}
 """Long name of each group, shown beside the short label."""
 
@@ -26,6 +26,10 @@ GROUP_MEANING = {
 
 LOWER_BOUND = "LOWER BOUND — not all hazards assessed"
 """Shown prominently when ``Assessment.complete`` is false."""
+
+LOWER_BOUND_MEANING = ("This holds for the assessed hazards only; those not assessed may put the product in a "
+                       "higher group.")
+"""Follows the group's meaning when ``Assessment.complete`` is false."""
 
 FOOTER = "Pre-screen only — not a certification or a laboratory classification"
 """Left part of every page footer."""

@@ -1,19 +1,28 @@
-"""One reader per file format; each returns ``(Spectrum, metadata)``.
+"""One reader per file format; each returns ``(RawSpectrum, metadata)``.
 
-:func:`read_spectrum` picks the reader from the file name and hands the raw numbers to
-:func:`hazard.spectrum.validate_spectrum`.
+:func:`read_spectrum` picks the reader from the file name: ``.xlsx`` workbooks, ``.json`` arrays, and
+delimited text for everything else (``.csv``, ``.tsv``, ``.txt``, instrument exports). Validation and
+unit conversion happen afterwards, once for every format (:mod:`hazard.spectrum`).
 """
 
 from __future__ import annotations
 
+import hashlib
+from pathlib import Path
+
+from hazard.readers.common import DEFAULT_LIMITS, Limits, RawSpectrum
 from hazard.readers.delimited import read_delimited
+from hazard.readers.jsonfile import read_json
+from hazard.readers.xlsx import read_xlsx
 
-__all__ = ["read_spectrum"]
+__all__ = ["read_spectrum", "RawSpectrum", "Limits", "DEFAULT_LIMITS"]
+
+_BY_SUFFIX = {".xlsx": read_xlsx, ".json": read_json}
 
 
-def read_spectrum(path: str, *, display_path: str, quantity: str, factor_to_si: float,
-                  column: str | int | None = None):
-    """Read and validate one spectrum file.
+def read_spectrum(path: str, *, display_path: str, column: str | int | None = None,
+                  limits: Limits = DEFAULT_LIMITS) -> tuple[RawSpectrum, dict]:
+    """Read one spectrum file with the reader for its format.
 
     Parameters
     ----------
@@ -21,17 +30,19 @@ def read_spectrum(path: str, *, display_path: str, quantity: str, factor_to_si: 
         File to open.
     display_path : str
         How to name the file in messages and provenance.
-    quantity : str
-        ``"irradiance"``, ``"radiance"`` or ``"relative"``.
-    factor_to_si : float
-        Multiplier from the record's unit to SI [1].
     column : str or int, optional
-        Which value column to use when the file has several (header name or 1-based index of the value
-        columns).
+        Which value column to use when the file has several.
+    limits : Limits
+        Size and row limits.
 
     Returns
     -------
-    tuple of (Spectrum, dict)
+    tuple of (RawSpectrum, dict)
+        The numbers as read, and metadata (including ``sha256`` of the file's bytes and ``format``).
     """
-    return read_delimited(path, display_path=display_path, quantity=quantity, factor_to_si=factor_to_si,
-                          column=column)
+    reader = _BY_SUFFIX.get(Path(path).suffix.lower(), read_delimited)
+    spectrum, metadata = reader(path, display_path=display_path, column=column, limits=limits)
+    with open(path, "rb") as handle:
+        metadata["sha256"] = hashlib.sha256(handle.read()).hexdigest()
+    metadata["format"] = reader.__name__.removeprefix("read_")
+    return spectrum, metadata

@@ -1,49 +1,106 @@
-"""Delimited text spectra: CSV, TSV, semicolon or whitespace separated, ``#`` comments, optional header."""
+"""Delimited text spectra as instruments export them.
+
+Comma, semicolon, tab or whitespace separated; decimal comma; UTF-8 with or without BOM, or Latin-1; CRLF;
+``#`` comment lines; metadata lines before the table (``key: value``, ``key = value`` or ``key;value``,
+kept as metadata); an optional header row (its cells may state units); several value columns.
+
+The numeric body is parsed by numpy's C reader; when that fails, a careful pass finds the first bad line so
+the message can name it.
+"""
 
 from __future__ import annotations
 
-import hashlib
+import io
 import re
 
 import numpy as np
 
 from hazard.errors import InputError
-from hazard.spectrum import Spectrum, validate_spectrum
+from hazard.readers.common import DEFAULT_LIMITS, Limits, RawSpectrum, check_size, decode_text
+from hazard.readers.headers import choose_value_column, header_unit, wavelength_scale
 
 __all__ = ["read_delimited"]
 
 _NUMBER = re.compile(r"^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$")
-
-
-def _split(line: str, delimiter: str | None) -> list[str]:
-    cells = line.split(delimiter) if delimiter else line.split()
-    return [cell.strip().strip('"') for cell in cells]
-
-
-def _detect_delimiter(line: str) -> str | None:
-    for delimiter in ("\t", ";", ","):
-        if delimiter in line:
-            return delimiter
-    return None
+_DECIMAL_COMMA = re.compile(r"^[+-]?\d+,\d+([eE][+-]?\d+)?$")
+_SPECIALS = ("nan", "inf", "-inf", "+inf")
 
 
 def _is_number(cell: str) -> bool:
-    return bool(_NUMBER.match(cell)) or cell.lower() in ("nan", "inf", "-inf", "+inf")
+    return bool(_NUMBER.match(cell)) or cell.lower() in _SPECIALS
 
 
-def _decode(raw: bytes, path: str) -> str:
-    if b"\x00" in raw[:4096]:
-        raise InputError("this is a binary file, not a text spectrum",
-                         "export the spectrum as CSV or TSV text", path)
+def _layout(line: str) -> tuple[str | None, bool]:
+    """(delimiter, decimal comma) of a data row: tab, semicolon, comma or whitespace (None)."""
+    for delimiter in ("\t", ";"):
+        if delimiter in line:
+            cells = [c.strip() for c in line.split(delimiter)]
+            return delimiter, any(_DECIMAL_COMMA.match(c) for c in cells)
+    if "," in line:
+        tokens = line.split()
+        if len(tokens) >= 2 and any(_DECIMAL_COMMA.match(t) for t in tokens):
+            return None, True
+        return ",", False
+    return None, False
+
+
+def _cells(line: str, delimiter: str | None, decimal_comma: bool) -> list[str]:
+    cells = [c.strip().strip('"') for c in (line.split(delimiter) if delimiter else line.split())]
+    return [c.replace(",", ".") for c in cells] if decimal_comma else cells
+
+
+def _metadata_item(line: str) -> tuple[str, str] | None:
+    for separator in (":", "=", ";", "\t", ","):
+        if separator in line:
+            key, value = line.split(separator, 1)
+            if key.strip():
+                return key.strip(), value.strip().strip(";,\t").strip()
+    return None
+
+
+def _careful(lines: list[str], start: int, delimiter: str | None, decimal_comma: bool, width: int,
+             path: str) -> np.ndarray:
+    """Parse row by row, raising for the first bad line; rows (n, width) and their line numbers."""
+    rows, numbers = [], []
+    for number, line in enumerate(lines[start:], start=start + 1):
+        stripped = line.strip()
+        if not stripped or stripped.startswith("#"):
+            continue
+        cells = _cells(stripped, delimiter, decimal_comma)
+        if len(cells) != width:
+            raise InputError(f"{len(cells)} cells where the table has {width}", "give every row the same columns",
+                             path, number)
+        for cell in cells:
+            if not _is_number(cell):
+                raise InputError(f"text {cell!r} in a number column",
+                                 "use plain numbers (decimal point or decimal comma, consistently)", path, number)
+        rows.append([float(c) for c in cells])
+        numbers.append(number)
+    return np.array(rows, dtype=float).reshape(-1, width), np.array(numbers, dtype=int)
+
+
+def _fast(lines: list[str], start: int, delimiter: str | None, decimal_comma: bool, width: int):
+    """numpy's C parser over a clean body (no blank or comment lines inside); None when it cannot."""
+    body = lines[start:]
+    while body and not body[-1].strip():
+        body = body[:-1]
+    if any(not line.strip() or line.lstrip().startswith("#") for line in body):
+        return None
+    text = "\n".join(body)
+    if decimal_comma:
+        text = text.replace(",", ".")
     try:
-        return raw.decode("utf-8-sig")
-    except UnicodeDecodeError:
-        return raw.decode("latin-1")
+        table = np.loadtxt(io.StringIO(text), delimiter=delimiter, ndmin=2, dtype=float, quotechar='"')
+    except ValueError:
+        return None
+    if table.shape[1] != width:
+        return None
+    return table, np.arange(start + 1, start + 1 + len(body))
 
 
-def read_delimited(path: str, *, display_path: str, quantity: str, factor_to_si: float,
-                   column: str | int | None = None) -> tuple[Spectrum, dict]:
-    """Read a two-column (or multi-column) text spectrum.
+def read_delimited(path: str, *, display_path: str, column: str | int | None = None,
+                   limits: Limits = DEFAULT_LIMITS) -> tuple[RawSpectrum, dict]:
+    """Read a delimited text spectrum.
 
     Parameters
     ----------
@@ -51,91 +108,75 @@ def read_delimited(path: str, *, display_path: str, quantity: str, factor_to_si:
         File to open.
     display_path : str
         Name used in messages.
-    quantity : str
-        ``"irradiance"``, ``"radiance"`` or ``"relative"``.
-    factor_to_si : float
-        Multiplier from the file's unit to SI [1].
     column : str or int, optional
-        Value column to use when there are several: a header name or a 1-based index counted over the
-        value columns (the wavelength column is not counted).
+        Value column when there are several (header name or 1-based number).
+    limits : Limits
+        Size and row limits.
 
     Returns
     -------
-    tuple of (Spectrum, dict)
-        The validated spectrum and metadata: ``header`` (list of column names or None),
-        ``value_column`` (name or index used), ``comments`` (comment lines), ``sha256`` (of the file's
-        bytes).
+    tuple of (RawSpectrum, dict)
+        The numbers, and metadata: ``header``, ``value_column``, ``comments``, ``metadata`` (key → value
+        from lines before the table), ``delimiter``, ``decimal_comma``, ``sha256`` is added by the caller.
 
     Raises
     ------
     InputError
-        Missing file, binary content, text in a number column, ragged rows, ambiguous columns.
     """
-    try:
-        with open(path, "rb") as handle:
-            raw = handle.read()
-    except FileNotFoundError:
-        raise InputError("spectrum file not found", "check the 'spectrum' path (relative to the record's "
-                         "folder)", display_path) from None
-    except IsADirectoryError:
-        raise InputError("spectrum path is a folder", "name a spectrum file", display_path) from None
-    text = _decode(raw, display_path)
-    header: list[str] | None = None
+    check_size(path, display_path, limits)
+    with open(path, "rb") as handle:
+        raw = handle.read()
+    if raw.count(b"\n") > limits.max_rows + 1000:
+        raise InputError(f"more than {limits.max_rows:,} rows", "resample the spectrum to a coarser grid",
+                         display_path)
+    text = decode_text(raw, display_path)
+    lines = text.splitlines()
     comments: list[str] = []
-    delimiter: str | None = None
-    rows: list[list[str]] = []
-    line_numbers: list[int] = []
-    for number, line in enumerate(text.splitlines(), start=1):
+    preamble: list[tuple[int, str]] = []
+    start = None
+    for index, line in enumerate(lines):
         stripped = line.strip()
         if not stripped:
             continue
         if stripped.startswith("#"):
             comments.append(stripped.lstrip("#").strip())
             continue
-        if delimiter is None and not rows and header is None:
-            delimiter = _detect_delimiter(stripped)
-        cells = _split(stripped, delimiter)
-        if not rows and header is None and not _is_number(cells[0]):
-            header = cells
-            continue
-        rows.append(cells)
-        line_numbers.append(number)
-    width = len(header) if header else (len(rows[0]) if rows else 2)
-    if width < 2:
-        raise InputError("only one column found", "give two columns: wavelength in nm, then the spectral "
-                         "value, separated by a comma, tab or semicolon", display_path)
-    value_index = _choose_column(header, width, column, display_path)
-    wavelength = np.empty(len(rows))
-    value = np.empty(len(rows))
-    for i, (cells, number) in enumerate(zip(rows, line_numbers)):
-        if len(cells) != width:
-            raise InputError(f"{len(cells)} cells where the table has {width}",
-                             "give every row the same columns", display_path, number)
-        for target, cell in ((wavelength, cells[0]), (value, cells[value_index])):
-            if not _is_number(cell):
-                raise InputError(f"text {cell!r} in a number column",
-                                 "use plain numbers with '.' as decimal point", display_path, number)
-            target[i] = float(cell)
-    spectrum = validate_spectrum(wavelength, value, np.array(line_numbers, dtype=int), display_path,
-                                 factor_to_si, quantity)
-    metadata = {"header": header, "value_column": value_index if header is None else header[value_index],
-                "comments": comments, "sha256": hashlib.sha256(raw).hexdigest()}
-    return spectrum, metadata
-
-
-def _choose_column(header: list[str] | None, width: int, column: str | int | None, path: str) -> int:
-    """Index of the value column among ``width`` cells (0 is the wavelength)."""
-    if column is None:
-        if width > 2:
-            raise InputError(f"{width - 1} value columns",
-                             "name the one to use with 'column' in the record (header name or number)", path)
-        return 1
-    if isinstance(column, int):
-        if not 1 <= column <= width - 1:
-            raise InputError(f"column {column} does not exist ({width - 1} value columns)",
-                             "give a number from 1 to the count of value columns", path)
-        return column
-    if header is None or column not in header[1:]:
-        known = ", ".join(header[1:]) if header else "none (the file has no header)"
-        raise InputError(f"no value column named {column!r}", f"use one of: {known}", path)
-    return header.index(column, 1)
+        delimiter, decimal_comma = _layout(stripped)
+        cells = _cells(stripped, delimiter, decimal_comma)
+        if _is_number(cells[0]):
+            if len(cells) < 2:
+                raise InputError("only one column found", "give two columns: wavelength in nm, then the spectral "
+                                 "value, separated by a comma, tab or semicolon", display_path, index + 1)
+            start = index
+            break
+        preamble.append((index + 1, stripped))
+    if start is None:
+        raise InputError("no data rows", "give two columns: wavelength in nm, then the spectral value",
+                         display_path)
+    width = len(cells)
+    header = None
+    if preamble:
+        last_number, last_line = preamble[-1]
+        header_cells = _cells(last_line, delimiter, False)
+        if len(header_cells) == width:
+            header = header_cells
+            preamble = preamble[:-1]
+    metadata = dict(item for _, line in preamble if (item := _metadata_item(line)) is not None)
+    value_index = choose_value_column(header, width, column, display_path)
+    parsed = _fast(lines, start, delimiter, decimal_comma, width)
+    table, numbers = parsed if parsed is not None else _careful(lines, start, delimiter, decimal_comma, width,
+                                                                display_path)
+    if table.shape[0] > limits.max_rows:
+        raise InputError(f"{table.shape[0]:,} rows, above the {limits.max_rows:,} limit",
+                         "resample the spectrum to a coarser grid", display_path)
+    scale = wavelength_scale(header[0] if header else None)
+    warnings = ()
+    if scale != 1.0:
+        warnings = (f"{display_path}: wavelength column is in µm by its header; converted to nm",)
+    unit = header_unit(header[value_index]) if header else None
+    spectrum = RawSpectrum(wavelength_nm=table[:, 0] * scale, value=table[:, value_index], lines=numbers,
+                           path=display_path, unit=unit, warnings=warnings)
+    info = {"header": header, "value_column": header[value_index] if header else value_index,
+            "comments": comments, "metadata": metadata, "delimiter": delimiter or "whitespace",
+            "decimal_comma": decimal_comma}
+    return spectrum, info

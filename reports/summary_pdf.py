@@ -1,0 +1,151 @@
+"""The PDF summary of a batch: products ranked by group and headroom, then the products that failed.
+
+The order comes from :func:`reports.ranking.rank_assessments`; every number is formatted by
+:mod:`hazard.formatting`.
+"""
+
+from __future__ import annotations
+
+import datetime
+
+from reportlab.pdfbase.pdfmetrics import stringWidth
+from reportlab.platypus import Flowable, Spacer, Table
+
+from hazard.formatting import format_margin
+from hazard.hazards import GROUPS
+from hazard.result import Assessment
+from reports.fonts import report_fonts
+from reports.layout import FRAME_WIDTH, build_pdf
+from reports.ranking import BORDERLINE_FACTOR, is_borderline, rank_assessments, tightest_margin
+from reports.style import INK, Styles, group_fill, group_ink, table_style
+from reports.timestamp import format_report_time, report_time
+
+__all__ = ["render_summary_pdf"]
+
+
+def _heading(assessments: list[Assessment], errors: list[tuple[str, str]], st: Styles,
+             moment: datetime.datetime) -> Flowable:
+    versions = sorted({a.provenance.tool_version for a in assessments}) or ["—"]
+    limit_sets = sorted({a.provenance.limit_set for a in assessments}) or ["—"]
+    left = [st.p("PHOTOBIOLOGICAL SAFETY PRE-SCREEN · BATCH SUMMARY", st.kicker),
+            st.p(f"{len(assessments)} products assessed, {len(errors)} failed", st.title)]
+    right = [st.bold_lead("Report date", format_report_time(moment), st.small),
+             st.bold_lead("Tool", ", ".join(f"hazard {v}" for v in versions), st.small),
+             st.bold_lead("Limit set", ", ".join(limit_sets), st.small)]
+    table = Table([[left, right]], colWidths=[FRAME_WIDTH - 150, 150])
+    table.setStyle([("VALIGN", (0, 0), (-1, -1), "TOP"), ("LEFTPADDING", (0, 0), (-1, -1), 0),
+                    ("RIGHTPADDING", (0, 0), (-1, -1), 0), ("LINEBELOW", (0, 0), (-1, 0), 1.2, INK),
+                    ("BOTTOMPADDING", (0, 0), (-1, -1), 5)])
+    return table
+
+
+def _counts(assessments: list[Assessment], st: Styles) -> Flowable:
+    """One labelled cell per group with its count, then the incomplete and borderline counts."""
+    cells, style = [], []
+    for i, group in enumerate(reversed(GROUPS)):
+        count = sum(a.risk_group == group for a in assessments)
+        cells.append(st.p(f"{group}: {count}", st.cell_bold.clone(f"n{group}", textColor=group_ink(group),
+                                                                   alignment=1)))
+        style.append(("BACKGROUND", (i, 0), (i, 0), group_fill(group)))
+    cells.append(st.p(f"incomplete: {sum(not a.complete for a in assessments)}", st.cell_bold))
+    cells.append(st.p(f"borderline: {sum(is_borderline(a) for a in assessments)}", st.cell_bold))
+    table = Table([cells], colWidths=[FRAME_WIDTH / len(cells)] * len(cells))
+    table.setStyle(style + [("BOX", (0, 0), (-1, -1), 0.8, INK), ("INNERGRID", (0, 0), (-1, -1), 0.8, INK),
+                            ("TOPPADDING", (0, 0), (-1, -1), 3), ("BOTTOMPADDING", (0, 0), (-1, -1), 4)])
+    return table
+
+
+def _ranked_table(assessments: list[Assessment], st: Styles) -> Flowable:
+    head = ["#", "ID", "Name", "Group", "Complete", "Deciding hazards", "Tightest margin", "Borderline"]
+    rows = [[st.p(h, st.head) for h in head]]
+    extra = []
+    for rank, a in enumerate(rank_assessments(assessments), start=1):
+        tightest = tightest_margin(a)
+        if tightest is None:
+            margin = "—"
+        else:
+            h = a.hazards[tightest.symbol]
+            margin = f"{tightest.symbol}: {format_margin(h.risk_group, h.margins)}"
+        complete = "yes" if a.complete else f"INCOMPLETE, lower bound (not assessed: {', '.join(a.not_assessed)})"
+        rows.append([st.p(str(rank), st.cell), st.p(a.id, st.cell_bold), st.p(a.name or "—", st.cell),
+                     st.p(a.risk_group, st.cell_bold.clone("g", textColor=group_ink(a.risk_group))),
+                     st.p(complete, st.cell_bold if not a.complete else st.cell),
+                     st.p(", ".join(a.deciding_hazards) or "—", st.cell), st.p(margin, st.cell),
+                     st.p("BORDERLINE" if is_borderline(a) else "—", st.cell_bold)])
+        extra.append(("BACKGROUND", (3, rank), (3, rank), group_fill(a.risk_group)))
+    if len(rows) == 1:
+        rows.append([st.p("no products assessed", st.cell)] + [""] * 7)
+        extra.append(("SPAN", (0, 1), (-1, 1)))
+    widths = [18, 0, 0, 40, 58, 62, 94, 54]
+    widths[1] = max((stringWidth(st.fonts.clean(a.id), st.fonts.bold, st.cell.fontSize) for a in assessments),
+                    default=0.0) + 7
+    widths[2] = FRAME_WIDTH - sum(widths)
+    table = Table(rows, colWidths=widths, repeatRows=1)
+    table.setStyle(table_style(extra=extra))
+    return table
+
+
+def _failed_table(errors: list[tuple[str, str]], st: Styles) -> Flowable:
+    rows = [[st.p("ID", st.head), st.p("Why it could not be assessed", st.head)]]
+    rows += [[st.p(product, st.cell_bold), st.p((reason.strip().splitlines() or ["—"])[0], st.cell)]
+             for product, reason in errors]
+    if len(rows) == 1:
+        rows.append([st.p("none", st.cell), ""])
+    table = Table(rows, colWidths=[96, FRAME_WIDTH - 96], repeatRows=1)
+    table.setStyle(table_style())
+    return table
+
+
+def _cautions(assessments: list[Assessment], st: Styles) -> list[Flowable]:
+    """Each distinct caution once, in order of first appearance, with the products it was chosen for."""
+    products: dict[str, list[str]] = {}
+    for a in rank_assessments(assessments):
+        for caution in a.cautions:
+            products.setdefault(caution, []).append(a.id)
+    return [st.bold_lead(f"• {'All products' if len(ids) == len(assessments) else ', '.join(ids)}:", caution,
+                         st.small) for caution, ids in products.items()]
+
+
+def render_summary_pdf(assessments: list[Assessment], errors: list[tuple[str, str]],
+                       rendered_at: datetime.datetime | None = None) -> bytes:
+    """A batch overview as a PDF: ranked products, failed products, and the cautions chosen for them.
+
+    Parameters
+    ----------
+    assessments : list of Assessment
+        The products assessed.
+    errors : list of (str, str)
+        Products that could not be assessed: id (or file) and the reason; the reason's first line is shown.
+    rendered_at : datetime.datetime, optional
+        Timezone-aware time printed as the report date; defaults to :func:`reports.report_time`.
+
+    Returns
+    -------
+    bytes
+        The PDF; the same input and ``rendered_at`` give identical bytes.
+
+    Raises
+    ------
+    ValueError
+        When ``rendered_at`` has no timezone.
+    """
+    moment = rendered_at or report_time()
+    fonts = report_fonts()
+    st = Styles(fonts)
+    versions = sorted({a.provenance.tool_version for a in assessments})
+    low, high = 1 / BORDERLINE_FACTOR, BORDERLINE_FACTOR
+    story = [
+        _heading(assessments, errors, st, moment), Spacer(1, 6), _counts(assessments, st),
+        st.p("Products, highest risk first", st.h2), _ranked_table(assessments, st), Spacer(1, 2),
+        st.p(f"Ranked by overall group (RG3 first), then by the deciding hazard closest to its next boundary "
+             f"(largest value ÷ limit first), then by id. Tightest margin: that hazard's value ÷ limit at its "
+             f"group's upper boundary (RG3: multiple of the RG2 limit). BORDERLINE: that hazard lies within a "
+             f"factor {high:g} of a group boundary on either side ({low:g}–{high:g} × the limit), so a modest "
+             f"measurement error could change its group. An INCOMPLETE product's group is a lower bound.",
+             st.caption),
+        st.p("Products that could not be assessed", st.h2), _failed_table(errors, st),
+        st.p("Cautions", st.h2), *_cautions(assessments, st),
+    ]
+    return build_pdf(story, fonts, title="Photobiological safety pre-screen — batch summary",
+                     header="Photobiological safety pre-screen — batch summary",
+                     author=f"hazard {', '.join(versions) or '—'}")
