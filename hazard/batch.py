@@ -117,13 +117,15 @@ def summary_rows(outcome: BatchOutcome, limit_set: LimitSet = DEFAULT_LIMIT_SET)
     rows = []
     for product_id in outcome.ids:
         row = {"id": product_id, "status": "ok", "risk_group": "", "complete": "", "warning_count": "",
-               "error": ""}
+               "claims_contradicted": "", "claims": "", "error": ""}
         row.update(dict.fromkeys(_hazard_columns(limit_set), ""))
         if product_id in outcome.errors:
             row.update(status="error", error=outcome.errors[product_id])
         else:
             a = outcome.assessments[product_id]
-            row.update(risk_group=a.risk_group, complete=str(a.complete).lower(), warning_count=len(a.warnings))
+            row.update(risk_group=a.risk_group, complete=str(a.complete).lower(), warning_count=len(a.warnings),
+                       claims_contradicted=sum(c.verdict == "contradicted" for c in a.claims),
+                       claims="; ".join(f"{c.field}: {c.verdict}" for c in a.claims))
             for symbol, h in a.hazards.items():
                 row[f"{symbol}_value"] = "" if h.value is None else repr(h.value)
                 row[f"{symbol}_group"] = h.risk_group or ("not assessed" if not h.assessed else "")
@@ -133,7 +135,8 @@ def summary_rows(outcome: BatchOutcome, limit_set: LimitSet = DEFAULT_LIMIT_SET)
 
 
 def _summary_csv(outcome: BatchOutcome, limit_set: LimitSet) -> bytes:
-    columns = ["id", "status", "risk_group", "complete", *_hazard_columns(limit_set), "warning_count", "error"]
+    columns = ["id", "status", "risk_group", "complete", *_hazard_columns(limit_set), "warning_count",
+               "claims_contradicted", "claims", "error"]
     buffer = io.StringIO()
     writer = csv.DictWriter(buffer, fieldnames=columns, lineterminator="\n")
     writer.writeheader()

@@ -17,7 +17,7 @@ import click
 from hazard._version import __version__
 from hazard.atomic import write_atomic
 
-EXIT_OK, EXIT_INTERNAL, EXIT_INPUT = 0, 1, 2
+EXIT_OK, EXIT_INTERNAL, EXIT_INPUT, EXIT_CONTRADICTED = 0, 1, 2, 4
 
 _RECORD_OPTIONS = [
     click.option("--id", "id_", help="Product id (default: the spectrum file's stem)."),
@@ -206,6 +206,61 @@ def demo(output: Path, jobs: int) -> None:
     outcome = run_batch(Path(str(lineup)), output, pdf=True, jobs=jobs, per_product_json=True)
     _finish_batch(outcome, output, pdf=True)
     sys.exit(outcome.exit_code)
+
+
+@main.command()
+@click.argument("source", type=click.Path(path_type=Path))
+@click.option("--format", "output_format", type=click.Choice(["text", "json"]), default="text",
+              show_default=True, help="Output format (json: one assessment per line).")
+@click.option("--cct-tolerance-k", type=float, default=150.0, show_default=True, help="CCT tolerance [K].")
+@click.option("--cct-tolerance-pct", type=float, default=5.0, show_default=True,
+              help="CCT tolerance [% of the claim]; the larger of the two applies.")
+@click.option("--illuminance-tolerance-pct", type=float, default=10.0, show_default=True,
+              help="Illuminance tolerance [%].")
+@click.option("--t-max-tolerance-pct", type=float, default=10.0, show_default=True,
+              help="A claimed t_max longer than computed by more than this is contradicted [%].")
+def check(source: Path, output_format: str, cct_tolerance_k: float, cct_tolerance_pct: float,
+          illuminance_tolerance_pct: float, t_max_tolerance_pct: float) -> None:
+    """Check vendor claims (claimed_risk_group, claimed_cct_k, claimed_illuminance_lx, claimed_t_max_s_*)
+    of a RECORD.toml, a CSV/.xlsx manifest or a folder of records.
+
+    Exit code 4 when any claim is contradicted (so a pipeline can gate on it), 3 when a product could not be
+    assessed, 2 for unusable input, else 0.
+    """
+    from hazard.batch import load_row
+    from hazard.claims import ClaimTolerances
+    from hazard.engine import assess as run_assessment
+    from hazard.errors import InputError
+    from hazard.manifest import read_manifest
+    from hazard.textout import render_claims
+
+    tolerances = ClaimTolerances(cct_tolerance_k, cct_tolerance_pct, illuminance_tolerance_pct, t_max_tolerance_pct)
+    if source.suffix.lower() == ".toml":
+        items = [(source.stem, lambda: run_assessment(source, tolerances=tolerances))]
+    else:
+        items = [(row.product_id, (lambda row=row: run_assessment(load_row(row), tolerances=tolerances)))
+                 for row in read_manifest(source)]
+    contradicted = failed = False
+    for label, run in items:
+        try:
+            assessment = run()
+        except InputError as exc:
+            failed = True
+            click.echo(f"{label}: error: {exc}", err=True)
+            continue
+        contradicted |= any(c.verdict == "contradicted" for c in assessment.claims)
+        if output_format == "json":
+            click.echo(assessment.model_dump_json())
+            continue
+        click.echo(f"{assessment.id}: computed {assessment.risk_group}"
+                   f"{'' if assessment.complete else ' (lower bound)'}")
+        click.echo("\n".join(render_claims(assessment)) if assessment.claims else "  no claims in the record")
+        click.echo("")
+    if output_format == "text":
+        from hazard.cautions import PRE_SCREEN
+
+        click.echo(f"Caution: {PRE_SCREEN}")
+    sys.exit(EXIT_CONTRADICTED if contradicted else (3 if failed else EXIT_OK))
 
 
 @main.command()

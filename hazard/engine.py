@@ -13,18 +13,20 @@ import numpy as np
 
 from hazard._version import __version__
 from hazard.cautions import select_cautions
+from hazard.claims import DEFAULT_TOLERANCES, ClaimTolerances, check_claims
 from hazard.evaluate import Evaluation, ProductArrays, evaluate, integral_specs
 from hazard.geometry import FIVE_TIMES_RULE, SourceShape
 from hazard.hazards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
 from hazard.inputs import LoadedProduct, load_product, product_from_record
 from hazard.integrals import Integrated, integrate_spectra
-from hazard.photometry import VISIBLE_BAND_NM, cct_from_xyz
+from hazard.photometry import CCT_DUV_LIMIT, CCT_RANGE_K, VISIBLE_BAND_NM, cct_from_xyz
 from hazard.record import ProductRecord
-from hazard.result import Assessment, Geometry, HazardResult, Photometry, Provenance, SpectrumSummary
+from hazard.result import Assessment, BlueLightTransfer, Geometry, HazardResult, Photometry, Provenance, SpectrumSummary
 from hazard.weighting import coarse_steps_in
 from weighting_tables import TABLE_NAMES, load_table
 
-__all__ = ["assess", "evaluate_loaded", "evaluate_products", "build_assessment", "BatchEvaluation", "METHOD_TEXT", "STEEP_REGIONS_NM", "MAX_STEEP_STEP_NM"]
+__all__ = ["assess", "evaluate_loaded", "evaluate_products", "build_assessment", "BatchEvaluation", "METHOD_TEXT",
+           "STEEP_REGIONS_NM", "MAX_STEEP_STEP_NM"]
 
 METHOD_TEXT = ("Trapezoid rule on the spectrum's own grid, band ends inserted by linear interpolation of the "
                "spectrum; weights interpolated onto the grid (S_UV, B, R log-linear; V linear), zero outside "
@@ -61,12 +63,27 @@ def product_arrays(records: list[ProductRecord], raw: np.ndarray, covered: np.nd
     geometry); otherwise product i uses ``records[i]``.
     """
     take = np.arange(len(records)) if index is None else np.asarray(index)
-    distance = np.array([np.nan if r.distance_mm is None else r.distance_mm * 1e-3 for r in records])
+    distance = np.array([np.nan if r.reference_distance_mm is None else r.reference_distance_mm * 1e-3
+                         for r in records])
     return ProductArrays(
         raw=np.atleast_2d(raw), covered=np.atleast_2d(covered),
-        is_radiance=np.array([r.quantity == "radiance" for r in records])[take],
+        is_radiance=np.array([r.effective_quantity == "radiance" for r in records])[take],
         measurement_distance_m=distance[take], shape=source_shape(records).take(take),
-        is_gls=np.array([r.lamp_type == "gls" for r in records])[take])
+        is_gls=np.array([r.lamp_type == "gls" for r in records])[take],
+        anchor_photometric=np.array([_anchor_photometric(r) for r in records])[take],
+        luminous_intensity_cd=np.array([np.nan if r.luminous_intensity_cd is None else r.luminous_intensity_cd
+                                        for r in records])[take])
+
+
+def _anchor_photometric(record: ProductRecord) -> float:
+    """The photometric value a relative spectrum must reproduce at its reference distance [lx or cd/m2]."""
+    if record.quantity != "relative":
+        return np.nan
+    if record.illuminance_lx is not None:
+        return record.illuminance_lx
+    if record.luminous_intensity_cd is not None:
+        return record.luminous_intensity_cd / (record.reference_distance_mm * 1e-3) ** 2
+    return record.luminance_cd_m2
 
 
 def _float(x) -> float | None:
@@ -139,10 +156,12 @@ def _warnings(loaded: LoadedProduct, ev: Evaluation, i: int, v_covered: bool) ->
                             f"nm)")
     d_a_mm = float(ev.assessment_distance_m[i]) * 1e3
     size_mm = record.largest_dimension_mm
-    if record.quantity == "irradiance" and abs(d_a_mm - record.distance_mm) > 1e-9:
-        near = min(d_a_mm, record.distance_mm)
+    d_ref = record.reference_distance_mm
+    irradiance_input = record.effective_quantity == "irradiance"
+    if irradiance_input and abs(d_a_mm - d_ref) > 1e-9:
+        near = min(d_a_mm, d_ref)
         if near < FIVE_TIMES_RULE * size_mm:
-            warnings.append(f"inverse-square scaling from {record.distance_mm:g} mm to {d_a_mm:.4g} mm with a "
+            warnings.append(f"inverse-square scaling from {d_ref:g} mm to {d_a_mm:.4g} mm with a "
                             f"{size_mm:g} mm source: {near:.4g} mm is under five source sizes, so the scaled "
                             f"values are approximate; measure at the assessment distance")
     if not v_covered:
@@ -178,9 +197,12 @@ def _assumptions(loaded: LoadedProduct, ev: Evaluation, i: int) -> list[str]:
         assumptions.append(f"Source given by its angular subtense {record.source_alpha_mrad:g} mrad at "
                            f"{record.distance_mm:g} mm, treated as a disc of {record.largest_dimension_mm:.4g} mm.")
     d_a_mm = float(ev.assessment_distance_m[i]) * 1e3
-    if record.quantity == "irradiance":
-        if abs(d_a_mm - record.distance_mm) > 1e-9:
-            assumptions.append(f"Irradiance scaled from {record.distance_mm:g} mm to {d_a_mm:.4g} mm by the "
+    if record.quantity == "relative":
+        assumptions.append(_anchor_text(record, float(ev.anchor_scale[i])))
+    if record.effective_quantity == "irradiance":
+        d_ref = record.reference_distance_mm
+        if abs(d_a_mm - d_ref) > 1e-9:
+            assumptions.append(f"Irradiance scaled from {d_ref:g} mm to {d_a_mm:.4g} mm by the "
                                f"inverse-square law (point source).")
         assumptions.append("Radiance derived as E/Ω_s from the irradiance and the stated source size, i.e. a "
                            "uniform source; LED arrays and hot spots can exceed this average.")
@@ -190,14 +212,29 @@ def _assumptions(loaded: LoadedProduct, ev: Evaluation, i: int) -> list[str]:
     return assumptions
 
 
+def _anchor_text(record: ProductRecord, scale: float) -> str:
+    """The scaling of a relative spectrum, stated so a reader can check it."""
+    if record.illuminance_lx is not None:
+        target = f"{record.illuminance_lx:g} lx at {record.distance_mm:g} mm"
+    elif record.luminous_intensity_cd is not None:
+        target = (f"{record.luminous_intensity_cd:g} cd, i.e. {_anchor_photometric(record):.4g} lx at "
+                  f"{record.reference_distance_mm:g} mm by the inverse-square law")
+    else:
+        target = f"{record.luminance_cd_m2:g} cd/m2 (so the spectrum is read as a radiance)"
+    unit = "W/m2/sr/nm" if record.effective_quantity == "radiance" else "W/m2/nm"
+    return (f"Relative spectrum scaled by {scale:.6g} {unit} per unit so that 683 lm/W · ∫S(λ)V(λ)dλ reproduces "
+            f"the stated {target}; every absolute value rests on that figure and on the spectrum's shape.")
+
+
 PREVIEW_BINS = 240
 """Bins of the chart preview kept in the result, so reports render from saved JSON."""
 
 
-def _spectrum_summary(loaded: LoadedProduct) -> SpectrumSummary:
-    """Summary and a max-per-bin preview (keeps narrow lines visible) of the input spectrum."""
+def _spectrum_summary(loaded: LoadedProduct, scale: float) -> SpectrumSummary:
+    """Summary and a max-per-bin preview (keeps narrow lines visible) of the input spectrum, in SI units
+    (a relative spectrum multiplied by its anchor's ``scale``)."""
     spectrum = loaded.spectrum
-    wl, value = spectrum.wavelength_nm, spectrum.value
+    wl, value = spectrum.wavelength_nm, spectrum.value * scale
     edges = np.linspace(wl[0], wl[-1], PREVIEW_BINS + 1)
     index = np.clip(np.searchsorted(edges, wl, side="right") - 1, 0, PREVIEW_BINS - 1)
     binned = np.full(PREVIEW_BINS, -np.inf)
@@ -211,6 +248,24 @@ def _spectrum_summary(loaded: LoadedProduct) -> SpectrumSummary:
         peak_value_si=float(value[peak]),
         preview_nm=[round(float(c), 2) for c in centres[filled]],
         preview_value_si=[float(f"{v:.4g}") for v in binned[filled]])
+
+
+def _transfer(ev: Evaluation, i: int, covered: np.ndarray, keys: list[str], record: ProductRecord
+              ) -> BlueLightTransfer | None:
+    """IEC TR 62778 transfer quantities, where the spectrum covers both B(λ) and V(λ)."""
+    if not (covered[keys.index("L_B")] and covered[keys.index("V")]) or not ev.blue_light_efficacy_w_per_lm[i] > 0:
+        return None
+    if record.luminous_intensity_cd is not None:
+        source = "stated in the record"
+    elif record.effective_quantity == "radiance":
+        source = "estimated as luminance × projected source area"
+    else:
+        source = f"estimated as E_v·d² at {record.reference_distance_mm:g} mm (inverse-square law)"
+    return BlueLightTransfer(
+        k_bv_w_per_lm=float(ev.blue_light_efficacy_w_per_lm[i]),
+        threshold_illuminance_lx=float(ev.threshold_illuminance_lx[i]),
+        luminous_intensity_cd=float(ev.luminous_intensity_cd[i]), intensity_source=source,
+        threshold_distance_mm=float(ev.threshold_distance_m[i]) * 1e3)
 
 
 def _distance_rule(record: ProductRecord, d_a_mm: float) -> str:
@@ -256,8 +311,31 @@ def evaluate_loaded(products: list[LoadedProduct], limit_set: LimitSet = DEFAULT
     return evaluate_products([p.record for p in products], integrated, limit_set)
 
 
-def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int) -> Assessment:
-    """The result of product ``i`` of an evaluation."""
+def _cct_reason(batch: BatchEvaluation, i: int, v_covered: bool) -> str:
+    """Why product ``i`` has no CCT (empty when it has one)."""
+    if not v_covered:
+        return "the spectrum does not cover V(λ)'s 360–830 nm band"
+    if not batch.evaluation.illuminance_lx[i] > 0:
+        return "the spectrum has no visible light"
+    if np.isnan(batch.cct_k[i]):
+        return (f"its chromaticity is too far from the Planckian locus for a CCT (|Duv| > {CCT_DUV_LIMIT:g} or "
+                f"outside {CCT_RANGE_K[0]:g}–{CCT_RANGE_K[1]:g} K)")
+    return ""
+
+
+def _illuminance_at_record_distance(record: ProductRecord, ev: Evaluation, i: int) -> float | None:
+    """Illuminance at the record's distance_mm [lx], by the same geometry the assessment used."""
+    if record.distance_mm is None:
+        return None
+    d_m, d_a = record.distance_mm * 1e-3, float(ev.assessment_distance_m[i])
+    if record.effective_quantity == "radiance":
+        return float(ev.luminance_cd_m2[i] * source_shape([record]).solid_angle_sr(d_m)[0])
+    return float(ev.illuminance_lx[i] * (d_a / d_m) ** 2)
+
+
+def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int,
+                     tolerances: ClaimTolerances = DEFAULT_TOLERANCES) -> Assessment:
+    """The result of product ``i`` of an evaluation; vendor claims checked with ``tolerances``."""
     record, spectrum, limit_set = loaded.record, loaded.spectrum, batch.limit_set
     ev, covered, raw = batch.evaluation, batch.integrated.covered[i], batch.integrated.raw[i]
     keys = [s.key for s in integral_specs(limit_set)]
@@ -283,16 +361,22 @@ def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int) -> A
             largest_dimension_mm=float(record.largest_dimension_mm), small_source=bool(ev.small_source[i]),
             weak_visual_stimulus=bool(ev.weak_visual_stimulus[i])),
         photometry=_photometry(batch, i, v_covered),
-        spectrum=_spectrum_summary(loaded),
+        spectrum=_spectrum_summary(loaded, float(ev.anchor_scale[i])),
+        blue_light_transfer=_transfer(ev, i, covered, keys, record),
         record=record.model_dump(exclude_none=True), warnings=_warnings(loaded, ev, i, v_covered),
         assumptions=_assumptions(loaded, ev, i),
         cautions=select_cautions(groups, bool(ev.complete[i]), uvc_fraction),
+        claims=check_claims(record, risk_group=overall, complete=bool(ev.complete[i]),
+                            not_assessed=[s for s, h in hazards.items() if not h.assessed], hazards=hazards,
+                            cct_k=_float(batch.cct_k[i]), cct_reason=_cct_reason(batch, i, v_covered),
+                            illuminance_at_record_distance_lx=_illuminance_at_record_distance(record, ev, i),
+                            assessment_distance_mm=d_a_mm, tolerances=tolerances),
         provenance=Provenance(tool_version=__version__, limit_set=limit_set.name, tables=tables,
                               inputs=dict(sorted(loaded.inputs.items())), method=METHOD_TEXT))
 
 
 def assess(product: str | Path | ProductRecord | LoadedProduct, overrides: dict | None = None,
-           limit_set: LimitSet = DEFAULT_LIMIT_SET) -> Assessment:
+           limit_set: LimitSet = DEFAULT_LIMIT_SET, tolerances: ClaimTolerances = DEFAULT_TOLERANCES) -> Assessment:
     """Pre-screen one product.
 
     Parameters
@@ -304,6 +388,8 @@ def assess(product: str | Path | ProductRecord | LoadedProduct, overrides: dict 
         Record fields that replace the record's own (as the CLI options do).
     limit_set : LimitSet
         Limits to apply; IEC 62471:2006 by default.
+    tolerances : ClaimTolerances
+        Tolerances for the record's vendor claims.
 
     Returns
     -------
@@ -320,4 +406,4 @@ def assess(product: str | Path | ProductRecord | LoadedProduct, overrides: dict 
         loaded = product_from_record(product, Path.cwd(), product.id)
     else:
         loaded = load_product(product, overrides)
-    return build_assessment(loaded, evaluate_loaded([loaded], limit_set), 0)
+    return build_assessment(loaded, evaluate_loaded([loaded], limit_set), 0, tolerances)

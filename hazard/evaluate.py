@@ -61,6 +61,11 @@ class ProductArrays:
         Source sizes [m].
     is_gls : numpy.ndarray
         (n,) general lighting service lamp (500 lx rule).
+    anchor_photometric : numpy.ndarray
+        (n,) for a relative spectrum, the photometric value it must reproduce: illuminance at the
+        measurement distance [lx] or luminance [cd m⁻²]; NaN for an absolute spectrum.
+    luminous_intensity_cd : numpy.ndarray
+        (n,) luminous intensity when the record states it [cd]; NaN otherwise.
     """
 
     raw: np.ndarray
@@ -69,6 +74,8 @@ class ProductArrays:
     measurement_distance_m: np.ndarray
     shape: SourceShape
     is_gls: np.ndarray
+    anchor_photometric: np.ndarray
+    luminous_intensity_cd: np.ndarray
 
 
 @dataclass(frozen=True)
@@ -103,6 +110,11 @@ class Evaluation:
     hazards: dict[str, HazardArrays]
     group_index: np.ndarray
     complete: np.ndarray
+    anchor_scale: np.ndarray
+    blue_light_efficacy_w_per_lm: np.ndarray
+    threshold_illuminance_lx: np.ndarray
+    luminous_intensity_cd: np.ndarray
+    threshold_distance_m: np.ndarray
 
 
 def _assessment_distance_m(arrays: ProductArrays, v_raw: np.ndarray) -> np.ndarray:
@@ -182,15 +194,20 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
     Evaluation
     """
     keys = [spec.key for spec in integral_specs(limit_set)]
-    v = keys.index("V")
-    distance = _assessment_distance_m(arrays, arrays.raw[:, v])
+    v, b = keys.index("V"), keys.index("L_B")
+    with np.errstate(divide="ignore", invalid="ignore"):
+        anchor_scale = np.where(np.isnan(arrays.anchor_photometric), 1.0,
+                                arrays.anchor_photometric / (K_M_LM_PER_W * arrays.raw[:, v]))
+    raw = arrays.raw * anchor_scale[:, None]
+    distance = _assessment_distance_m(arrays, raw[:, v])
     omega_s = arrays.shape.solid_angle_sr(distance)
     alpha = arrays.shape.alpha_rad(distance)
-    scale = np.where(arrays.is_radiance, omega_s,
-                     inverse_square_factor(np.nan_to_num(arrays.measurement_distance_m, nan=1.0), distance))
-    irradiance = arrays.raw * scale[:, None]
+    d_m = np.nan_to_num(arrays.measurement_distance_m, nan=1.0)
+    scale = np.where(arrays.is_radiance, omega_s, inverse_square_factor(d_m, distance))
+    irradiance = raw * scale[:, None]
     illuminance = K_M_LM_PER_W * irradiance[:, v]
     luminance = illuminance / omega_s
+    transfer = _blue_light_transfer(arrays, raw[:, b], raw[:, v], d_m)
     hazards = {h.symbol: _hazard_arrays(h, limit_set, irradiance[:, i], arrays.covered[:, i], arrays, distance,
                                         omega_s, alpha, luminance)
                for i, h in enumerate(limit_set.hazards)}
@@ -200,5 +217,26 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
                       illuminance_lx=illuminance, luminance_cd_m2=luminance,
                       small_source=alpha < limit_set.small_source_alpha_rad,
                       weak_visual_stimulus=luminance < limit_set.weak_stimulus_luminance_cd_m2,
-                      hazards=hazards, group_index=np.maximum(group, 0), complete=complete)
+                      hazards=hazards, group_index=np.maximum(group, 0), complete=complete,
+                      anchor_scale=anchor_scale, **transfer)
+
+
+def _blue_light_transfer(arrays: ProductArrays, blue: np.ndarray, visual: np.ndarray, d_m: np.ndarray) -> dict:
+    """IEC TR 62778:2014 transfer quantities: K_B,v = E_B/E_v [W lm⁻¹], the illuminance E_thr = 1/K_B,v at
+    which E_B reaches 1 W m⁻² (the small-source RG1/RG2 boundary for t_max = 100 s) [lx], and the distance at
+    which that illuminance falls, d_thr = √(I_v/E_thr) [m].
+
+    I_v is the record's luminous intensity when given; otherwise E_v·d² at the measurement distance
+    (inverse-square estimate) for irradiance, or L_v times the source's projected area for radiance.
+    """
+    with np.errstate(divide="ignore", invalid="ignore"):
+        efficacy = np.where(visual > 0, blue / (K_M_LM_PER_W * visual), np.nan)
+        threshold = np.where(efficacy > 0, 1.0 / efficacy, np.nan)
+        width, height = arrays.shape.width_m, arrays.shape.height_m
+        area = np.where(arrays.shape.is_disc, np.pi * width ** 2 / 4, width * np.nan_to_num(height))
+        estimated = np.where(arrays.is_radiance, K_M_LM_PER_W * visual * area, K_M_LM_PER_W * visual * d_m ** 2)
+        intensity = np.where(np.isnan(arrays.luminous_intensity_cd), estimated, arrays.luminous_intensity_cd)
+        distance = np.sqrt(intensity / threshold)
+    return {"blue_light_efficacy_w_per_lm": efficacy, "threshold_illuminance_lx": threshold,
+            "luminous_intensity_cd": intensity, "threshold_distance_m": distance}
 

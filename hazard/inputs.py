@@ -8,10 +8,13 @@ from dataclasses import dataclass
 from pathlib import Path
 
 from hazard.errors import InputError
+from hazard.photometry import VISIBLE_BAND_NM
 from hazard.readers import read_spectrum
 from hazard.record import ProductRecord, load_record, record_from_fields
 from hazard.spectrum import Spectrum, validate_spectrum
 from hazard.units import SpectralUnit, parse_spectral_unit
+from hazard.weighting import quadrature_weights
+from weighting_tables import load_table
 
 __all__ = ["LoadedProduct", "load_product", "product_from_record"]
 
@@ -39,7 +42,10 @@ class LoadedProduct:
 
 
 def _resolve_unit(record: ProductRecord, header_unit: str | None, origin: str) -> SpectralUnit:
-    """The unit of the values: the record's, checked against the file's header when both state one."""
+    """The unit of the values: the record's, checked against the file's header when both state one. A
+    relative spectrum keeps its own scale (factor 1); its anchor sets the level."""
+    if record.quantity == "relative":
+        return SpectralUnit("relative", 1.0, record.effective_quantity == "radiance")
     if header_unit is None:
         return parse_spectral_unit(record.unit_text)
     stated = parse_spectral_unit(header_unit)
@@ -53,6 +59,15 @@ def _resolve_unit(record: ProductRecord, header_unit: str | None, origin: str) -
         raise InputError(f"the record says unit {record.unit!r} but the file's header says {header_unit!r}",
                          "correct the record's unit, or remove it to use the header's", origin)
     return given
+
+
+def _check_anchorable(spectrum: Spectrum, origin: str) -> None:
+    """A photometric anchor can only scale a spectrum that has visible light (V(λ) > 0 somewhere)."""
+    visual = quadrature_weights(spectrum.wavelength_nm, VISIBLE_BAND_NM, load_table("v_photopic").at)
+    if not float(visual @ spectrum.value) > 0:
+        raise InputError(f"the relative spectrum {spectrum.path} has no light within V(λ)'s "
+                         f"{VISIBLE_BAND_NM[0]:g}-{VISIBLE_BAND_NM[1]:g} nm, so a photometric anchor cannot scale it",
+                         "give an absolute spectrum (irradiance or radiance) instead", origin)
 
 
 def product_from_record(record: ProductRecord, base_dir: Path, origin: str,
@@ -77,6 +92,8 @@ def product_from_record(record: ProductRecord, base_dir: Path, origin: str,
     metadata["unit_used"] = unit.text
     spectrum = validate_spectrum(raw.wavelength_nm, raw.value, raw.lines, raw.path, unit.factor_to_si,
                                  record.quantity, raw.warnings)
+    if record.quantity == "relative":
+        _check_anchorable(spectrum, origin)
     inputs = dict(record_inputs or {})
     inputs[record.spectrum] = metadata["sha256"]
     return LoadedProduct(record=record, spectrum=spectrum, inputs=inputs, metadata=metadata)

@@ -19,6 +19,12 @@ from hazard.units import parse_spectral_unit
 __all__ = ["ProductRecord", "load_record", "record_from_fields"]
 
 _DEFAULT_UNIT = {"irradiance": "W/m2/nm", "radiance": "W/m2/sr/nm"}
+HAZARD_SYMBOLS = ("E_S", "E_UVA", "L_B", "E_B", "L_R", "L_IR", "E_IR", "E_H")
+"""Symbols that may carry a claimed t_max (``claimed_t_max_s_<SYMBOL>``)."""
+RELATIVE_UNITS = ("relative", "rel", "a.u.", "au", "arb", "1", "counts")
+"""Units accepted for a relative spectrum (they all mean: no physical unit)."""
+ANCHORS = ("illuminance_lx", "luminous_intensity_cd", "luminance_cd_m2")
+"""Photometric anchors that scale a relative spectrum."""
 
 
 class ProductRecord(BaseModel):
@@ -31,8 +37,9 @@ class ProductRecord(BaseModel):
     vendor: str | None = Field(None, description="Who makes or sells the product.")
     model: str | None = Field(None, description="The vendor's model designation.")
     spectrum: str | None = Field(None, description="Spectrum file, relative to the record file's folder.")
-    quantity: Literal["irradiance", "radiance"] = Field(
-        "irradiance", description="What the spectrum holds: spectral irradiance or spectral radiance.")
+    quantity: Literal["irradiance", "radiance", "relative"] = Field(
+        "irradiance", description="What the spectrum holds: spectral irradiance, spectral radiance, or a "
+                                  "relative spectrum scaled by a photometric anchor.")
     unit: str | None = Field(None, description="Unit of the spectral values, e.g. W/m2/nm, mW/m2/nm, "
                                                "uW/cm2/nm, W/m2/sr/nm. Default by quantity.")
     column: str | int | None = Field(None, description="Value column to use when the file has several "
@@ -52,6 +59,26 @@ class ProductRecord(BaseModel):
                                                          "a band count as zero.")
     measurement_fov_mrad: float | None = Field(None, gt=0, description="Field of view of a radiance "
                                                                        "measurement [mrad].")
+    illuminance_lx: float | None = Field(None, gt=0, description="Anchor of a relative spectrum: illuminance "
+                                                                 "at distance_mm [lx].")
+    luminous_intensity_cd: float | None = Field(None, gt=0, description="Anchor of a relative spectrum: "
+                                                                        "luminous intensity [cd]; illuminance "
+                                                                        "follows by the inverse-square law.")
+    luminance_cd_m2: float | None = Field(None, gt=0, description="Anchor of a relative spectrum: luminance "
+                                                                  "[cd/m2]; the spectrum is then a radiance.")
+    claimed_risk_group: Literal["Exempt", "RG1", "RG2", "RG3"] | None = Field(
+        None, description="The vendor's claimed overall risk group.")
+    claimed_cct_k: float | None = Field(None, gt=0, description="The vendor's claimed CCT [K].")
+    claimed_illuminance_lx: float | None = Field(None, gt=0, description="The vendor's claimed illuminance at "
+                                                                         "distance_mm [lx].")
+    claimed_t_max_s_E_S: float | None = Field(None, gt=0, description="Claimed t_max of E_S [s].")
+    claimed_t_max_s_E_UVA: float | None = Field(None, gt=0, description="Claimed t_max of E_UVA [s].")
+    claimed_t_max_s_L_B: float | None = Field(None, gt=0, description="Claimed t_max of L_B [s].")
+    claimed_t_max_s_E_B: float | None = Field(None, gt=0, description="Claimed t_max of E_B [s].")
+    claimed_t_max_s_L_R: float | None = Field(None, gt=0, description="Claimed t_max of L_R [s].")
+    claimed_t_max_s_L_IR: float | None = Field(None, gt=0, description="Claimed t_max of L_IR [s].")
+    claimed_t_max_s_E_IR: float | None = Field(None, gt=0, description="Claimed t_max of E_IR [s].")
+    claimed_t_max_s_E_H: float | None = Field(None, gt=0, description="Claimed t_max of E_H [s].")
 
     @model_validator(mode="after")
     def _consistent(self) -> "ProductRecord":
@@ -68,6 +95,19 @@ class ProductRecord(BaseModel):
             raise ValueError("source_width_mm and source_height_mm go together: give both")
         if self.quantity == "irradiance" and self.distance_mm is None:
             raise ValueError("distance_mm is required for an irradiance spectrum (the measurement distance)")
+        anchors = [a for a in ANCHORS if getattr(self, a) is not None]
+        if self.quantity == "relative":
+            if self.unit is not None and self.unit.strip().lower() not in RELATIVE_UNITS:
+                raise ValueError(f"a relative spectrum has no physical unit (got {self.unit!r}): leave unit out "
+                                 f"or write \"relative\"")
+            if len(anchors) != 1:
+                raise ValueError("a relative spectrum needs exactly one anchor: illuminance_lx (with "
+                                 "distance_mm), luminous_intensity_cd, or luminance_cd_m2")
+            if anchors == ["illuminance_lx"] and self.distance_mm is None:
+                raise ValueError("illuminance_lx needs distance_mm, the distance at which it was measured")
+            return self
+        if anchors:
+            raise ValueError(f"{anchors[0]} scales a relative spectrum: set quantity = \"relative\" or remove it")
         if self.source_alpha_mrad is not None and self.distance_mm is None:
             raise ValueError("source_alpha_mrad needs distance_mm, the distance at which it was measured")
         try:
@@ -81,8 +121,31 @@ class ProductRecord(BaseModel):
 
     @property
     def unit_text(self) -> str:
-        """The unit as given, or the default for the quantity."""
+        """The unit as given, or the default for the quantity (relative spectra keep their own scale)."""
+        if self.quantity == "relative":
+            return "W/m2/sr/nm" if self.luminance_cd_m2 is not None else "W/m2/nm"
         return self.unit or _DEFAULT_UNIT[self.quantity]
+
+    @property
+    def effective_quantity(self) -> str:
+        """What the spectrum is after anchoring: a relative spectrum with a luminance anchor is a radiance,
+        with an illuminance or intensity anchor an irradiance."""
+        if self.quantity == "relative":
+            return "radiance" if self.luminance_cd_m2 is not None else "irradiance"
+        return self.quantity
+
+    @property
+    def reference_distance_mm(self) -> float | None:
+        """Distance the irradiance refers to: distance_mm, or 1000 mm for a luminous-intensity anchor
+        without one (E_v = I/d²) [mm]."""
+        if self.distance_mm is None and self.quantity == "relative" and self.luminous_intensity_cd is not None:
+            return 1000.0
+        return self.distance_mm
+
+    @property
+    def claimed_t_max_s(self) -> dict[str, float]:
+        """Claimed t_max per hazard symbol [s]."""
+        return {s: v for s in HAZARD_SYMBOLS if (v := getattr(self, f"claimed_t_max_s_{s}")) is not None}
 
     @property
     def largest_dimension_mm(self) -> float | None:

@@ -10,7 +10,8 @@ from typing import Literal
 
 from pydantic import BaseModel, ConfigDict, Field
 
-__all__ = ["HazardResult", "SpectrumSummary", "Provenance", "Photometry", "Geometry", "Assessment", "RiskGroup"]
+__all__ = ["HazardResult", "SpectrumSummary", "BlueLightTransfer", "ClaimCheck", "Provenance", "Photometry",
+           "Geometry", "Assessment", "RiskGroup"]
 
 RiskGroup = Literal["Exempt", "RG1", "RG2", "RG3"]
 
@@ -88,6 +89,32 @@ class SpectrumSummary(_Frozen):
                                                       "digits, for charts only [SI].")
 
 
+class BlueLightTransfer(_Frozen):
+    """Blue-light transfer quantities of IEC TR 62778:2014 (the report since replaced by IEC 62471-7:2023,
+    whose details this tool does not implement)."""
+
+    k_bv_w_per_lm: float = Field(description="Blue-light hazard efficacy of luminous radiation K_B,v = "
+                                             "L_B/L_v = E_B/E_v [W/lm].")
+    threshold_illuminance_lx: float = Field(description="E_thr = 1/K_B,v: illuminance at which E_B reaches "
+                                                        "1 W/m2, the small-source RG1/RG2 boundary [lx].")
+    luminous_intensity_cd: float = Field(description="Luminous intensity used for d_thr [cd].")
+    intensity_source: str = Field(description="Where the luminous intensity comes from.")
+    threshold_distance_mm: float = Field(description="d_thr = √(I_v/E_thr): nearer than this E_B exceeds "
+                                                     "1 W/m2 [mm].")
+
+
+class ClaimCheck(_Frozen):
+    """One vendor claim against the computed value."""
+
+    claim: str = Field(description="What is claimed, e.g. 'risk group', 'CCT', 't_max of L_B'.")
+    field: str = Field(description="The record field holding the claim.")
+    claimed: str = Field(description="The claimed value as stated.")
+    computed: str | None = Field(description="The computed value, or null when it cannot be computed.")
+    tolerance: str | None = Field(description="The tolerance applied.")
+    verdict: Literal["consistent", "contradicted", "not checkable"]
+    reason: str = Field(description="Why, in a sentence.")
+
+
 class Provenance(_Frozen):
     """What produced the result, for traceability."""
 
@@ -115,6 +142,9 @@ class Assessment(_Frozen):
     geometry: Geometry
     photometry: Photometry
     spectrum: SpectrumSummary
+    blue_light_transfer: BlueLightTransfer | None = Field(description="IEC TR 62778 transfer quantities, where "
+                                                                      "B(λ) and V(λ) are covered.")
+    claims: list[ClaimCheck] = Field(description="Vendor claims in the record, checked.")
     record: dict = Field(description="The product record as used.")
     warnings: list[str]
     assumptions: list[str]

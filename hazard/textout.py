@@ -56,11 +56,29 @@ def render_text(assessment: Assessment) -> str:
         "Limits are those applied at each group boundary (thermal: after α bounds); margin is value/limit at "
         "the group's upper boundary.",
     ]
+    t = a.blue_light_transfer
+    if t is not None:
+        lines += ["", f"Blue-light transfer (IEC TR 62778): K_B,v = {t.k_bv_w_per_lm * 1e3:.3g} mW/lm; E_B reaches "
+                      f"1 W/m² at E_thr = {format_value(t.threshold_illuminance_lx)} lx, i.e. nearer than "
+                      f"d_thr = {t.threshold_distance_mm:.0f} mm (I_v = {format_value(t.luminous_intensity_cd)} cd, "
+                      f"{t.intensity_source})"]
+    if a.claims:
+        lines += ["", *render_claims(a)]
     for heading, items in (("Warnings", a.warnings), ("Assumptions", a.assumptions)):
         if items:
             lines += ["", f"{heading}:"] + [f"  - {item}" for item in items]
     lines += ["", f"Caution: {a.cautions[0]}"] + [f"         {c}" for c in a.cautions[1:]]
     return "\n".join(lines) + "\n"
+
+
+def render_claims(assessment: Assessment) -> list[str]:
+    """The vendor-claim checks as table lines: claim, claimed, computed, tolerance, verdict, reason."""
+    header = ("Claim", "Claimed", "Computed", "Tolerance", "Verdict", "Reason")
+    rows = [(c.claim, c.claimed, c.computed or "—", c.tolerance or "—", c.verdict.upper() if c.verdict ==
+             "contradicted" else c.verdict, c.reason) for c in assessment.claims]
+    widths = [max(len(r[i]) for r in [header, *rows]) for i in range(5)]
+    line = lambda r: "  ".join([*(c.ljust(w) for c, w in zip(r[:5], widths)), r[5]]).rstrip()  # noqa: E731
+    return ["Vendor claims:", line(header), *(line(r) for r in rows)]
 
 
 def render_batch_table(ids: list[str], assessments: dict[str, Assessment], errors: dict[str, str]) -> str:

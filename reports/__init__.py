@@ -1,1 +1,17 @@
-"""PDF rendering of assessment results. Reads results; never computes a hazard quantity."""
+"""PDF reports of assessment results: one product's report and a batch summary.
+
+Rendering only: these functions read :class:`hazard.result.Assessment` objects (fresh or loaded from their
+JSON) and never compute a hazard quantity. Output is deterministic for a given ``rendered_at``.
+
+- :func:`render_assessment_pdf` — one product, A4, two pages: at a glance with charts; input, method, cautions
+- :func:`render_summary_pdf` — a batch ranked by group and headroom, with the products that failed
+- :func:`rank_assessments` — the summary's order, as a pure function
+- :func:`report_time` — ``SOURCE_DATE_EPOCH`` as UTC when set, else now
+"""
+
+from reports.product_pdf import render_assessment_pdf
+from reports.ranking import rank_assessments
+from reports.summary_pdf import render_summary_pdf
+from reports.timestamp import report_time
+
+__all__ = ["render_assessment_pdf", "render_summary_pdf", "rank_assessments", "report_time"]

@@ -138,22 +138,24 @@ def spectrum_chart(assessment: Assessment, width: float, height: float, fonts: F
     d.add(_text(left + pw / 2, 2, "wavelength λ [nm]", fonts, 7, color=MUTED, anchor="middle"))
     d.add(Group(_text(0, 0, "relative (log)", fonts, 6.5, color=MUTED, anchor="middle"),
                 transform=(0, 1, -1, 0, 6, bottom + ph / 2)))
-    d.add(_legend(left, height - 9, fonts))
+    d.add(_legend(left, height - 9, pw, fonts))
     return d
 
 
-def _legend(x: float, y: float, fonts: FontSet) -> Group:
-    """Legend row: the spectrum's swatch, then one sample line per action spectrum."""
-    g = Group()
+def _legend(x: float, y: float, width: float, fonts: FontSet) -> Group:
+    """Legend row within ``width``: the spectrum's swatch, then one sample line per action spectrum."""
     label = "spectrum ÷ its peak (highest sample per bin)"
-    g.add(Rect(x, y - 1, 14, 6, fillColor=SPECTRUM_FILL, strokeColor=SPECTRUM_EDGE, strokeWidth=0.6))
-    g.add(_text(x + 18, y, label, fonts, 7))
-    cursor = x + 18 + stringWidth(fonts.clean(label), fonts.regular, 7) + 14
+    texts = [label] + [text for _, text, _, _ in ACTION_SPECTRA]
+    natural = sum(stringWidth(fonts.clean(t), fonts.regular, 7) for t in texts) + len(texts) * 38
+    size = 7 * min(1.0, width / natural)
+    g = Group(Rect(x, y - 1, 14, 6, fillColor=SPECTRUM_FILL, strokeColor=SPECTRUM_EDGE, strokeWidth=0.6),
+              _text(x + 18, y, label, fonts, size))
+    cursor = x + 18 + stringWidth(fonts.clean(label), fonts.regular, size) + 14
     for _, text, dash, line_width in ACTION_SPECTRA:
         g.add(Line(cursor, y + 2.5, cursor + 20, y + 2.5, strokeColor=INK, strokeWidth=line_width,
                    strokeDashArray=dash, strokeLineCap=1 if dash and dash[0] < 1 else 0))
-        g.add(_text(cursor + 24, y, text, fonts, 7))
-        cursor += 24 + stringWidth(fonts.clean(text), fonts.regular, 7) + 14
+        g.add(_text(cursor + 24, y, text, fonts, size))
+        cursor += 24 + stringWidth(fonts.clean(text), fonts.regular, size) + 14
     return g
 
 

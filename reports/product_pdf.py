@@ -7,8 +7,8 @@ Everything printed comes from the :class:`~hazard.result.Assessment`; numbers ar
 from __future__ import annotations
 
 import datetime
+from collections.abc import Callable
 
-from reportlab.lib import colors
 from reportlab.pdfbase.pdfmetrics import stringWidth
 from reportlab.platypus import CondPageBreak, Flowable, KeepTogether, PageBreak, Spacer, Table
 
@@ -18,7 +18,7 @@ from reports.charts import margin_chart, spectrum_chart
 from reports.fonts import report_fonts
 from reports.layout import FRAME_WIDTH, build_pdf
 from reports.ranking import tightest_margin
-from reports.style import INK, PANEL, Styles, fit_widths, group_fill, group_ink, table_style
+from reports.style import HAIRLINE, INK, PANEL, Styles, fit_widths, group_fill, group_ink, table_style
 from reports.timestamp import format_report_time, report_time
 from reports.wording import GROUP_MEANING, GROUP_NAME, LOWER_BOUND, LOWER_BOUND_MEANING
 
@@ -32,7 +32,7 @@ def _unit(unit: str) -> str:
     return UNIT_DISPLAY.get(unit, unit)
 
 
-def _triple(values: dict[str, float], fmt, scale: float = 1.0) -> str:
+def _triple(values: dict[str, float], fmt: Callable[[float], str], scale: float = 1.0) -> str:
     """The Exempt / RG1 / RG2 entries of ``values`` as one string, or an em dash when there are none."""
     if not values:
         return "—"
@@ -45,12 +45,6 @@ def _record_value(value: object) -> str:
     if isinstance(value, float):
         return f"{value:g}"
     return str(value)
-
-
-def _group_label(hazard: HazardResult) -> str:
-    if not hazard.assessed:
-        return "not assessed"
-    return hazard.risk_group or "EL only"
 
 
 def _heading(a: Assessment, st: Styles, moment: datetime.datetime) -> Flowable:
@@ -122,26 +116,31 @@ _TYPICAL_ROW = ["E_UVA", "near-UV, eye (lens)", "7.50e-04", "W/(m²·sr)", "5.05
 """Wide entries of each hazard-table column, so the columns stay the same from report to report."""
 
 
+def _hazard_row(h: HazardResult) -> list[str]:
+    """The hazard-table cells of an assessed hazard, formatted as the text output formats them."""
+    return [h.symbol, h.title, format_value(h.value), _unit(h.unit),
+            *(format_limit(h.limits.get(b)) for b in _BOUNDARIES), format_duration_s(h.t_max_s),
+            h.risk_group or "EL only", format_margin(h.risk_group, h.margins)]
+
+
 def _hazard_table(a: Assessment, st: Styles) -> Flowable:
     head = ["Symbol", "Hazard", "Value", "Unit", "Limits as applied", "", "", "t_max", "Group", "Margin"]
     sub = ["", "", "", "", "Exempt", "RG1", "RG2", "", "", ""]
-    cells = [[h.symbol, h.title, format_value(h.value), _unit(h.unit),
-              *(format_limit(h.limits.get(b)) for b in _BOUNDARIES), format_duration_s(h.t_max_s),
-              _group_label(h), format_margin(h.risk_group, h.margins)] for h in a.hazards.values()]
     rows = [[st.p(h, st.head) for h in head], [st.p(h, st.head) for h in sub]]
     extra = [("SPAN", (4, 0), (6, 0))] + [("SPAN", (c, 0), (c, 1)) for c in (0, 1, 2, 3, 7, 8, 9)]
-    bold = {0, 2}
-    for i, (h, row) in enumerate(zip(a.hazards.values(), cells), start=2):
+    fitted = [_TYPICAL_ROW]
+    for i, h in enumerate(a.hazards.values(), start=2):
         if not h.assessed:
             rows.append([st.p(h.symbol, st.cell_bold), st.p(h.title, st.cell), st.p(h.note, st.cell)]
                         + [""] * 7)
             extra.append(("SPAN", (2, i), (9, i)))
             continue
-        styles = [st.cell_bold if c in bold else st.cell for c in range(len(row))]
+        cells = _hazard_row(h)
+        fitted.append(cells)
+        styles = [st.cell_bold if c in (0, 2) else st.cell for c in range(len(cells))]
         styles[8] = st.cell_bold.clone("group", textColor=group_ink(h.risk_group))
-        rows.append([st.p(text, style) for text, style in zip(row, styles)])
+        rows.append([st.p(text, style) for text, style in zip(cells, styles)])
         extra.append(("BACKGROUND", (8, i), (8, i), group_fill(h.risk_group)))
-    fitted = [_TYPICAL_ROW] + [row for h, row in zip(a.hazards.values(), cells) if h.assessed]
     header = [top if top != "Limits as applied" and top else below for top, below in zip(head, sub)]
     widths = fit_widths(header, fitted, st.fonts, FRAME_WIDTH, flexible=1, size=st.cell.fontSize, bold={0, 2, 8})
     table = Table(rows, colWidths=widths, repeatRows=2)
@@ -149,11 +148,17 @@ def _hazard_table(a: Assessment, st: Styles) -> Flowable:
     return table
 
 
-def _hazard_caption(a: Assessment, st: Styles) -> Flowable:
+def _hazard_caption(st: Styles) -> Flowable:
     return st.p("L_B, L_R, L_IR: the source's own radiance, compared with field-of-view averages (page 2). "
                 "Thermal limits after the α bounds. t_max: time to the exposure limit (—: not within its range). "
                 "Margin: value ÷ limit at the group's upper boundary (RG3: × RG2 limit). EL only: no groups.",
                 st.caption)
+
+
+_KEY_VALUE_STYLE = [("VALIGN", (0, 0), (-1, -1), "TOP"), ("LEFTPADDING", (0, 0), (-1, -1), 0),
+                    ("RIGHTPADDING", (0, 0), (-1, -1), 6), ("TOPPADDING", (0, 0), (-1, -1), 1),
+                    ("BOTTOMPADDING", (0, 0), (-1, -1), 1.5),
+                    ("LINEBELOW", (0, 0), (-1, -1), 0.3, HAIRLINE)]
 
 
 def _key_values(rows: list[tuple[str, str]], st: Styles, key_width: float = 104) -> Table:
@@ -161,12 +166,6 @@ def _key_values(rows: list[tuple[str, str]], st: Styles, key_width: float = 104)
                   colWidths=[key_width, FRAME_WIDTH - key_width])
     table.setStyle(_KEY_VALUE_STYLE)
     return table
-
-
-_KEY_VALUE_STYLE = [("VALIGN", (0, 0), (-1, -1), "TOP"), ("LEFTPADDING", (0, 0), (-1, -1), 0),
-                    ("RIGHTPADDING", (0, 0), (-1, -1), 6), ("TOPPADDING", (0, 0), (-1, -1), 1),
-                    ("BOTTOMPADDING", (0, 0), (-1, -1), 1.5),
-                    ("LINEBELOW", (0, 0), (-1, -1), 0.3, colors.HexColor("#D5DBE0"))]
 
 
 def _geometry(a: Assessment, st: Styles) -> Flowable:
@@ -321,7 +320,7 @@ def render_assessment_pdf(assessment: Assessment, rendered_at: datetime.datetime
     story: list[Flowable] = [
         _heading(a, st, moment), Spacer(1, 5), _verdict(a, st), Spacer(1, 4), _cautions(a, st),
         st.p("Hazards at the assessment distance", st.h2), _hazard_table(a, st), Spacer(1, 2),
-        _hazard_caption(a, st), Spacer(1, 4), _geometry(a, st), *_charts(a, st),
+        _hazard_caption(st), Spacer(1, 4), _geometry(a, st), *_charts(a, st),
         PageBreak(),
         st.p("Input and method", st.title.clone("h1", fontSize=14, leading=18)),
         *_inputs(a, st),

@@ -18,8 +18,8 @@ from reportlab.platypus import Paragraph, TableStyle
 
 from reports.fonts import FontSet
 
-__all__ = ["INK", "MUTED", "RULE", "PANEL", "SPECTRUM_FILL", "SPECTRUM_EDGE", "GROUP_FILL", "GROUP_INK", "group_fill", "group_ink", "Styles",
-           "table_style", "fit_widths"]
+__all__ = ["INK", "MUTED", "RULE", "HAIRLINE", "PANEL", "SPECTRUM_FILL", "SPECTRUM_EDGE", "GROUP_FILL", "GROUP_INK",
+           "group_fill", "group_ink", "Styles", "table_style", "fit_widths"]
 
 INK = colors.HexColor("#1F2A36")
 """Text, axes and the action-spectrum lines."""
@@ -27,6 +27,8 @@ MUTED = colors.HexColor("#56626E")
 """Secondary text: captions, units, labels."""
 RULE = colors.HexColor("#A7B1BA")
 """Table rules and chart grid."""
+HAIRLINE = colors.HexColor("#D5DBE0")
+"""Light rules between key-value rows."""
 PANEL = colors.HexColor("#EEF1F4")
 """Background of table headers and boxed notes."""
 SPECTRUM_FILL = colors.HexColor("#C5D3E0")

@@ -66,17 +66,17 @@ def _ranked_table(assessments: list[Assessment], st: Styles) -> Flowable:
         else:
             h = a.hazards[tightest.symbol]
             margin = f"{tightest.symbol}: {format_margin(h.risk_group, h.margins)}"
-        complete = "yes" if a.complete else f"INCOMPLETE, lower bound (not assessed: {', '.join(a.not_assessed)})"
         rows.append([st.p(str(rank), st.cell), st.p(a.id, st.cell_bold), st.p(a.name or "—", st.cell),
                      st.p(a.risk_group, st.cell_bold.clone("g", textColor=group_ink(a.risk_group))),
-                     st.p(complete, st.cell_bold if not a.complete else st.cell),
+                     st.p("yes", st.cell) if a.complete else
+                     st.bold_lead("INCOMPLETE", f"lower bound; not assessed: {', '.join(a.not_assessed)}", st.cell),
                      st.p(", ".join(a.deciding_hazards) or "—", st.cell), st.p(margin, st.cell),
                      st.p("BORDERLINE" if is_borderline(a) else "—", st.cell_bold)])
         extra.append(("BACKGROUND", (3, rank), (3, rank), group_fill(a.risk_group)))
     if len(rows) == 1:
         rows.append([st.p("no products assessed", st.cell)] + [""] * 7)
         extra.append(("SPAN", (0, 1), (-1, 1)))
-    widths = [18, 0, 0, 40, 58, 62, 94, 54]
+    widths = [18, 0, 0, 40, 66, 62, 90, 52]
     widths[1] = max((stringWidth(st.fonts.clean(a.id), st.fonts.bold, st.cell.fontSize) for a in assessments),
                     default=0.0) + 7
     widths[2] = FRAME_WIDTH - sum(widths)

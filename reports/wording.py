@@ -8,8 +8,8 @@ from __future__ import annotations
 
 __all__ = ["GROUP_NAME", "GROUP_MEANING", "FOOTER", "LOWER_BOUND", "LOWER_BOUND_MEANING"]
 
-GROUP_NAME = {"Exempt": "Exempt group (no risk)", "RG1": "Risk Group 1 (low risk)", "RG2": "Risk Group 2 (moderate risk)",
-              "RG3": "Risk Group 3 (high risk)"}
+GROUP_NAME = {"Exempt": "Exempt group (no risk)", "RG1": "Risk Group 1 (low risk)",
+              "RG2": "Risk Group 2 (moderate risk)", "RG3": "Risk Group 3 (high risk)"}
 """Long name of each group, shown beside the short label."""
 
 GROUP_MEANING = {

@@ -1,7 +1,6 @@
 """Batch runs: manifests with good and bad rows, resume after a kill, and assess_many against assess."""
 
 import json
-import os
 import shutil
 import signal
 import subprocess

@@ -17,9 +17,9 @@ from pathlib import Path
 import numpy as np
 import pytest
 from click.testing import CliRunner
+from conftest import write_spectrum
 
 import hazard
-from conftest import write_spectrum
 from hazard import InputError
 from hazard.cli import main
 
@@ -86,8 +86,6 @@ SPECTRUM_CASES = [
     pytest.param("one_row.csv", HEADER + "500,0.1\n", r"only one data row", 2, id="one data row"),
     pytest.param("text.csv", HEADER + "500,0.1\n501,0.2\n502,abc\n503,0.1\n", r"text 'abc' in a number column",
                  4, id="text in a number column"),
-    pytest.param("comma_decimal.csv", "wavelength_nm;value\n500;0,1\n501;0,2\n", r"text '0,1' in a number column"
-                 r".*'\.' as decimal point", 2, id="decimal comma"),
     pytest.param("nan.csv", HEADER + "500,0.1\n501,NaN\n502,0.1\n", r"value is not a finite number", 3, id="NaN"),
     pytest.param("inf.csv", HEADER + "500,0.1\n501,0.1\n502,1e400\n", r"value is not a finite number", 4,
                  id="overflow to infinity"),
@@ -107,7 +105,7 @@ SPECTRUM_CASES = [
                  id="binary file"),
     pytest.param("ragged.csv", HEADER + "500,0.1\n501,0.2,0.3\n502,0.1\n", r"3 cells where the table has 2", 3,
                  id="ragged rows"),
-    pytest.param("one_column.csv", "wavelength_nm\n500\n501\n", r"only one column", None, id="one column"),
+    pytest.param("one_column.csv", "wavelength_nm\n500\n501\n", r"only one column", 2, id="one column"),
     pytest.param("zero.csv", HEADER + "500,0\n501,0\n", r"no positive value", None, id="all zero"),
     pytest.param("columns.csv", "wavelength_nm,a,b\n500,0.1,0.2\n501,0.1,0.2\n",
                  r"2 value columns; fix: name the one to use with 'column'", None,
@@ -202,8 +200,8 @@ RECORD_CASES = [
                  r"unit 'W/m2/nm' does not fit quantity 'radiance'", id="irradiance unit with quantity radiance"),
     pytest.param({**SIZE, "distance_mm": -200.0}, r"distance[_-]mm: Input should be greater than 0",
                  id="negative distance"),
-    pytest.param({**SIZE, "quantity": "exitance"}, r"quantity: Input should be 'irradiance' or "
-                 r"'radiance'", id="unknown quantity"),
+    pytest.param({**SIZE, "quantity": "exitance"}, r"quantity: Input should be 'irradiance'",
+                 id="unknown quantity"),
 ]
 
 
@@ -417,9 +415,6 @@ def test_value_column_that_does_not_exist(tmp_path, column, pattern):
 
 
 # --- quiet output ------------------------------------------------------------------------------------------
-@pytest.mark.xfail(strict=True, reason="evaluate.py _t_max_s: np.errstate ignores divide and invalid but not "
-                                       "over, so (value/C)**(1/k) overflows with a RuntimeWarning (printed on "
-                                       "stderr by the CLI) when a value is near the smallest float")
 def test_valid_input_raises_no_python_warnings(tmp_path):
     wl = np.arange(300.0, 1101.0, 1.0)
     values = np.exp(-0.5 * ((wl - 960) / 15) ** 2)  # an IR LED: its UV tail leaves E_S ≈ 4e-308 W/m2

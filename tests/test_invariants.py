@@ -11,10 +11,10 @@ import math
 
 import numpy as np
 import pytest
+from conftest import assess_arrays, triangle_line
 from hypothesis import HealthCheck, assume, given, settings
 from hypothesis import strategies as st
 
-from conftest import assess_arrays, triangle_line
 from hazard.hazards import GROUPS
 
 FAST = settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])

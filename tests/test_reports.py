@@ -1,0 +1,221 @@
+"""PDF reports: every line-up product renders to two pages that carry its facts, identically each time; the
+batch summary ranks, flags and lists failures; the fonts and the report time behave as documented."""
+
+import datetime
+import doctest
+import io
+import re
+from pathlib import Path
+
+import pytest
+from pypdf import PdfReader
+
+import hazard
+import reports.fonts
+import reports.product_pdf
+import reports.timestamp
+from hazard.errors import InputError
+from hazard.formatting import UNIT_DISPLAY, format_value
+from hazard.result import Assessment
+from reports import rank_assessments, render_assessment_pdf, render_summary_pdf, report_time
+from reports.fonts import register_fonts
+from reports.ranking import is_borderline, tightest_margin
+
+LINEUP = Path(__file__).parents[1] / "examples" / "lineup"
+RENDERED_AT = datetime.datetime(2024, 6, 1, 12, 0, tzinfo=datetime.timezone.utc)
+
+# examples/README.md: "the line-up spans the groups: Exempt (desk lamp, indicator), RG1 (spotlight, IR
+# illuminator), RG2 (far-UV-C lamp, horticulture spotlight), RG3 (curing lamp, germicidal lamp, heater)"
+EXPECTED_GROUP = {"cl-desk-30": "Exempt", "cl-pip-470": "Exempt", "cl-spot-65": "RG1", "cl-ir-940": "RG1",
+                  "cl-far-222": "RG2", "cl-grow-30": "RG2", "cl-cure-365": "RG3", "cl-germ-254": "RG3",
+                  "cl-heat-2k": "RG3"}
+FOOTER = "Pre-screen only — not a certification"  # project contract: README "a pre-screen, not a certification"
+
+
+def _normalise(text: str) -> str:
+    return re.sub(r"\s+", " ", text).strip()
+
+
+def _pages(pdf: bytes) -> list[str]:
+    """Whitespace-normalised text of each page (pypdf breaks lines where the layout wraps them)."""
+    return [_normalise(page.extract_text()) for page in PdfReader(io.BytesIO(pdf)).pages]
+
+
+def _row_pattern(symbol: str, title: str, value: str, unit: str) -> str:
+    """A hazard-table row as extracted: symbol, title (possibly wrapped), value, unit, in that order."""
+    return r"\s".join(re.escape(part) for part in (symbol, *title.split(), value, unit))
+
+
+@pytest.fixture(scope="module")
+def lineup() -> dict[str, Assessment]:
+    return {stem: hazard.assess(LINEUP / f"{stem}.toml") for stem in EXPECTED_GROUP}
+
+
+@pytest.fixture(scope="module")
+def lineup_pdfs(lineup) -> dict[str, bytes]:
+    return {stem: render_assessment_pdf(a, RENDERED_AT) for stem, a in lineup.items()}
+
+
+@pytest.mark.parametrize("stem", sorted(EXPECTED_GROUP))
+def test_product_report_has_two_pages_with_its_facts(stem, lineup, lineup_pdfs):
+    a, pages = lineup[stem], _pages(lineup_pdfs[stem])
+    # project contract: reports/__init__.py, two pages per product (at a glance; input, method, cautions)
+    assert len(pages) == 2
+    first, text = pages[0], " ".join(pages)
+    assert a.id in first and a.id == stem.upper()  # examples/lineup/<stem>.toml: id is the stem in capitals
+    assert f"Overall risk group: {EXPECTED_GROUP[stem]}" in first  # examples/README.md, as above
+    for h in a.hazards.values():
+        assert h.assessed  # examples/lineup: every record states no emission outside its measured range
+        # project contract: hazard.formatting.format_value prints every value, in the row of its hazard
+        assert re.search(_row_pattern(h.symbol, h.title, format_value(h.value), UNIT_DISPLAY.get(h.unit, h.unit)),
+                         first), h.symbol
+    for caution in a.cautions:
+        # project contract: hazard/cautions.py, every chosen caution on page 1 and in full at the end
+        assert _normalise(caution) in first and _normalise(caution) in pages[-1]
+    for digest in (*a.provenance.inputs.values(), *(t["sha256"] for t in a.provenance.tables.values())):
+        assert digest in text  # project contract: README "full provenance" (input and table SHA-256)
+    assert "2024-06-01 12:00 UTC" in first  # the date shown is rendered_at, in UTC
+    for number, page in enumerate(pages, start=1):
+        assert FOOTER in page and f"page {number} of {len(pages)}" in page  # footer on every page
+
+
+def test_incomplete_report_says_lower_bound_and_why(tmp_path):
+    # examples/lineup/cl-heat-2k.csv spans 300-3000 nm and E_S needs 200-400 nm (design/method.md §1), so
+    # without the record's no-emission statement E_S is not assessed (design/method.md §5, coverage)
+    a = hazard.assess(LINEUP / "cl-heat-2k.toml", {"no_emission_outside": False})
+    assert a.not_assessed == ["E_S"] and not a.complete
+    pages = _pages(render_assessment_pdf(a, RENDERED_AT))
+    assert len(pages) == 2  # project contract: reports/__init__.py, two pages per product
+    assert "LOWER BOUND — not all hazards assessed" in pages[0]  # project brief: shown prominently
+    assert _normalise(a.hazards["E_S"].note) in pages[0]  # the reason, from the result's own note
+    assert "INCOMPLETE" in pages[0]
+
+
+def test_report_renders_from_saved_json(tmp_path, lineup, lineup_pdfs):
+    # project contract: README "reports/ only renders them, and can render from saved JSON"
+    saved = tmp_path / "cl-germ-254.json"
+    saved.write_text(lineup["cl-germ-254"].model_dump_json(), encoding="utf-8")
+    loaded = Assessment.model_validate_json(saved.read_text(encoding="utf-8"))
+    assert render_assessment_pdf(loaded, RENDERED_AT) == lineup_pdfs["cl-germ-254"]
+
+
+def test_same_input_and_time_give_identical_bytes(lineup, lineup_pdfs):
+    # project contract: README "Results are deterministic"; reproducible-builds.org SOURCE_DATE_EPOCH
+    a = lineup["cl-heat-2k"]
+    assert render_assessment_pdf(a, RENDERED_AT) == lineup_pdfs["cl-heat-2k"]
+    later = RENDERED_AT + datetime.timedelta(days=1)
+    assert render_assessment_pdf(a, later) != lineup_pdfs["cl-heat-2k"]
+    summary = render_summary_pdf(list(lineup.values()), [], RENDERED_AT)
+    assert render_summary_pdf(list(lineup.values()), [], RENDERED_AT) == summary
+
+
+def test_naive_rendered_at_is_refused(lineup):
+    # project habit (style.md): a time without a zone would print a guessed UTC time, so it is an error
+    with pytest.raises(ValueError, match="timezone-aware"):
+        render_assessment_pdf(lineup["cl-desk-30"], datetime.datetime(2024, 6, 1, 12, 0))
+
+
+def test_report_time_reads_source_date_epoch(monkeypatch):
+    # reproducible-builds.org SOURCE_DATE_EPOCH specification: whole seconds since 1970-01-01 00:00 UTC
+    monkeypatch.setenv("SOURCE_DATE_EPOCH", "1700000000")
+    assert report_time() == datetime.datetime(2023, 11, 14, 22, 13, 20, tzinfo=datetime.timezone.utc)
+    monkeypatch.setenv("SOURCE_DATE_EPOCH", "yesterday")
+    with pytest.raises(ValueError, match="SOURCE_DATE_EPOCH"):
+        report_time()
+    monkeypatch.delenv("SOURCE_DATE_EPOCH")
+    before = datetime.datetime.now(datetime.timezone.utc)
+    now = report_time()
+    assert now.tzinfo == datetime.timezone.utc and before <= now <= datetime.datetime.now(datetime.timezone.utc)
+
+
+def test_without_dejavu_greek_is_spelled_out(tmp_path, monkeypatch, lineup):
+    # reportlab's bundled Vera.ttf has no U+03B1 α, U+03BB λ, U+03B3 γ (its character map)
+    fallback = register_fonts(tmp_path)  # an empty folder: DejaVu Sans is not there
+    assert (fallback.regular, fallback.greek) == ("Vera", False)
+    monkeypatch.setattr(reports.product_pdf, "report_fonts", lambda: fallback)
+    text = " ".join(_pages(render_assessment_pdf(lineup["cl-pip-470"], RENDERED_AT)))
+    assert "alpha" in text and "lambda" in text and "gamma" in text
+    assert not {"α", "λ", "γ"} & set(text)
+    assert "Ω_s" in text and "µs" in text  # Vera has Ω and µ, so they stay
+
+
+def _with_tightest(a: Assessment, new_id: str, group: str, margins: dict[str, float]) -> Assessment:
+    """``a`` re-labelled: one deciding hazard (E_UVA) in ``group`` with the given value/limit ratios."""
+    hazard_result = a.hazards["E_UVA"].model_copy(update={"risk_group": group, "margins": margins})
+    return a.model_copy(update={"id": new_id, "risk_group": group, "deciding_hazards": ["E_UVA"],
+                                "hazards": {**a.hazards, "E_UVA": hazard_result}})
+
+
+def test_rank_orders_groups_then_headroom(lineup):
+    # IEC 62471:2006 6.1: Exempt < RG1 < RG2 < RG3; project contract (reports/ranking.py): within a group,
+    # the deciding hazard with the largest value/limit at its group's upper boundary first
+    base = lineup["cl-cure-365"]
+    products = [_with_tightest(base, "E-LOW", "Exempt", {"Exempt": 0.1, "RG1": 0.03, "RG2": 0.01}),
+                _with_tightest(base, "RG2-TIGHT", "RG2", {"Exempt": 90.0, "RG1": 27.0, "RG2": 0.9}),
+                _with_tightest(base, "RG3-FAR", "RG3", {"Exempt": 500.0, "RG1": 150.0, "RG2": 50.0}),
+                _with_tightest(base, "RG1-LOOSE", "RG1", {"Exempt": 2.0, "RG1": 0.6, "RG2": 0.2}),
+                _with_tightest(base, "RG2-LOOSE", "RG2", {"Exempt": 10.0, "RG1": 3.0, "RG2": 0.1}),
+                _with_tightest(base, "RG3-NEAR", "RG3", {"Exempt": 12.0, "RG1": 4.0, "RG2": 1.2}),
+                _with_tightest(base, "E-HIGH", "Exempt", {"Exempt": 0.7, "RG1": 0.2, "RG2": 0.07})]
+    assert [a.id for a in rank_assessments(products)] == ["RG3-FAR", "RG3-NEAR", "RG2-TIGHT", "RG2-LOOSE",
+                                                           "RG1-LOOSE", "E-HIGH", "E-LOW"]
+
+
+def test_rank_of_the_lineup(lineup):
+    # examples/README.md groups; within a group by the deciding hazard's value/limit as each result reports
+    # it (germicidal E_S far over RG2 before the curing lamp's E_UVA and the heater's E_IR, both about 2x)
+    ranked = rank_assessments(list(lineup.values()))
+    assert [a.risk_group for a in ranked] == sorted((a.risk_group for a in ranked),
+                                                     key=["RG3", "RG2", "RG1", "Exempt"].index)
+    ratios = [(a.risk_group, tightest_margin(a).ratio) for a in ranked]
+    assert all(r1 >= r2 for (g1, r1), (g2, r2) in zip(ratios, ratios[1:]) if g1 == g2)
+    assert ranked[0].id == "CL-GERM-254"
+
+
+@pytest.mark.parametrize(("group", "margins", "expected"), [
+    ("RG1", {"Exempt": 3.0, "RG1": 0.8, "RG2": 0.1}, True),      # 0.8 of the RG1 limit: at the edge
+    ("RG1", {"Exempt": 2.9, "RG1": 0.79, "RG2": 0.1}, False),    # just beyond the factor
+    ("RG1", {"Exempt": 1.25, "RG1": 0.3, "RG2": 0.01}, True),    # just over the Exempt limit, the other side
+    ("RG1", {"Exempt": 1.26, "RG1": 0.3, "RG2": 0.01}, False),
+    ("RG3", {"Exempt": 40.0, "RG1": 12.0, "RG2": 1.2}, True),    # RG3 within 1.25x of the RG2 limit
+    ("RG3", {"Exempt": 50.0, "RG1": 15.0, "RG2": 1.3}, False),
+    ("Exempt", {"Exempt": 0.95, "RG1": 0.3, "RG2": 0.1}, True),
+    ("Exempt", {"Exempt": 0.5, "RG1": 0.15, "RG2": 0.05}, False),
+])
+def test_borderline_within_a_factor_of_a_boundary(lineup, group, margins, expected):
+    # project contract (summary brief): borderline when the tightest hazard's value/limit lies in 0.8-1.25
+    # for the limit above or below it
+    assert is_borderline(_with_tightest(lineup["cl-cure-365"], "X", group, margins)) is expected
+
+
+def test_summary_ranks_flags_and_lists_failures(tmp_path, lineup):
+    bad = tmp_path / "cl-bad-1.toml"
+    (tmp_path / "cl-bad-1.csv").write_text("wavelength_nm,value\n0.38,1\n0.39,2\n0.40,1\n", encoding="utf-8")
+    bad.write_text('id = "CL-BAD-1"\nspectrum = "cl-bad-1.csv"\ndistance_mm = 200.0\nsource_diameter_mm = 5.0\n',
+                   encoding="utf-8")
+    with pytest.raises(InputError) as failure:  # design/method.md §5: a wavelength column in µm is an error
+        hazard.assess(bad)
+    reason = f"{failure.value}\nsecond line, not shown"
+    incomplete = hazard.assess(LINEUP / "cl-heat-2k.toml", {"no_emission_outside": False, "id": "CL-HEAT-RAW"})
+    borderline = _with_tightest(lineup["cl-cure-365"], "CL-EDGE", "RG2", {"Exempt": 9.0, "RG1": 2.7, "RG2": 0.9})
+    products = [*lineup.values(), incomplete, borderline]
+    pages = _pages(render_summary_pdf(products, [("CL-BAD-1", reason)], RENDERED_AT))
+    text = " ".join(pages)
+    positions = [text.index(a.id + " ") for a in rank_assessments(products)]
+    assert positions == sorted(positions)  # rows in rank order (project contract: reports/ranking.py)
+    assert re.search(r"CL-HEAT-RAW .* INCOMPLETE", text)  # the incomplete product flagged in text
+    # one incomplete product (CL-HEAT-RAW), one borderline (CL-EDGE at 0.9 of its RG2 limit; no line-up
+    # product lies within 1.25x of a boundary by the values in its result)
+    assert "incomplete: 1" in text and "borderline: 1" in text
+    assert "CL-EDGE" in text and "E_UVA: 90% of RG2 limit BORDERLINE" in text
+    assert _normalise(str(failure.value)) in text and "second line, not shown" not in text
+    for caution in {c for a in products for c in a.cautions}:
+        assert _normalise(caution) in text  # project contract: hazard/cautions.py, every caution shown
+    for number, page in enumerate(pages, start=1):
+        assert FOOTER in page and f"page {number} of {len(pages)}" in page
+
+
+@pytest.mark.parametrize("module", [reports.fonts, reports.timestamp])
+def test_docstring_examples(module):
+    # project habit (style.md): docstring examples run in the suite
+    assert doctest.testmod(module).failed == 0
