@@ -20,8 +20,17 @@ from hazard.hazards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
 from hazard.inputs import LoadedProduct, load_product, product_from_record
 from hazard.integrals import Integrated, integrate_spectra
 from hazard.photometry import CCT_DUV_LIMIT, CCT_RANGE_K, VISIBLE_BAND_NM, cct_from_xyz
-from hazard.record import ProductRecord
-from hazard.result import Assessment, BlueLightTransfer, Geometry, HazardResult, Photometry, Provenance, SpectrumSummary
+from hazard.record import ANCHORS, ProductRecord
+from hazard.result import (
+    Assessment,
+    BlueLightTransfer,
+    Geometry,
+    HazardResult,
+    Photometry,
+    Provenance,
+    Scaling,
+    SpectrumSummary,
+)
 from hazard.weighting import coarse_steps_in
 from weighting_tables import TABLE_NAMES, load_table
 
@@ -212,6 +221,15 @@ def _assumptions(loaded: LoadedProduct, ev: Evaluation, i: int) -> list[str]:
     return assumptions
 
 
+def _scaling(record: ProductRecord, scale: float) -> Scaling | None:
+    if record.quantity != "relative":
+        return None
+    anchor = next(a for a in ANCHORS if getattr(record, a) is not None)
+    return Scaling(anchor=anchor, anchor_value=getattr(record, anchor),
+                   reference_distance_mm=None if anchor == "luminance_cd_m2" else record.reference_distance_mm,
+                   scale_factor=scale, note=_anchor_text(record, scale))
+
+
 def _anchor_text(record: ProductRecord, scale: float) -> str:
     """The scaling of a relative spectrum, stated so a reader can check it."""
     if record.illuminance_lx is not None:
@@ -363,6 +381,7 @@ def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int,
         photometry=_photometry(batch, i, v_covered),
         spectrum=_spectrum_summary(loaded, float(ev.anchor_scale[i])),
         blue_light_transfer=_transfer(ev, i, covered, keys, record),
+        scaling=_scaling(record, float(ev.anchor_scale[i])),
         record=record.model_dump(exclude_none=True), warnings=_warnings(loaded, ev, i, v_covered),
         assumptions=_assumptions(loaded, ev, i),
         cautions=select_cautions(groups, bool(ev.complete[i]), uvc_fraction),

@@ -10,7 +10,7 @@ from typing import Literal
 
 from pydantic import BaseModel, ConfigDict, Field
 
-__all__ = ["HazardResult", "SpectrumSummary", "BlueLightTransfer", "ClaimCheck", "Provenance", "Photometry",
+__all__ = ["HazardResult", "SpectrumSummary", "BlueLightTransfer", "ClaimCheck", "Scaling", "Provenance", "Photometry",
            "Geometry", "Assessment", "RiskGroup"]
 
 RiskGroup = Literal["Exempt", "RG1", "RG2", "RG3"]
@@ -103,6 +103,16 @@ class BlueLightTransfer(_Frozen):
                                                      "1 W/m2 [mm].")
 
 
+class Scaling(_Frozen):
+    """How a relative spectrum was made absolute."""
+
+    anchor: Literal["illuminance_lx", "luminous_intensity_cd", "luminance_cd_m2"]
+    anchor_value: float = Field(description="The stated photometric value [lx, cd or cd/m2].")
+    reference_distance_mm: float | None = Field(description="Distance the scaled irradiance refers to [mm].")
+    scale_factor: float = Field(description="W/m2/nm (or W/m2/sr/nm) per unit of the relative spectrum.")
+    note: str
+
+
 class ClaimCheck(_Frozen):
     """One vendor claim against the computed value."""
 
@@ -145,6 +155,8 @@ class Assessment(_Frozen):
     blue_light_transfer: BlueLightTransfer | None = Field(description="IEC TR 62778 transfer quantities, where "
                                                                       "B(λ) and V(λ) are covered.")
     claims: list[ClaimCheck] = Field(description="Vendor claims in the record, checked.")
+    scaling: Scaling | None = Field(description="Photometric scaling of a relative spectrum; null for an "
+                                                "absolute one.")
     record: dict = Field(description="The product record as used.")
     warnings: list[str]
     assumptions: list[str]

@@ -56,6 +56,8 @@ def render_text(assessment: Assessment) -> str:
         "Limits are those applied at each group boundary (thermal: after α bounds); margin is value/limit at "
         "the group's upper boundary.",
     ]
+    if a.scaling is not None:
+        lines += ["", f"Scaling: {a.scaling.note}"]
     t = a.blue_light_transfer
     if t is not None:
         lines += ["", f"Blue-light transfer (IEC TR 62778): K_B,v = {t.k_bv_w_per_lm * 1e3:.3g} mW/lm; E_B reaches "

@@ -291,6 +291,34 @@ def test_infinite_record_numbers_are_refused(tmp_path, field):
         hazard.load_product(record)
 
 
+@pytest.mark.parametrize(("header", "fields", "pattern"), [
+    ("E [mW/m2/nm]", {**SIZE, "unit": "W/m2/nm"},
+     r"the record says unit 'W/m2/nm' but the file's header says 'mW/m2/nm'", ),
+    ("L [W/m2/sr/nm]", SIZE, r"the file's header gives 'W/m2/sr/nm', which does not fit quantity 'irradiance'"),
+])
+def test_unit_in_the_header_that_contradicts_the_record(tmp_path, header, fields, pattern):
+    # method §5: units are converted, never guessed; a header and a record that disagree are refused
+    path = tmp_path / "lamp.csv"
+    path.write_text(f"wavelength_nm,{header}\n" + "".join(f"{w!r},{v!r}\n" for w, v in
+                                                          zip(map(float, VISIBLE_NM),
+                                                                              map(float, 1000 * _lamp(VISIBLE_NM)))))
+    with pytest.raises(InputError, match=pattern) as caught:
+        hazard.assess(path, fields)
+    assert "lamp.csv" in str(caught.value)
+
+
+@pytest.mark.xfail(strict=True, reason="readers/delimited.py read_delimited: the last non-numeric line before the "
+                                       "table becomes the header, so a data row whose wavelength is mistyped "
+                                       "('5OO' with letter O) is silently taken as the header and dropped")
+@pytest.mark.parametrize("with_header", [True, False])
+def test_mistyped_first_data_row_is_not_taken_for_a_header(tmp_path, with_header):
+    rows = "5OO,0.1\n501,0.2\n502,0.3\n"
+    path = _write(tmp_path / "typo.csv", (HEADER if with_header else "") + rows)
+    # style.md habit 8: no silent fallbacks; the row is data (its value cell is a number), so it is bad data
+    with pytest.raises(InputError, match=r"5OO"):
+        hazard.assess(path, SIZE)
+
+
 # --- tolerated input ---------------------------------------------------------------------------------------
 def _same_result(a, b):
     """Two assessments agree apart from warnings and the input files' hashes (the files' bytes differ)."""
@@ -373,12 +401,24 @@ def test_band_gap_assumed_empty_with_no_emission_outside(tmp_path, monkeypatch):
     assert assumption in text.stdout and assumption in as_json.stdout
 
 
+def test_decimal_comma_with_semicolons_equals_decimal_point(tmp_path):
+    # readers/delimited.py: decimal comma is read (European instrument exports); the numbers are the same
+    wl, values = VISIBLE_NM, _lamp(VISIBLE_NM)
+    (tmp_path / "comma").mkdir(), (tmp_path / "point").mkdir()
+    comma = tmp_path / "comma" / "lamp.csv"
+    comma.write_text("wavelength_nm;value\n" + "".join(f"{w!r};{v!r}\n".replace(".", ",") for w, v in
+                                                         zip(map(float, wl), map(float, values))))
+    point = write_spectrum(tmp_path / "point" / "lamp.csv", wl, values)
+    assert _same_result(hazard.assess(comma, SIZE), hazard.assess(point, SIZE))
+
+
 # --- several value columns ---------------------------------------------------------------------------------
 def _columns_file(tmp_path):
     wl = VISIBLE_NM
     a, b = _lamp(wl), 3.0 * _lamp(wl)[::-1]
     path = tmp_path / "columns.csv"
-    path.write_text("wavelength_nm,a,b\n" + "".join(f"{w!r},{x!r},{y!r}\n" for w, x, y in zip(wl, a, b)))
+    path.write_text("wavelength_nm,a,b\n" + "".join(f"{w!r},{x!r},{y!r}\n" for w, x, y in
+                                                       zip(*(map(float, c) for c in (wl, a, b)))))
     (tmp_path / "single").mkdir()
     single = write_spectrum(tmp_path / "single" / "columns.csv", wl, b)
     return path, single

@@ -10,18 +10,18 @@ from __future__ import annotations
 import hashlib
 from pathlib import Path
 
-from hazard.readers.common import DEFAULT_LIMITS, Limits, RawSpectrum
+from hazard.readers.common import Limits, RawSpectrum, current_limits
 from hazard.readers.delimited import read_delimited
 from hazard.readers.jsonfile import read_json
 from hazard.readers.xlsx import read_xlsx
 
-__all__ = ["read_spectrum", "RawSpectrum", "Limits", "DEFAULT_LIMITS"]
+__all__ = ["read_spectrum", "RawSpectrum", "Limits", "current_limits"]
 
 _BY_SUFFIX = {".xlsx": read_xlsx, ".json": read_json}
 
 
 def read_spectrum(path: str, *, display_path: str, column: str | int | None = None,
-                  limits: Limits = DEFAULT_LIMITS) -> tuple[RawSpectrum, dict]:
+                  limits: Limits | None = None) -> tuple[RawSpectrum, dict]:
     """Read one spectrum file with the reader for its format.
 
     Parameters
@@ -32,8 +32,8 @@ def read_spectrum(path: str, *, display_path: str, column: str | int | None = No
         How to name the file in messages and provenance.
     column : str or int, optional
         Which value column to use when the file has several.
-    limits : Limits
-        Size and row limits.
+    limits : Limits, optional
+        Size and row limits; :func:`current_limits` when not given.
 
     Returns
     -------

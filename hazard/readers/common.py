@@ -9,7 +9,7 @@ import numpy as np
 
 from hazard.errors import InputError
 
-__all__ = ["RawSpectrum", "Limits", "DEFAULT_LIMITS", "check_size", "decode_text"]
+__all__ = ["RawSpectrum", "Limits", "current_limits", "check_size", "decode_text"]
 
 
 @dataclass(frozen=True)
@@ -28,8 +28,9 @@ class Limits:
     max_rows: int = 1_000_000
 
 
-DEFAULT_LIMITS = Limits(max_bytes=int(float(os.environ.get("HAZARD_MAX_FILE_MB", "50")) * 1024 * 1024))
-"""Defaults; ``HAZARD_MAX_FILE_MB`` in the environment sets the size limit [MB]."""
+def current_limits() -> Limits:
+    """The limits in force: defaults, with ``HAZARD_MAX_FILE_MB`` from the environment as the size limit [MB]."""
+    return Limits(max_bytes=int(float(os.environ.get("HAZARD_MAX_FILE_MB", "50")) * 1024 * 1024))
 
 
 @dataclass(frozen=True)
@@ -70,7 +71,7 @@ def check_size(path: str, display_path: str, limits: Limits) -> int:
     if os.path.isdir(path):
         raise InputError("spectrum path is a folder", "name a spectrum file", display_path)
     if size > limits.max_bytes:
-        raise InputError(f"file is {size / 2**20:.1f} MB, above the {limits.max_bytes / 2**20:.0f} MB limit",
+        raise InputError(f"file is {size / 2**20:.2f} MB, above the {limits.max_bytes / 2**20:.2f} MB limit",
                          "trim it to the spectrum, or raise HAZARD_MAX_FILE_MB", display_path)
     if size == 0:
         raise InputError("no data rows: the file is empty", "export the spectrum again: wavelength in nm, then "

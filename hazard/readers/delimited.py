@@ -16,7 +16,7 @@ import re
 import numpy as np
 
 from hazard.errors import InputError
-from hazard.readers.common import DEFAULT_LIMITS, Limits, RawSpectrum, check_size, decode_text
+from hazard.readers.common import Limits, RawSpectrum, check_size, current_limits, decode_text
 from hazard.readers.headers import choose_value_column, header_unit, wavelength_scale
 
 __all__ = ["read_delimited"]
@@ -71,6 +71,9 @@ def _careful(lines: list[str], start: int, delimiter: str | None, decimal_comma:
             raise InputError(f"{len(cells)} cells where the table has {width}", "give every row the same columns",
                              path, number)
         for cell in cells:
+            if not cell:
+                raise InputError("empty cell in a number column (the file may be truncated)",
+                                 "export the spectrum again, or remove the incomplete row", path, number)
             if not _is_number(cell):
                 raise InputError(f"text {cell!r} in a number column",
                                  "use plain numbers (decimal point or decimal comma, consistently)", path, number)
@@ -99,7 +102,7 @@ def _fast(lines: list[str], start: int, delimiter: str | None, decimal_comma: bo
 
 
 def read_delimited(path: str, *, display_path: str, column: str | int | None = None,
-                   limits: Limits = DEFAULT_LIMITS) -> tuple[RawSpectrum, dict]:
+                   limits: Limits | None = None) -> tuple[RawSpectrum, dict]:
     """Read a delimited text spectrum.
 
     Parameters
@@ -123,6 +126,7 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
     ------
     InputError
     """
+    limits = limits or current_limits()
     check_size(path, display_path, limits)
     with open(path, "rb") as handle:
         raw = handle.read()
@@ -170,12 +174,15 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
         raise InputError(f"{table.shape[0]:,} rows, above the {limits.max_rows:,} limit",
                          "resample the spectrum to a coarser grid", display_path)
     scale = wavelength_scale(header[0] if header else None)
-    warnings = ()
+    warnings = []
     if scale != 1.0:
-        warnings = (f"{display_path}: wavelength column is in µm by its header; converted to nm",)
+        warnings.append(f"{display_path}: wavelength column is in µm by its header; converted to nm")
+    if not raw.endswith(b"\n"):
+        warnings.append(f"{display_path}: the file does not end with a line break, so it may be truncated; "
+                        f"check its last row")
     unit = header_unit(header[value_index]) if header else None
     spectrum = RawSpectrum(wavelength_nm=table[:, 0] * scale, value=table[:, value_index], lines=numbers,
-                           path=display_path, unit=unit, warnings=warnings)
+                           path=display_path, unit=unit, warnings=tuple(warnings))
     info = {"header": header, "value_column": header[value_index] if header else value_index,
             "comments": comments, "metadata": metadata, "delimiter": delimiter or "whitespace",
             "decimal_comma": decimal_comma}

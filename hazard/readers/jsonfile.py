@@ -8,7 +8,7 @@ import json
 import numpy as np
 
 from hazard.errors import InputError
-from hazard.readers.common import DEFAULT_LIMITS, Limits, RawSpectrum, check_size, decode_text
+from hazard.readers.common import Limits, RawSpectrum, check_size, current_limits, decode_text
 
 __all__ = ["read_json"]
 
@@ -41,9 +41,10 @@ def _columns(data, column: str | int | None, path: str) -> tuple[list, list, str
 
 
 def read_json(path: str, *, display_path: str, column: str | int | None = None,
-              limits: Limits = DEFAULT_LIMITS) -> tuple[RawSpectrum, dict]:
+              limits: Limits | None = None) -> tuple[RawSpectrum, dict]:
     """Read a JSON spectrum; see :func:`hazard.readers.delimited.read_delimited`. Entry numbers stand in
     for line numbers in messages."""
+    limits = limits or current_limits()
     check_size(path, display_path, limits)
     with open(path, "rb") as handle:
         text = decode_text(handle.read(), display_path)

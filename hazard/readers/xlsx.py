@@ -6,7 +6,7 @@ from __future__ import annotations
 import numpy as np
 
 from hazard.errors import InputError
-from hazard.readers.common import DEFAULT_LIMITS, Limits, RawSpectrum, check_size
+from hazard.readers.common import Limits, RawSpectrum, check_size, current_limits
 from hazard.readers.headers import choose_value_column, header_unit, wavelength_scale
 
 __all__ = ["read_xlsx"]
@@ -17,10 +17,11 @@ def _number(cell) -> bool:
 
 
 def read_xlsx(path: str, *, display_path: str, column: str | int | None = None,
-              limits: Limits = DEFAULT_LIMITS) -> tuple[RawSpectrum, dict]:
+              limits: Limits | None = None) -> tuple[RawSpectrum, dict]:
     """Read the first sheet of a workbook; see :func:`hazard.readers.delimited.read_delimited`."""
     import openpyxl
 
+    limits = limits or current_limits()
     check_size(path, display_path, limits)
     try:
         book = openpyxl.load_workbook(path, read_only=True, data_only=True)
