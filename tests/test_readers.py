@@ -66,7 +66,8 @@ def test_irregular_grid_integrates_on_its_own_grid(tmp_path):
     shape = lambda w: 0.05 * np.exp(-0.5 * ((w - 460) / 20) ** 2) + 0.1 * np.exp(-0.5 * ((w - 800) / 90) ** 2)  # noqa
     a = hazard.assess(write_spectrum(tmp_path / "i.csv", irregular, shape(irregular)),
                       {**SIZE, "no_emission_outside": True})
-    b = hazard.assess(write_spectrum(tmp_path / "r.csv", regular, shape(regular)), {**SIZE, "no_emission_outside": True})
+    b = hazard.assess(write_spectrum(tmp_path / "r.csv", regular, shape(regular)),
+                      {**SIZE, "no_emission_outside": True})
     for symbol in ("E_UVA", "L_B", "L_R", "E_IR", "E_H"):
         assert a.hazards[symbol].value == pytest.approx(b.hazards[symbol].value, rel=2e-3)
 
