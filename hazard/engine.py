@@ -14,6 +14,7 @@ import numpy as np
 from hazard._version import __version__
 from hazard.cautions import select_cautions
 from hazard.claims import DEFAULT_TOLERANCES, ClaimTolerances, check_claims
+from hazard.distances import distance_study
 from hazard.evaluate import Evaluation, ProductArrays, evaluate, integral_specs
 from hazard.geometry import FIVE_TIMES_RULE, SourceShape
 from hazard.hazards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
@@ -21,6 +22,7 @@ from hazard.inputs import LoadedProduct, load_product, product_from_record
 from hazard.integrals import Integrated, integrate_spectra
 from hazard.photometry import CCT_DUV_LIMIT, CCT_RANGE_K, VISIBLE_BAND_NM, cct_from_xyz
 from hazard.record import ANCHORS, ProductRecord
+from hazard.remedies import remedies_study
 from hazard.result import (
     Assessment,
     BlueLightTransfer,
@@ -31,6 +33,7 @@ from hazard.result import (
     Scaling,
     SpectrumSummary,
 )
+from hazard.uncertainty import uncertainty_study
 from hazard.weighting import coarse_steps_in
 from weighting_tables import TABLE_NAMES, load_table
 
@@ -81,7 +84,10 @@ def product_arrays(records: list[ProductRecord], raw: np.ndarray, covered: np.nd
         is_gls=np.array([r.lamp_type == "gls" for r in records])[take],
         anchor_photometric=np.array([_anchor_photometric(r) for r in records])[take],
         luminous_intensity_cd=np.array([np.nan if r.luminous_intensity_cd is None else r.luminous_intensity_cd
-                                        for r in records])[take])
+                                        for r in records])[take],
+        peak_to_mean=np.array([r.peak_to_mean_radiance for r in records])[take],
+        forced_distance_m=np.array([np.nan if r.at_distance_mm is None else r.at_distance_mm * 1e-3
+                                    for r in records])[take])
 
 
 def _anchor_photometric(record: ProductRecord) -> float:
@@ -157,6 +163,9 @@ def _warnings(loaded: LoadedProduct, ev: Evaluation, i: int, v_covered: bool) ->
     record, spectrum = loaded.record, loaded.spectrum
     warnings = list(spectrum.warnings)
     lo, hi = spectrum.range_nm
+    if record.at_distance_mm is not None:
+        warnings.append(f"assessed at {record.at_distance_mm:g} mm by request (at_distance_mm), not at the "
+                        f"standard's distance: the risk groups are a what-if, not a classification")
     for region in STEEP_REGIONS_NM:
         step = coarse_steps_in(spectrum.wavelength_nm, region, MAX_STEEP_STEP_NM)
         if step is not None and lo < region[1] and hi > region[0]:
@@ -208,6 +217,9 @@ def _assumptions(loaded: LoadedProduct, ev: Evaluation, i: int) -> list[str]:
     d_a_mm = float(ev.assessment_distance_m[i]) * 1e3
     if record.quantity == "relative":
         assumptions.append(_anchor_text(record, float(ev.anchor_scale[i])))
+    if record.peak_to_mean_radiance > 1:
+        assumptions.append(f"Peak-to-mean radiance {record.peak_to_mean_radiance:g} (record): radiance values and "
+                           f"the radiance seen by fields of view smaller than the source are multiplied by it.")
     if record.effective_quantity == "irradiance":
         d_ref = record.reference_distance_mm
         if abs(d_a_mm - d_ref) > 1e-9:
@@ -287,6 +299,9 @@ def _transfer(ev: Evaluation, i: int, covered: np.ndarray, keys: list[str], reco
 
 
 def _distance_rule(record: ProductRecord, d_a_mm: float) -> str:
+    if record.at_distance_mm is not None:
+        return (f"{record.at_distance_mm:g} mm as the record asks (at_distance_mm): a what-if study, not the "
+                f"standard's classification distance")
     if record.lamp_type != "gls":
         return "200 mm: the standard's distance for lamps other than general lighting service"
     if d_a_mm > 200.0 + 1e-9:
@@ -351,9 +366,30 @@ def _illuminance_at_record_distance(record: ProductRecord, ev: Evaluation, i: in
     return float(ev.illuminance_lx[i] * (d_a / d_m) ** 2)
 
 
+def _studies(loaded: LoadedProduct, batch: BatchEvaluation, i: int, distances_and_remedies: bool) -> dict:
+    """Uncertainty (when the record states one), hazard distances and remedies of product ``i``."""
+    record, limit_set, ev = loaded.record, batch.limit_set, batch.evaluation
+    arrays = product_arrays([record], batch.integrated.raw[i], batch.integrated.covered[i])
+    out = {}
+    if record.uncertainty_pct or record.wavelength_uncertainty_nm:
+        out["uncertainty"] = uncertainty_study(arrays, loaded.spectrum, record.no_emission_outside, limit_set,
+                                               record.uncertainty_pct or 0.0, record.wavelength_uncertainty_nm or 0.0)
+    if distances_and_remedies:
+        out["distances"] = distance_study(arrays, limit_set, record.largest_dimension_mm)
+        d_a = float(ev.assessment_distance_m[i])
+        if record.effective_quantity == "radiance":
+            geometric = float(ev.source_solid_angle_sr[i])
+        else:
+            geometric = (record.reference_distance_mm * 1e-3 / d_a) ** 2
+        out["remedies"] = remedies_study(arrays, loaded.spectrum, float(ev.anchor_scale[i]) * geometric, limit_set)
+    return out
+
+
 def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int,
-                     tolerances: ClaimTolerances = DEFAULT_TOLERANCES) -> Assessment:
-    """The result of product ``i`` of an evaluation; vendor claims checked with ``tolerances``."""
+                     tolerances: ClaimTolerances = DEFAULT_TOLERANCES, studies: bool = True) -> Assessment:
+    """The result of product ``i`` of an evaluation; vendor claims checked with ``tolerances``. With
+    ``studies``, hazard distances and remedies too (the uncertainty study runs whenever the record states
+    an uncertainty)."""
     record, spectrum, limit_set = loaded.record, loaded.spectrum, batch.limit_set
     ev, covered, raw = batch.evaluation, batch.integrated.covered[i], batch.integrated.raw[i]
     keys = [s.key for s in integral_specs(limit_set)]
@@ -382,6 +418,7 @@ def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int,
         spectrum=_spectrum_summary(loaded, float(ev.anchor_scale[i])),
         blue_light_transfer=_transfer(ev, i, covered, keys, record),
         scaling=_scaling(record, float(ev.anchor_scale[i])),
+        **_studies(loaded, batch, i, studies),
         record=record.model_dump(exclude_none=True), warnings=_warnings(loaded, ev, i, v_covered),
         assumptions=_assumptions(loaded, ev, i),
         cautions=select_cautions(groups, bool(ev.complete[i]), uvc_fraction),

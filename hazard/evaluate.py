@@ -66,6 +66,11 @@ class ProductArrays:
         measurement distance [lx] or luminance [cd m⁻²]; NaN for an absolute spectrum.
     luminous_intensity_cd : numpy.ndarray
         (n,) luminous intensity when the record states it [cd]; NaN otherwise.
+    peak_to_mean : numpy.ndarray, optional
+        (n,) peak-to-mean radiance of the source (≥ 1): fields of view smaller than the source see the
+        peak, not the average [1]. Ones when not given.
+    forced_distance_m : numpy.ndarray, optional
+        (n,) assess at this distance instead of the standard's rule [m]; NaN (or not given) for the rule.
     """
 
     raw: np.ndarray
@@ -76,6 +81,19 @@ class ProductArrays:
     is_gls: np.ndarray
     anchor_photometric: np.ndarray
     luminous_intensity_cd: np.ndarray
+    peak_to_mean: np.ndarray | None = None
+    forced_distance_m: np.ndarray | None = None
+
+    def rows(self, index: np.ndarray) -> "ProductArrays":
+        """The products at ``index`` (repeats allowed), e.g. one product many times for a what-if sweep."""
+        def pick(a):
+            return None if a is None else a[index]
+        return ProductArrays(raw=self.raw[index], covered=self.covered[index], is_radiance=self.is_radiance[index],
+                             measurement_distance_m=self.measurement_distance_m[index],
+                             shape=self.shape.take(index), is_gls=self.is_gls[index],
+                             anchor_photometric=self.anchor_photometric[index],
+                             luminous_intensity_cd=self.luminous_intensity_cd[index],
+                             peak_to_mean=pick(self.peak_to_mean), forced_distance_m=pick(self.forced_distance_m))
 
 
 @dataclass(frozen=True)
@@ -157,9 +175,11 @@ def _hazard_arrays(hazard: Hazard, limit_set: LimitSet, irradiance: np.ndarray, 
     n = irradiance.size
     nan3 = np.full((n, 3), np.nan)
     if hazard.kind == "radiance":
-        value = irradiance / omega_s
+        peak = np.ones(n) if arrays.peak_to_mean is None else arrays.peak_to_mean
+        value = irradiance / omega_s * peak  # the peak radiance: what a small field of view can see
         compared = nan3.copy() if hazard.fov_rad is None else np.column_stack(
-            [irradiance / np.maximum(omega_s, cone_solid_angle_sr(g)) for g in hazard.fov_rad])
+            [irradiance / np.maximum(omega_s, fov) * np.where(fov < omega_s, peak, 1.0)
+             for fov in (cone_solid_angle_sr(g) for g in hazard.fov_rad)])
     else:
         value = irradiance
         compared = np.repeat(value[:, None], 3, axis=1)
@@ -200,6 +220,8 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
                                 arrays.anchor_photometric / (K_M_LM_PER_W * arrays.raw[:, v]))
     raw = arrays.raw * anchor_scale[:, None]
     distance = _assessment_distance_m(arrays, raw[:, v])
+    if arrays.forced_distance_m is not None:
+        distance = np.where(np.isnan(arrays.forced_distance_m), distance, arrays.forced_distance_m)
     omega_s = arrays.shape.solid_angle_sr(distance)
     alpha = arrays.shape.alpha_rad(distance)
     d_m = np.nan_to_num(arrays.measurement_distance_m, nan=1.0)

@@ -119,12 +119,16 @@ class LimitSet:
         Below this α the blue-light hazard is assessed as irradiance E_B [rad].
     weak_stimulus_luminance_cd_m2 : float
         Below this luminance the source is a weak visual stimulus [cd m⁻²].
+    families : tuple of (str, tuple of str)
+        Hazards that stand in for one another (blue light: L_B or E_B by α; retinal thermal: L_R or L_IR by
+        luminance), so that studies across distance or dimming follow whichever applies.
     """
 
     name: str
     hazards: tuple[Hazard, ...]
     small_source_alpha_rad: float
     weak_stimulus_luminance_cd_m2: float
+    families: tuple[tuple[str, tuple[str, ...]], ...] = ()
 
     def __getitem__(self, symbol: str) -> Hazard:
         for hazard in self.hazards:
@@ -142,6 +146,8 @@ IEC_62471_2006 = LimitSet(
     name="IEC 62471:2006",
     small_source_alpha_rad=0.011,
     weak_stimulus_luminance_cd_m2=10.0,
+    families=(("E_S", ("E_S",)), ("E_UVA", ("E_UVA",)), ("blue light", ("L_B", "E_B")),
+              ("retinal thermal", ("L_R", "L_IR")), ("E_IR", ("E_IR",))),
     hazards=(
         Hazard("E_S", "actinic UV, skin and eye", (200, 400), "s_uv", "irradiance", "always",
                (0.001, 0.003, 0.03), (30000, 10000, 1000), None, None,

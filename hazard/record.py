@@ -66,6 +66,16 @@ class ProductRecord(BaseModel):
                                                                         "follows by the inverse-square law.")
     luminance_cd_m2: float | None = Field(None, gt=0, description="Anchor of a relative spectrum: luminance "
                                                                   "[cd/m2]; the spectrum is then a radiance.")
+    uncertainty_pct: float | None = Field(None, ge=0, lt=100, description="Expanded uncertainty (k = 2) of the "
+                                                                         "spectral values [%].")
+    wavelength_uncertainty_nm: float | None = Field(None, ge=0, le=20, description="Uncertainty of the "
+                                                                                   "wavelength scale [nm].")
+    peak_to_mean_radiance: float = Field(1.0, ge=1, description="Peak-to-mean radiance of the source (LED "
+                                                                "arrays, hot spots); multiplies the radiance "
+                                                                "seen by fields of view smaller than the source.")
+    at_distance_mm: float | None = Field(None, gt=0, description="Assess at this distance instead of the "
+                                                                 "standard's (a what-if study: the group is "
+                                                                 "then not the standard's classification) [mm].")
     claimed_risk_group: Literal["Exempt", "RG1", "RG2", "RG3"] | None = Field(
         None, description="The vendor's claimed overall risk group.")
     claimed_cct_k: float | None = Field(None, gt=0, description="The vendor's claimed CCT [K].")

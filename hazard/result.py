@@ -10,7 +10,8 @@ from typing import Literal
 
 from pydantic import BaseModel, ConfigDict, Field
 
-__all__ = ["HazardResult", "SpectrumSummary", "BlueLightTransfer", "ClaimCheck", "Scaling", "Provenance", "Photometry",
+__all__ = ["HazardResult", "SpectrumSummary", "BlueLightTransfer", "ClaimCheck", "Scaling", "BoundaryDistance",
+           "DistanceStudy", "HazardBounds", "UncertaintyStudy", "Remedy", "BandContribution", "Remedies", "Provenance", "Photometry",
            "Geometry", "Assessment", "RiskGroup"]
 
 RiskGroup = Literal["Exempt", "RG1", "RG2", "RG3"]
@@ -125,6 +126,86 @@ class ClaimCheck(_Frozen):
     reason: str = Field(description="Why, in a sentence.")
 
 
+class BoundaryDistance(_Frozen):
+    """Where one hazard family crosses one group boundary."""
+
+    family: str = Field(description="E_S, E_UVA, blue light (L_B or E_B), retinal thermal (L_R or L_IR), E_IR.")
+    group: str = Field(description="Beyond distance_mm the family is in this group or a lower one.")
+    distance_mm: float | None = Field(description="The crossing distance [mm]; null when there is none in range.")
+    criterion: str | None = Field(description="The family member that applies at that distance.")
+    note: str
+
+
+class DistanceStudy(_Frozen):
+    """The product re-assessed across distance (same geometry as the assessment)."""
+
+    distance_mm: list[float] = Field(description="Distances of the curves [mm].")
+    group: list[str | None] = Field(description="Overall group at each distance.")
+    family_group: dict[str, list[str | None]] = Field(description="Group of each hazard family at each distance.")
+    t_max_s: dict[str, list[float | None]] = Field(description="t_max of each family (and E_H) at each distance "
+                                                               "[s]; null where the limit is not reached.")
+    boundaries: list[BoundaryDistance]
+    minimum_distance_mm: dict[str, float | None] = Field(description="Least distance beyond which the product is "
+                                                                     "in each group or lower [mm]; null when not "
+                                                                     "reached within 100 m.")
+    near_field_below_mm: float = Field(description="Five source sizes: nearer, inverse-square values are "
+                                                   "approximate [mm].")
+
+
+class HazardBounds(_Frozen):
+    """One hazard family within the measurement uncertainty."""
+
+    family: str
+    value_low: float | None = Field(description="Lowest value over the uncertainty variants [unit].")
+    value_high: float | None
+    value_shift_minus: float | None = Field(description="Value with the wavelength scale shifted by −Δλ.")
+    value_shift_plus: float | None = Field(description="Value with the wavelength scale shifted by +Δλ.")
+    group_low: str | None
+    group_high: str | None
+
+
+class UncertaintyStudy(_Frozen):
+    """Groups at the bounds of the stated uncertainty."""
+
+    uncertainty_pct: float = Field(description="Expanded (k = 2) scale uncertainty applied [%].")
+    wavelength_uncertainty_nm: float = Field(description="Wavelength shift applied, ± [nm].")
+    hazards: list[HazardBounds]
+    risk_group_low: str
+    risk_group_high: str
+    verdict: Literal["robust", "borderline"] = Field(description="borderline when the overall group can change "
+                                                                 "within the uncertainty.")
+    note: str
+
+
+class Remedy(_Frozen):
+    """What brings a hazard family, or the product, into a lower group."""
+
+    target: str = Field(description="Hazard family, or 'product'.")
+    group: str = Field(description="The lower group aimed at.")
+    dimming_factor: float | None = Field(description="Multiply the emission (or use a neutral filter of this "
+                                                     "transmission) [1]; null when not reachable.")
+    area_factor: float | None = Field(description="Radiance hazards: enlarge the emitting area by this factor "
+                                                  "(a diffuser, same power) [1]; null when not applicable or not "
+                                                  "reachable.")
+
+
+class BandContribution(_Frozen):
+    """Share of a UV quantity from one 5 nm band."""
+
+    band_nm: tuple[float, float]
+    value: float = Field(description="Contribution at the assessment distance [W/m2].")
+    share: float = Field(description="Fraction of the total [1].")
+
+
+class Remedies(_Frozen):
+    """What it would take to reach lower groups."""
+
+    remedies: list[Remedy]
+    uv_bands: dict[str, list[BandContribution]] = Field(description="E_S and E_UVA by 5 nm band, largest first "
+                                                                    "(bands with a share of at least 0.1 %).")
+    note: str
+
+
 class Provenance(_Frozen):
     """What produced the result, for traceability."""
 
@@ -155,6 +236,9 @@ class Assessment(_Frozen):
     blue_light_transfer: BlueLightTransfer | None = Field(description="IEC TR 62778 transfer quantities, where "
                                                                       "B(λ) and V(λ) are covered.")
     claims: list[ClaimCheck] = Field(description="Vendor claims in the record, checked.")
+    distances: DistanceStudy | None = Field(None, description="Hazard distances and t_max against distance.")
+    uncertainty: UncertaintyStudy | None = Field(None, description="Groups within the stated uncertainty.")
+    remedies: Remedies | None = Field(None, description="Dimming, diffuser and UV-band findings.")
     scaling: Scaling | None = Field(description="Photometric scaling of a relative spectrum; null for an "
                                                 "absolute one.")
     record: dict = Field(description="The product record as used.")

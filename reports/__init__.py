@@ -3,7 +3,8 @@
 Rendering only: these functions read :class:`hazard.result.Assessment` objects (fresh or loaded from their
 JSON) and never compute a hazard quantity. Output is deterministic for a given ``rendered_at``.
 
-- :func:`render_assessment_pdf` — one product, A4, two pages: at a glance with charts; input, method, cautions
+- :func:`render_assessment_pdf` — one product, A4, normally two pages: at a glance with the charts; then input,
+  method and cautions
 - :func:`render_summary_pdf` — a batch ranked by group and headroom, with the products that failed
 - :func:`rank_assessments` — the summary's order, as a pure function
 - :func:`report_time` — ``SOURCE_DATE_EPOCH`` as UTC when set, else now

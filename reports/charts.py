@@ -2,7 +2,7 @@
 
 - :func:`spectrum_chart`: the spectrum preview relative to its peak, with the action spectra S_UV(λ), B(λ)
   and R(λ) on the same logarithmic axis.
-- :func:`margin_chart`: one row per hazard with risk groups; a marker at the value relative to its Exempt
+- :func:`margin_chart`: one row per assessed hazard with risk groups; a marker at the value relative to its Exempt
   limit and the group zones up to the RG1 and RG2 limits, so the nearest boundary shows at a glance.
 
 Both only scale what the result holds for drawing; neither computes a hazard quantity. Line styles (solid,
@@ -12,6 +12,7 @@ dashed, dotted) and text labels carry the meaning, so the charts read in greysca
 from __future__ import annotations
 
 import math
+from collections.abc import Callable
 
 import numpy as np
 from reportlab.graphics.shapes import Drawing, Group, Line, Polygon, PolyLine, Rect, String
@@ -34,6 +35,7 @@ ACTION_SPECTRA = (("s_uv", "S_UV(λ) actinic UV", None, 1.1),
 _Y_DECADES = (-4, 1)          # spectrum chart: 1e-4 … 10 (R peaks at 10)
 _X_DECADES = (-4, 6)          # margin chart: value ÷ Exempt limit from 1e-4 to 1e6
 _TICK = 6.5                   # tick label size [pt]
+_ZONE_LABEL = 5.8             # group name inside a zone of the margin chart [pt]
 
 
 def _power_of_ten(x: float, y: float, exponent: int, fonts: FontSet, anchor: str = "middle") -> Group:
@@ -186,7 +188,8 @@ def margin_chart(assessment: Assessment, width: float, fonts: FontSet) -> Drawin
     rows = _chart_rows(assessment)
     if not rows:
         d = Drawing(width, 14)
-        d.add(_text(0, 3, "No hazard with risk groups could be assessed, so there is nothing to draw.", fonts, 7.5))
+        d.add(_text(0, 3, "No hazard with risk groups could be assessed, so there is nothing to draw.", fonts,
+                    7.5))
         return d
     row_h, gap, label_w, result_w, bottom, top = 13.5, 1.5, 112.0, 126.0, 22.0, 10.0
     height = bottom + top + len(rows) * (row_h + gap)
@@ -217,13 +220,15 @@ def margin_chart(assessment: Assessment, width: float, fonts: FontSet) -> Drawin
     return d
 
 
-def _row(hazard: HazardResult, left: float, y: float, pw: float, row_h: float, px, fonts: FontSet) -> Group:
+def _row(hazard: HazardResult, left: float, y: float, pw: float, row_h: float, px: Callable[[float], float],
+         fonts: FontSet) -> Group:
     """One hazard's band: group zones, boundary lines and the value marker (or why there is none)."""
     g = Group()
     margins = hazard.margins
     if margins["Exempt"] <= 0:
         g.add(Rect(left, y, pw, row_h, fillColor=colors.white, strokeColor=RULE, strokeWidth=0.5))
-        g.add(_text(left + 6, y + row_h / 2 - 2.5, "value 0: nothing emitted in this band", fonts, 7, color=MUTED))
+        g.add(_text(left + 6, y + row_h / 2 - 2.5, "value 0: nothing emitted in this band", fonts, 7,
+                    color=MUTED))
         return g
     value = margins["Exempt"]
     edges = [px(10.0 ** _X_DECADES[0]), px(1.0), px(value / margins["RG1"]), px(value / margins["RG2"]),
@@ -232,8 +237,9 @@ def _row(hazard: HazardResult, left: float, y: float, pw: float, row_h: float, p
         if end - start <= 0:
             continue
         g.add(Rect(start, y, end - start, row_h, fillColor=group_fill(group), strokeColor=None))
-        if end - start >= stringWidth(group, fonts.bold, 6) + 6:
-            g.add(_text(start + 2.5, y + row_h - 5.6, group, fonts, 5.8, bold=True, color=group_ink(group)))
+        if end - start >= stringWidth(group, fonts.bold, _ZONE_LABEL) + 5:
+            g.add(_text(start + 2.5, y + row_h - 5.6, group, fonts, _ZONE_LABEL, bold=True,
+                        color=group_ink(group)))
     for edge in edges[1:4]:
         g.add(Line(edge, y, edge, y + row_h, strokeColor=INK, strokeWidth=0.7))
     g.add(Rect(left, y, pw, row_h, fillColor=None, strokeColor=INK, strokeWidth=0.5))
@@ -241,7 +247,7 @@ def _row(hazard: HazardResult, left: float, y: float, pw: float, row_h: float, p
     return g
 
 
-def _marker(x: float, y: float, value: float) -> Group:
+def _marker(x: float, y: float, value: float) -> Polygon:
     """A diamond at the value, or an arrow at the axis end when the value lies beyond it."""
     r = 3.6
     low, high = 10.0 ** _X_DECADES[0], 10.0 ** _X_DECADES[1]
@@ -251,16 +257,15 @@ def _marker(x: float, y: float, value: float) -> Group:
         points = [x - 1, y, x - 2 * r - 1, y + r, x - 2 * r - 1, y - r]
     else:
         points = [x, y + r, x + r, y, x, y - r, x - r, y]
-    return Group(Polygon(points, fillColor=INK, strokeColor=colors.white, strokeWidth=0.8))
+    return Polygon(points, fillColor=INK, strokeColor=colors.white, strokeWidth=0.8)
 
 
 def _result(hazard: HazardResult, x: float, y: float, row_h: float, fonts: FontSet) -> Group:
     """Right-hand column: the hazard's group as a labelled box, and its margin in words."""
     g = Group()
     group = hazard.risk_group
-    label = group or "—"
     g.add(Rect(x, y + 2, 38, row_h - 4, fillColor=group_fill(group), strokeColor=INK, strokeWidth=0.5))
-    g.add(_text(x + 19, y + row_h / 2 - 2.5, label, fonts, 7, bold=True, color=group_ink(group),
+    g.add(_text(x + 19, y + row_h / 2 - 2.5, group, fonts, 7, bold=True, color=group_ink(group),
                 anchor="middle"))
     margin = format_margin(group, hazard.margins)
     g.add(_text(x + 42, y + row_h / 2 - 2.5, margin, fonts, 6.8))

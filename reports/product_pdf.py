@@ -25,6 +25,8 @@ from reports.wording import GROUP_MEANING, GROUP_NAME, LOWER_BOUND, LOWER_BOUND_
 __all__ = ["render_assessment_pdf"]
 
 _BOUNDARIES = ("Exempt", "RG1", "RG2")
+_ANCHOR = {"illuminance_lx": ("illuminance", "lx"), "luminous_intensity_cd": ("luminous intensity", "cd"),
+           "luminance_cd_m2": ("luminance", "cd/m²")}
 _SPECTRUM_UNIT = {"irradiance": "W/(m²·nm)", "radiance": "W/(m²·sr·nm)"}
 
 
@@ -188,8 +190,35 @@ def _geometry(a: Assessment, st: Styles) -> Flowable:
              ("Photometry", f"{format_value(ph.illuminance_lx)} lx at the assessment distance; luminance "
                             f"{format_value(ph.luminance_cd_m2)} cd/m²"),
              ("Completeness", completeness)]
+    if a.scaling is not None:
+        cells.append(("Scaling", _scaling(a)))
+    if a.claims:
+        cells.append(("Vendor claims", _claims_summary(a)))
     cells += [("Warning", warning) for warning in a.warnings]
     return _key_values(cells, st, key_width=64)
+
+
+def _scaling(a: Assessment) -> str:
+    """How a relative spectrum was made absolute, in one line."""
+    sc = a.scaling
+    name, unit = _ANCHOR.get(sc.anchor, (sc.anchor, ""))
+    at = "" if sc.reference_distance_mm is None else f" at {sc.reference_distance_mm:g} mm"
+    return (f"relative spectrum made absolute by the stated {name}, {format_value(sc.anchor_value)} {unit}{at} "
+            f"(× {format_value(sc.scale_factor)} SI per unit); every value rests on that figure")
+
+
+def _claims_summary(a: Assessment) -> str:
+    """The vendor claims' verdicts in one line, naming the contradicted ones."""
+    parts = []
+    for verdict in ("contradicted", "not checkable", "consistent"):
+        found = [c for c in a.claims if c.verdict == verdict]
+        if not found:
+            continue
+        text = f"{len(found)} {verdict.upper() if verdict == 'contradicted' else verdict}"
+        if verdict == "contradicted":
+            text += " (" + "; ".join(f"{c.claim}: claimed {c.claimed}, computed {c.computed}" for c in found) + ")"
+        parts.append(text)
+    return ", ".join(parts) + " — details on page 2"
 
 
 def _charts(a: Assessment, st: Styles) -> list[Flowable]:
@@ -233,9 +262,8 @@ def _compared(h: HazardResult) -> str:
 
 
 def _detail_table(a: Assessment, st: Styles) -> Flowable:
-    head = ["Symbol", "Band, weight", "Exposure limit", "Time bases, Exempt / RG1 / RG2 [s]",
-            "FOV γ, Exempt / RG1 / RG2 [mrad]", "α in limit, Exempt / RG1 / RG2 [mrad]",
-            "Compared with the limits"]
+    head = ["Symbol", "Band, weight", "Exposure limit", "Time bases [s]", "FOV γ [mrad]", "α in limit [mrad]",
+            "Compared with limit"]
     cells = []
     for h in a.hazards.values():
         lo, hi = h.band_nm
@@ -252,18 +280,54 @@ def _detail_table(a: Assessment, st: Styles) -> Flowable:
     return table
 
 
-def _bullets(items: list[str], st: Styles, empty: str) -> list[Flowable]:
-    return [st.p(f"• {item}", st.small) for item in items] or [st.p(empty, st.small)]
+def _bullets(items: list[str], st: Styles) -> list[Flowable]:
+    return [st.p(f"• {item}", st.small) for item in items]
+
+
+def _notes(a: Assessment, st: Styles) -> list[Flowable]:
+    """Warnings (what the method tolerates but doubts) first, then the assumptions made."""
+    notes = ([st.bold_lead("• Warning:", w, st.small) for w in a.warnings]
+             + [st.bold_lead("• Assumption:", x, st.small) for x in a.assumptions])
+    return notes or [st.p("none", st.small)]
 
 
 def _hashes(rows: list[tuple[str, str, str]], head: tuple[str, str, str], st: Styles) -> Flowable:
     """A table of (name, description, SHA-256) rows, the digest kept on one line."""
-    width = max(stringWidth(digest, st.fonts.regular, st.digest.fontSize) for _, _, digest in rows) + 7
+    digest_width = max(stringWidth(digest, st.fonts.regular, st.digest.fontSize) for _, _, digest in rows) + 7
+    name_width = max(stringWidth(st.fonts.clean(name), st.fonts.regular, st.cell.fontSize)
+                     for name, _, _ in [(head[0], "", ""), *rows]) + 7
     body = [[st.p(x, st.head) for x in head]]
     body += [[st.p(name, st.cell), st.p(text, st.cell), st.p(digest, st.digest)] for name, text, digest in rows]
-    table = Table(body, colWidths=[86, FRAME_WIDTH - 86 - width, width])
+    table = Table(body, colWidths=[name_width, FRAME_WIDTH - name_width - digest_width, digest_width])
     table.setStyle(table_style())
     return table
+
+
+def _claims_table(a: Assessment, st: Styles) -> list[Flowable]:
+    if not a.claims:
+        return []
+    head = ["Claim", "Claimed", "Computed", "Tolerance", "Verdict", "Why"]
+    rows = [[st.p(x, st.head) for x in head]]
+    rows += [[st.p(c.claim, st.cell_bold), st.p(c.claimed, st.cell), st.p(c.computed or "—", st.cell),
+              st.p(c.tolerance or "—", st.cell),
+              st.p(c.verdict.upper() if c.verdict == "contradicted" else c.verdict,
+                   st.cell_bold if c.verdict == "contradicted" else st.cell), st.p(c.reason, st.cell)]
+             for c in a.claims]
+    verdict_width = stringWidth("CONTRADICTED", st.fonts.bold, st.cell.fontSize) + 7
+    widths = [62, 46, 52, 104, verdict_width, 0]
+    widths[-1] = FRAME_WIDTH - sum(widths)
+    table = Table(rows, colWidths=widths, repeatRows=1)
+    table.setStyle(table_style())
+    return [st.p("Vendor claims checked", st.h2), table]
+
+
+def _transfer(a: Assessment) -> str:
+    """The IEC TR 62778 blue-light transfer values in one line."""
+    t = a.blue_light_transfer
+    return (f"IEC TR 62778:2014: K_B,v = {format_value(t.k_bv_w_per_lm)} W/lm; "
+            f"E_thr = {format_value(t.threshold_illuminance_lx)} lx; "
+            f"I_v = {format_value(t.luminous_intensity_cd)} cd ({t.intensity_source}); "
+            f"d_thr = {format_value(t.threshold_distance_mm)} mm")
 
 
 def _inputs(a: Assessment, st: Styles) -> list[Flowable]:
@@ -274,9 +338,13 @@ def _inputs(a: Assessment, st: Styles) -> list[Flowable]:
         colour.append(f"CIE 1931 x, y = {ph.chromaticity_xy[0]:.4f}, {ph.chromaticity_xy[1]:.4f}")
     files = [(path, spectrum if path == s.path else "product record" if path.endswith(".toml") else "input",
               digest) for path, digest in a.provenance.inputs.items()]
-    return [st.p("Product record as used", st.h2), _record_table(a, st), Spacer(1, 4),
+    return [st.p("Input: the product record as used", st.h2.clone("h2_first", spaceBefore=0)),
+            _record_table(a, st), Spacer(1, 4),
             _hashes(files, ("Input file", "Content", "SHA-256"), st), Spacer(1, 3),
-            _key_values([("Colour", "; ".join(colour) or "—")], st)]
+            _key_values([("Colour", "; ".join(colour) or "—")]
+                        + ([("Blue-light transfer", _transfer(a))]
+                           if a.blue_light_transfer is not None else [])
+                        + ([("Scaling", _scaling(a))] if a.scaling is not None else []), st)]
 
 
 def _method(a: Assessment, st: Styles) -> list[Flowable]:
@@ -322,13 +390,11 @@ def render_assessment_pdf(assessment: Assessment, rendered_at: datetime.datetime
         st.p("Hazards at the assessment distance", st.h2), _hazard_table(a, st), Spacer(1, 2),
         _hazard_caption(st), Spacer(1, 4), _geometry(a, st), *_charts(a, st),
         PageBreak(),
-        st.p("Input and method", st.title.clone("h1", fontSize=14, leading=18)),
-        *_inputs(a, st),
-        st.p("Hazard details", st.h2), _detail_table(a, st),
-        st.p("Warnings", st.h2), *_bullets(a.warnings, st, "none"),
-        st.p("Assumptions", st.h2), *_bullets(a.assumptions, st, "none"),
+        *_inputs(a, st), *_claims_table(a, st),
+        st.p("Hazard details (each triple: Exempt / RG1 / RG2)", st.h2), _detail_table(a, st),
+        st.p("Warnings and assumptions", st.h2), *_notes(a, st),
         *_method(a, st),
-        CondPageBreak(60), st.p("Cautions", st.h2), *_bullets(a.cautions, st, "none"),
+        CondPageBreak(60), st.p("Cautions", st.h2), *_bullets(a.cautions, st),
     ]
     title = f"{a.id} — photobiological safety pre-screen ({a.risk_group})"
     header = f"{a.id}{' — ' + a.name if a.name else ''} · overall {a.risk_group}" + (

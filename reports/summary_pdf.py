@@ -1,4 +1,5 @@
-"""The PDF summary of a batch: products ranked by group and headroom, then the products that failed.
+"""The PDF summary of a batch: products ranked by group and headroom (flagging incomplete and borderline
+results and contradicted vendor claims), then the products that failed, then the cautions chosen.
 
 The order comes from :func:`reports.ranking.rank_assessments`; every number is formatted by
 :mod:`hazard.formatting`.
@@ -25,13 +26,13 @@ __all__ = ["render_summary_pdf"]
 
 def _heading(assessments: list[Assessment], errors: list[tuple[str, str]], st: Styles,
              moment: datetime.datetime) -> Flowable:
-    versions = sorted({a.provenance.tool_version for a in assessments}) or ["—"]
-    limit_sets = sorted({a.provenance.limit_set for a in assessments}) or ["—"]
+    tools = ", ".join(f"hazard {v}" for v in sorted({a.provenance.tool_version for a in assessments})) or "—"
+    limit_sets = ", ".join(sorted({a.provenance.limit_set for a in assessments})) or "—"
     left = [st.p("PHOTOBIOLOGICAL SAFETY PRE-SCREEN · BATCH SUMMARY", st.kicker),
             st.p(f"{len(assessments)} products assessed, {len(errors)} failed", st.title)]
     right = [st.bold_lead("Report date", format_report_time(moment), st.small),
-             st.bold_lead("Tool", ", ".join(f"hazard {v}" for v in versions), st.small),
-             st.bold_lead("Limit set", ", ".join(limit_sets), st.small)]
+             st.bold_lead("Tool", tools, st.small),
+             st.bold_lead("Limit set", limit_sets, st.small)]
     table = Table([[left, right]], colWidths=[FRAME_WIDTH - 150, 150])
     table.setStyle([("VALIGN", (0, 0), (-1, -1), "TOP"), ("LEFTPADDING", (0, 0), (-1, -1), 0),
                     ("RIGHTPADDING", (0, 0), (-1, -1), 0), ("LINEBELOW", (0, 0), (-1, 0), 1.2, INK),
@@ -55,8 +56,22 @@ def _counts(assessments: list[Assessment], st: Styles) -> Flowable:
     return table
 
 
+def _bold_width(text: str, st: Styles) -> float:
+    """Width of a table cell holding ``text`` in bold on one line [pt]."""
+    return stringWidth(st.fonts.clean(text), st.fonts.bold, st.cell.fontSize) + 7
+
+
+def _flags(a: Assessment, st: Styles) -> Flowable:
+    """BORDERLINE and contradicted vendor claims, in words; an em dash when there is neither."""
+    contradicted = sum(c.verdict == "contradicted" for c in a.claims)
+    flags = (["<b>BORDERLINE</b>"] if is_borderline(a) else []) + (
+        [f"<b>{contradicted}</b> vendor claim{'s' if contradicted > 1 else ''} <b>CONTRADICTED</b>"]
+        if contradicted else [])
+    return st.p("", st.cell, markup="<br/>".join(flags) or "—")
+
+
 def _ranked_table(assessments: list[Assessment], st: Styles) -> Flowable:
-    head = ["#", "ID", "Name", "Group", "Complete", "Deciding hazards", "Tightest margin", "Borderline"]
+    head = ["#", "ID", "Name", "Group", "Complete", "Deciding hazards", "Tightest margin", "Flags"]
     rows = [[st.p(h, st.head) for h in head]]
     extra = []
     for rank, a in enumerate(rank_assessments(assessments), start=1):
@@ -71,14 +86,13 @@ def _ranked_table(assessments: list[Assessment], st: Styles) -> Flowable:
                      st.p("yes", st.cell) if a.complete else
                      st.bold_lead("INCOMPLETE", f"lower bound; not assessed: {', '.join(a.not_assessed)}", st.cell),
                      st.p(", ".join(a.deciding_hazards) or "—", st.cell), st.p(margin, st.cell),
-                     st.p("BORDERLINE" if is_borderline(a) else "—", st.cell_bold)])
+                     _flags(a, st)])
         extra.append(("BACKGROUND", (3, rank), (3, rank), group_fill(a.risk_group)))
     if len(rows) == 1:
         rows.append([st.p("no products assessed", st.cell)] + [""] * 7)
         extra.append(("SPAN", (0, 1), (-1, 1)))
-    widths = [18, 0, 0, 40, 66, 62, 90, 52]
-    widths[1] = max((stringWidth(st.fonts.clean(a.id), st.fonts.bold, st.cell.fontSize) for a in assessments),
-                    default=0.0) + 7
+    widths = [18, max(_bold_width(text, st) for text in ["ID", *(a.id for a in assessments)]), 0,
+              _bold_width("Exempt", st), 66, 60, 84, _bold_width("CONTRADICTED", st)]
     widths[2] = FRAME_WIDTH - sum(widths)
     table = Table(rows, colWidths=widths, repeatRows=1)
     table.setStyle(table_style(extra=extra))
@@ -91,7 +105,8 @@ def _failed_table(errors: list[tuple[str, str]], st: Styles) -> Flowable:
              for product, reason in errors]
     if len(rows) == 1:
         rows.append([st.p("none", st.cell), ""])
-    table = Table(rows, colWidths=[96, FRAME_WIDTH - 96], repeatRows=1)
+    id_width = min(FRAME_WIDTH / 3, max(_bold_width(product, st) for product, _ in [("ID", ""), *errors]))
+    table = Table(rows, colWidths=[id_width, FRAME_WIDTH - id_width], repeatRows=1)
     table.setStyle(table_style())
     return table
 
@@ -103,7 +118,8 @@ def _cautions(assessments: list[Assessment], st: Styles) -> list[Flowable]:
         for caution in a.cautions:
             products.setdefault(caution, []).append(a.id)
     return [st.bold_lead(f"• {'All products' if len(ids) == len(assessments) else ', '.join(ids)}:", caution,
-                         st.small) for caution, ids in products.items()]
+                         st.small) for caution, ids in products.items()] or [st.p("none: no product assessed",
+                                                                                  st.small)]
 
 
 def render_summary_pdf(assessments: list[Assessment], errors: list[tuple[str, str]],
@@ -141,7 +157,8 @@ def render_summary_pdf(assessments: list[Assessment], errors: list[tuple[str, st
              f"(largest value ÷ limit first), then by id. Tightest margin: that hazard's value ÷ limit at its "
              f"group's upper boundary (RG3: multiple of the RG2 limit). BORDERLINE: that hazard lies within a "
              f"factor {high:g} of a group boundary on either side ({low:g}–{high:g} × the limit), so a modest "
-             f"measurement error could change its group. An INCOMPLETE product's group is a lower bound.",
+             f"measurement error could change its group. An INCOMPLETE product's group is a lower bound. "
+             f"CONTRADICTED: a vendor claim in the record that the result does not bear out (see its report).",
              st.caption),
         st.p("Products that could not be assessed", st.h2), _failed_table(errors, st),
         st.p("Cautions", st.h2), *_cautions(assessments, st),

@@ -2,7 +2,7 @@
 one, and the fix; the CLI prints it as one line and exits 2. Tolerated input (small negatives, descending
 wavelengths, a partial spectrum) is accepted and what was done is recorded in the result.
 
-Rules checked: method §5 (project design, /work/shared/design/method.md) and the CLI contract in
+Rules checked: method §5 (project design) and the CLI contract in
 ``hazard/cli.py`` and DEVELOPERS.md ("exit 2, one line on stderr").
 """
 
@@ -293,15 +293,13 @@ def test_infinite_record_numbers_are_refused(tmp_path, field):
 
 @pytest.mark.parametrize(("header", "fields", "pattern"), [
     ("E [mW/m2/nm]", {**SIZE, "unit": "W/m2/nm"},
-     r"the record says unit 'W/m2/nm' but the file's header says 'mW/m2/nm'", ),
+     r"the record says unit 'W/m2/nm' but the file's header says 'mW/m2/nm'"),
     ("L [W/m2/sr/nm]", SIZE, r"the file's header gives 'W/m2/sr/nm', which does not fit quantity 'irradiance'"),
 ])
 def test_unit_in_the_header_that_contradicts_the_record(tmp_path, header, fields, pattern):
     # method §5: units are converted, never guessed; a header and a record that disagree are refused
-    path = tmp_path / "lamp.csv"
-    path.write_text(f"wavelength_nm,{header}\n" + "".join(f"{w!r},{v!r}\n" for w, v in
-                                                          zip(map(float, VISIBLE_NM),
-                                                                              map(float, 1000 * _lamp(VISIBLE_NM)))))
+    path = write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, 1000 * _lamp(VISIBLE_NM),
+                          header=f"wavelength_nm,{header}")
     with pytest.raises(InputError, match=pattern) as caught:
         hazard.assess(path, fields)
     assert "lamp.csv" in str(caught.value)

@@ -91,6 +91,21 @@ def test_incomplete_report_says_lower_bound_and_why(tmp_path):
     assert "INCOMPLETE" in pages[0]
 
 
+def test_contradicted_vendor_claim_is_named_on_page_one(tmp_path):
+    # examples/README.md: the spotlight is RG1 (blue light); hazard/claims.py: a computed group higher than
+    # the claimed one contradicts the claim
+    (tmp_path / "cl-spot-65.csv").write_bytes((LINEUP / "cl-spot-65.csv").read_bytes())
+    record = (LINEUP / "cl-spot-65.toml").read_text(encoding="utf-8") + 'claimed_risk_group = "Exempt"\n'
+    (tmp_path / "claimed.toml").write_text(record, encoding="utf-8")
+    a = hazard.assess(tmp_path / "claimed.toml")
+    assert [(c.claim, c.verdict) for c in a.claims] == [("risk group", "contradicted")]
+    pages = _pages(render_assessment_pdf(a, RENDERED_AT))
+    assert "1 CONTRADICTED (risk group: claimed Exempt, computed RG1)" in pages[0]
+    assert _normalise(a.claims[0].reason) in pages[1]
+    summary = " ".join(_pages(render_summary_pdf([a], [], RENDERED_AT)))
+    assert "1 vendor claim CONTRADICTED" in summary
+
+
 def test_report_renders_from_saved_json(tmp_path, lineup, lineup_pdfs):
     # project contract: README "reports/ only renders them, and can render from saved JSON"
     saved = tmp_path / "cl-germ-254.json"

@@ -1,0 +1,83 @@
+"""Hazard families across what-if variants: the margin, group and t_max of whichever member applies.
+
+Blue light is L_B for a large source and E_B for a small one, so a study across distance must follow the
+switch; retinal thermal is L_R, or L_IR for a weak visual stimulus. Every study (distance, uncertainty,
+remedies) evaluates variants of one product as rows of :func:`hazard.evaluate.evaluate` and reads them here.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from hazard.evaluate import Evaluation, ProductArrays, evaluate
+from hazard.hazards import LimitSet
+
+__all__ = ["family_margins", "family_groups", "family_t_max", "overall_groups", "evaluate_rows"]
+
+
+def _members(ev: Evaluation, members: tuple[str, ...]):
+    for symbol in members:
+        h = ev.hazards[symbol]
+        yield h, h.applicable & h.assessed
+
+
+def family_margins(ev: Evaluation, members: tuple[str, ...]) -> np.ndarray:
+    """(n, 3) compared/limit at the Exempt, RG1, RG2 boundaries of the applicable member; NaN if none."""
+    out = np.full((ev.assessment_distance_m.size, 3), np.nan)
+    for h, mask in _members(ev, members):
+        out[mask] = (h.compared / h.limits)[mask]
+    return out
+
+
+def family_groups(ev: Evaluation, members: tuple[str, ...]) -> np.ndarray:
+    """(n,) group index 0-3 of the applicable member; −1 if none."""
+    out = np.full(ev.assessment_distance_m.size, -1)
+    for h, mask in _members(ev, members):
+        out[mask] = h.group_index[mask]
+    return out
+
+
+def family_t_max(ev: Evaluation, members: tuple[str, ...]) -> np.ndarray:
+    """(n,) t_max of the applicable member [s]; NaN where not reached or none applies."""
+    out = np.full(ev.assessment_distance_m.size, np.nan)
+    for h, mask in _members(ev, members):
+        out[mask] = h.t_max_s[mask]
+    return out
+
+
+def overall_groups(ev: Evaluation, limit_set: LimitSet) -> np.ndarray:
+    """(n,) overall group index, the highest over the families."""
+    return np.max(np.column_stack([family_groups(ev, m) for _, m in limit_set.families]), axis=1)
+
+
+def evaluate_rows(arrays: ProductArrays, count: int, limit_set: LimitSet, *, raw_scale=None, forced_distance_m=None,
+                  size_scale=None) -> Evaluation:
+    """Evaluate ``count`` variants of the single product in ``arrays``.
+
+    Parameters
+    ----------
+    arrays : ProductArrays
+        One product.
+    raw_scale : numpy.ndarray, optional
+        (count,) multiplier of its integrals (dimming, a filter, a scale uncertainty) [1].
+    forced_distance_m : numpy.ndarray, optional
+        (count,) distances to assess at [m].
+    size_scale : numpy.ndarray, optional
+        (count,) multiplier of the source's linear size, same emitted power (a diffuser) [1]. A measured
+        radiance falls by its square; a measured irradiance is unchanged.
+    """
+    rows = arrays.rows(np.zeros(count, dtype=int))
+    factor = np.ones(count) if raw_scale is None else np.asarray(raw_scale, dtype=float)
+    shape = rows.shape
+    if size_scale is not None:
+        size_scale = np.asarray(size_scale, dtype=float)
+        shape = type(shape)(shape.width_m * size_scale, shape.height_m * size_scale)
+        factor = np.where(rows.is_radiance, factor / size_scale ** 2, factor)
+    raw = rows.raw * factor[:, None]
+    anchor = rows.anchor_photometric * factor  # a relative spectrum's anchor scales with it
+    forced = rows.forced_distance_m if forced_distance_m is None else np.asarray(forced_distance_m, dtype=float)
+    variant = ProductArrays(raw=raw, covered=rows.covered, is_radiance=rows.is_radiance,
+                            measurement_distance_m=rows.measurement_distance_m, shape=shape, is_gls=rows.is_gls,
+                            anchor_photometric=anchor, luminous_intensity_cd=rows.luminous_intensity_cd * factor,
+                            peak_to_mean=rows.peak_to_mean, forced_distance_m=forced)
+    return evaluate(variant, limit_set)

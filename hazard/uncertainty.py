@@ -1,0 +1,82 @@
+"""Groups within the measurement uncertainty: scale ±u (expanded, k = 2) and wavelength shift ±Δλ.
+
+The spectrum is re-weighted with its wavelength scale shifted by −Δλ, 0 and +Δλ (which matters where S_UV
+and B(λ) are steep), and each shifted spectrum is scaled by 1 − u, 1 and 1 + u; all nine variants are
+assessed as rows of one evaluation. A hazard's bounds are the extremes over the variants; a product whose
+overall group differs between them is ``borderline``.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from hazard.evaluate import ProductArrays, evaluate
+from hazard.families import family_groups, overall_groups
+from hazard.hazards import GROUPS, LimitSet
+from hazard.integrals import integrate_spectra
+from hazard.result import HazardBounds, UncertaintyStudy
+from hazard.spectrum import Spectrum
+
+__all__ = ["uncertainty_study"]
+
+
+def _family_values(ev, members: tuple[str, ...]) -> np.ndarray:
+    out = np.full(ev.assessment_distance_m.size, np.nan)
+    for symbol in members:
+        h = ev.hazards[symbol]
+        mask = h.applicable & h.assessed
+        out[mask] = h.value[mask]
+    return out
+
+
+def uncertainty_study(arrays: ProductArrays, spectrum: Spectrum, no_emission_outside: bool, limit_set: LimitSet,
+                      uncertainty_pct: float, wavelength_uncertainty_nm: float) -> UncertaintyStudy:
+    """Assess the nine variants of one product and summarise the group bounds.
+
+    Parameters
+    ----------
+    arrays : ProductArrays
+        The product as assessed (one row).
+    spectrum : Spectrum
+        Its spectrum, re-integrated on shifted grids.
+    uncertainty_pct : float
+        Expanded scale uncertainty u [%].
+    wavelength_uncertainty_nm : float
+        Wavelength-scale uncertainty Δλ [nm].
+    """
+    u, shift = uncertainty_pct / 100, wavelength_uncertainty_nm
+    shifts = np.array([-shift, 0.0, shift])
+    shifted = integrate_spectra([spectrum.wavelength_nm + s for s in shifts], [spectrum.value] * 3,
+                                [no_emission_outside] * 3, limit_set)
+    scales = np.array([1 - u, 1.0, 1 + u])
+    rows = arrays.rows(np.zeros(9, dtype=int))
+    raw = np.repeat(shifted.raw, 3, axis=0) * np.tile(scales, 3)[:, None]
+    variant = ProductArrays(raw=raw, covered=rows.covered, is_radiance=rows.is_radiance,
+                            measurement_distance_m=rows.measurement_distance_m, shape=rows.shape, is_gls=rows.is_gls,
+                            anchor_photometric=rows.anchor_photometric * np.tile(scales, 3),
+                            luminous_intensity_cd=rows.luminous_intensity_cd, peak_to_mean=rows.peak_to_mean,
+                            forced_distance_m=rows.forced_distance_m)
+    ev = evaluate(variant, limit_set)
+    nominal, minus, plus = 4, 1, 7  # (shift index × 3 + scale index)
+    bounds = []
+    for name, members in limit_set.families:
+        values, groups = _family_values(ev, members), family_groups(ev, members)
+        if np.all(np.isnan(values)):
+            continue
+        finite = values[~np.isnan(values)]
+        assessed = groups[groups >= 0]
+        bounds.append(HazardBounds(
+            family=name, value_low=float(finite.min()), value_high=float(finite.max()),
+            value_shift_minus=None if np.isnan(values[minus]) else float(values[minus]),
+            value_shift_plus=None if np.isnan(values[plus]) else float(values[plus]),
+            group_low=GROUPS[assessed.min()] if assessed.size else None,
+            group_high=GROUPS[assessed.max()] if assessed.size else None))
+    overall = overall_groups(ev, limit_set)
+    overall = np.maximum(overall, 0)
+    low, high = GROUPS[overall.min()], GROUPS[overall.max()]
+    verdict = "borderline" if low != high else "robust"
+    note = (f"within ±{uncertainty_pct:g} % (k = 2) and ±{shift:g} nm the product may be {low} or {high}: send "
+            f"it to the laboratory" if verdict == "borderline" else
+            f"the group {GROUPS[overall[nominal]]} holds across ±{uncertainty_pct:g} % (k = 2) and ±{shift:g} nm")
+    return UncertaintyStudy(uncertainty_pct=uncertainty_pct, wavelength_uncertainty_nm=shift, hazards=bounds,
+                            risk_group_low=low, risk_group_high=high, verdict=verdict, note=note)
