@@ -183,7 +183,7 @@ def _load_chunk(rows: list[ManifestRow], jobs: int, pool: ProcessPoolExecutor | 
 
 
 def run_batch(source: str | Path, output_dir: str | Path, *, pdf: bool = False, jobs: int = 1,
-              resume: bool = False, per_product_json: bool = False,
+              resume: bool = False, per_product_json: bool = False, studies: bool = False,
               limit_set: LimitSet = DEFAULT_LIMIT_SET) -> BatchOutcome:
     """Assess every product of a manifest or folder of records.
 
@@ -201,6 +201,9 @@ def run_batch(source: str | Path, output_dir: str | Path, *, pdf: bool = False, 
         Reuse results of an earlier (possibly interrupted) run whose input hashes are unchanged.
     per_product_json : bool
         Also write one ``ID.json`` per product.
+    studies : bool
+        Also compute hazard distances and remedies per product (about 0.1 s each); the uncertainty study
+        runs whenever a record states an uncertainty.
 
     Returns
     -------
@@ -223,7 +226,9 @@ def run_batch(source: str | Path, output_dir: str | Path, *, pdf: bool = False, 
     todo = []
     for row in rows:
         line = previous.get(row.product_id)
-        if line is not None and json.loads(line)["provenance"]["inputs"] == _current_inputs(row):
+        earlier = json.loads(line) if line is not None else None
+        if (earlier is not None and earlier["provenance"]["inputs"] == _current_inputs(row)
+                and (earlier.get("distances") is not None) == studies):
             lines[row.product_id] = line
             outcome.assessments[row.product_id] = Assessment.model_validate_json(line)
             outcome.reused += 1
@@ -244,7 +249,7 @@ def run_batch(source: str | Path, output_dir: str | Path, *, pdf: bool = False, 
                     if isinstance(item, str):
                         outcome.errors[row.product_id] = item
                         continue
-                    assessment = build_assessment(item, batch, position)
+                    assessment = build_assessment(item, batch, position, studies=studies)
                     position += 1
                     line = assessment.model_dump_json()
                     lines[row.product_id] = line

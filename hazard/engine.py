@@ -141,7 +141,7 @@ def _hazard_results(ev: Evaluation, i: int, spectrum_range: tuple[float, float])
             value=float(h.value[i]) if h.assessed[i] else None, unit=spec.unit,
             t_max_s=_float(h.t_max_s[i]) if h.assessed[i] else None,
             risk_group=GROUPS[h.group_index[i]] if (h.assessed[i] and grouped) else None,
-            assessed=bool(h.assessed[i]), limits=limits, compared=compared,
+            assessed=bool(h.assessed[i]), limits=limits, compared=compared if h.assessed[i] else {},
             margins={g: compared[g] / limits[g] for g in limits} if h.assessed[i] else {},
             fov_rad=dict(zip(_GROUP_KEYS, spec.fov_rad)) if spec.fov_rad else {},
             alpha_rad={g: float(h.alpha_bounded[i, k]) for k, g in enumerate(_GROUP_KEYS)}
@@ -273,7 +273,8 @@ def _spectrum_summary(loaded: LoadedProduct, scale: float) -> SpectrumSummary:
     centres = (edges[:-1] + edges[1:]) / 2
     peak = int(np.argmax(value))
     return SpectrumSummary(
-        path=spectrum.path, quantity=spectrum.quantity, unit_given=loaded.record.unit_text,
+        path=spectrum.path, quantity=loaded.record.effective_quantity, quantity_given=loaded.record.quantity,
+        unit_given=loaded.record.unit_text,
         points=int(wl.size), min_nm=float(wl[0]), max_nm=float(wl[-1]), peak_nm=float(wl[peak]),
         peak_value_si=float(value[peak]),
         preview_nm=[round(float(c), 2) for c in centres[filled]],

@@ -63,7 +63,7 @@ def _resolve_unit(record: ProductRecord, header_unit: str | None, origin: str) -
 
 def _check_anchorable(spectrum: Spectrum, origin: str) -> None:
     """A photometric anchor can only scale a spectrum that has visible light (V(λ) > 0 somewhere)."""
-    visual = quadrature_weights(spectrum.wavelength_nm, VISIBLE_BAND_NM, load_table("v_photopic").at)
+    visual = quadrature_weights(spectrum.wavelength_nm, VISIBLE_BAND_NM, load_table("v_photopic"))
     if not float(visual @ spectrum.value) > 0:
         raise InputError(f"the relative spectrum {spectrum.path} has no light within V(λ)'s "
                          f"{VISIBLE_BAND_NM[0]:g}-{VISIBLE_BAND_NM[1]:g} nm, so a photometric anchor cannot scale it",

@@ -52,7 +52,7 @@ class Integrated:
 def integral_matrix(grid_nm: np.ndarray, limit_set: LimitSet) -> np.ndarray:
     """Quadrature matrix (grid, k + 3): every integral of the limit set, then X, Y, Z [nm]."""
     specs = integral_specs(limit_set)
-    weights = [(s.band_nm, None if s.table is None else load_table(s.table).at) for s in specs]
+    weights = [(s.band_nm, None if s.table is None else load_table(s.table)) for s in specs]
     return np.hstack([quadrature_matrix(grid_nm, weights), cmf_quadrature(grid_nm)])
 
 

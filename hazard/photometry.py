@@ -10,10 +10,12 @@ colour-science is imported only when colour is computed.
 from __future__ import annotations
 
 import warnings
+from functools import cache
 
 import numpy as np
 
 from hazard.weighting import quadrature_matrix
+from weighting_tables import WeightingTable
 
 __all__ = ["import_colour", "K_M_LM_PER_W", "VISIBLE_BAND_NM", "CCT_DUV_LIMIT", "cmf_quadrature", "cct_from_xyz"]
 
@@ -44,11 +46,17 @@ def cmf_quadrature(grid_nm: np.ndarray) -> np.ndarray:
     The colour-matching functions are interpolated linearly (CIE 15 recommends linear interpolation of
     1 nm data) and are zero outside 360–830 nm.
     """
+    return quadrature_matrix(grid_nm, [(VISIBLE_BAND_NM, table) for table in _cmf_tables()])
+
+
+@cache
+def _cmf_tables() -> tuple[WeightingTable, ...]:
+    """x̄, ȳ, z̄ of the CIE 1931 2° observer (colour-science's CIE data) as linear weighting tables."""
     cmfs = import_colour().MSDS_CMFS["CIE 1931 2 Degree Standard Observer"]
     wl, values = np.asarray(cmfs.wavelengths, dtype=float), np.asarray(cmfs.values, dtype=float)
-    bands = [(VISIBLE_BAND_NM, (lambda x, col=col: np.interp(x, wl, values[:, col], left=0.0, right=0.0)))
-             for col in range(3)]
-    return quadrature_matrix(grid_nm, bands)
+    return tuple(WeightingTable(name=f"cie1931_{axis}", symbol=axis, wavelength_nm=wl, value=values[:, k],
+                                interpolation="linear", metadata={"source": "CIE 1931 2° via colour-science"},
+                                sha256="") for k, axis in enumerate("xyz"))
 
 
 def cct_from_xyz(xyz: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:

@@ -11,7 +11,16 @@ import tomllib
 from pathlib import Path
 from typing import Literal
 
-from pydantic import BaseModel, ConfigDict, Field, ValidationError, model_validator
+from pydantic import (
+    BaseModel,
+    ConfigDict,
+    Field,
+    StrictInt,
+    StrictStr,
+    ValidationError,
+    field_validator,
+    model_validator,
+)
 
 from hazard.errors import InputError
 from hazard.units import parse_spectral_unit
@@ -30,7 +39,7 @@ ANCHORS = ("illuminance_lx", "luminous_intensity_cd", "luminance_cd_m2")
 class ProductRecord(BaseModel):
     """What the user tells about one product: where its spectrum is and how it was measured."""
 
-    model_config = ConfigDict(extra="forbid", frozen=True)
+    model_config = ConfigDict(extra="forbid", frozen=True, allow_inf_nan=False)
 
     id: str = Field(min_length=1, description="Product identifier, unique within a batch.")
     name: str | None = Field(None, description="Human-readable product name.")
@@ -42,7 +51,7 @@ class ProductRecord(BaseModel):
                                   "relative spectrum scaled by a photometric anchor.")
     unit: str | None = Field(None, description="Unit of the spectral values, e.g. W/m2/nm, mW/m2/nm, "
                                                "uW/cm2/nm, W/m2/sr/nm. Default by quantity.")
-    column: str | int | None = Field(None, description="Value column to use when the file has several "
+    column: StrictStr | StrictInt | None = Field(None, description="Value column to use when the file has several "
                                                        "(header name or 1-based index).")
     distance_mm: float | None = Field(None, gt=0, description="Distance at which the spectrum was measured "
                                                               "[mm]; required for irradiance.")
@@ -89,6 +98,17 @@ class ProductRecord(BaseModel):
     claimed_t_max_s_L_IR: float | None = Field(None, gt=0, description="Claimed t_max of L_IR [s].")
     claimed_t_max_s_E_IR: float | None = Field(None, gt=0, description="Claimed t_max of E_IR [s].")
     claimed_t_max_s_E_H: float | None = Field(None, gt=0, description="Claimed t_max of E_H [s].")
+
+    @field_validator("unit")
+    @classmethod
+    def _unit_readable(cls, unit: str | None) -> str | None:
+        if unit is None or unit.strip().lower() in RELATIVE_UNITS:
+            return unit
+        try:
+            parse_spectral_unit(unit)
+        except ValueError as exc:
+            raise ValueError(str(exc)) from None
+        return unit
 
     @model_validator(mode="after")
     def _consistent(self) -> "ProductRecord":
@@ -176,8 +196,18 @@ def _as_input_error(exc: ValidationError, path: str, text: str | None, option_na
     """The first pydantic error as one line naming the field (or option), its line and the fix."""
     error = exc.errors()[0]
     key = str(error["loc"][0]) if error["loc"] else None
-    line = _line_of(text, key) if (text and key) else None
     message = error["msg"].removeprefix("Value error, ")
+    if key is None and text:  # a rule across fields: point at the first field it names that the file sets
+        named = sorted((message.find(f), f) for f in ProductRecord.model_fields
+                       if re.search(rf"\b{f}\b", message) and _line_of(text, f) is not None)
+        key_for_line = named[0][1] if named else None
+    else:
+        key_for_line = key
+    line = _line_of(text, key_for_line) if (text and key_for_line) else None
+    if option_names:
+        message = re.sub(r"\b(" + "|".join(sorted((f for f in ProductRecord.model_fields if "_" in f), key=len,
+                                                   reverse=True)) + r")\b",
+                         lambda m: "--" + m.group(1).replace("_", "-"), message)
     label = f"--{key.replace('_', '-')}" if (option_names and key) else key
     if error["type"] == "extra_forbidden":
         close = difflib.get_close_matches(key, ProductRecord.model_fields, n=1)

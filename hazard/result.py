@@ -11,7 +11,8 @@ from typing import Literal
 from pydantic import BaseModel, ConfigDict, Field
 
 __all__ = ["HazardResult", "SpectrumSummary", "BlueLightTransfer", "ClaimCheck", "Scaling", "BoundaryDistance",
-           "DistanceStudy", "HazardBounds", "UncertaintyStudy", "Remedy", "BandContribution", "Remedies", "Provenance", "Photometry",
+           "DistanceStudy", "HazardBounds", "UncertaintyStudy", "Remedy", "BandContribution", "Remedies", "Provenance",
+           "Photometry",
            "Geometry", "Assessment", "RiskGroup"]
 
 RiskGroup = Literal["Exempt", "RG1", "RG2", "RG3"]
@@ -38,7 +39,8 @@ class HazardResult(_Frozen):
     assessed: bool = Field(description="False when the spectrum does not cover the band.")
     limits: dict[str, float] = Field(description="Group limits as applied (after α bounds) [unit].")
     compared: dict[str, float] = Field(description="Value compared with each limit: the field-of-view "
-                                                   "average for radiance quantities [unit].")
+                                                   "average for radiance quantities [unit]; empty when not "
+                                                   "assessed.")
     margins: dict[str, float] = Field(description="compared / limit per group boundary [1]; ≤ 1 is within.")
     fov_rad: dict[str, float] = Field(description="Averaging field of view per group (radiance) [rad].")
     alpha_rad: dict[str, float] = Field(description="Bounded α used in each group limit (thermal) [rad].")
@@ -78,7 +80,9 @@ class SpectrumSummary(_Frozen):
     """The input spectrum in brief, with a preview for charts (not for computation)."""
 
     path: str = Field(description="Spectrum file as named in the record.")
-    quantity: str = Field(description="irradiance or radiance.")
+    quantity: str = Field(description="What the values are: irradiance or radiance (a relative spectrum after "
+                                      "its anchor's scaling).")
+    quantity_given: str = Field(description="What the record said: irradiance, radiance or relative.")
     unit_given: str = Field(description="Unit of the file's values.")
     points: int = Field(description="Number of samples.")
     min_nm: float
@@ -233,13 +237,13 @@ class Assessment(_Frozen):
     geometry: Geometry
     photometry: Photometry
     spectrum: SpectrumSummary
-    blue_light_transfer: BlueLightTransfer | None = Field(description="IEC TR 62778 transfer quantities, where "
+    blue_light_transfer: BlueLightTransfer | None = Field(None, description="IEC TR 62778 transfer quantities, where "
                                                                       "B(λ) and V(λ) are covered.")
-    claims: list[ClaimCheck] = Field(description="Vendor claims in the record, checked.")
+    claims: list[ClaimCheck] = Field(default_factory=list, description="Vendor claims in the record, checked.")
     distances: DistanceStudy | None = Field(None, description="Hazard distances and t_max against distance.")
     uncertainty: UncertaintyStudy | None = Field(None, description="Groups within the stated uncertainty.")
     remedies: Remedies | None = Field(None, description="Dimming, diffuser and UV-band findings.")
-    scaling: Scaling | None = Field(description="Photometric scaling of a relative spectrum; null for an "
+    scaling: Scaling | None = Field(None, description="Photometric scaling of a relative spectrum; null for an "
                                                 "absolute one.")
     record: dict = Field(description="The product record as used.")
     warnings: list[str]

@@ -19,7 +19,7 @@ __all__ = ["Spectrum", "validate_spectrum", "NEGATIVE_TOLERANCE"]
 NEGATIVE_TOLERANCE = 0.01
 """Negatives down to this fraction of the peak are dark noise (method §5) [1]."""
 
-_UM_LOOKING_MAX_NM = 20.0  # an optical spectrum whose longest wavelength is below 20 "nm" was written in µm
+_UM_LOOKING_MAX_NM = 100.0  # every band of the method lies above 180 nm: a column ending below 100 "nm" is µm
 
 
 @dataclass(frozen=True)

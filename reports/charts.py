@@ -112,8 +112,7 @@ def spectrum_chart(assessment: Assessment, width: float, height: float, fonts: F
         if end > start:
             d.add(Rect(px(start), bottom, px(end) - px(start), ph, fillColor=PANEL, strokeColor=None))
             if px(end) - px(start) > 40:
-                d.add(_text((px(start) + px(end)) / 2, bottom + 3, "not measured", fonts, 6, color=MUTED,
-                            anchor="middle"))
+                d.add(_text(px(start) + 4, bottom + 3, "not measured", fonts, 6, color=MUTED))
     for decade in range(y0, y1 + 1):
         d.add(Line(left, py(10.0 ** decade), left + pw, py(10.0 ** decade), strokeColor=RULE,
                    strokeWidth=0.3 if decade else 0.7))
@@ -210,8 +209,8 @@ def margin_chart(assessment: Assessment, width: float, fonts: FontSet) -> Drawin
         y = height - top - (i + 1) * (row_h + gap) + gap
         title = fonts.clean(hazard.title)
         title_size = min(6.3, (label_w - 4) / stringWidth(title, fonts.regular, 1))
-        d.add(_text(0, y + row_h / 2 + 0.8, hazard.symbol, fonts, 7.5, bold=True))
-        d.add(_text(0, y + row_h / 2 - 5.6, title, fonts, title_size, color=MUTED))
+        d.add(_text(0, y + row_h / 2 + 1.5, hazard.symbol, fonts, 7.5, bold=True))
+        d.add(_text(0, y + row_h / 2 - 6, title, fonts, title_size, color=MUTED))
         d.add(_row(hazard, left, y, pw, row_h, px, fonts))
         d.add(_result(hazard, left + pw + 8, y, row_h, fonts))
     d.add(_text(one, height - top + 4, "Exempt limit", fonts, 6.5, bold=True, anchor="middle"))

@@ -27,11 +27,19 @@ __all__ = ["render_assessment_pdf"]
 _BOUNDARIES = ("Exempt", "RG1", "RG2")
 _ANCHOR = {"illuminance_lx": ("illuminance", "lx"), "luminous_intensity_cd": ("luminous intensity", "cd"),
            "luminance_cd_m2": ("luminance", "cd/m²")}
-_SPECTRUM_UNIT = {"irradiance": "W/(m²·nm)", "radiance": "W/(m²·sr·nm)"}
+_SPECTRAL_UNIT = {"irradiance": "W/(m²·nm)", "radiance": "W/(m²·sr·nm)"}
 
 
 def _unit(unit: str) -> str:
     return UNIT_DISPLAY.get(unit, unit)
+
+
+def _spectral_quantity(a: Assessment) -> str:
+    """Irradiance or radiance: what the spectrum's SI values are (a relative spectrum once anchored, as the
+    record's ``effective_quantity`` defines it: a luminance anchor makes it a radiance)."""
+    if a.spectrum.quantity != "relative":
+        return a.spectrum.quantity
+    return "radiance" if a.scaling is not None and a.scaling.anchor == "luminance_cd_m2" else "irradiance"
 
 
 def _triple(values: dict[str, float], fmt: Callable[[float], str], scale: float = 1.0) -> str:
@@ -201,7 +209,7 @@ def _geometry(a: Assessment, st: Styles) -> Flowable:
 def _scaling(a: Assessment) -> str:
     """How a relative spectrum was made absolute, in one line."""
     sc = a.scaling
-    name, unit = _ANCHOR.get(sc.anchor, (sc.anchor, ""))
+    name, unit = _ANCHOR[sc.anchor]
     at = "" if sc.reference_distance_mm is None else f" at {sc.reference_distance_mm:g} mm"
     return (f"relative spectrum made absolute by the stated {name}, {format_value(sc.anchor_value)} {unit}{at} "
             f"(× {format_value(sc.scale_factor)} SI per unit); every value rests on that figure")
@@ -224,9 +232,11 @@ def _claims_summary(a: Assessment) -> str:
 def _charts(a: Assessment, st: Styles) -> list[Flowable]:
     fonts = st.fonts
     s = a.spectrum
-    peak = (f"Spectral {s.quantity}, {s.points} samples, {s.min_nm:g}–{s.max_nm:g} nm; its peak, "
-            f"{format_value(s.peak_value_si)} {_SPECTRUM_UNIT.get(s.quantity, 'SI')} at {s.peak_nm:g} nm, is 1 "
-            f"on this axis. Weights as tabulated.")
+    quantity = _spectral_quantity(a)
+    kind = f"spectral {quantity}" + (", scaled from a relative spectrum" if s.quantity == "relative" else "")
+    peak = (f"{kind[0].upper()}{kind[1:]}, {s.points} samples, {s.min_nm:g}–{s.max_nm:g} nm; its peak, "
+            f"{format_value(s.peak_value_si)} {_SPECTRAL_UNIT[quantity]} at {s.peak_nm:g} nm, is 1 on this axis. "
+            f"Weights as tabulated.")
     missing = [symbol for symbol in a.not_assessed if a.hazards[symbol].limits]
     drawn = len(missing) < sum(1 for h in a.hazards.values() if h.limits)
     chart_note = " ".join((["Diamond: the value (arrow: beyond the axis). Coinciding limits (e.g. Exempt and RG1 "
@@ -273,8 +283,10 @@ def _detail_table(a: Assessment, st: Styles) -> Flowable:
                       _triple(h.alpha_rad, format_limit, 1e3), compared])
     rows = [[st.p(x, st.head) for x in head]]
     rows += [[st.p(x, st.cell_bold if c == 0 else st.cell) for c, x in enumerate(row)] for row in cells]
-    widths = [36, 62, 0, 86, 52, 62, 82]
-    widths[2] = FRAME_WIDTH - sum(widths)
+    one_line = [[*row[:1], "", "", *row[3:6], ""] for row in cells]  # band, limit and compared values wrap
+    widths = fit_widths(head, one_line, st.fonts, FRAME_WIDTH, flexible=2, size=st.cell.fontSize, bold={0})
+    widths[1], widths[6] = 62, 80
+    widths[2] = FRAME_WIDTH - sum(widths) + widths[2]
     table = Table(rows, colWidths=widths, repeatRows=1)
     table.setStyle(table_style())
     return table

@@ -163,6 +163,10 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
         last_number, last_line = preamble[-1]
         header_cells = _cells(last_line, delimiter, False)
         if len(header_cells) == width:
+            if any(_is_number(c) for c in _cells(last_line, delimiter, decimal_comma)[1:]):
+                bad = header_cells[0]  # numbers beside it: a data row whose first cell is mistyped
+                raise InputError(f"text {bad!r} in a number column", "use plain numbers (a letter O or l for a "
+                                 "digit is a common slip)", display_path, last_number)
             header = header_cells
             preamble = preamble[:-1]
     metadata = dict(item for _, line in preamble if (item := _metadata_item(line)) is not None)
