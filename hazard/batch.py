@@ -117,7 +117,8 @@ def summary_rows(outcome: BatchOutcome, limit_set: LimitSet = DEFAULT_LIMIT_SET)
     rows = []
     for product_id in outcome.ids:
         row = {"id": product_id, "status": "ok", "risk_group": "", "complete": "", "warning_count": "",
-               "claims_contradicted": "", "claims": "", "error": ""}
+               "claims_contradicted": "", "claims": "", "uncertainty": "", "group_range": "",
+               "min_distance_exempt_mm": "", "error": ""}
         row.update(dict.fromkeys(_hazard_columns(limit_set), ""))
         if product_id in outcome.errors:
             row.update(status="error", error=outcome.errors[product_id])
@@ -126,6 +127,11 @@ def summary_rows(outcome: BatchOutcome, limit_set: LimitSet = DEFAULT_LIMIT_SET)
             row.update(risk_group=a.risk_group, complete=str(a.complete).lower(), warning_count=len(a.warnings),
                        claims_contradicted=sum(c.verdict == "contradicted" for c in a.claims),
                        claims="; ".join(f"{c.field}: {c.verdict}" for c in a.claims))
+            if a.uncertainty is not None:
+                row.update(uncertainty=a.uncertainty.verdict,
+                           group_range=f"{a.uncertainty.risk_group_low}-{a.uncertainty.risk_group_high}")
+            if a.distances is not None and a.distances.minimum_distance_mm.get("Exempt") is not None:
+                row["min_distance_exempt_mm"] = repr(a.distances.minimum_distance_mm["Exempt"])
             for symbol, h in a.hazards.items():
                 row[f"{symbol}_value"] = "" if h.value is None else repr(h.value)
                 row[f"{symbol}_group"] = h.risk_group or ("not assessed" if not h.assessed else "")
@@ -136,7 +142,7 @@ def summary_rows(outcome: BatchOutcome, limit_set: LimitSet = DEFAULT_LIMIT_SET)
 
 def _summary_csv(outcome: BatchOutcome, limit_set: LimitSet) -> bytes:
     columns = ["id", "status", "risk_group", "complete", *_hazard_columns(limit_set), "warning_count",
-               "claims_contradicted", "claims", "error"]
+               "claims_contradicted", "claims", "uncertainty", "group_range", "min_distance_exempt_mm", "error"]
     buffer = io.StringIO()
     writer = csv.DictWriter(buffer, fieldnames=columns, lineterminator="\n")
     writer.writeheader()

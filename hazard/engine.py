@@ -40,9 +40,10 @@ from weighting_tables import TABLE_NAMES, load_table
 __all__ = ["assess", "evaluate_loaded", "evaluate_products", "build_assessment", "BatchEvaluation", "METHOD_TEXT",
            "STEEP_REGIONS_NM", "MAX_STEEP_STEP_NM"]
 
-METHOD_TEXT = ("Trapezoid rule on the spectrum's own grid, band ends inserted by linear interpolation of the "
-               "spectrum; weights interpolated onto the grid (S_UV, B, R log-linear; V linear), zero outside "
-               "their tables.")
+METHOD_TEXT = ("The spectrum is taken as linear between its samples; each weighted integral is the exact integral "
+               "of that interpolant times the weighting function as tabulated (S_UV, B, R log-linear between their "
+               "points; V and the CIE 1931 colour-matching functions linear), band ends and table points inserted as "
+               "nodes; weights are zero outside their tables.")
 STEEP_REGIONS_NM = ((200.0, 400.0), (380.0, 500.0))
 """Where the weights change steeply: sampling coarser than :data:`MAX_STEEP_STEP_NM` is flagged [nm]."""
 MAX_STEEP_STEP_NM = 5.0

@@ -91,7 +91,7 @@ class SourceShape:
         Examples
         --------
         >>> s = SourceShape(np.array(0.01), np.array(0.01))
-        >>> round(float(s.solid_angle_sr(1.0)) / 1e-4, 6)  # ≈ area / d² for a small square
+        >>> round(float(s.solid_angle_sr(1.0)) / 1e-4, 4)  # ≈ area / d² for a small square
         1.0
         """
         d = np.asarray(distance_m, dtype=float)

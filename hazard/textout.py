@@ -66,11 +66,39 @@ def render_text(assessment: Assessment) -> str:
                       f"{t.intensity_source})"]
     if a.claims:
         lines += ["", *render_claims(a)]
+    lines += _studies(a)
     for heading, items in (("Warnings", a.warnings), ("Assumptions", a.assumptions)):
         if items:
             lines += ["", f"{heading}:"] + [f"  - {item}" for item in items]
     lines += ["", f"Caution: {a.cautions[0]}"] + [f"         {c}" for c in a.cautions[1:]]
     return "\n".join(lines) + "\n"
+
+
+def _studies(a: Assessment) -> list[str]:
+    """Uncertainty, hazard distances and remedies, as short lines."""
+    lines = []
+    if a.uncertainty is not None:
+        u = a.uncertainty
+        lines += ["", f"Uncertainty: {u.verdict.upper()} — {u.note}"]
+    if a.distances is not None:
+        shown = []
+        for group, d in a.distances.minimum_distance_mm.items():
+            shown.append(f"{group} beyond {d:.0f} mm" if d else f"{group} at any distance" if d == 0
+                         else f"{group} not within 100 m")
+        lines += ["", "Distances: " + "; ".join(shown)
+                  + f" (values nearer than {a.distances.near_field_below_mm:.0f} mm are approximate)"]
+    if a.remedies is not None:
+        product = [r for r in a.remedies.remedies if r.target == "product" and r.dimming_factor is not None]
+        if product:
+            lines += ["", "What it would take: " + "; ".join(
+                f"{r.group}: dim to {r.dimming_factor * 100:.3g} % of today's output" for r in product)]
+        for r in a.remedies.remedies:
+            if r.area_factor is not None:
+                lines.append(f"  {r.target} → {r.group}: or enlarge the emitting area ×{r.area_factor:.3g} (diffuser)")
+        for symbol, bands in a.remedies.uv_bands.items():
+            top = ", ".join(f"{b.band_nm[0]:g}–{b.band_nm[1]:g} nm {b.share:.0%}" for b in bands[:3])
+            lines.append(f"  {symbol} comes mostly from {top}")
+    return lines
 
 
 def render_claims(assessment: Assessment) -> list[str]:

@@ -1,11 +1,14 @@
-"""The two report charts, drawn as vector graphics with ``reportlab.graphics``.
+"""The report charts, drawn as vector graphics with ``reportlab.graphics``.
 
 - :func:`spectrum_chart`: the spectrum preview relative to its peak, with the action spectra S_UV(λ), B(λ)
   and R(λ) on the same logarithmic axis.
 - :func:`margin_chart`: one row per assessed hazard with risk groups; a marker at the value relative to its Exempt
   limit and the group zones up to the RG1 and RG2 limits, so the nearest boundary shows at a glance.
+- :func:`distance_chart`: the distance study: t_max of each hazard family against distance (both axes
+  logarithmic) under a labelled strip of the overall group, with the assessment distance and the near field
+  marked.
 
-Both only scale what the result holds for drawing; neither computes a hazard quantity. Line styles (solid,
+They only scale what the result holds for drawing; none computes a hazard quantity. Line styles (solid,
 dashed, dotted) and text labels carry the meaning, so the charts read in greyscale.
 """
 
@@ -25,7 +28,7 @@ from reports.fonts import FontSet
 from reports.style import INK, MUTED, PANEL, RULE, SPECTRUM_EDGE, SPECTRUM_FILL, group_fill, group_ink
 from weighting_tables import load_table
 
-__all__ = ["ACTION_SPECTRA", "spectrum_chart", "margin_chart"]
+__all__ = ["ACTION_SPECTRA", "FAMILY_LINES", "spectrum_chart", "margin_chart", "distance_chart"]
 
 ACTION_SPECTRA = (("s_uv", "S_UV(λ) actinic UV", None, 1.1),
                   ("blue_light", "B(λ) blue light", (4, 2.2), 1.1),
@@ -268,4 +271,212 @@ def _result(hazard: HazardResult, x: float, y: float, row_h: float, fonts: FontS
                 anchor="middle"))
     margin = format_margin(group, hazard.margins)
     g.add(_text(x + 42, y + row_h / 2 - 2.5, margin, fonts, 6.8))
+    return g
+
+
+FAMILY_LINES = {"E_S": ((), 1.3), "E_UVA": ((4.5, 2.0), 1.1), "blue light": ((0.9, 1.9), 1.5),
+                "retinal thermal": ((6.0, 1.8, 1.2, 1.8), 1.0), "E_IR": ((10.0, 2.5), 1.6),
+                "E_H": ((2.0, 1.2, 2.0, 1.2, 0.6, 3.0), 0.7)}
+"""Dash pattern (empty: solid) and line width of each family's t_max curve in :func:`distance_chart`."""
+_FALLBACK_LINE = ((1.5, 1.5), 0.8)
+_MAX_T_DECADES = 12           # distance chart: at most this many decades of t_max
+
+
+def _dash(pattern: tuple[float, ...]) -> dict:
+    """Line keywords for a dash pattern: solid when empty, round caps for dotted lines."""
+    if not pattern:
+        return {"strokeDashArray": None}
+    return {"strokeDashArray": list(pattern), "strokeLineCap": 1 if pattern[0] < 1 else 0}
+
+
+def _group_runs(distance_mm: list[float], group: list[str | None], exact: dict[str, float | None]
+                ) -> list[tuple[str | None, float, float]]:
+    """Runs of equal overall group along the grid as (group, start, end) [mm].
+
+    A run ends halfway (on the log axis) between the last grid point of one group and the first of the next,
+    or at the study's own minimum distance for the nearer group when that lies between the two points.
+    """
+    runs, start = [], distance_mm[0]
+    for i in range(1, len(distance_mm)):
+        if group[i] == group[i - 1]:
+            continue
+        edge = math.sqrt(distance_mm[i - 1] * distance_mm[i])
+        boundary = exact.get(group[i] or "")
+        if boundary and distance_mm[i - 1] <= boundary <= distance_mm[i]:
+            edge = boundary
+        runs.append((group[i - 1], start, edge))
+        start = edge
+    runs.append((group[-1], start, distance_mm[-1]))
+    return runs
+
+
+def _t_range(curves: dict[str, list[float | None]]) -> tuple[int, int]:
+    """Decades of the t_max axis: the finite values' span, at least 3 and at most 12 decades."""
+    values = [t for ts in curves.values() for t in ts if t is not None and t > 0]
+    if not values:
+        return -3, 5
+    lo, hi = math.floor(math.log10(min(values))), math.ceil(math.log10(max(values)))
+    if hi - lo < 3:
+        lo, hi = lo - 1, hi + (3 - (hi - lo) - 1)
+    return max(lo, hi - _MAX_T_DECADES), hi
+
+
+def distance_chart(assessment: Assessment, width: float, height: float, fonts: FontSet) -> Drawing:
+    """t_max of each hazard family against distance, under a strip of the overall group at each distance.
+
+    Both axes are logarithmic. A family's curve has a gap where its limit is not reached within the limit's
+    time range (``None`` in the study). The strip's runs are labelled with the group's name; a vertical line
+    marks the assessment distance and a shaded band the near field, where inverse-square values are
+    approximate.
+
+    Parameters
+    ----------
+    assessment : Assessment
+        Its ``distances`` (a :class:`~hazard.result.DistanceStudy`) is drawn; must not be None.
+    width, height : float
+        Size of the drawing [pt].
+    fonts : FontSet
+
+    Returns
+    -------
+    Drawing
+    """
+    study = assessment.distances
+    d = Drawing(width, height)
+    left, right, bottom = 40.0, 10.0, 38.0
+    strip_h, label_row = 13.0, 10.0
+    strip_top = height - label_row
+    strip_bottom = strip_top - strip_h
+    plot_top = strip_bottom - 5.0
+    pw, ph = width - left - right, plot_top - bottom
+    dmin, dmax = study.distance_mm[0], study.distance_mm[-1]
+    x0, x1 = math.log10(dmin), math.log10(dmax)
+    t0, t1 = _t_range(study.t_max_s)
+
+    def px(mm: float) -> float:
+        return left + (math.log10(min(max(mm, dmin), dmax)) - x0) / (x1 - x0) * pw
+
+    def py(seconds: float) -> float:
+        return bottom + (math.log10(seconds) - t0) / (t1 - t0) * ph
+
+    near = study.near_field_below_mm
+    if near > dmin:
+        d.add(Rect(px(dmin), bottom, px(near) - px(dmin), ph, fillColor=PANEL, strokeColor=None))
+    step = 1 if t1 - t0 <= 8 else 2
+    for decade in range(t0, t1 + 1):
+        y = py(10.0 ** decade)
+        d.add(Line(left, y, left + pw, y, strokeColor=RULE, strokeWidth=0.3))
+        if (decade - t0) % step == 0:
+            d.add(_power_of_ten(left - 3, y - 2.2, decade, fonts, anchor="end"))
+    for decade in range(math.ceil(x0), math.floor(x1) + 1):
+        x = px(10.0 ** decade)
+        d.add(Line(x, bottom, x, plot_top, strokeColor=RULE, strokeWidth=0.3))
+        d.add(Line(x, bottom, x, bottom - 2.5, strokeColor=INK, strokeWidth=0.5))
+        d.add(_power_of_ten(x, bottom - 10, decade, fonts))
+    if near > dmin:
+        d.add(Line(px(near), bottom, px(near), plot_top, strokeColor=MUTED, strokeWidth=0.6,
+                   strokeDashArray=[2, 1.5]))
+        text = fonts.clean(f"near field, under {near:.0f} mm: approximate")
+        size = 6.2
+        if px(near) - px(dmin) >= stringWidth(text, fonts.regular, size) + 8:
+            d.add(_text(px(near) - 3, plot_top - 8, text, fonts, size, color=MUTED, anchor="end"))
+        else:
+            d.add(_text(px(near) + 3, plot_top - 8, "◂ " + text, fonts, size, color=MUTED))
+    d.add(_curves(study, px, py, (left, bottom, pw, ph), fonts))
+    d.add(Rect(left, bottom, pw, ph, fillColor=None, strokeColor=INK, strokeWidth=0.6))
+    d.add(_strip(study, px, strip_bottom, strip_h, fonts))
+    d.add(_text(left - 3, strip_bottom + strip_h / 2 - 2.2, "group", fonts, 6.5, bold=True, anchor="end"))
+    at = assessment.assessment_distance_mm
+    if dmin <= at <= dmax:
+        x = px(at)
+        d.add(Line(x, bottom, x, strip_top + 1, strokeColor=INK, strokeWidth=1.0))
+        d.add(Polygon([x - 3.2, bottom - 0.5, x + 3.2, bottom - 0.5, x, bottom + 4.5], fillColor=INK,
+                      strokeColor=None))
+        text = fonts.clean(f"assessed at {at:.0f} mm")
+        w = stringWidth(text, fonts.bold, 6.5)
+        tx = min(max(x - w / 2, left), left + pw - w)
+        d.add(_text(tx, strip_top + 2.5, text, fonts, 6.5, bold=True))
+    d.add(_text(left + pw / 2, bottom - 19, "distance from the source [mm] (log scale; 10³ mm = 1 m)", fonts, 7,
+                color=MUTED, anchor="middle"))
+    d.add(Group(_text(0, 0, "t_max [s] (log)", fonts, 6.5, color=MUTED, anchor="middle"),
+                transform=(0, 1, -1, 0, 7, bottom + ph / 2)))
+    d.add(_family_legend(study, left, 2, pw, fonts))
+    return d
+
+
+def _strip(study, px: Callable[[float], float], y: float, h: float, fonts: FontSet) -> Group:
+    """The overall group at each distance as filled runs, each labelled in text where it has room."""
+    g = Group()
+    runs = _group_runs(study.distance_mm, study.group, study.minimum_distance_mm)
+    for group, start, end in runs:
+        x, w = px(start), px(end) - px(start)
+        g.add(Rect(x, y, w, h, fillColor=group_fill(group), strokeColor=None))
+        label = group or "not assessed"
+        size = 7 if group else 6
+        if w >= stringWidth(label, fonts.bold, size) + 4:
+            g.add(_text(x + w / 2, y + h / 2 - 2.5, label, fonts, size, bold=True, color=group_ink(group),
+                        anchor="middle"))
+    for _, start, _ in runs[1:]:
+        g.add(Line(px(start), y, px(start), y + h, strokeColor=INK, strokeWidth=0.7))
+    g.add(Rect(px(study.distance_mm[0]), y, px(study.distance_mm[-1]) - px(study.distance_mm[0]), h,
+               fillColor=None, strokeColor=INK, strokeWidth=0.6))
+    return g
+
+
+def _curves(study, px: Callable[[float], float], py: Callable[[float], float],
+            box: tuple[float, float, float, float], fonts: FontSet) -> Group:
+    """Each family's t_max curve (gaps where it is None or off the axis) with its name at the curve's end."""
+    left, bottom, pw, ph = box
+    g = Group()
+    placed: list[tuple[float, float, float, float]] = []
+    for family, ts in study.t_max_s.items():
+        dash, line_width = FAMILY_LINES.get(family, _FALLBACK_LINE)
+        points, keep = [], []
+        for mm, t in zip(study.distance_mm, ts):
+            ok = t is not None and t > 0 and bottom - 0.01 <= py(t) <= bottom + ph + 0.01
+            points.append((px(mm), py(t) if ok else 0.0))
+            keep.append(ok)
+        runs = _segments(points, keep)
+        for run in runs:
+            g.add(PolyLine([c for point in run for c in point], strokeColor=INK, strokeWidth=line_width,
+                           **_dash(dash)))
+        if runs:
+            g.add(_end_label(family, runs[-1][-1], box, placed, fonts))
+    return g
+
+
+def _end_label(family: str, end: tuple[float, float], box: tuple[float, float, float, float],
+               placed: list[tuple[float, float, float, float]], fonts: FontSet) -> String:
+    """The family's name beside its curve's last point, moved down past labels already placed."""
+    left, bottom, pw, ph = box
+    size = 6.3
+    text = fonts.clean(family)
+    w = stringWidth(text, fonts.bold, size)
+    x = end[0] + 3 if end[0] + 3 + w <= left + pw - 2 else end[0] - 3 - w
+    y = min(max(end[1] - 2.2, bottom + 2), bottom + ph - 8)
+    for _ in range(12):
+        if not any(x < px2 and px1 < x + w and y < py2 and py1 < y + size for px1, py1, px2, py2 in placed):
+            break
+        y = y - size - 1 if y - size - 1 >= bottom + 2 else y + 2 * (size + 1)
+    placed.append((x, y, x + w, y + size))
+    return String(x, y, text, fontName=fonts.bold, fontSize=size, fillColor=INK)
+
+
+def _family_legend(study, x: float, y: float, width: float, fonts: FontSet) -> Group:
+    """One sample line and name per family; a family whose limit is never reached says so."""
+    entries = []
+    for family, ts in study.t_max_s.items():
+        text = family + (" (no groups)" if family == "E_H" else "")
+        if all(t is None for t in ts):
+            text += ": not reached"
+        entries.append((family, fonts.clean(text)))
+    natural = sum(stringWidth(t, fonts.regular, 7) for _, t in entries) + len(entries) * 36
+    size = 7 * min(1.0, width / natural)
+    g = Group()
+    cursor = x
+    for family, text in entries:
+        dash, line_width = FAMILY_LINES.get(family, _FALLBACK_LINE)
+        g.add(Line(cursor, y + 2.5, cursor + 20, y + 2.5, strokeColor=INK, strokeWidth=line_width, **_dash(dash)))
+        g.add(_text(cursor + 24, y, text, fonts, size))
+        cursor += 24 + stringWidth(text, fonts.regular, size) + 12
     return g

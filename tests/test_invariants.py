@@ -259,10 +259,6 @@ def test_resampling_a_smooth_spectrum_changes_little(tmp_path_factory, lines, fi
     assert abs(coarse.illuminance_lx - fine.illuminance_lx) <= 0.005 * fine.illuminance_lx + floor["E_v"]
 
 
-@pytest.mark.xfail(strict=True, reason="weighting.py quadrature_weights: the trapezoid on the spectrum's 1 nm "
-                                       "grid with S_UV evaluated at the nodes overestimates E_S by ~0.7 % for "
-                                       "UV-B spectra (S_UV halves in 2-3 nm there); integrating the log-linear "
-                                       "weight exactly over each interval would remove it")
 def test_resampling_changes_e_s_by_at_most_half_a_percent(tmp_path_factory):
     coarse, fine = _resampled_pair(_folder(tmp_path_factory, "resample_uv"), [(310.0, 30.0, 1.0)], 0.25, 5.0)
     # project requirement: resampling a smooth spectrum changes no quantity by more than 0.5 %

@@ -81,12 +81,13 @@ def test_254_nm_line(tmp_path):
 
 
 def test_blue_line_small_source_e_b_and_t_max(tmp_path):
-    # B(440) = 1.0 (Table 4.2). A 2 mm source at 200 mm has α = 0.01 rad < 0.011: E_B applies (Table 6.1).
-    # E_B = 2 W/m2 → t_max = 100/E_B = 50 s (§4.3.4); 1 < 2 ≤ 400 → RG2.
-    a = assess_arrays(tmp_path, GRID, triangle_line(GRID, 440.0, 2.0), source_diameter_mm=2.0,
+    # B = 1.0 over 435-440 nm (Table 4.2): a line at 437.5 nm sits on that plateau. A 2 mm source at 200 mm
+    # has α = 0.01 rad < 0.011: E_B applies (Table 6.1). E_B = 2 W/m2 → t_max = 100/E_B = 50 s (§4.3.4);
+    # 1 < 2 ≤ 400 → RG2.
+    a = assess_arrays(tmp_path, GRID, triangle_line(GRID, 437.5, 2.0), source_diameter_mm=2.0,
                       no_emission_outside=True)
     assert "E_B" in a.hazards and "L_B" not in a.hazards
-    assert a.hazards["E_B"].value == pytest.approx(2.0, rel=1e-3)
+    assert a.hazards["E_B"].value == pytest.approx(2.0, rel=1e-9)
     assert a.hazards["E_B"].t_max_s == pytest.approx(50, rel=1e-3)
     assert a.hazards["E_B"].risk_group == "RG2"
 
@@ -95,7 +96,7 @@ def test_blue_line_large_source_l_b_with_fov_averaging(tmp_path):
     # A 10 mm disc at 200 mm: α = 0.05 rad ≥ 0.011, so L_B applies. Source radiance L = E_B/Ω_s with
     # Ω_s = 2π(1 − cos(atan(D/2d))) (method §4); at the Exempt boundary the 0.1 rad field is larger than the
     # source, so the compared radiance is E_B/Ω(0.1 rad) (IEC 62471:2006 Table 6.1 fields of view).
-    a = assess_arrays(tmp_path, GRID, triangle_line(GRID, 440.0, 10.0), source_diameter_mm=10.0,
+    a = assess_arrays(tmp_path, GRID, triangle_line(GRID, 437.5, 10.0), source_diameter_mm=10.0,  # B = 1 plateau
                       no_emission_outside=True)
     l_b = a.hazards["L_B"]
     omega_s = 2 * math.pi * (1 - math.cos(math.atan(10 / 400)))
