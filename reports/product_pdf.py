@@ -1,4 +1,6 @@
-"""The PDF report of one product: page 1 at a glance, page 2 input, method and cautions.
+"""The PDF report of one product: page 1 at a glance, page 2 input and method; then, when the result holds
+any of them, a page 3 on distance, uncertainty and remedies (:mod:`reports.studies`); the cautions in full end
+the report.
 
 Everything printed comes from the :class:`~hazard.result.Assessment`; numbers are formatted by
 :mod:`hazard.formatting`, exactly as the text output prints them.
@@ -18,6 +20,7 @@ from reports.charts import margin_chart, spectrum_chart
 from reports.fonts import report_fonts
 from reports.layout import FRAME_WIDTH, build_pdf
 from reports.ranking import tightest_margin
+from reports.studies import distance_summary, has_studies, remedy_summary, studies_section, uncertainty_summary
 from reports.style import HAIRLINE, INK, PANEL, Styles, fit_widths, group_fill, group_ink, table_style
 from reports.timestamp import format_report_time, report_time
 from reports.wording import GROUP_MEANING, GROUP_NAME, LOWER_BOUND, LOWER_BOUND_MEANING
@@ -103,6 +106,10 @@ def _verdict(a: Assessment, st: Styles) -> Flowable:
     if not a.complete:
         label.append(st.p("lower bound", st.head.clone("lb", alignment=1, textColor=group_ink(group))))
         text.insert(0, st.p(f"{LOWER_BOUND}: {', '.join(a.not_assessed)} not assessed", st.banner))
+    if a.uncertainty is not None:
+        if a.uncertainty.verdict == "borderline":
+            label.append(st.p("BORDERLINE", st.head.clone("bl", alignment=1, textColor=group_ink(group))))
+        text.append(st.bold_lead(*uncertainty_summary(a), st.small))
     table = Table([[label, text]], colWidths=[96, FRAME_WIDTH - 96])
     table.setStyle([("BACKGROUND", (0, 0), (0, 0), group_fill(group)), ("BOX", (0, 0), (0, 0), 1.2, INK),
                     ("VALIGN", (0, 0), (0, 0), "MIDDLE"), ("VALIGN", (1, 0), (1, 0), "TOP"),
@@ -186,6 +193,9 @@ def _geometry(a: Assessment, st: Styles) -> Flowable:
         source += "; small source (α < 0.011 rad): blue light as irradiance E_B"
     if g.weak_visual_stimulus:
         source += "; weak visual stimulus (below 10 cd/m²): L_IR instead of L_R"
+    peak_to_mean = a.record.get("peak_to_mean_radiance", 1.0)
+    if peak_to_mean > 1:
+        source += f"; radiance values × {peak_to_mean:g}, the record's peak-to-mean radiance (hot spots)"
     measured = ("" if g.measurement_distance_mm is None
                 else f" (spectrum measured at {g.measurement_distance_mm:g} mm)")
     if a.complete:
@@ -202,6 +212,10 @@ def _geometry(a: Assessment, st: Styles) -> Flowable:
         cells.append(("Scaling", _scaling(a)))
     if a.claims:
         cells.append(("Vendor claims", _claims_summary(a)))
+    if a.distances is not None:
+        cells.append(("Distances", distance_summary(a)))
+    if a.remedies is not None and (remedy := remedy_summary(a)) is not None:
+        cells.append(("To go lower", remedy))
     cells += [("Warning", warning) for warning in a.warnings]
     return _key_values(cells, st, key_width=64)
 
@@ -373,7 +387,8 @@ def _method(a: Assessment, st: Styles) -> list[Flowable]:
 
 
 def render_assessment_pdf(assessment: Assessment, rendered_at: datetime.datetime | None = None) -> bytes:
-    """One product's pre-screen report as a PDF (A4, normally two pages).
+    """One product's pre-screen report as a PDF (A4: two pages, three when the result holds a distance,
+    uncertainty or remedies study).
 
     Parameters
     ----------
@@ -406,9 +421,11 @@ def render_assessment_pdf(assessment: Assessment, rendered_at: datetime.datetime
         st.p("Hazard details (each triple: Exempt / RG1 / RG2)", st.h2), _detail_table(a, st),
         st.p("Warnings and assumptions", st.h2), *_notes(a, st),
         *_method(a, st),
+        *([PageBreak(), *studies_section(a, st)] if has_studies(a) else []),
         CondPageBreak(60), st.p("Cautions", st.h2), *_bullets(a.cautions, st),
     ]
     title = f"{a.id} — photobiological safety pre-screen ({a.risk_group})"
+    borderline = a.uncertainty is not None and a.uncertainty.verdict == "borderline"
     header = f"{a.id}{' — ' + a.name if a.name else ''} · overall {a.risk_group}" + (
-        "" if a.complete else " (lower bound)")
+        "" if a.complete else " (lower bound)") + (" (borderline)" if borderline else "")
     return build_pdf(story, fonts, title=title, header=header, author=f"hazard {a.provenance.tool_version}")

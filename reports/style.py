@@ -83,6 +83,8 @@ class Styles:
         self.subtitle = ParagraphStyle("subtitle", base, fontSize=11, leading=14)
         self.h2 = ParagraphStyle("h2", base, fontName=fonts.bold, fontSize=10.5, leading=13, spaceBefore=6,
                                  spaceAfter=2)
+        self.h3 = ParagraphStyle("h3", base, fontName=fonts.bold, fontSize=9, leading=11.5, spaceBefore=5,
+                                 spaceAfter=1.5)
         self.verdict = ParagraphStyle("verdict", base, fontName=fonts.bold, fontSize=30, leading=34,
                                       alignment=1)
         self.verdict_head = ParagraphStyle("verdict_head", base, fontName=fonts.bold, fontSize=11, leading=14)

@@ -1,0 +1,281 @@
+"""The product report's section on distance, uncertainty and remedies, and the short texts page 1 and the
+batch summary print from the same studies.
+
+Everything comes from the result's ``distances``, ``uncertainty`` and ``remedies``; this module only words and
+formats them (and picks which family member's unit to print). Numbers follow the text output
+(:mod:`hazard.textout`): distances in whole millimetres, factors with three significant digits.
+"""
+
+from __future__ import annotations
+
+from reportlab.pdfbase.pdfmetrics import stringWidth
+from reportlab.platypus import Flowable, KeepTogether, Spacer, Table
+
+from hazard.formatting import UNIT_DISPLAY, format_value
+from hazard.hazards import DEFAULT_LIMIT_SET
+from hazard.result import Assessment, DistanceStudy, Remedy
+from reports.charts import distance_chart
+from reports.layout import FRAME_WIDTH
+from reports.style import INK, Styles, group_fill, group_ink, table_style
+
+__all__ = ["SECTION_TITLE", "has_studies", "beyond", "distance_summary", "uncertainty_summary",
+           "remedy_summary", "dimming_text", "area_text", "studies_section"]
+
+SECTION_TITLE = "Distance, uncertainty and remedies"
+_BOUNDARIES = ("Exempt", "RG1", "RG2")
+_FAMILY_MEMBERS = dict(DEFAULT_LIMIT_SET.families)
+
+
+def has_studies(a: Assessment) -> bool:
+    """The result carries at least one of the distance, uncertainty and remedies studies."""
+    return any(study is not None for study in (a.distances, a.uncertainty, a.remedies))
+
+
+def beyond(distance_mm: float | None, study: DistanceStudy, metres: bool = True) -> str:
+    """A boundary or minimum distance as printed: ``'1590 mm (1.59 m)'``; 0 and None in words.
+
+    Parameters
+    ----------
+    distance_mm : float or None
+        The study's distance: 0 when the group holds from the nearest distance studied, None when it is
+        not reached within the farthest.
+    study : DistanceStudy
+        For the range studied.
+    metres : bool
+        Add the distance in metres from 1 m on.
+
+    Examples
+    --------
+    >>> s = DistanceStudy(distance_mm=[10.0, 1e5], group=["RG1", "Exempt"], family_group={}, t_max_s={},
+    ...                   boundaries=[], minimum_distance_mm={}, near_field_below_mm=50.0)
+    >>> beyond(1589.66, s), beyond(25.2, s, metres=False), beyond(0.0, s), beyond(None, s)
+    ('1590 mm (1.59 m)', '25 mm', 'from 10 mm', 'not within 100 m')
+    """
+    if distance_mm is None:
+        return f"not within {study.distance_mm[-1] / 1000:g} m"
+    if distance_mm == 0:
+        return f"from {study.distance_mm[0]:.0f} mm"
+    text = f"{distance_mm:.0f} mm"
+    return text + (f" ({distance_mm / 1000:.3g} m)" if metres and distance_mm >= 1000 else "")
+
+
+def dimming_text(factor: float | None) -> str:
+    """A dimming factor as an instruction: ``'reduce to 1.58 % of today's output'``.
+
+    Examples
+    --------
+    >>> dimming_text(0.015829), dimming_text(None)
+    ("reduce to 1.58 % of today's output", 'not reachable by dimming')
+    """
+    if factor is None:
+        return "not reachable by dimming"
+    return f"reduce to {factor * 100:.3g} % of today's output"
+
+
+def area_text(factor: float | None) -> str:
+    """An area factor as an instruction: ``'enlarge emitting area ×836'``; an em dash when there is none.
+
+    Examples
+    --------
+    >>> area_text(835.56), area_text(None)
+    ('enlarge emitting area ×836', '—')
+    """
+    return "—" if factor is None else f"enlarge emitting area ×{factor:.3g}"
+
+
+def _member(a: Assessment, family: str) -> str | None:
+    """The family member assessed at the assessment distance (blue light: L_B or E_B), if any."""
+    for symbol in _FAMILY_MEMBERS.get(family, (family,)):
+        if symbol in a.hazards and a.hazards[symbol].assessed:
+            return symbol
+    return None
+
+
+def _family_label(a: Assessment, family: str) -> str:
+    member = _member(a, family)
+    return family if member is None or member == family else f"{family} ({member})"
+
+
+def _group_range(low: str | None, high: str | None) -> str:
+    if low is None and high is None:
+        return "—"
+    return (low or high) if low == high else f"{low} to {high}"
+
+
+def distance_summary(a: Assessment) -> str:
+    """One line for page 1: the minimum distance per group, and where values are approximate."""
+    s = a.distances
+    parts = []
+    for group in _BOUNDARIES:
+        distance = s.minimum_distance_mm.get(group)
+        phrase = f"{group}" if group == "Exempt" else f"{group} or lower"
+        parts.append(f"{phrase} {'beyond ' if distance else ''}{beyond(distance, s)}")
+    return "; ".join(parts) + f" (nearer than {s.near_field_below_mm:.0f} mm approximate) — page 3"
+
+
+def uncertainty_summary(a: Assessment) -> tuple[str, str]:
+    """Lead-in and text for page 1: the verdict in capitals and the study's note."""
+    u = a.uncertainty
+    return "Within the stated uncertainty:", f"{u.verdict.upper()} — {u.note} (page 3)"
+
+
+def _product_remedies(a: Assessment) -> list[Remedy]:
+    return [r for r in a.remedies.remedies if r.target == "product"]
+
+
+def remedy_summary(a: Assessment) -> str | None:
+    """One line for page 1: what dimming the whole product would take for each lower group."""
+    found = [f"{r.group}: {dimming_text(r.dimming_factor)}" for r in _product_remedies(a)]
+    return None if not found else "; ".join(found) + " — page 3"
+
+
+def _distance_table(a: Assessment, st: Styles) -> Flowable:
+    s = a.distances
+    near = s.near_field_below_mm
+    head = ["Beyond this distance the hazard is in the group or lower", "Exempt", "RG1", "RG2"]
+    rows = [[st.p(h, st.head) for h in head]]
+
+    def cell(distance: float | None, criterion: str | None, note: str | None, style) -> Flowable:
+        if distance is None and note is not None:
+            return st.p(note, st.cell)
+        text = beyond(distance, s)
+        if criterion:
+            text += f", by {criterion}"
+        if distance and distance < near:
+            text += " *"
+        return st.p(text, style)
+
+    rows.append([st.p("Whole product (minimum distance)", st.cell_bold)]
+                + [cell(s.minimum_distance_mm.get(g), None, None, st.cell_bold) for g in _BOUNDARIES])
+    by_family: dict[str, dict[str, object]] = {}
+    for b in s.boundaries:
+        by_family.setdefault(b.family, {})[b.group] = b
+    for family, found in by_family.items():
+        cells = []
+        for group in _BOUNDARIES:
+            b = found.get(group)
+            if b is None:
+                cells.append(st.p("—", st.cell))
+                continue
+            criterion = b.criterion if b.criterion and b.criterion != family else None
+            cells.append(cell(b.distance_mm, criterion, None if b.distance_mm is not None else b.note, st.cell))
+        rows.append([st.p(family, st.cell_bold)] + cells)
+    first = 150.0
+    table = Table(rows, colWidths=[first] + [(FRAME_WIDTH - first) / 3] * 3, repeatRows=1)
+    table.setStyle(table_style(extra=[("LINEBELOW", (0, 1), (-1, 1), 0.6, INK)]))
+    return table
+
+
+def _uncertainty_block(a: Assessment, st: Styles) -> list[Flowable]:
+    u = a.uncertainty
+    shift = f"{u.wavelength_uncertainty_nm:g} nm"
+    head = ["Hazard family", "Lowest value", "Highest value", f"λ scale −{shift}", f"λ scale +{shift}", "Unit",
+            "Group within the uncertainty"]
+    rows = [[st.p(h, st.head) for h in head]]
+    extra = []
+    for i, h in enumerate(u.hazards, start=1):
+        member = _member(a, h.family)
+        unit = a.hazards[member].unit if member else ""
+        changes = h.group_low != h.group_high
+        group_text = _group_range(h.group_low, h.group_high) + (" (changes)" if changes else "")
+        rows.append([st.p(_family_label(a, h.family), st.cell_bold),
+                     *(st.p(format_value(v), st.cell) for v in (h.value_low, h.value_high, h.value_shift_minus,
+                                                                 h.value_shift_plus)),
+                     st.p(UNIT_DISPLAY.get(unit, unit) or "—", st.cell),
+                     st.p(group_text, st.cell_bold if changes else st.cell)])
+    widths = [92, 58, 58, 58, 58, 50, 0]
+    widths[-1] = FRAME_WIDTH - sum(widths)
+    table = Table(rows, colWidths=widths, repeatRows=1)
+    table.setStyle(table_style(extra=extra))
+    overall = _group_range(u.risk_group_low, u.risk_group_high)
+    verdict = st.p(f" — overall group {overall}: {u.note}.", st.body,
+                   markup=f"<b>{u.verdict.upper()}</b>")
+    return [st.p(f"Within the measurement uncertainty (±{u.uncertainty_pct:g} % scale, k = 2; ±{shift} "
+                 f"wavelength)", st.h3), verdict, Spacer(1, 2), table, Spacer(1, 2),
+            st.p("Each family re-assessed with the spectrum scaled by 1 ± the uncertainty and its wavelength "
+                 "scale shifted by ± the stated amount (nine variants); lowest and highest over them. Radiance "
+                 "families: the source's own radiance, as in the hazard table. BORDERLINE: the overall group "
+                 "differs between variants; ROBUST: it does not.", st.caption)]
+
+
+def _remedies_block(a: Assessment, st: Styles) -> list[Flowable]:
+    r = a.remedies
+    head = ["Target", "Now", "To reach", "Dimming (or a neutral filter)", "Diffuser (same power)"]
+    rows = [[st.p(h, st.head) for h in head]]
+    extra = []
+    ordered = _product_remedies(a) + [x for x in r.remedies if x.target != "product"]
+    for i, x in enumerate(ordered, start=1):
+        if x.target == "product":
+            target, now = "Whole product", a.risk_group
+        else:
+            member = _member(a, x.target)
+            target = _family_label(a, x.target)
+            now = a.hazards[member].risk_group if member else None
+        style = st.cell_bold if x.target == "product" else st.cell
+        rows.append([st.p(target, style), st.p(now or "—", st.cell_bold.clone("now", textColor=group_ink(now))),
+                     st.p(x.group, st.cell_bold.clone("to", textColor=group_ink(x.group))),
+                     st.p(dimming_text(x.dimming_factor), style), st.p(area_text(x.area_factor), style)])
+        extra += [("BACKGROUND", (1, i), (1, i), group_fill(now)), ("BACKGROUND", (2, i), (2, i), group_fill(x.group))]
+    if len(rows) == 1:
+        rows.append([st.p("Nothing to remedy: the product is already Exempt.", st.cell)] + [""] * 4)
+        extra.append(("SPAN", (0, 1), (-1, 1)))
+    group_w = stringWidth("Exempt", st.fonts.bold, st.cell.fontSize) + 8
+    widths = [104, group_w, group_w, 0, 140]
+    widths[3] = FRAME_WIDTH - sum(widths)
+    table = Table(rows, colWidths=widths, repeatRows=1)
+    table.setStyle(table_style(extra=extra))
+    out = [st.p("What it would take", st.h3), table, Spacer(1, 2)]
+    bands = []
+    for symbol, found in r.uv_bands.items():
+        if found:
+            top = ", ".join(f"{b.band_nm[0]:g}–{b.band_nm[1]:g} nm ({b.share:.0%})" for b in found[:3])
+            bands.append(st.bold_lead(f"{symbol} comes mostly from", top, st.small))
+    if bands:
+        out += [st.p("Dominant UV bands (5 nm bands, share of the total at the assessment distance)", st.cell_bold),
+                *bands, Spacer(1, 2)]
+    out.append(st.p(f"{r.note} Diffuser: enlarge the emitting area at the same power, which lowers the radiance "
+                    f"hazards only (—: not applicable to this target, or not reachable).", st.caption))
+    return out
+
+
+def studies_section(a: Assessment, st: Styles) -> list[Flowable]:
+    """The section "Distance, uncertainty and remedies": whichever of the three studies the result holds.
+
+    Parameters
+    ----------
+    a : Assessment
+        A result with at least one study (:func:`has_studies`).
+    st : Styles
+
+    Returns
+    -------
+    list of Flowable
+    """
+    out: list[Flowable] = [st.p(SECTION_TITLE, st.h2.clone("h2_top", spaceBefore=0))]
+    missing = [name for name, study in (("hazard distances", a.distances), ("measurement uncertainty",
+                                                                             a.uncertainty),
+                                        ("remedies", a.remedies)) if study is None]
+    intro = ("Each figure below is the product re-assessed by the tool (same spectrum and geometry) at other "
+             "distances, within the stated uncertainty, or dimmed and diffused; this report only prints them.")
+    if missing:
+        intro += f" Not in this result: {', '.join(missing)}."
+    out.append(st.p(intro, st.caption))
+    if a.distances is not None:
+        s = a.distances
+        chart = distance_chart(a, FRAME_WIDTH, 230, st.fonts)
+        caption = (f"Top strip: the overall group at each distance (text labels). Curves: t_max, the time to "
+                   f"each exposure limit, per hazard family; a gap where the limit is not reached within its "
+                   f"time range. Vertical line and triangle: the assessment distance. Shaded: the near field, "
+                   f"under {s.near_field_below_mm:.0f} mm (five source sizes), where inverse-square values "
+                   f"are approximate.")
+        out += [KeepTogether([st.p("Group and t_max against distance", st.h3), chart, st.p(caption, st.caption)]),
+                Spacer(1, 4), _distance_table(a, st), Spacer(1, 2),
+                st.p(f"* nearer than {s.near_field_below_mm:.0f} mm: approximate (near field). \"by L_B\": the "
+                     f"family member that applies at that distance. A distance in words: the boundary is not "
+                     f"crossed between {s.distance_mm[0]:.0f} mm and {s.distance_mm[-1] / 1000:g} m.",
+                     st.caption)]
+    if a.uncertainty is not None:
+        out.append(KeepTogether(_uncertainty_block(a, st)))
+    if a.remedies is not None:
+        out.append(KeepTogether(_remedies_block(a, st)))
+    return out
