@@ -5,9 +5,9 @@ from pathlib import Path
 
 import numpy as np
 import pytest
+from conftest import assess_arrays, triangle_line, write_spectrum
 
 import hazard
-from conftest import assess_arrays, triangle_line, write_spectrum
 
 GRID = np.concatenate([np.arange(200.0, 500.0, 0.01), np.arange(500.0, 3000.5, 0.5)])
 LINEUP = Path(__file__).parents[1] / "examples" / "lineup"
