@@ -31,6 +31,7 @@ from hazard.errors import InputError
 from hazard.hazards import DEFAULT_LIMIT_SET, LimitSet
 from hazard.inputs import LoadedProduct, product_from_record
 from hazard.manifest import ManifestRow, read_manifest
+from hazard.photometry import import_colour
 from hazard.progress import Progress
 from hazard.record import record_from_fields
 from hazard.result import Assessment
@@ -41,8 +42,8 @@ RESULTS_NAME = "results.jsonl"
 SUMMARY_NAME = "summary.csv"
 PARTIAL_SUFFIX = ".partial"
 EXIT_SOME_FAILED = 3
-CHUNK_PRODUCTS = 256
-"""Products loaded, assessed and flushed to the partial file at a time."""
+CHUNK_PRODUCTS = 128
+"""Products loaded, assessed and flushed to the partial file at a time (one unit of work for a worker)."""
 
 
 @dataclass
@@ -182,10 +183,25 @@ def _write_pdfs(folder: Path, outcome: BatchOutcome, lines: dict[str, str], jobs
     write_atomic(folder / "summary.pdf", render_summary_pdf(assessments, errors, report_time()))
 
 
-def _load_chunk(rows: list[ManifestRow], jobs: int, pool: ProcessPoolExecutor | None) -> list:
-    if pool is None:
-        return [_load_or_error(row) for row in rows]
-    return list(pool.map(_load_or_error, rows, chunksize=max(1, len(rows) // (4 * jobs))))
+def _assess_chunk(job: tuple[list[ManifestRow], bool, LimitSet]) -> list[tuple[str, str | None, str | None]]:
+    """Worker: load, assess and serialise a chunk of rows → (id, JSON line or None, error or None) each.
+
+    Top level, so a process pool can run it; every product's numbers are independent of the others in its
+    chunk (:func:`hazard.integrals.integrate_spectra`), so any split of the work gives the same lines.
+    """
+    rows, studies, limit_set = job
+    loaded = [_load_or_error(row) for row in rows]
+    good = [item for item in loaded if isinstance(item, LoadedProduct)]
+    batch = evaluate_loaded(good, limit_set) if good else None
+    out, position = [], 0
+    for row, item in zip(rows, loaded):
+        if isinstance(item, str):
+            out.append((row.product_id, None, item))
+            continue
+        out.append((row.product_id, build_assessment(item, batch, position, studies=studies).model_dump_json(),
+                    None))
+        position += 1
+    return out
 
 
 def run_batch(source: str | Path, output_dir: str | Path, *, pdf: bool = False, jobs: int = 1,
@@ -202,7 +218,7 @@ def run_batch(source: str | Path, output_dir: str | Path, *, pdf: bool = False, 
     pdf : bool
         Also render one report per product and ``summary.pdf``.
     jobs : int
-        Worker processes for reading spectra and rendering PDFs.
+        Worker processes for reading and assessing products and for rendering PDFs.
     resume : bool
         Reuse results of an earlier (possibly interrupted) run whose input hashes are unchanged.
     per_product_json : bool
@@ -242,31 +258,28 @@ def run_batch(source: str | Path, output_dir: str | Path, *, pdf: bool = False, 
             todo.append(row)
     progress = Progress(len(rows), "products")
     progress.advance(outcome.reused)
-    pool = ProcessPoolExecutor(max_workers=jobs) if jobs > 1 and len(todo) > CHUNK_PRODUCTS else None
+    chunks = [(todo[k:k + CHUNK_PRODUCTS], studies, limit_set) for k in range(0, len(todo), CHUNK_PRODUCTS)]
+    pool = None
+    if jobs > 1 and len(chunks) > 1:
+        import_colour()  # once here, inherited by the workers instead of imported by each
+        pool = ProcessPoolExecutor(max_workers=jobs)
     try:
         with open(partial, "a", encoding="utf-8") as sink:
-            for start in range(0, len(todo), CHUNK_PRODUCTS):
-                chunk = todo[start:start + CHUNK_PRODUCTS]
-                loaded = _load_chunk(chunk, jobs, pool)
-                good = [item for item in loaded if isinstance(item, LoadedProduct)]
-                batch = evaluate_loaded(good, limit_set) if good else None
-                position = 0
-                for row, item in zip(chunk, loaded):
-                    if isinstance(item, str):
-                        outcome.errors[row.product_id] = item
+            results = pool.map(_assess_chunk, chunks) if pool is not None else map(_assess_chunk, chunks)
+            for chunk_result in results:  # in order, so the partial file grows in manifest order
+                for product_id, line, error in chunk_result:
+                    if error is not None:
+                        outcome.errors[product_id] = error
                         continue
-                    assessment = build_assessment(item, batch, position, studies=studies)
-                    position += 1
-                    line = assessment.model_dump_json()
-                    lines[row.product_id] = line
-                    outcome.assessments[row.product_id] = assessment
+                    lines[product_id] = line
+                    outcome.assessments[product_id] = Assessment.model_validate_json(line)
                     sink.write(line + "\n")
                 sink.flush()
                 os.fsync(sink.fileno())
-                progress.advance(len(chunk))
+                progress.advance(len(chunk_result))
     finally:
         if pool is not None:
-            pool.shutdown()
+            pool.shutdown(cancel_futures=True)
         progress.close()
     write_atomic(folder / RESULTS_NAME,
                  "".join(lines[i] + "\n" for i in outcome.ids if i in lines).encode("utf-8"))

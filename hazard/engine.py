@@ -261,6 +261,15 @@ PREVIEW_BINS = 240
 """Bins of the chart preview kept in the result, so reports render from saved JSON."""
 
 
+def _four_digits(values: np.ndarray) -> np.ndarray:
+    """Values rounded to four significant digits (a chart preview needs no more) [same unit]."""
+    with np.errstate(all="ignore"):  # zeros and values near the float limits keep their value
+        exponent = np.floor(np.log10(np.abs(values)))
+        scale = 10.0 ** np.where(np.isfinite(exponent), 3 - exponent, 0)
+        rounded = np.round(values * scale) / scale
+    return np.where(np.isfinite(rounded) & np.isfinite(scale), rounded, values)
+
+
 def _spectrum_summary(loaded: LoadedProduct, scale: float) -> SpectrumSummary:
     """Summary and a max-per-bin preview (keeps narrow lines visible) of the input spectrum, in SI units
     (a relative spectrum multiplied by its anchor's ``scale``)."""
@@ -278,8 +287,8 @@ def _spectrum_summary(loaded: LoadedProduct, scale: float) -> SpectrumSummary:
         unit_given=loaded.record.unit_text,
         points=int(wl.size), min_nm=float(wl[0]), max_nm=float(wl[-1]), peak_nm=float(wl[peak]),
         peak_value_si=float(value[peak]),
-        preview_nm=[round(float(c), 2) for c in centres[filled]],
-        preview_value_si=[float(f"{v:.4g}") for v in binned[filled]])
+        preview_nm=np.round(centres[filled], 2).tolist(),
+        preview_value_si=_four_digits(binned[filled]).tolist())
 
 
 def _transfer(ev: Evaluation, i: int, covered: np.ndarray, keys: list[str], record: ProductRecord

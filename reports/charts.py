@@ -344,10 +344,10 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
     study = assessment.distances
     d = Drawing(width, height)
     left, right, bottom = 40.0, 10.0, 38.0
-    strip_h, label_row = 13.0, 10.0
+    strip_h, label_row, near_row = 13.0, 10.0, 11.0
     strip_top = height - label_row
     strip_bottom = strip_top - strip_h
-    plot_top = strip_bottom - 5.0
+    plot_top = strip_bottom - near_row
     pw, ph = width - left - right, plot_top - bottom
     dmin, dmax = study.distance_mm[0], study.distance_mm[-1]
     x0, x1 = math.log10(dmin), math.log10(dmax)
@@ -374,15 +374,10 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
         d.add(Line(x, bottom, x, bottom - 2.5, strokeColor=INK, strokeWidth=0.5))
         d.add(_power_of_ten(x, bottom - 10, decade, fonts))
     if near > dmin:
-        d.add(Line(px(near), bottom, px(near), plot_top, strokeColor=MUTED, strokeWidth=0.6,
+        d.add(Line(px(near), bottom, px(near), plot_top + near_row - 2, strokeColor=MUTED, strokeWidth=0.6,
                    strokeDashArray=[2, 1.5]))
-        text = fonts.clean(f"near field, under {near:.0f} mm: approximate")
-        size = 6.2
-        if px(near) - px(dmin) >= stringWidth(text, fonts.regular, size) + 8:
-            d.add(_text(px(near) - 3, plot_top - 8, text, fonts, size, color=MUTED, anchor="end"))
-        else:
-            d.add(_text(px(near) + 3, plot_top - 8, "◂ " + text, fonts, size, color=MUTED))
-    d.add(_curves(study, px, py, (left, bottom, pw, ph), fonts))
+    curves, labels = _curves(study, px, py, (left, bottom, pw, ph), fonts)
+    d.add(curves)
     d.add(Rect(left, bottom, pw, ph, fillColor=None, strokeColor=INK, strokeWidth=0.6))
     d.add(_strip(study, px, strip_bottom, strip_h, fonts))
     d.add(_text(left - 3, strip_bottom + strip_h / 2 - 2.2, "group", fonts, 6.5, bold=True, anchor="end"))
@@ -396,6 +391,17 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
         w = stringWidth(text, fonts.bold, 6.5)
         tx = min(max(x - w / 2, left), left + pw - w)
         d.add(_text(tx, strip_top + 2.5, text, fonts, 6.5, bold=True))
+    if near > dmin:  # over the assessment line, which passes behind it
+        d.add(Rect(px(dmin), plot_top + 1.5, px(near) - px(dmin), near_row - 3.5, fillColor=PANEL,
+                   strokeColor=MUTED, strokeWidth=0.4))
+        text = fonts.clean(f"near field, under {near:.0f} mm: approximate")
+        size = 6.2
+        y = plot_top + 2.8
+        if px(near) - px(dmin) >= stringWidth(text, fonts.regular, size) + 8:
+            d.add(_text((px(dmin) + px(near)) / 2, y, text, fonts, size, color=INK, anchor="middle"))
+        else:
+            d.add(_text(px(near) + 3, y, "◂ " + text, fonts, size, color=INK))
+    d.add(labels)
     d.add(_text(left + pw / 2, bottom - 19, "distance from the source [mm] (log scale; 10³ mm = 1 m)", fonts, 7,
                 color=MUTED, anchor="middle"))
     d.add(Group(_text(0, 0, "t_max [s] (log)", fonts, 6.5, color=MUTED, anchor="middle"),
@@ -424,10 +430,10 @@ def _strip(study, px: Callable[[float], float], y: float, h: float, fonts: FontS
 
 
 def _curves(study, px: Callable[[float], float], py: Callable[[float], float],
-            box: tuple[float, float, float, float], fonts: FontSet) -> Group:
-    """Each family's t_max curve (gaps where it is None or off the axis) with its name at the curve's end."""
+            box: tuple[float, float, float, float], fonts: FontSet) -> tuple[Group, Group]:
+    """Each family's t_max curve (gaps where it is None or off the axis), and its name at the curve's end."""
     left, bottom, pw, ph = box
-    g = Group()
+    g, labels = Group(), Group()
     placed: list[tuple[float, float, float, float]] = []
     for family, ts in study.t_max_s.items():
         dash, line_width = FAMILY_LINES.get(family, _FALLBACK_LINE)
@@ -441,12 +447,12 @@ def _curves(study, px: Callable[[float], float], py: Callable[[float], float],
             g.add(PolyLine([c for point in run for c in point], strokeColor=INK, strokeWidth=line_width,
                            **_dash(dash)))
         if runs:
-            g.add(_end_label(family, runs[-1][-1], box, placed, fonts))
-    return g
+            labels.add(_end_label(family, runs[-1][-1], box, placed, fonts))
+    return g, labels
 
 
 def _end_label(family: str, end: tuple[float, float], box: tuple[float, float, float, float],
-               placed: list[tuple[float, float, float, float]], fonts: FontSet) -> String:
+               placed: list[tuple[float, float, float, float]], fonts: FontSet) -> Group:
     """The family's name beside its curve's last point, moved down past labels already placed."""
     left, bottom, pw, ph = box
     size = 6.3
@@ -459,7 +465,8 @@ def _end_label(family: str, end: tuple[float, float], box: tuple[float, float, f
             break
         y = y - size - 1 if y - size - 1 >= bottom + 2 else y + 2 * (size + 1)
     placed.append((x, y, x + w, y + size))
-    return String(x, y, text, fontName=fonts.bold, fontSize=size, fillColor=INK)
+    return Group(Rect(x - 1, y - 1.6, w + 2, size + 1.6, fillColor=colors.white, strokeColor=None),
+                 String(x, y, text, fontName=fonts.bold, fontSize=size, fillColor=INK))
 
 
 def _family_legend(study, x: float, y: float, width: float, fonts: FontSet) -> Group:

@@ -18,11 +18,14 @@ from reports.fonts import FontSet
 from reports.style import INK, MUTED, RULE
 from reports.wording import FOOTER
 
-__all__ = ["PAGE_WIDTH", "PAGE_HEIGHT", "MARGIN", "FRAME_WIDTH", "build_pdf"]
+__all__ = ["PAGE_WIDTH", "PAGE_HEIGHT", "MARGIN", "FRAME_WIDTH", "FRAME_HEIGHT", "build_pdf"]
 
 PAGE_WIDTH, PAGE_HEIGHT = A4
 MARGIN = 14 * mm
 FRAME_WIDTH = PAGE_WIDTH - 2 * MARGIN
+_TOP_MARGIN, _BOTTOM_MARGIN = 12 * mm, 16 * mm
+FRAME_HEIGHT = PAGE_HEIGHT - _TOP_MARGIN - _BOTTOM_MARGIN - 12
+"""Height a page's flowables can fill: the frame less its 6 pt padding at top and bottom [pt]."""
 _FOOTER_Y = 8 * mm
 _HEADER_Y = PAGE_HEIGHT - 8 * mm
 
@@ -88,8 +91,8 @@ def build_pdf(flowables: list[Flowable], fonts: FontSet, title: str, header: str
         The PDF; identical for identical input (reportlab's invariant mode fixes dates and ids).
     """
     buffer = io.BytesIO()
-    doc = SimpleDocTemplate(buffer, pagesize=A4, leftMargin=MARGIN, rightMargin=MARGIN, topMargin=12 * mm,
-                            bottomMargin=16 * mm, title=title, author=author, creator=author,
+    doc = SimpleDocTemplate(buffer, pagesize=A4, leftMargin=MARGIN, rightMargin=MARGIN, topMargin=_TOP_MARGIN,
+                            bottomMargin=_BOTTOM_MARGIN, title=title, author=author, creator=author,
                             subject="Photobiological safety pre-screen", invariant=1)
     doc.build(flowables, canvasmaker=partial(_FramedCanvas, fonts=fonts, header=header))
     return buffer.getvalue()

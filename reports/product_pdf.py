@@ -12,15 +12,15 @@ import datetime
 from collections.abc import Callable
 
 from reportlab.pdfbase.pdfmetrics import stringWidth
-from reportlab.platypus import CondPageBreak, Flowable, KeepTogether, PageBreak, Spacer, Table
+from reportlab.platypus import CondPageBreak, Flowable, KeepInFrame, KeepTogether, PageBreak, Spacer, Table
 
 from hazard.formatting import UNIT_DISPLAY, format_duration_s, format_limit, format_margin, format_value
 from hazard.result import Assessment, HazardResult
 from reports.charts import margin_chart, spectrum_chart
 from reports.fonts import report_fonts
-from reports.layout import FRAME_WIDTH, build_pdf
+from reports.layout import FRAME_HEIGHT, FRAME_WIDTH, build_pdf
 from reports.ranking import tightest_margin
-from reports.studies import distance_summary, has_studies, remedy_summary, studies_section, uncertainty_summary
+from reports.studies import has_studies, studies_section, study_summary, uncertainty_summary
 from reports.style import HAIRLINE, INK, PANEL, Styles, fit_widths, group_fill, group_ink, table_style
 from reports.timestamp import format_report_time, report_time
 from reports.wording import GROUP_MEANING, GROUP_NAME, LOWER_BOUND, LOWER_BOUND_MEANING
@@ -95,7 +95,21 @@ def _deciding(a: Assessment) -> tuple[str, str]:
     return "Decided by:", "; ".join(parts)
 
 
-def _verdict(a: Assessment, st: Styles) -> Flowable:
+class _PageMark(Flowable):
+    """An invisible flowable that notes the page it lands on in ``marks[key]``."""
+
+    def __init__(self, marks: dict[str, int], key: str) -> None:
+        super().__init__()
+        self.marks, self.key = marks, key
+
+    def wrap(self, available_width: float, available_height: float) -> tuple[float, float]:
+        return 0, 0
+
+    def draw(self) -> None:
+        self.marks[self.key] = self.canv.getPageNumber()
+
+
+def _verdict(a: Assessment, st: Styles, studies_page: int) -> Flowable:
     group = a.risk_group
     size = min(st.verdict.fontSize, 80 / stringWidth(group, st.fonts.bold, 1))
     label_style = st.verdict.clone("verdict_group", textColor=group_ink(group), fontSize=size, leading=size * 1.15)
@@ -109,7 +123,7 @@ def _verdict(a: Assessment, st: Styles) -> Flowable:
     if a.uncertainty is not None:
         if a.uncertainty.verdict == "borderline":
             label.append(st.p("BORDERLINE", st.head.clone("bl", alignment=1, textColor=group_ink(group))))
-        text.append(st.bold_lead(*uncertainty_summary(a), st.small))
+        text.append(st.bold_lead(*uncertainty_summary(a, studies_page), st.small))
     table = Table([[label, text]], colWidths=[96, FRAME_WIDTH - 96])
     table.setStyle([("BACKGROUND", (0, 0), (0, 0), group_fill(group)), ("BOX", (0, 0), (0, 0), 1.2, INK),
                     ("VALIGN", (0, 0), (0, 0), "MIDDLE"), ("VALIGN", (1, 0), (1, 0), "TOP"),
@@ -185,7 +199,7 @@ def _key_values(rows: list[tuple[str, str]], st: Styles, key_width: float = 104)
     return table
 
 
-def _geometry(a: Assessment, st: Styles) -> Flowable:
+def _geometry(a: Assessment, st: Styles, studies_page: int) -> Flowable:
     g, ph = a.geometry, a.photometry
     source = (f"largest dimension {g.largest_dimension_mm:g} mm; α = {format_value(g.alpha_rad)} rad at the "
               f"assessment distance; Ω_s = {format_value(g.source_solid_angle_sr)} sr")
@@ -212,10 +226,8 @@ def _geometry(a: Assessment, st: Styles) -> Flowable:
         cells.append(("Scaling", _scaling(a)))
     if a.claims:
         cells.append(("Vendor claims", _claims_summary(a)))
-    if a.distances is not None:
-        cells.append(("Distances", distance_summary(a)))
-    if a.remedies is not None and (remedy := remedy_summary(a)) is not None:
-        cells.append(("To go lower", remedy))
+    if a.distances is not None or a.remedies is not None:
+        cells.append(("Studies", study_summary(a, studies_page)))
     cells += [("Warning", warning) for warning in a.warnings]
     return _key_values(cells, st, key_width=64)
 
@@ -256,10 +268,10 @@ def _charts(a: Assessment, st: Styles) -> list[Flowable]:
     chart_note = " ".join((["Diamond: the value (arrow: beyond the axis). Coinciding limits (e.g. Exempt and RG1 "
                             "of L_R) leave no zone between them. E_H has no risk groups."] if drawn else [])
                           + ([f"Not assessed, so not drawn: {', '.join(missing)}."] if missing else []))
-    return [KeepTogether([st.p("Spectrum and action spectra", st.h2),
-                          spectrum_chart(a, FRAME_WIDTH, 106, fonts), st.p(peak, st.caption)]),
-            KeepTogether([st.p("Distance to the group boundaries", st.h2), margin_chart(a, FRAME_WIDTH, fonts),
-                          st.p(chart_note, st.caption)])]
+    return [st.p("Spectrum and action spectra", st.h2), spectrum_chart(a, FRAME_WIDTH, 106, fonts),
+            st.p(peak, st.caption),
+            st.p("Distance to the group boundaries", st.h2), margin_chart(a, FRAME_WIDTH, fonts),
+            st.p(chart_note, st.caption)]
 
 
 def _record_table(a: Assessment, st: Styles) -> Flowable:
@@ -412,20 +424,58 @@ def render_assessment_pdf(assessment: Assessment, rendered_at: datetime.datetime
     fonts = report_fonts()
     st = Styles(fonts)
     a = assessment
-    story: list[Flowable] = [
-        _heading(a, st, moment), Spacer(1, 5), _verdict(a, st), Spacer(1, 4), _cautions(a, st),
-        st.p("Hazards at the assessment distance", st.h2), _hazard_table(a, st), Spacer(1, 2),
-        _hazard_caption(st), Spacer(1, 4), _geometry(a, st), *_charts(a, st),
-        PageBreak(),
-        *_inputs(a, st), *_claims_table(a, st),
-        st.p("Hazard details (each triple: Exempt / RG1 / RG2)", st.h2), _detail_table(a, st),
-        st.p("Warnings and assumptions", st.h2), *_notes(a, st),
-        *_method(a, st),
-        *([PageBreak(), *studies_section(a, st)] if has_studies(a) else []),
-        CondPageBreak(60), st.p("Cautions", st.h2), *_bullets(a.cautions, st),
-    ]
     title = f"{a.id} — photobiological safety pre-screen ({a.risk_group})"
     borderline = a.uncertainty is not None and a.uncertainty.verdict == "borderline"
     header = f"{a.id}{' — ' + a.name if a.name else ''} · overall {a.risk_group}" + (
         "" if a.complete else " (lower bound)") + (" (borderline)" if borderline else "")
-    return build_pdf(story, fonts, title=title, header=header, author=f"hazard {a.provenance.tool_version}")
+    studies_page = 3  # page 1 names the page the studies start on: a second pass when page 2 ran over
+    for _ in range(2):
+        marks: dict[str, int] = {}
+        pdf = build_pdf(_story(a, st, moment, studies_page, marks), fonts, title=title, header=header,
+                        author=f"hazard {a.provenance.tool_version}")
+        if marks.get("studies", studies_page) == studies_page:
+            break
+        studies_page = marks["studies"]
+    return pdf
+
+
+_LEAST_SCALE = 0.88
+"""Pages 2 and 3 are shrunk to fit their page down to this scale; longer, they run onto the next page."""
+
+
+def _fit_page(content: list[Flowable], least_scale: float = 0.0) -> list[Flowable]:
+    """``content`` on one page, shrunk when it runs long, unless that needs a scale below ``least_scale``
+    (then as it is, to flow on)."""
+    height = sum(f.wrap(FRAME_WIDTH, FRAME_HEIGHT)[1] + f.getSpaceBefore() + f.getSpaceAfter() for f in content)
+    if least_scale and height * least_scale > FRAME_HEIGHT:
+        return content
+    return [KeepInFrame(FRAME_WIDTH, FRAME_HEIGHT, content, mode="shrink")]
+
+
+def _story(a: Assessment, st: Styles, moment: datetime.datetime, studies_page: int, marks: dict[str, int]
+           ) -> list[Flowable]:
+    """The report's flowables. Page 1 is shrunk to fit its page when its content runs long; pages 2 and 3 (the
+    studies, then the cautions) only slightly, beyond that they run on."""
+    first_page = [
+        _heading(a, st, moment), Spacer(1, 5), _verdict(a, st, studies_page), Spacer(1, 4), _cautions(a, st),
+        st.p("Hazards at the assessment distance", st.h2), _hazard_table(a, st), Spacer(1, 2),
+        _hazard_caption(st), Spacer(1, 4), _geometry(a, st, studies_page), *_charts(a, st),
+    ]
+    blocks = studies_section(a, st) if has_studies(a) else []
+    second_page = [
+        *_inputs(a, st), *_claims_table(a, st),
+        st.p("Hazard details (each triple: Exempt / RG1 / RG2)", st.h2), _detail_table(a, st),
+        st.p("Warnings and assumptions", st.h2), *_notes(a, st),
+        *_method(a, st),
+    ]
+    cautions = [st.p("Cautions", st.h2), *_bullets(a.cautions, st)]
+    if not blocks:
+        return [*_fit_page(first_page), PageBreak(),
+                *_fit_page([*second_page, CondPageBreak(60), *cautions], _LEAST_SCALE)]
+    third_page = [f for block in blocks for f in block] + cautions
+    fitted = _fit_page(third_page, _LEAST_SCALE)
+    if len(fitted) != 1:  # too long for one page: let it run on, each block kept together
+        fitted = [KeepTogether(block) if len(block) > 1 else block[0] for block in blocks]
+        fitted += [CondPageBreak(60), *cautions]
+    return [*_fit_page(first_page), PageBreak(), *_fit_page(second_page, _LEAST_SCALE), PageBreak(),
+            _PageMark(marks, "studies"), *fitted]

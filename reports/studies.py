@@ -9,7 +9,7 @@ formats them (and picks which family member's unit to print). Numbers follow the
 from __future__ import annotations
 
 from reportlab.pdfbase.pdfmetrics import stringWidth
-from reportlab.platypus import Flowable, KeepTogether, Spacer, Table
+from reportlab.platypus import Flowable, Spacer, Table
 
 from hazard.formatting import UNIT_DISPLAY, format_value
 from hazard.hazards import DEFAULT_LIMIT_SET
@@ -18,8 +18,8 @@ from reports.charts import distance_chart
 from reports.layout import FRAME_WIDTH
 from reports.style import INK, Styles, group_fill, group_ink, table_style
 
-__all__ = ["SECTION_TITLE", "has_studies", "beyond", "distance_summary", "uncertainty_summary",
-           "remedy_summary", "dimming_text", "area_text", "studies_section"]
+__all__ = ["SECTION_TITLE", "has_studies", "beyond", "study_summary", "uncertainty_summary", "dimming_text",
+           "area_text", "studies_section"]
 
 SECTION_TITLE = "Distance, uncertainty and remedies"
 _BOUNDARIES = ("Exempt", "RG1", "RG2")
@@ -73,14 +73,18 @@ def dimming_text(factor: float | None) -> str:
 
 
 def area_text(factor: float | None) -> str:
-    """An area factor as an instruction: ``'enlarge emitting area ×836'``; an em dash when there is none.
+    """An area factor as an instruction, three significant digits: ``'enlarge emitting area ×836'``; an em
+    dash when there is none.
 
     Examples
     --------
-    >>> area_text(835.56), area_text(None)
-    ('enlarge emitting area ×836', '—')
+    >>> area_text(835.56), area_text(8069.6), area_text(1.41421), area_text(None)
+    ('enlarge emitting area ×836', 'enlarge emitting area ×8070', 'enlarge emitting area ×1.41', '—')
     """
-    return "—" if factor is None else f"enlarge emitting area ×{factor:.3g}"
+    if factor is None:
+        return "—"
+    shown = f"{factor:.3g}" if factor < 1000 else f"{float(f'{factor:.3g}'):.0f}"
+    return f"enlarge emitting area ×{shown}"
 
 
 def _member(a: Assessment, family: str) -> str | None:
@@ -102,37 +106,38 @@ def _group_range(low: str | None, high: str | None) -> str:
     return (low or high) if low == high else f"{low} to {high}"
 
 
-def distance_summary(a: Assessment) -> str:
-    """One line for page 1: the minimum distance per group, and where values are approximate."""
-    s = a.distances
+def study_summary(a: Assessment, page: int) -> str:
+    """One line for page 1: the product's minimum distance per group and the dimming that makes it Exempt;
+    ``page`` is where the section starts."""
     parts = []
-    for group in _BOUNDARIES:
-        distance = s.minimum_distance_mm.get(group)
-        phrase = f"{group}" if group == "Exempt" else f"{group} or lower"
-        parts.append(f"{phrase} {'beyond ' if distance else ''}{beyond(distance, s)}")
-    return "; ".join(parts) + f" (nearer than {s.near_field_below_mm:.0f} mm approximate) — page 3"
+    s = a.distances
+    if s is not None:
+        distances = []
+        for group in _BOUNDARIES:
+            distance = s.minimum_distance_mm.get(group)
+            distances.append(f"{group} {'beyond ' if distance else ''}{beyond(distance, s, metres=False)}")
+        parts.append(", ".join(distances))
+    exempt = [r for r in _product_remedies(a) if r.group == "Exempt"] if a.remedies is not None else []
+    if exempt and exempt[0].dimming_factor is not None:
+        parts.append(f"Exempt at {exempt[0].dimming_factor * 100:.3g} % of today's output")
+    return "; ".join(parts) + f" — page {page}"
 
 
-def uncertainty_summary(a: Assessment) -> tuple[str, str]:
-    """Lead-in and text for page 1: the verdict in capitals and the study's note."""
+def uncertainty_summary(a: Assessment, page: int) -> tuple[str, str]:
+    """Lead-in and text for page 1: the verdict in capitals and the study's note; ``page`` is where the
+    section starts."""
     u = a.uncertainty
-    return "Within the stated uncertainty:", f"{u.verdict.upper()} — {u.note} (page 3)"
+    return "Uncertainty:", f"{u.verdict.upper()} — {u.note} (page {page})"
 
 
 def _product_remedies(a: Assessment) -> list[Remedy]:
     return [r for r in a.remedies.remedies if r.target == "product"]
 
 
-def remedy_summary(a: Assessment) -> str | None:
-    """One line for page 1: what dimming the whole product would take for each lower group."""
-    found = [f"{r.group}: {dimming_text(r.dimming_factor)}" for r in _product_remedies(a)]
-    return None if not found else "; ".join(found) + " — page 3"
-
-
 def _distance_table(a: Assessment, st: Styles) -> Flowable:
     s = a.distances
     near = s.near_field_below_mm
-    head = ["Beyond this distance the hazard is in the group or lower", "Exempt", "RG1", "RG2"]
+    head = ["Beyond: in the group or lower", "Exempt", "RG1", "RG2"]
     rows = [[st.p(h, st.head) for h in head]]
 
     def cell(distance: float | None, criterion: str | None, note: str | None, style) -> Flowable:
@@ -145,7 +150,7 @@ def _distance_table(a: Assessment, st: Styles) -> Flowable:
             text += " *"
         return st.p(text, style)
 
-    rows.append([st.p("Whole product (minimum distance)", st.cell_bold)]
+    rows.append([st.p("Whole product", st.cell_bold)]
                 + [cell(s.minimum_distance_mm.get(g), None, None, st.cell_bold) for g in _BOUNDARIES])
     by_family: dict[str, dict[str, object]] = {}
     for b in s.boundaries:
@@ -160,17 +165,21 @@ def _distance_table(a: Assessment, st: Styles) -> Flowable:
             criterion = b.criterion if b.criterion and b.criterion != family else None
             cells.append(cell(b.distance_mm, criterion, None if b.distance_mm is not None else b.note, st.cell))
         rows.append([st.p(family, st.cell_bold)] + cells)
-    first = 150.0
+    first = max(_bold_width(label, st) for label in ["Whole product", *by_family])
     table = Table(rows, colWidths=[first] + [(FRAME_WIDTH - first) / 3] * 3, repeatRows=1)
     table.setStyle(table_style(extra=[("LINEBELOW", (0, 1), (-1, 1), 0.6, INK)]))
     return table
 
 
+def _bold_width(text: str, st: Styles) -> float:
+    """Width of a table cell holding ``text`` in bold on one line [pt]."""
+    return stringWidth(st.fonts.clean(text), st.fonts.bold, st.cell.fontSize) + 7
+
+
 def _uncertainty_block(a: Assessment, st: Styles) -> list[Flowable]:
     u = a.uncertainty
     shift = f"{u.wavelength_uncertainty_nm:g} nm"
-    head = ["Hazard family", "Lowest value", "Highest value", f"λ scale −{shift}", f"λ scale +{shift}", "Unit",
-            "Group within the uncertainty"]
+    head = ["Hazard family", "Lowest – highest value", f"λ −{shift} / +{shift}", "Unit", "Group within it"]
     rows = [[st.p(h, st.head) for h in head]]
     extra = []
     for i, h in enumerate(u.hazards, start=1):
@@ -179,11 +188,11 @@ def _uncertainty_block(a: Assessment, st: Styles) -> list[Flowable]:
         changes = h.group_low != h.group_high
         group_text = _group_range(h.group_low, h.group_high) + (" (changes)" if changes else "")
         rows.append([st.p(_family_label(a, h.family), st.cell_bold),
-                     *(st.p(format_value(v), st.cell) for v in (h.value_low, h.value_high, h.value_shift_minus,
-                                                                 h.value_shift_plus)),
+                     st.p(f"{format_value(h.value_low)} – {format_value(h.value_high)}", st.cell),
+                     st.p(f"{format_value(h.value_shift_minus)} / {format_value(h.value_shift_plus)}", st.cell),
                      st.p(UNIT_DISPLAY.get(unit, unit) or "—", st.cell),
                      st.p(group_text, st.cell_bold if changes else st.cell)])
-    widths = [92, 58, 58, 58, 58, 50, 0]
+    widths = [100, 100, 100, 56, 0]
     widths[-1] = FRAME_WIDTH - sum(widths)
     table = Table(rows, colWidths=widths, repeatRows=1)
     table.setStyle(table_style(extra=extra))
@@ -192,10 +201,9 @@ def _uncertainty_block(a: Assessment, st: Styles) -> list[Flowable]:
                    markup=f"<b>{u.verdict.upper()}</b>")
     return [st.p(f"Within the measurement uncertainty (±{u.uncertainty_pct:g} % scale, k = 2; ±{shift} "
                  f"wavelength)", st.h3), verdict, Spacer(1, 2), table, Spacer(1, 2),
-            st.p("Each family re-assessed with the spectrum scaled by 1 ± the uncertainty and its wavelength "
-                 "scale shifted by ± the stated amount (nine variants); lowest and highest over them. Radiance "
-                 "families: the source's own radiance, as in the hazard table. BORDERLINE: the overall group "
-                 "differs between variants; ROBUST: it does not.", st.caption)]
+            st.p("Nine variants: the spectrum scaled by 1 ± the uncertainty, its wavelength scale shifted by ± the "
+                 "stated amount; λ columns: the shifts alone. Radiance: the source's own, as in the hazard table. "
+                 "BORDERLINE: the overall group differs between variants; ROBUST: it does not.", st.caption)]
 
 
 def _remedies_block(a: Assessment, st: Styles) -> list[Flowable]:
@@ -203,10 +211,16 @@ def _remedies_block(a: Assessment, st: Styles) -> list[Flowable]:
     head = ["Target", "Now", "To reach", "Dimming (or a neutral filter)", "Diffuser (same power)"]
     rows = [[st.p(h, st.head) for h in head]]
     extra = []
-    ordered = _product_remedies(a) + [x for x in r.remedies if x.target != "product"]
-    for i, x in enumerate(ordered, start=1):
+    product = _product_remedies(a)
+    same = {(x.group, x.dimming_factor, x.area_factor): x.target for x in r.remedies if x.target != "product"}
+    families = [x for x in r.remedies if x.target != "product"
+                and not any((p.group, p.dimming_factor, p.area_factor) == (x.group, x.dimming_factor, x.area_factor)
+                            for p in product)]
+    for i, x in enumerate(product + families, start=1):
         if x.target == "product":
             target, now = "Whole product", a.risk_group
+            if (x.group, x.dimming_factor, x.area_factor) in same:
+                target += f" (as {same[(x.group, x.dimming_factor, x.area_factor)]})"
         else:
             member = _member(a, x.target)
             target = _family_label(a, x.target)
@@ -219,8 +233,9 @@ def _remedies_block(a: Assessment, st: Styles) -> list[Flowable]:
     if len(rows) == 1:
         rows.append([st.p("Nothing to remedy: the product is already Exempt.", st.cell)] + [""] * 4)
         extra.append(("SPAN", (0, 1), (-1, 1)))
-    group_w = stringWidth("Exempt", st.fonts.bold, st.cell.fontSize) + 8
-    widths = [104, group_w, group_w, 0, 140]
+    group_w = _bold_width("Exempt", st)
+    target_w = max(_bold_width(row[0].text, st) for row in rows)
+    widths = [target_w, group_w, group_w, 0, 140]
     widths[3] = FRAME_WIDTH - sum(widths)
     table = Table(rows, colWidths=widths, repeatRows=1)
     table.setStyle(table_style(extra=extra))
@@ -229,16 +244,15 @@ def _remedies_block(a: Assessment, st: Styles) -> list[Flowable]:
     for symbol, found in r.uv_bands.items():
         if found:
             top = ", ".join(f"{b.band_nm[0]:g}–{b.band_nm[1]:g} nm ({b.share:.0%})" for b in found[:3])
-            bands.append(st.bold_lead(f"{symbol} comes mostly from", top, st.small))
-    if bands:
-        out += [st.p("Dominant UV bands (5 nm bands, share of the total at the assessment distance)", st.cell_bold),
-                *bands, Spacer(1, 2)]
-    out.append(st.p(f"{r.note} Diffuser: enlarge the emitting area at the same power, which lowers the radiance "
-                    f"hazards only (—: not applicable to this target, or not reachable).", st.caption))
+            bands.append(st.bold_lead(f"{symbol} comes mostly from", top + " (5 nm bands, share of the total)",
+                                      st.small))
+    out += bands + [Spacer(1, 2)] if bands else []
+    out.append(st.p(f"{r.note} A diffuser lowers the radiance hazards only (—: not applicable to this target, or "
+                    f"not reachable).", st.caption))
     return out
 
 
-def studies_section(a: Assessment, st: Styles) -> list[Flowable]:
+def studies_section(a: Assessment, st: Styles) -> list[list[Flowable]]:
     """The section "Distance, uncertainty and remedies": whichever of the three studies the result holds.
 
     Parameters
@@ -249,33 +263,34 @@ def studies_section(a: Assessment, st: Styles) -> list[Flowable]:
 
     Returns
     -------
-    list of Flowable
+    list of list of Flowable
+        Blocks to keep together when the section runs over a page (the distance table may split).
     """
-    out: list[Flowable] = [st.p(SECTION_TITLE, st.h2.clone("h2_top", spaceBefore=0))]
     missing = [name for name, study in (("hazard distances", a.distances), ("measurement uncertainty",
                                                                              a.uncertainty),
                                         ("remedies", a.remedies)) if study is None]
-    intro = ("Each figure below is the product re-assessed by the tool (same spectrum and geometry) at other "
-             "distances, within the stated uncertainty, or dimmed and diffused; this report only prints them.")
+    intro = ("The product re-assessed by the tool (same spectrum and geometry) across distance, within the stated "
+             "uncertainty, and dimmed or diffused; this report only prints the results.")
     if missing:
         intro += f" Not in this result: {', '.join(missing)}."
-    out.append(st.p(intro, st.caption))
+    blocks: list[list[Flowable]] = [[st.p(SECTION_TITLE, st.h2.clone("h2_top", spaceBefore=0)),
+                                     st.p(intro, st.caption)]]
     if a.distances is not None:
         s = a.distances
-        chart = distance_chart(a, FRAME_WIDTH, 230, st.fonts)
+        chart = distance_chart(a, FRAME_WIDTH, 190, st.fonts)
         caption = (f"Top strip: the overall group at each distance (text labels). Curves: t_max, the time to "
                    f"each exposure limit, per hazard family; a gap where the limit is not reached within its "
                    f"time range. Vertical line and triangle: the assessment distance. Shaded: the near field, "
                    f"under {s.near_field_below_mm:.0f} mm (five source sizes), where inverse-square values "
                    f"are approximate.")
-        out += [KeepTogether([st.p("Group and t_max against distance", st.h3), chart, st.p(caption, st.caption)]),
-                Spacer(1, 4), _distance_table(a, st), Spacer(1, 2),
-                st.p(f"* nearer than {s.near_field_below_mm:.0f} mm: approximate (near field). \"by L_B\": the "
-                     f"family member that applies at that distance. A distance in words: the boundary is not "
-                     f"crossed between {s.distance_mm[0]:.0f} mm and {s.distance_mm[-1] / 1000:g} m.",
-                     st.caption)]
+        blocks += [[st.p("Group and t_max against distance", st.h3), chart, st.p(caption, st.caption)],
+                   [Spacer(1, 4)], [_distance_table(a, st)],
+                   [Spacer(1, 2), st.p(f"* nearer than {s.near_field_below_mm:.0f} mm: approximate (near field). "
+                                       f"\"by L_B\": the family member that applies there. Studied from "
+                                       f"{s.distance_mm[0]:.0f} mm to {s.distance_mm[-1] / 1000:g} m.",
+                                       st.caption)]]
     if a.uncertainty is not None:
-        out.append(KeepTogether(_uncertainty_block(a, st)))
+        blocks.append(_uncertainty_block(a, st))
     if a.remedies is not None:
-        out.append(KeepTogether(_remedies_block(a, st)))
-    return out
+        blocks.append(_remedies_block(a, st))
+    return blocks

@@ -7,7 +7,6 @@ unit conversion happen afterwards, once for every format (:mod:`hazard.spectrum`
 
 from __future__ import annotations
 
-import hashlib
 from pathlib import Path
 
 from hazard.readers.common import Limits, RawSpectrum, current_limits
@@ -38,11 +37,10 @@ def read_spectrum(path: str, *, display_path: str, column: str | int | None = No
     Returns
     -------
     tuple of (RawSpectrum, dict)
-        The numbers as read, and metadata (including ``sha256`` of the file's bytes and ``format``).
+        The numbers as read, and metadata (including ``sha256`` of the file's bytes, which every reader
+        records from the bytes it read, and ``format``).
     """
     reader = _BY_SUFFIX.get(Path(path).suffix.lower(), read_delimited)
     spectrum, metadata = reader(path, display_path=display_path, column=column, limits=limits)
-    with open(path, "rb") as handle:
-        metadata["sha256"] = hashlib.sha256(handle.read()).hexdigest()
     metadata["format"] = reader.__name__.removeprefix("read_")
     return spectrum, metadata

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import hashlib
 import os
 from dataclasses import dataclass, field
 
@@ -9,7 +10,7 @@ import numpy as np
 
 from hazard.errors import InputError
 
-__all__ = ["RawSpectrum", "Limits", "current_limits", "check_size", "decode_text"]
+__all__ = ["RawSpectrum", "Limits", "current_limits", "check_size", "read_bytes", "decode_text"]
 
 
 @dataclass(frozen=True)
@@ -77,6 +78,14 @@ def check_size(path: str, display_path: str, limits: Limits) -> int:
         raise InputError("no data rows: the file is empty", "export the spectrum again: wavelength in nm, then "
                          "the value", display_path)
     return size
+
+
+def read_bytes(path: str, display_path: str, limits: Limits) -> tuple[bytes, str]:
+    """The file's bytes and their SHA-256, after :func:`check_size`."""
+    check_size(path, display_path, limits)
+    with open(path, "rb") as handle:
+        raw = handle.read()
+    return raw, hashlib.sha256(raw).hexdigest()
 
 
 def decode_text(raw: bytes, display_path: str) -> str:

@@ -16,7 +16,7 @@ import re
 import numpy as np
 
 from hazard.errors import InputError
-from hazard.readers.common import Limits, RawSpectrum, check_size, current_limits, decode_text
+from hazard.readers.common import Limits, RawSpectrum, current_limits, decode_text, read_bytes
 from hazard.readers.headers import choose_value_column, header_unit, wavelength_scale
 
 __all__ = ["read_delimited"]
@@ -82,23 +82,32 @@ def _careful(lines: list[str], start: int, delimiter: str | None, decimal_comma:
     return np.array(rows, dtype=float).reshape(-1, width), np.array(numbers, dtype=int)
 
 
-def _fast(lines: list[str], start: int, delimiter: str | None, decimal_comma: bool, width: int):
-    """numpy's C parser over a clean body (no blank or comment lines inside); None when it cannot."""
-    body = lines[start:]
-    while body and not body[-1].strip():
-        body = body[:-1]
-    if any(not line.strip() or line.lstrip().startswith("#") for line in body):
-        return None
-    text = "\n".join(body)
+def _lines_from(text: str):
+    """Lines of ``text`` one at a time, without splitting the whole (possibly large) file."""
+    position = 0
+    while position <= len(text):
+        end = text.find("\n", position)
+        if end < 0:
+            yield text[position:]
+            return
+        yield text[position:end]
+        position = end + 1
+
+
+def _fast(body: str, start: int, delimiter: str | None, decimal_comma: bool, width: int):
+    """numpy's C parser over the body; None when it fails or when the body holds blank or comment lines
+    (then each row's line number is not its position, and the careful pass takes over)."""
+    body = body.rstrip()
     if decimal_comma:
-        text = text.replace(",", ".")
+        body = body.replace(",", ".")
     try:
-        table = np.loadtxt(io.StringIO(text), delimiter=delimiter, ndmin=2, dtype=float, quotechar='"')
+        table = np.loadtxt(io.StringIO(body), delimiter=delimiter, ndmin=2, dtype=float, quotechar='"',
+                           comments=None)
     except ValueError:
         return None
-    if table.shape[1] != width:
+    if table.shape[1] != width or table.shape[0] != body.count("\n") + 1:
         return None
-    return table, np.arange(start + 1, start + 1 + len(body))
+    return table, np.arange(start + 1, start + 1 + table.shape[0])
 
 
 def read_delimited(path: str, *, display_path: str, column: str | int | None = None,
@@ -120,25 +129,26 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
     -------
     tuple of (RawSpectrum, dict)
         The numbers, and metadata: ``header``, ``value_column``, ``comments``, ``metadata`` (key → value
-        from lines before the table), ``delimiter``, ``decimal_comma``, ``sha256`` is added by the caller.
+        from lines before the table), ``delimiter``, ``decimal_comma``, ``sha256``.
 
     Raises
     ------
     InputError
     """
     limits = limits or current_limits()
-    check_size(path, display_path, limits)
-    with open(path, "rb") as handle:
-        raw = handle.read()
+    raw, digest = read_bytes(path, display_path, limits)
     if raw.count(b"\n") > limits.max_rows + 1000:
         raise InputError(f"more than {limits.max_rows:,} rows", "resample the spectrum to a coarser grid",
                          display_path)
     text = decode_text(raw, display_path)
-    lines = text.splitlines()
+    if "\r" in text:
+        text = text.replace("\r\n", "\n").replace("\r", "\n")
     comments: list[str] = []
     preamble: list[tuple[int, str]] = []
     start = None
-    for index, line in enumerate(lines):
+    offset = 0
+    for index, line in enumerate(_lines_from(text)):
+        line_start, offset = offset, offset + len(line) + 1
         stripped = line.strip()
         if not stripped:
             continue
@@ -154,6 +164,7 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
             start = index
             break
         preamble.append((index + 1, stripped))
+    body_offset = line_start
     if start is None:
         raise InputError("no data rows", "give two columns: wavelength in nm, then the spectral value",
                          display_path)
@@ -171,9 +182,9 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
             preamble = preamble[:-1]
     metadata = dict(item for _, line in preamble if (item := _metadata_item(line)) is not None)
     value_index = choose_value_column(header, width, column, display_path)
-    parsed = _fast(lines, start, delimiter, decimal_comma, width)
-    table, numbers = parsed if parsed is not None else _careful(lines, start, delimiter, decimal_comma, width,
-                                                                display_path)
+    parsed = _fast(text[body_offset:], start, delimiter, decimal_comma, width)
+    table, numbers = parsed if parsed is not None else _careful(text.split("\n"), start, delimiter, decimal_comma,
+                                                                width, display_path)
     if table.shape[0] > limits.max_rows:
         raise InputError(f"{table.shape[0]:,} rows, above the {limits.max_rows:,} limit",
                          "resample the spectrum to a coarser grid", display_path)
@@ -189,5 +200,5 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
                            path=display_path, unit=unit, warnings=tuple(warnings))
     info = {"header": header, "value_column": header[value_index] if header else value_index,
             "comments": comments, "metadata": metadata, "delimiter": delimiter or "whitespace",
-            "decimal_comma": decimal_comma}
+            "decimal_comma": decimal_comma, "sha256": digest}
     return spectrum, info

@@ -8,7 +8,7 @@ import json
 import numpy as np
 
 from hazard.errors import InputError
-from hazard.readers.common import Limits, RawSpectrum, check_size, current_limits, decode_text
+from hazard.readers.common import Limits, RawSpectrum, current_limits, decode_text, read_bytes
 
 __all__ = ["read_json"]
 
@@ -45,9 +45,8 @@ def read_json(path: str, *, display_path: str, column: str | int | None = None,
     """Read a JSON spectrum; see :func:`hazard.readers.delimited.read_delimited`. Entry numbers stand in
     for line numbers in messages."""
     limits = limits or current_limits()
-    check_size(path, display_path, limits)
-    with open(path, "rb") as handle:
-        text = decode_text(handle.read(), display_path)
+    raw, digest = read_bytes(path, display_path, limits)
+    text = decode_text(raw, display_path)
     try:
         data = json.loads(text)
     except json.JSONDecodeError as exc:
@@ -64,4 +63,5 @@ def read_json(path: str, *, display_path: str, column: str | int | None = None,
                                  "value", display_path)
     spectrum = RawSpectrum(np.array(wavelength, dtype=float), np.array(value, dtype=float), numbers, display_path,
                            unit)
-    return spectrum, {"header": None, "value_column": column or "value", "comments": [], "metadata": meta}
+    return spectrum, {"header": None, "value_column": column or "value", "comments": [], "metadata": meta,
+                      "sha256": digest}

@@ -6,7 +6,7 @@ from __future__ import annotations
 import numpy as np
 
 from hazard.errors import InputError
-from hazard.readers.common import Limits, RawSpectrum, check_size, current_limits
+from hazard.readers.common import Limits, RawSpectrum, current_limits, read_bytes
 from hazard.readers.headers import choose_value_column, header_unit, wavelength_scale
 
 __all__ = ["read_xlsx"]
@@ -22,7 +22,7 @@ def read_xlsx(path: str, *, display_path: str, column: str | int | None = None,
     import openpyxl
 
     limits = limits or current_limits()
-    check_size(path, display_path, limits)
+    _, digest = read_bytes(path, display_path, limits)
     try:
         book = openpyxl.load_workbook(path, read_only=True, data_only=True)
     except Exception as exc:  # noqa: BLE001 - a damaged workbook raises many kinds of error
@@ -69,4 +69,4 @@ def read_xlsx(path: str, *, display_path: str, column: str | int | None = None,
                            lines=np.array(numbers), path=display_path,
                            unit=header_unit(header[value_index]) if header else None)
     return spectrum, {"header": header, "value_column": header[value_index] if header else value_index,
-                      "comments": [], "metadata": metadata, "sheet": sheet.title}
+                      "comments": [], "metadata": metadata, "sheet": sheet.title, "sha256": digest}
