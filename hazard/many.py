@@ -15,7 +15,7 @@ from hazard.engine import BatchEvaluation, evaluate_loaded, evaluate_products
 from hazard.errors import InputError
 from hazard.hazards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
 from hazard.inputs import LoadedProduct, load_product, product_from_record
-from hazard.integrals import CHUNK_ROWS, integrate_matrix
+from hazard.integrals import Integrated, integrate_matrix
 from hazard.record import ProductRecord, load_record, record_from_fields
 from hazard.spectrum import NEGATIVE_TOLERANCE
 from hazard.units import parse_spectral_unit
@@ -58,27 +58,25 @@ def _id_of(item, prepared) -> str:
     return str(item.get("id")) if isinstance(item, dict) else str(getattr(item, "id", item))
 
 
-def _check_spectra(wavelength_nm: np.ndarray, spectra: np.ndarray) -> tuple[list[str | None], np.ndarray]:
-    """Why each row breaks the value rules of method §5 (None where it does not), and which rows hold
-    negatives (to be set to zero); a bad grid raises."""
+def _check_grid(wavelength_nm: np.ndarray, spectra: np.ndarray) -> None:
+    """The common grid must be 1-D, strictly increasing and match the spectra's columns."""
     grid = np.asarray(wavelength_nm, dtype=float)
     if grid.ndim != 1 or spectra.ndim != 2 or spectra.shape[1] != grid.size:
         raise ValueError(f"spectra must be (n, {grid.size}) for a grid of {grid.size} wavelengths, got "
                          f"{spectra.shape}")
     if not np.all(np.diff(grid) > 0):
         raise ValueError("wavelength_nm must be strictly increasing [nm]")
-    reasons: list[str | None] = [None] * spectra.shape[0]
-    has_negatives = np.zeros(spectra.shape[0], dtype=bool)
-    for start in range(0, spectra.shape[0], CHUNK_ROWS):
-        chunk = spectra[start:start + CHUNK_ROWS]
-        peak, lowest = chunk.max(axis=1), chunk.min(axis=1)  # NaN and ±inf show up in one of the two
-        finite = np.isfinite(peak) & np.isfinite(lowest)
-        has_negatives[start:start + chunk.shape[0]] = lowest < 0
-        for i in np.flatnonzero(~finite | (peak <= 0) | (lowest < -NEGATIVE_TOLERANCE * peak)):
-            reasons[start + i] = ("a value is not finite (NaN or infinity)" if not finite[i]
-                                  else "no positive value" if peak[i] <= 0
-                                  else f"negative beyond dark noise ({NEGATIVE_TOLERANCE:.0%} of the peak)")
-    return reasons, has_negatives
+
+
+def _value_problem(peak: float, lowest: float) -> str | None:
+    """Why a spectrum with these extremes breaks the value rules of method §5, or None."""
+    if not (np.isfinite(peak) and np.isfinite(lowest)):
+        return "a value is not finite (NaN or infinity)"
+    if peak <= 0:
+        return "no positive value"
+    if lowest < -NEGATIVE_TOLERANCE * peak:
+        return f"negative beyond dark noise ({NEGATIVE_TOLERANCE:.0%} of the peak)"
+    return None
 
 
 def _distinct(records) -> tuple[list, list[str], np.ndarray]:
@@ -184,28 +182,31 @@ def assess_many(records, wavelength_nm: np.ndarray | None = None, spectra: np.nd
             validated.append(record)
         except InputError as exc:
             validated.append(str(exc))
-    reasons, has_negatives = _check_spectra(wavelength_nm, spectra)
+    _check_grid(wavelength_nm, spectra)
+    is_record = [isinstance(r, ProductRecord) for r in validated]
+    factors = np.array([parse_spectral_unit(r.unit_text).factor_to_si if ok else 1.0
+                        for r, ok in zip(validated, is_record)])[index]
+    flags = np.array([ok and r.no_emission_outside for r, ok in zip(validated, is_record)])[index]
+    integrated, peak, lowest = integrate_matrix(np.asarray(wavelength_nm, dtype=float), spectra, flags, limit_set,
+                                                factors)
+    valid_values = (np.isfinite(peak) & np.isfinite(lowest) & (peak > 0)
+                    & (lowest >= -NEGATIVE_TOLERANCE * np.where(np.isfinite(peak), peak, 0)))
     errors = {}
-    for i, product_id in enumerate(ids):
+    for i in np.flatnonzero(~np.array(is_record)[index] | ~valid_values | (np.array(ids) == "")):
         problem = validated[index[i]]
         if isinstance(problem, str):
-            errors[i] = f"{product_id}: {problem}"
-        elif not product_id:
+            errors[i] = f"{ids[i]}: {problem}"
+        elif not ids[i]:
             errors[i] = f"record {i + 1}: the id is empty; fix: give every product an id"
-        elif reasons[i] is not None:
-            errors[i] = f"{product_id}: {reasons[i]}; fix: correct or remove this spectrum"
+        else:
+            errors[i] = f"{ids[i]}: {_value_problem(peak[i], lowest[i])}; fix: correct or remove this spectrum"
     good = [i for i in range(len(ids)) if i not in errors]
     if not good:
         return _frame(None, ids, good, errors, limit_set)
-    rows = slice(None) if len(good) == len(ids) else np.array(good)
-    usable = [k for k, r in enumerate(validated) if isinstance(r, ProductRecord)]
+    if len(good) < len(ids):
+        integrated = Integrated(integrated.raw[good], integrated.xyz[good], integrated.covered[good])
+    usable = [k for k, ok in enumerate(is_record) if ok]
     renumber = np.full(len(validated), -1)
     renumber[usable] = np.arange(len(usable))
-    kept_records = [validated[k] for k in usable]
-    kept_index = renumber[index[rows]]
-    factors = np.array([parse_spectral_unit(r.unit_text).factor_to_si for r in kept_records])[kept_index]
-    flags = np.array([r.no_emission_outside for r in kept_records])[kept_index]
-    integrated = integrate_matrix(np.asarray(wavelength_nm, dtype=float), spectra[rows], flags, limit_set,
-                                  factors, has_negatives[rows])
-    batch = evaluate_products(kept_records, integrated, limit_set, kept_index)
+    batch = evaluate_products([validated[k] for k in usable], integrated, limit_set, renumber[index[good]])
     return _frame(batch, ids, good, errors, limit_set)

@@ -27,6 +27,7 @@ CCT_DUV_LIMIT = 0.05
 """Beyond this distance from the Planckian locus a CCT is not meaningful (CIE 15:2018, 9.5) [1]."""
 
 
+_CCT_CHUNK = 16384  # rows per call: keeps the (rows × 30 isotherms) temporaries in cache
 CCT_RANGE_K = (1670.0, 100000.0)
 """Range over which a CCT is reported: Robertson's isotherm table starts at 600 MK⁻¹ (1667 K) and clamps
 chromaticities beyond it to that end [K]."""
@@ -80,7 +81,8 @@ def cct_from_xyz(xyz: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray, n
     safe = np.where(ok[:, None], xyz, [[0.95, 1.0, 1.09]])
     xy = colour.XYZ_to_xy(safe)
     uv = colour.xy_to_UCS_uv(xy)
-    cct_duv = colour.temperature.uv_to_CCT(uv, method="Robertson 1968")
+    cct_duv = np.vstack([np.atleast_2d(colour.temperature.uv_to_CCT(uv[k:k + _CCT_CHUNK], method="Robertson 1968"))
+                         for k in range(0, len(uv), _CCT_CHUNK)])
     cct, duv = np.atleast_2d(cct_duv)[:, 0], np.atleast_2d(cct_duv)[:, 1]
     nan = np.full(len(xyz), np.nan)
     in_range = (cct > CCT_RANGE_K[0]) & (cct < CCT_RANGE_K[1])

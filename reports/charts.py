@@ -379,18 +379,19 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
     curves, labels = _curves(study, px, py, (left, bottom, pw, ph), fonts)
     d.add(curves)
     d.add(Rect(left, bottom, pw, ph, fillColor=None, strokeColor=INK, strokeWidth=0.6))
-    d.add(_strip(study, px, strip_bottom, strip_h, fonts))
-    d.add(_text(left - 3, strip_bottom + strip_h / 2 - 2.2, "group", fonts, 6.5, bold=True, anchor="end"))
     at = assessment.assessment_distance_mm
-    if dmin <= at <= dmax:
+    shown = dmin <= at <= dmax
+    text = fonts.clean(f"assessed at {at:.0f} mm")
+    w = stringWidth(text, fonts.bold, 6.5)
+    tx = min(max(px(at) - w / 2, left), left + pw - w)
+    d.add(_strip(study, px, strip_bottom, strip_h, fonts, [(tx, tx + w)] if shown else []))
+    if shown:
         x = px(at)
         d.add(Line(x, bottom, x, strip_top + 1, strokeColor=INK, strokeWidth=1.0))
         d.add(Polygon([x - 3.2, bottom - 0.5, x + 3.2, bottom - 0.5, x, bottom + 4.5], fillColor=INK,
                       strokeColor=None))
-        text = fonts.clean(f"assessed at {at:.0f} mm")
-        w = stringWidth(text, fonts.bold, 6.5)
-        tx = min(max(x - w / 2, left), left + pw - w)
         d.add(_text(tx, strip_top + 2.5, text, fonts, 6.5, bold=True))
+    d.add(_text(left - 3, strip_bottom + strip_h / 2 - 2.2, "group", fonts, 6.5, bold=True, anchor="end"))
     if near > dmin:  # over the assessment line, which passes behind it
         d.add(Rect(px(dmin), plot_top + 1.5, px(near) - px(dmin), near_row - 3.5, fillColor=PANEL,
                    strokeColor=MUTED, strokeWidth=0.4))
@@ -410,8 +411,10 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
     return d
 
 
-def _strip(study, px: Callable[[float], float], y: float, h: float, fonts: FontSet) -> Group:
-    """The overall group at each distance as filled runs, each labelled in text where it has room."""
+def _strip(study, px: Callable[[float], float], y: float, h: float, fonts: FontSet,
+           taken: list[tuple[float, float]]) -> Group:
+    """The overall group at each distance as filled runs, each labelled in text: inside where it has room,
+    else just above the strip, clear of the spans in ``taken`` (x from, x to) already labelled there."""
     g = Group()
     runs = _group_runs(study.distance_mm, study.group, study.minimum_distance_mm)
     for group, start, end in runs:
@@ -422,6 +425,15 @@ def _strip(study, px: Callable[[float], float], y: float, h: float, fonts: FontS
         if w >= stringWidth(label, fonts.bold, size) + 4:
             g.add(_text(x + w / 2, y + h / 2 - 2.5, label, fonts, size, bold=True, color=group_ink(group),
                         anchor="middle"))
+            continue
+        width = stringWidth(label, fonts.bold, 6)
+        lx = x + w / 2 - width / 2
+        for a, b in sorted(taken):
+            if lx < b + 3 and a - 3 < lx + width:
+                lx = a - 3 - width if x + w / 2 < (a + b) / 2 else b + 3
+        taken.append((lx, lx + width))
+        g.add(_text(lx, y + h + 2.5, label, fonts, 6, bold=True))
+        g.add(Line(x + w / 2, y + h, x + w / 2, y + h + 2, strokeColor=INK, strokeWidth=0.5))
     for _, start, _ in runs[1:]:
         g.add(Line(px(start), y, px(start), y + h, strokeColor=INK, strokeWidth=0.7))
     g.add(Rect(px(study.distance_mm[0]), y, px(study.distance_mm[-1]) - px(study.distance_mm[0]), h,
@@ -470,13 +482,9 @@ def _end_label(family: str, end: tuple[float, float], box: tuple[float, float, f
 
 
 def _family_legend(study, x: float, y: float, width: float, fonts: FontSet) -> Group:
-    """One sample line and name per family; a family whose limit is never reached says so."""
-    entries = []
-    for family, ts in study.t_max_s.items():
-        text = family + (" (no groups)" if family == "E_H" else "")
-        if all(t is None for t in ts):
-            text += ": not reached"
-        entries.append((family, fonts.clean(text)))
+    """One sample line and name per family drawn (those whose limit is reached somewhere)."""
+    entries = [(family, fonts.clean(family + (" (no groups)" if family == "E_H" else "")))
+               for family, ts in study.t_max_s.items() if any(t is not None for t in ts)]
     natural = sum(stringWidth(t, fonts.regular, 7) for _, t in entries) + len(entries) * 36
     size = 7 * min(1.0, width / natural)
     g = Group()

@@ -2,8 +2,13 @@
 
 A product's *tightest margin* is the ratio value/limit at the boundary that matters (as
 :func:`hazard.formatting.margin_to_next` defines it) for the deciding hazard closest to the next group up:
-the largest such ratio among ``Assessment.deciding_hazards``. Products rank by overall group, highest first,
-then by that ratio, largest first (least headroom, or furthest over the RG2 limit), then by id.
+the largest such ratio among ``Assessment.deciding_hazards``. Products rank by overall group, highest first;
+within a group the borderline ones first (they are what to send to the laboratory); then by that ratio, largest
+first (least headroom, or furthest over the RG2 limit); then by id.
+
+A product is *borderline* by its uncertainty study when the result holds one (``Assessment.uncertainty``: the
+overall group changes within the stated measurement uncertainty), else by the margin rule of
+:func:`is_borderline`.
 """
 
 from __future__ import annotations
@@ -50,9 +55,11 @@ def tightest_margin(assessment: Assessment) -> Tightest | None:
 
 
 def is_borderline(assessment: Assessment) -> bool:
-    """The tightest hazard lies within :data:`BORDERLINE_FACTOR` of a group boundary, either side.
+    """The overall group could change within the measurement uncertainty.
 
-    The boundaries that can move the hazard's group are its group's upper limit and the limit of the group
+    With an uncertainty study in the result, its verdict decides (``"borderline"``). Without one, the margin
+    rule: the tightest hazard lies within :data:`BORDERLINE_FACTOR` of a group boundary, either side. The
+    boundaries that can move the hazard's group are its group's upper limit and the limit of the group
     below (for RG3 both are the RG2 limit); the hazard is borderline when its ratio value/limit at either
     lies between 1/1.25 = 0.8 and 1.25.
 
@@ -64,6 +71,8 @@ def is_borderline(assessment: Assessment) -> bool:
     -------
     bool
     """
+    if assessment.uncertainty is not None:
+        return assessment.uncertainty.verdict == "borderline"
     tightest = tightest_margin(assessment)
     if tightest is None:
         return False
@@ -74,7 +83,8 @@ def is_borderline(assessment: Assessment) -> bool:
 
 
 def rank_assessments(assessments: list[Assessment]) -> list[Assessment]:
-    """The batch in summary order: highest group first, then least headroom to the next boundary.
+    """The batch in summary order: highest group first, borderline products first within a group, then least
+    headroom to the next boundary.
 
     Parameters
     ----------
@@ -85,8 +95,9 @@ def rank_assessments(assessments: list[Assessment]) -> list[Assessment]:
     list of Assessment
         A new list; products without a tightest margin come last within their group, ties go by id.
     """
-    def key(assessment: Assessment) -> tuple[int, float, str]:
+    def key(assessment: Assessment) -> tuple[int, bool, float, str]:
         tightest = tightest_margin(assessment)
-        return (-GROUPS.index(assessment.risk_group), -(tightest.ratio if tightest else -1.0), assessment.id)
+        return (-GROUPS.index(assessment.risk_group), not is_borderline(assessment),
+                -(tightest.ratio if tightest else -1.0), assessment.id)
 
     return sorted(assessments, key=key)

@@ -113,9 +113,14 @@ def study_summary(a: Assessment, page: int) -> str:
     s = a.distances
     if s is not None:
         distances = []
-        for group in _BOUNDARIES:
+        for group in _BOUNDARIES:  # up to the first group that holds at every distance studied
             distance = s.minimum_distance_mm.get(group)
-            distances.append(f"{group} {'beyond ' if distance else ''}{beyond(distance, s, metres=False)}")
+            name = group if group == "Exempt" else f"{group} or lower"
+            if distance == 0:
+                if not distances:
+                    distances.append(f"{name} at every distance {beyond(distance, s)}")
+                break
+            distances.append(f"{name} {'beyond ' if distance else ''}{beyond(distance, s, metres=False)}")
         parts.append(", ".join(distances))
     exempt = [r for r in _product_remedies(a) if r.group == "Exempt"] if a.remedies is not None else []
     if exempt and exempt[0].dimming_factor is not None:
@@ -231,8 +236,9 @@ def _remedies_block(a: Assessment, st: Styles) -> list[Flowable]:
                      st.p(dimming_text(x.dimming_factor), style), st.p(area_text(x.area_factor), style)])
         extra += [("BACKGROUND", (1, i), (1, i), group_fill(now)), ("BACKGROUND", (2, i), (2, i), group_fill(x.group))]
     if len(rows) == 1:
-        rows.append([st.p("Nothing to remedy: the product is already Exempt.", st.cell)] + [""] * 4)
-        extra.append(("SPAN", (0, 1), (-1, 1)))
+        nothing = ("nothing to remedy: the product is already Exempt." if a.risk_group == "Exempt" else
+                   "no remedy in this result.")
+        return [st.p("What it would take", st.h3), st.p(nothing[0].upper() + nothing[1:], st.small)]
     group_w = _bold_width("Exempt", st)
     target_w = max(_bold_width(row[0].text, st) for row in rows)
     widths = [target_w, group_w, group_w, 0, 140]
@@ -278,15 +284,20 @@ def studies_section(a: Assessment, st: Styles) -> list[list[Flowable]]:
     if a.distances is not None:
         s = a.distances
         chart = distance_chart(a, FRAME_WIDTH, 190, st.fonts)
-        caption = (f"Top strip: the overall group at each distance (text labels). Curves: t_max, the time to "
-                   f"each exposure limit, per hazard family; a gap where the limit is not reached within its "
-                   f"time range. Vertical line and triangle: the assessment distance. Shaded: the near field, "
-                   f"under {s.near_field_below_mm:.0f} mm (five source sizes), where inverse-square values "
-                   f"are approximate.")
+        never = [family for family, ts in s.t_max_s.items() if all(t is None for t in ts)]
+        near = s.near_field_below_mm > s.distance_mm[0]
+        caption = ("Top strip: the overall group at each distance (text labels). Curves: t_max, the time to each "
+                   "exposure limit, per hazard family; a gap where the limit is not reached within its time "
+                   "range." + (f" No curve ({', '.join(never)}): not reached at any distance studied."
+                               if never else "")
+                   + " Vertical line and triangle: the assessment distance."
+                   + (f" Shaded: the near field, under {s.near_field_below_mm:.0f} mm (five source sizes), where "
+                      f"inverse-square values are approximate." if near else ""))
         blocks += [[st.p("Group and t_max against distance", st.h3), chart, st.p(caption, st.caption)],
                    [Spacer(1, 4)], [_distance_table(a, st)],
-                   [Spacer(1, 2), st.p(f"* nearer than {s.near_field_below_mm:.0f} mm: approximate (near field). "
-                                       f"\"by L_B\": the family member that applies there. Studied from "
+                   [Spacer(1, 2), st.p((f"* nearer than {s.near_field_below_mm:.0f} mm: approximate (near "
+                                        f"field). " if near else "")
+                                       + f"\"by L_B\": the family member that applies there. Studied from "
                                        f"{s.distance_mm[0]:.0f} mm to {s.distance_mm[-1] / 1000:g} m.",
                                        st.caption)]]
     if a.uncertainty is not None:

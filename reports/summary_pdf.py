@@ -18,6 +18,7 @@ from hazard.result import Assessment
 from reports.fonts import report_fonts
 from reports.layout import FRAME_WIDTH, build_pdf
 from reports.ranking import BORDERLINE_FACTOR, is_borderline, rank_assessments, tightest_margin
+from reports.studies import beyond
 from reports.style import INK, Styles, group_fill, group_ink, table_style
 from reports.timestamp import format_report_time, report_time
 
@@ -64,14 +65,26 @@ def _bold_width(text: str, st: Styles) -> float:
 def _flags(a: Assessment, st: Styles) -> Flowable:
     """BORDERLINE and contradicted vendor claims, in words; an em dash when there is neither."""
     contradicted = sum(c.verdict == "contradicted" for c in a.claims)
-    flags = (["<b>BORDERLINE</b>"] if is_borderline(a) else []) + (
+    by_study = "" if a.uncertainty is None else (f" (within ±{a.uncertainty.uncertainty_pct:g} %, "
+                                                 f"±{a.uncertainty.wavelength_uncertainty_nm:g} nm)")
+    flags = ([f"<b>BORDERLINE</b>{by_study}"] if is_borderline(a) else []) + (
         [f"<b>{contradicted}</b> vendor claim{'s' if contradicted > 1 else ''} <b>CONTRADICTED</b>"]
         if contradicted else [])
     return st.p("", st.cell, markup="<br/>".join(flags) or "—")
 
 
+def _min_distance(a: Assessment) -> str:
+    """The product's minimum distance to Exempt as its report prints it; an em dash without a distance study."""
+    if a.distances is None:
+        return "—"
+    return beyond(a.distances.minimum_distance_mm.get("Exempt"), a.distances, metres=False)
+
+
 def _ranked_table(assessments: list[Assessment], st: Styles) -> Flowable:
+    distances = any(a.distances is not None for a in assessments)
     head = ["#", "ID", "Name", "Group", "Complete", "Deciding hazards", "Tightest margin", "Flags"]
+    if distances:
+        head.insert(7, "Min. distance to Exempt")
     rows = [[st.p(h, st.head) for h in head]]
     extra = []
     for rank, a in enumerate(rank_assessments(assessments), start=1):
@@ -86,13 +99,16 @@ def _ranked_table(assessments: list[Assessment], st: Styles) -> Flowable:
                      st.p("yes", st.cell) if a.complete else
                      st.bold_lead("INCOMPLETE", f"lower bound; not assessed: {', '.join(a.not_assessed)}", st.cell),
                      st.p(", ".join(a.deciding_hazards) or "—", st.cell), st.p(margin, st.cell),
-                     _flags(a, st)])
+                     *([st.p(_min_distance(a), st.cell)] if distances else []), _flags(a, st)])
         extra.append(("BACKGROUND", (3, rank), (3, rank), group_fill(a.risk_group)))
     if len(rows) == 1:
-        rows.append([st.p("no products assessed", st.cell)] + [""] * 7)
+        rows.append([st.p("no products assessed", st.cell)] + [""] * (len(head) - 1))
         extra.append(("SPAN", (0, 1), (-1, 1)))
     widths = [18, max(_bold_width(text, st) for text in ["ID", *(a.id for a in assessments)]), 0,
               _bold_width("Exempt", st), 66, 60, 84, _bold_width("CONTRADICTED", st)]
+    if distances:  # room for the column: narrower completeness and margin columns, which may wrap
+        widths[4], widths[6] = 50, 76
+        widths.insert(7, 46)
     widths[2] = FRAME_WIDTH - sum(widths)
     table = Table(rows, colWidths=widths, repeatRows=1)
     table.setStyle(table_style(extra=extra))
@@ -100,11 +116,12 @@ def _ranked_table(assessments: list[Assessment], st: Styles) -> Flowable:
 
 
 def _failed_table(errors: list[tuple[str, str]], st: Styles) -> Flowable:
+    """The failed products with the first line of each reason; a sentence when there are none."""
+    if not errors:
+        return st.p("None: every product was assessed.", st.small)
     rows = [[st.p("ID", st.head), st.p("Why it could not be assessed", st.head)]]
     rows += [[st.p(product, st.cell_bold), st.p((reason.strip().splitlines() or ["—"])[0], st.cell)]
              for product, reason in errors]
-    if len(rows) == 1:
-        rows.append([st.p("none", st.cell), ""])
     id_width = min(FRAME_WIDTH / 3, max(_bold_width(product, st) for product, _ in [("ID", ""), *errors]))
     table = Table(rows, colWidths=[id_width, FRAME_WIDTH - id_width], repeatRows=1)
     table.setStyle(table_style())
@@ -153,12 +170,16 @@ def render_summary_pdf(assessments: list[Assessment], errors: list[tuple[str, st
     story = [
         _heading(assessments, errors, st, moment), Spacer(1, 6), _counts(assessments, st),
         st.p("Products, highest risk first", st.h2), _ranked_table(assessments, st), Spacer(1, 2),
-        st.p(f"Ranked by overall group (RG3 first), then by the deciding hazard closest to its next boundary "
-             f"(largest value ÷ limit first), then by id. Tightest margin: that hazard's value ÷ limit at its "
-             f"group's upper boundary (RG3: multiple of the RG2 limit). BORDERLINE: that hazard lies within a "
-             f"factor {high:g} of a group boundary on either side ({low:g}–{high:g} × the limit), so a modest "
-             f"measurement error could change its group. An INCOMPLETE product's group is a lower bound. "
-             f"CONTRADICTED: a vendor claim in the record that the result does not bear out (see its report).",
+        st.p(f"Ranked by overall group (RG3 first); within a group BORDERLINE products first (the ones to send to "
+             f"the laboratory), then by the deciding hazard closest to its next boundary (largest value ÷ limit "
+             f"first), then by id. Tightest margin: that hazard's value ÷ limit at its group's upper boundary "
+             f"(RG3: multiple of the RG2 limit). BORDERLINE: with an uncertainty study (the record states its "
+             f"measurement uncertainty), the overall group changes within it; without one, the tightest hazard "
+             f"lies within a factor {high:g} of a group boundary on either side ({low:g}–{high:g} × the limit), so "
+             f"a modest measurement error could change its group. An INCOMPLETE product's group is a lower bound. "
+             f"CONTRADICTED: a vendor claim in the record that the result does not bear out (see its report)."
+             + (" Min. distance to Exempt: beyond it the product is Exempt (its report's distance study; —: none "
+                "in the result)." if any(a.distances is not None for a in assessments) else ""),
              st.caption),
         st.p("Products that could not be assessed", st.h2), _failed_table(errors, st),
         st.p("Cautions", st.h2), *_cautions(assessments, st),
