@@ -378,6 +378,10 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
                    strokeDashArray=[2, 1.5]))
     curves, labels = _curves(study, px, py, (left, bottom, pw, ph), fonts)
     d.add(curves)
+    if not labels.contents:
+        empty = ("No hazard could be assessed at any distance." if all(g is None for g in study.group) else
+                 "No exposure limit is reached at any distance studied (within each limit's time range).")
+        d.add(_text(left + pw / 2, bottom + ph / 2 - 3, empty, fonts, 7.5, color=MUTED, anchor="middle"))
     d.add(Rect(left, bottom, pw, ph, fillColor=None, strokeColor=INK, strokeWidth=0.6))
     at = assessment.assessment_distance_mm
     shown = dmin <= at <= dmax
@@ -401,7 +405,11 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
         if px(near) - px(dmin) >= stringWidth(text, fonts.regular, size) + 8:
             d.add(_text((px(dmin) + px(near)) / 2, y, text, fonts, size, color=INK, anchor="middle"))
         else:
-            d.add(_text(px(near) + 3, y, "◂ " + text, fonts, size, color=INK))
+            tip = px(near) + 2.5  # a small triangle pointing at the band (a glyph the fonts lack)
+            d.add(Rect(tip, y - 1.8, stringWidth(text, fonts.regular, size) + 8, size + 2, fillColor=colors.white,
+                       strokeColor=None))  # over the assessment line where it crosses
+            d.add(Polygon([tip, y + 2.2, tip + 4, y + 4.4, tip + 4, y], fillColor=INK, strokeColor=None))
+            d.add(_text(tip + 6.5, y, text, fonts, size, color=INK))
     d.add(labels)
     d.add(_text(left + pw / 2, bottom - 19, "distance from the source [mm] (log scale; 10³ mm = 1 m)", fonts, 7,
                 color=MUTED, anchor="middle"))
@@ -486,7 +494,7 @@ def _family_legend(study, x: float, y: float, width: float, fonts: FontSet) -> G
     entries = [(family, fonts.clean(family + (" (no groups)" if family == "E_H" else "")))
                for family, ts in study.t_max_s.items() if any(t is not None for t in ts)]
     natural = sum(stringWidth(t, fonts.regular, 7) for _, t in entries) + len(entries) * 36
-    size = 7 * min(1.0, width / natural)
+    size = 7 * min(1.0, width / max(natural, 1.0))
     g = Group()
     cursor = x
     for family, text in entries:

@@ -18,7 +18,7 @@ from reports.charts import distance_chart
 from reports.layout import FRAME_WIDTH
 from reports.style import INK, Styles, group_fill, group_ink, table_style
 
-__all__ = ["SECTION_TITLE", "has_studies", "beyond", "study_summary", "uncertainty_summary", "dimming_text",
+__all__ = ["SECTION_TITLE", "has_studies", "beyond", "minimum_text", "study_summary", "uncertainty_summary", "dimming_text",
            "area_text", "studies_section"]
 
 SECTION_TITLE = "Distance, uncertainty and remedies"
@@ -57,6 +57,14 @@ def beyond(distance_mm: float | None, study: DistanceStudy, metres: bool = True)
         return f"from {study.distance_mm[0]:.0f} mm"
     text = f"{distance_mm:.0f} mm"
     return text + (f" ({distance_mm / 1000:.3g} m)" if metres and distance_mm >= 1000 else "")
+
+
+def minimum_text(study: DistanceStudy, group: str, metres: bool = True) -> str:
+    """The product's minimum distance for ``group`` as printed (:func:`beyond`); "not assessed" when no
+    hazard family could be assessed against that boundary (the study then gives 0)."""
+    if all(b.note == "not assessed" for b in study.boundaries if b.group == group):
+        return "not assessed"
+    return beyond(study.minimum_distance_mm.get(group), study, metres)
 
 
 def dimming_text(factor: float | None) -> str:
@@ -116,12 +124,15 @@ def study_summary(a: Assessment, page: int) -> str:
         for group in _BOUNDARIES:  # up to the first group that holds at every distance studied
             distance = s.minimum_distance_mm.get(group)
             name = group if group == "Exempt" else f"{group} or lower"
+            if minimum_text(s, group) == "not assessed":
+                distances.append("no hazard family assessed at any distance")
+                break
             if distance == 0:
                 if not distances:
                     distances.append(f"{name} at every distance {beyond(distance, s)}")
                 break
             distances.append(f"{name} {'beyond ' if distance else ''}{beyond(distance, s, metres=False)}")
-        parts.append(", ".join(distances))
+        parts.append(", ".join(distances) + ("" if a.complete else " (assessed hazards only)"))
     exempt = [r for r in _product_remedies(a) if r.group == "Exempt"] if a.remedies is not None else []
     if exempt and exempt[0].dimming_factor is not None:
         parts.append(f"Exempt at {exempt[0].dimming_factor * 100:.3g} % of today's output")
@@ -145,10 +156,11 @@ def _distance_table(a: Assessment, st: Styles) -> Flowable:
     head = ["Beyond: in the group or lower", "Exempt", "RG1", "RG2"]
     rows = [[st.p(h, st.head) for h in head]]
 
-    def cell(distance: float | None, criterion: str | None, note: str | None, style) -> Flowable:
+    def cell(distance: float | None, criterion: str | None, note: str | None, style,
+             group: str | None = None) -> Flowable:
         if distance is None and note is not None:
             return st.p(note, st.cell)
-        text = beyond(distance, s)
+        text = beyond(distance, s) if group is None else minimum_text(s, group)
         if criterion:
             text += f", by {criterion}"
         if distance and distance < near:
@@ -156,7 +168,7 @@ def _distance_table(a: Assessment, st: Styles) -> Flowable:
         return st.p(text, style)
 
     rows.append([st.p("Whole product", st.cell_bold)]
-                + [cell(s.minimum_distance_mm.get(g), None, None, st.cell_bold) for g in _BOUNDARIES])
+                + [cell(s.minimum_distance_mm.get(g), None, None, st.cell_bold, g) for g in _BOUNDARIES])
     by_family: dict[str, dict[str, object]] = {}
     for b in s.boundaries:
         by_family.setdefault(b.family, {})[b.group] = b
@@ -236,7 +248,8 @@ def _remedies_block(a: Assessment, st: Styles) -> list[Flowable]:
                      st.p(dimming_text(x.dimming_factor), style), st.p(area_text(x.area_factor), style)])
         extra += [("BACKGROUND", (1, i), (1, i), group_fill(now)), ("BACKGROUND", (2, i), (2, i), group_fill(x.group))]
     if len(rows) == 1:
-        nothing = ("nothing to remedy: the product is already Exempt." if a.risk_group == "Exempt" else
+        nothing = ("nothing to remedy: the product is already Exempt"
+                   + ("." if a.complete else " (for the assessed hazards).") if a.risk_group == "Exempt" else
                    "no remedy in this result.")
         return [st.p("What it would take", st.h3), st.p(nothing[0].upper() + nothing[1:], st.small)]
     group_w = _bold_width("Exempt", st)
@@ -297,6 +310,8 @@ def studies_section(a: Assessment, st: Styles) -> list[list[Flowable]]:
                    [Spacer(1, 4)], [_distance_table(a, st)],
                    [Spacer(1, 2), st.p((f"* nearer than {s.near_field_below_mm:.0f} mm: approximate (near "
                                         f"field). " if near else "")
+                                       + ("" if a.complete else "Incomplete result: the whole-product distances "
+                                                                "cover the assessed hazards only. ")
                                        + f"\"by L_B\": the family member that applies there. Studied from "
                                        f"{s.distance_mm[0]:.0f} mm to {s.distance_mm[-1] / 1000:g} m.",
                                        st.caption)]]

@@ -18,7 +18,7 @@ from hazard.result import Assessment
 from reports.fonts import report_fonts
 from reports.layout import FRAME_WIDTH, build_pdf
 from reports.ranking import BORDERLINE_FACTOR, is_borderline, rank_assessments, tightest_margin
-from reports.studies import beyond
+from reports.studies import minimum_text
 from reports.style import INK, Styles, group_fill, group_ink, table_style
 from reports.timestamp import format_report_time, report_time
 
@@ -77,7 +77,7 @@ def _min_distance(a: Assessment) -> str:
     """The product's minimum distance to Exempt as its report prints it; an em dash without a distance study."""
     if a.distances is None:
         return "—"
-    return beyond(a.distances.minimum_distance_mm.get("Exempt"), a.distances, metres=False)
+    return minimum_text(a.distances, "Exempt", metres=False)
 
 
 def _ranked_table(assessments: list[Assessment], st: Styles) -> Flowable:

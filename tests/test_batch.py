@@ -137,8 +137,10 @@ def test_resume_after_a_kill_gives_the_same_summary(tmp_path, how):
     clean = tmp_path / "clean"
     assert _cli("batch", str(manifest), "--output", str(clean)).returncode == 0
     cut = tmp_path / "cut"
+    # a shell without job control starts background jobs with SIGINT ignored; give the child the default
     process = subprocess.Popen([sys.executable, "-m", "hazard.cli", "batch", str(manifest), "--output", str(cut)],
-                               stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
+                               stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL,
+                               preexec_fn=lambda: signal.signal(signal.SIGINT, signal.SIG_DFL))
     partial = cut / "results.jsonl.partial"
     deadline = time.monotonic() + 60
     while time.monotonic() < deadline and process.poll() is None:

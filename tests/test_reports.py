@@ -1,9 +1,11 @@
-"""PDF reports: every line-up product renders to two pages that carry its facts, identically each time; the
-batch summary ranks, flags and lists failures; the fonts and the report time behave as documented."""
+"""PDF reports: every line-up product renders to three pages that carry its facts (the third its distance,
+uncertainty and remedies studies), identically each time; the batch summary ranks, flags and lists failures;
+the fonts and the report time behave as documented."""
 
 import datetime
 import doctest
 import io
+import math
 import re
 from pathlib import Path
 
@@ -13,10 +15,11 @@ from pypdf import PdfReader
 import hazard
 import reports.fonts
 import reports.product_pdf
+import reports.studies
 import reports.timestamp
 from hazard.errors import InputError
 from hazard.formatting import UNIT_DISPLAY, format_value
-from hazard.result import Assessment
+from hazard.result import Assessment, UncertaintyStudy
 from reports import rank_assessments, render_assessment_pdf, render_summary_pdf, report_time
 from reports.fonts import register_fonts
 from reports.ranking import is_borderline, tightest_margin
@@ -30,6 +33,7 @@ EXPECTED_GROUP = {"cl-desk-30": "Exempt", "cl-pip-470": "Exempt", "cl-spot-65": 
                   "cl-far-222": "RG2", "cl-grow-30": "RG2", "cl-cure-365": "RG3", "cl-germ-254": "RG3",
                   "cl-heat-2k": "RG3"}
 FOOTER = "Pre-screen only — not a certification"  # project contract: README "a pre-screen, not a certification"
+SECTION = "Distance, uncertainty and remedies"  # project contract: issue "Beyond the label", the section's title
 
 
 def _normalise(text: str) -> str:
@@ -57,10 +61,13 @@ def lineup_pdfs(lineup) -> dict[str, bytes]:
 
 
 @pytest.mark.parametrize("stem", sorted(EXPECTED_GROUP))
-def test_product_report_has_two_pages_with_its_facts(stem, lineup, lineup_pdfs):
+def test_product_report_has_three_pages_with_its_facts(stem, lineup, lineup_pdfs):
     a, pages = lineup[stem], _pages(lineup_pdfs[stem])
-    # project contract: reports/__init__.py, two pages per product (at a glance; input, method, cautions)
-    assert len(pages) == 2
+    # hazard/engine.py build_assessment: hazard.assess computes distances and remedies by default; project
+    # contract (reports/__init__.py): page 1 at a glance, page 2 input and method, page 3 those studies
+    assert a.distances is not None and a.remedies is not None
+    assert len(pages) == 3
+    assert SECTION in pages[2] and SECTION not in pages[0] + pages[1]
     first, text = pages[0], " ".join(pages)
     assert a.id in first and a.id == stem.upper()  # examples/lineup/<stem>.toml: id is the stem in capitals
     assert f"Overall risk group: {EXPECTED_GROUP[stem]}" in first  # examples/README.md, as above
@@ -85,7 +92,7 @@ def test_incomplete_report_says_lower_bound_and_why(tmp_path):
     a = hazard.assess(LINEUP / "cl-heat-2k.toml", {"no_emission_outside": False})
     assert a.not_assessed == ["E_S"] and not a.complete
     pages = _pages(render_assessment_pdf(a, RENDERED_AT))
-    assert len(pages) == 2  # project contract: reports/__init__.py, two pages per product
+    assert len(pages) == 3  # project contract: reports/__init__.py, three pages with the studies
     assert "LOWER BOUND — not all hazards assessed" in pages[0]  # project brief: shown prominently
     assert _normalise(a.hazards["E_S"].note) in pages[0]  # the reason, from the result's own note
     assert "INCOMPLETE" in pages[0]
@@ -104,6 +111,78 @@ def test_contradicted_vendor_claim_is_named_on_page_one(tmp_path):
     assert _normalise(a.claims[0].reason) in pages[1]
     summary = " ".join(_pages(render_summary_pdf([a], [], RENDERED_AT)))
     assert "1 vendor claim CONTRADICTED" in summary
+
+
+def test_without_studies_the_report_has_two_pages(lineup):
+    # project contract: reports/__init__.py, page 3 only "when the result holds those studies" (a batch run
+    # without --studies gives none: hazard/batch.py)
+    bare = lineup["cl-heat-2k"].model_copy(update={"distances": None, "uncertainty": None, "remedies": None})
+    pages = _pages(render_assessment_pdf(bare, RENDERED_AT))
+    assert len(pages) == 2 and SECTION not in " ".join(pages)
+    for caution in bare.cautions:
+        assert _normalise(caution) in pages[-1]  # hazard/cautions.py: every caution in full at the end
+
+
+def test_heater_distances_and_remedies_are_printed(lineup, lineup_pdfs):
+    a = lineup["cl-heat-2k"]
+    first, third = _pages(lineup_pdfs["cl-heat-2k"])[0], _pages(lineup_pdfs["cl-heat-2k"])[2]
+    e_ir = a.hazards["E_IR"]
+    # IEC 62471:2006 Table 6.1: the E_IR Exempt limit is 100 W/m2; examples/README.md: the heater is RG3 by E_IR,
+    # the last family to reach Exempt (its blue light is only RG1)
+    assert e_ir.limits["Exempt"] == 100.0 and a.deciding_hazards == ["E_IR"]
+    # the record's spectrum is an irradiance scaled by the inverse-square law (the result's assumption), so
+    # E_IR falls to its Exempt limit at 200 mm x sqrt(E_IR / 100 W/m2) = 200 x sqrt(6.32e3 / 100) = 1590 mm
+    exempt_mm = a.assessment_distance_mm * math.sqrt(e_ir.value / 100.0)
+    assert f"{exempt_mm:.0f}" == "1590"
+    assert "Whole product 1590 mm (1.59 m)" in third  # project contract: mm as hazard/textout.py prints them
+    assert "Exempt beyond 1590 mm" in first  # project contract: issue "Beyond the label", a line on page 1
+    # E_IR is proportional to the emission: dimming to 100 / 6.32e3 = 1.58 % of today's output brings it to
+    # its Exempt limit, and the other families are Exempt by then (blue light needs 1.84 %, the result says)
+    assert f"{100.0 / e_ir.value * 100:.3g}" == "1.58"
+    assert "Whole product (as E_IR) RG3 Exempt reduce to 1.58 % of today's output" in third
+    assert "Exempt at 1.58 % of today's output" in first
+    # the heater's emitting coil is 1.6 mm x 250 mm; near field: five source sizes (hazard/result.py
+    # DistanceStudy.near_field_below_mm) = 1250 mm
+    assert "near field, under 1250 mm: approximate" in third
+    # the overall group falls RG3 -> RG2 -> RG1 -> Exempt with distance, labelled in text along the axis
+    # (project contract: issue "Beyond the label", readable in greyscale); assessed at the standard's 200 mm
+    # for a non-GLS lamp (design/method.md, assessment distance)
+    assert "RG3 RG2 RG1 Exempt assessed at 200 mm" in third
+    # the blue-light family never crosses RG2 (examples/README.md: heater blue light is RG1): the note is shown
+    assert "within at every distance from 10 mm" in third
+    assert "enlarge emitting area ×836" in third  # blue light L_B is a radiance: a diffuser lowers it
+
+
+def _with_uncertainty(record: str, tmp_path: Path, extra: str = "") -> Assessment:
+    """The line-up record ``record`` with a 10 % (k = 2) and ±1 nm uncertainty (and ``extra`` TOML lines)."""
+    text = (LINEUP / f"{record}.toml").read_text(encoding="utf-8")
+    text = text.replace(f'spectrum = "{record}.csv"', f'spectrum = "{(LINEUP / f"{record}.csv").as_posix()}"')
+    path = tmp_path / f"{record}-u.toml"
+    path.write_text(text + "uncertainty_pct = 10\nwavelength_uncertainty_nm = 1\n" + extra, encoding="utf-8")
+    return hazard.assess(path)
+
+
+def test_uncertainty_verdict_is_printed_on_page_one_and_three(tmp_path):
+    # the spotlight assessed at 2700 mm, just nearer than where blue light reaches its Exempt limit: its L_B
+    # lies between 1 and 1/0.9 of that limit, so the -10 % variant is Exempt and the nominal one RG1; hazard/
+    # uncertainty.py: a product whose overall group differs between the variants is borderline
+    edge = _with_uncertainty("cl-spot-65", tmp_path, "at_distance_mm = 2700\n")
+    assert edge.risk_group == "RG1" and 1.0 < edge.hazards["L_B"].margins["Exempt"] < 1 / 0.9
+    assert edge.uncertainty.verdict == "borderline"
+    pages = _pages(render_assessment_pdf(edge, RENDERED_AT))
+    assert len(pages) == 3
+    # project contract: issue "Beyond the label", "borderline" next to the overall group on page 1
+    assert re.search(r"RG1 BORDERLINE Overall risk group: RG1", pages[0])
+    assert f"Uncertainty: BORDERLINE — {_normalise(edge.uncertainty.note)}" in pages[0]
+    assert f"BORDERLINE — overall group Exempt to RG1: {_normalise(edge.uncertainty.note)}" in pages[2]
+    assert "blue light (L_B)" in pages[2] and "Exempt to RG1 (changes)" in pages[2]
+    # the heater's deciding E_IR is 2x its RG2 limit (examples/README.md, the result's margin): ±10 % cannot
+    # move it out of RG3
+    robust = _with_uncertainty("cl-heat-2k", tmp_path)
+    assert robust.uncertainty.verdict == "robust"
+    pages = _pages(render_assessment_pdf(robust, RENDERED_AT))
+    assert "Uncertainty: ROBUST" in pages[0] and "ROBUST — overall group RG3" in pages[2]
+    assert "BORDERLINE" not in pages[0] and "(borderline)" not in pages[1]  # page 1; the running header
 
 
 def test_report_renders_from_saved_json(tmp_path, lineup, lineup_pdfs):
