@@ -50,14 +50,16 @@ def overall_groups(ev: Evaluation, limit_set: LimitSet) -> np.ndarray:
     return np.max(np.column_stack([family_groups(ev, m) for _, m in limit_set.families]), axis=1)
 
 
-def evaluate_rows(arrays: ProductArrays, count: int, limit_set: LimitSet, *, raw_scale=None, forced_distance_m=None,
-                  size_scale=None) -> Evaluation:
+def evaluate_rows(arrays: ProductArrays, count: int, limit_set: LimitSet, *, raw=None, raw_scale=None,
+                  forced_distance_m=None, size_scale=None) -> Evaluation:
     """Evaluate ``count`` variants of the single product in ``arrays``.
 
     Parameters
     ----------
     arrays : ProductArrays
         One product.
+    raw : numpy.ndarray, optional
+        (count, k) integrals to use instead of the product's (e.g. of a wavelength-shifted spectrum).
     raw_scale : numpy.ndarray, optional
         (count,) multiplier of its integrals (dimming, a filter, a scale uncertainty) [1].
     forced_distance_m : numpy.ndarray, optional
@@ -73,7 +75,7 @@ def evaluate_rows(arrays: ProductArrays, count: int, limit_set: LimitSet, *, raw
         size_scale = np.asarray(size_scale, dtype=float)
         shape = type(shape)(shape.width_m * size_scale, shape.height_m * size_scale)
         factor = np.where(rows.is_radiance, factor / size_scale ** 2, factor)
-    raw = rows.raw * factor[:, None]
+    raw = (rows.raw if raw is None else raw) * factor[:, None]
     anchor = rows.anchor_photometric * factor  # a relative spectrum's anchor scales with it
     forced = rows.forced_distance_m if forced_distance_m is None else np.asarray(forced_distance_m, dtype=float)
     variant = ProductArrays(raw=raw, covered=rows.covered, is_radiance=rows.is_radiance,

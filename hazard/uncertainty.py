@@ -10,8 +10,8 @@ from __future__ import annotations
 
 import numpy as np
 
-from hazard.evaluate import ProductArrays, evaluate
-from hazard.families import family_groups, overall_groups
+from hazard.evaluate import ProductArrays
+from hazard.families import evaluate_rows, family_groups, overall_groups
 from hazard.hazards import GROUPS, LimitSet
 from hazard.integrals import integrate_spectra
 from hazard.result import HazardBounds, UncertaintyStudy
@@ -49,14 +49,7 @@ def uncertainty_study(arrays: ProductArrays, spectrum: Spectrum, no_emission_out
     shifted = integrate_spectra([spectrum.wavelength_nm + s for s in shifts], [spectrum.value] * 3,
                                 [no_emission_outside] * 3, limit_set)
     scales = np.array([1 - u, 1.0, 1 + u])
-    rows = arrays.rows(np.zeros(9, dtype=int))
-    raw = np.repeat(shifted.raw, 3, axis=0) * np.tile(scales, 3)[:, None]
-    variant = ProductArrays(raw=raw, covered=rows.covered, is_radiance=rows.is_radiance,
-                            measurement_distance_m=rows.measurement_distance_m, shape=rows.shape, is_gls=rows.is_gls,
-                            anchor_photometric=rows.anchor_photometric * np.tile(scales, 3),
-                            luminous_intensity_cd=rows.luminous_intensity_cd, peak_to_mean=rows.peak_to_mean,
-                            forced_distance_m=rows.forced_distance_m)
-    ev = evaluate(variant, limit_set)
+    ev = evaluate_rows(arrays, 9, limit_set, raw=np.repeat(shifted.raw, 3, axis=0), raw_scale=np.tile(scales, 3))
     nominal, minus, plus = 4, 1, 7  # (shift index × 3 + scale index)
     bounds = []
     for name, members in limit_set.families:

@@ -241,8 +241,10 @@ def _with_tightest(a: Assessment, new_id: str, group: str, margins: dict[str, fl
 
 
 def test_rank_orders_groups_then_headroom(lineup):
-    # IEC 62471:2006 6.1: Exempt < RG1 < RG2 < RG3; project contract (reports/ranking.py): within a group,
-    # the deciding hazard with the largest value/limit at its group's upper boundary first
+    # IEC 62471:2006 6.1: Exempt < RG1 < RG2 < RG3; project contract (issue "Beyond the label"): within a group
+    # borderline products first (RG3-NEAR at 1.2x its RG2 limit, RG2-TIGHT at 0.9: within the 1.25 factor of
+    # reports/ranking.py); then (reports/ranking.py) the deciding hazard with the largest value/limit at its
+    # group's upper boundary first
     base = lineup["cl-cure-365"]
     products = [_with_tightest(base, "E-LOW", "Exempt", {"Exempt": 0.1, "RG1": 0.03, "RG2": 0.01}),
                 _with_tightest(base, "RG2-TIGHT", "RG2", {"Exempt": 90.0, "RG1": 27.0, "RG2": 0.9}),
@@ -251,7 +253,7 @@ def test_rank_orders_groups_then_headroom(lineup):
                 _with_tightest(base, "RG2-LOOSE", "RG2", {"Exempt": 10.0, "RG1": 3.0, "RG2": 0.1}),
                 _with_tightest(base, "RG3-NEAR", "RG3", {"Exempt": 12.0, "RG1": 4.0, "RG2": 1.2}),
                 _with_tightest(base, "E-HIGH", "Exempt", {"Exempt": 0.7, "RG1": 0.2, "RG2": 0.07})]
-    assert [a.id for a in rank_assessments(products)] == ["RG3-FAR", "RG3-NEAR", "RG2-TIGHT", "RG2-LOOSE",
+    assert [a.id for a in rank_assessments(products)] == ["RG3-NEAR", "RG3-FAR", "RG2-TIGHT", "RG2-LOOSE",
                                                            "RG1-LOOSE", "E-HIGH", "E-LOW"]
 
 
@@ -261,6 +263,7 @@ def test_rank_of_the_lineup(lineup):
     ranked = rank_assessments(list(lineup.values()))
     assert [a.risk_group for a in ranked] == sorted((a.risk_group for a in ranked),
                                                      key=["RG3", "RG2", "RG1", "Exempt"].index)
+    assert not any(is_borderline(a) for a in ranked)  # by the values in each result (see the summary test)
     ratios = [(a.risk_group, tightest_margin(a).ratio) for a in ranked]
     assert all(r1 >= r2 for (g1, r1), (g2, r2) in zip(ratios, ratios[1:]) if g1 == g2)
     assert ranked[0].id == "CL-GERM-254"
@@ -301,7 +304,8 @@ def test_summary_ranks_flags_and_lists_failures(tmp_path, lineup):
     # one incomplete product (CL-HEAT-RAW), one borderline (CL-EDGE at 0.9 of its RG2 limit; no line-up
     # product lies within 1.25x of a boundary by the values in its result)
     assert "incomplete: 1" in text and "borderline: 1" in text
-    assert "CL-EDGE" in text and "E_UVA: 90% of RG2 limit BORDERLINE" in text
+    # CL-EDGE keeps the curing lamp's distance study: its minimum distance to Exempt sits between margin and flag
+    assert re.search(r"CL-EDGE .* E_UVA: 90% of RG2 limit \d+ mm BORDERLINE", text)
     assert _normalise(str(failure.value)) in text and "second line, not shown" not in text
     for caution in {c for a in products for c in a.cautions}:
         assert _normalise(caution) in text  # project contract: hazard/cautions.py, every caution shown
@@ -309,7 +313,53 @@ def test_summary_ranks_flags_and_lists_failures(tmp_path, lineup):
         assert FOOTER in page and f"page {number} of {len(pages)}" in page
 
 
-@pytest.mark.parametrize("module", [reports.fonts, reports.timestamp])
+def _study(verdict: str) -> UncertaintyStudy:
+    """An uncertainty study of ±10 % (k = 2) and ±1 nm with the given verdict."""
+    low, high = ("RG1", "RG1") if verdict == "robust" else ("Exempt", "RG1")
+    return UncertaintyStudy(uncertainty_pct=10.0, wavelength_uncertainty_nm=1.0, hazards=[], risk_group_low=low,
+                            risk_group_high=high, verdict=verdict, note=f"{verdict} by construction")
+
+
+def test_uncertainty_study_sets_borderline_and_ranks_it_first(lineup):
+    base = lineup["cl-cure-365"]
+    # project contract: issue "Beyond the label": with an uncertainty study its verdict is the BORDERLINE flag
+    # (else the margin rule of reports/ranking.py), and borderline products rank first within their group
+    study_edge = _with_tightest(base, "RG1-STUDY-EDGE", "RG1", {"Exempt": 2.0, "RG1": 0.3, "RG2": 0.01}).model_copy(
+        update={"uncertainty": _study("borderline")})
+    study_safe = _with_tightest(base, "RG1-STUDY-SAFE", "RG1", {"Exempt": 3.0, "RG1": 0.95, "RG2": 0.1}).model_copy(
+        update={"uncertainty": _study("robust")})
+    margin_edge = _with_tightest(base, "RG1-MARGIN-EDGE", "RG1", {"Exempt": 2.8, "RG1": 0.85, "RG2": 0.1})
+    loose = _with_tightest(base, "RG1-LOOSE", "RG1", {"Exempt": 1.6, "RG1": 0.5, "RG2": 0.05})
+    rg2 = _with_tightest(base, "RG2-LOOSE", "RG2", {"Exempt": 10.0, "RG1": 3.0, "RG2": 0.1})
+    # 0.3 and 2.0 of the RG1 and Exempt limits lie outside 0.8-1.25, 0.95 inside: the studies decide here
+    assert [is_borderline(a) for a in (study_edge, study_safe, margin_edge, loose)] == [True, False, True, False]
+    products = [loose, study_safe, rg2, study_edge, margin_edge]
+    assert [a.id for a in rank_assessments(products)] == ["RG2-LOOSE", "RG1-MARGIN-EDGE", "RG1-STUDY-EDGE",
+                                                           "RG1-STUDY-SAFE", "RG1-LOOSE"]
+    text = " ".join(_pages(render_summary_pdf(products, [], RENDERED_AT)))
+    assert "borderline: 2" in text
+    assert re.search(r"RG1-STUDY-EDGE .* BORDERLINE \(within ±10 %, ±1 nm\)", text)  # the study's flag, in words
+    assert not re.search(r"RG1-STUDY-SAFE [^#]*BORDERLINE", text.split("RG1-LOOSE")[0])
+
+
+def test_summary_without_failures_says_so_in_a_sentence(lineup):
+    # project contract: issue "Beyond the label", with no failed product one sentence instead of an empty table
+    text = " ".join(_pages(render_summary_pdf(list(lineup.values()), [], RENDERED_AT)))
+    assert "Products that could not be assessed None: every product was assessed." in text
+    assert "Why it could not be assessed" not in text
+
+
+def test_summary_shows_the_minimum_distance_to_exempt(lineup):
+    # project contract: issue "Beyond the label", a "min. distance to Exempt" column when distances are present;
+    # the heater is Exempt beyond 1590 mm (test_heater_distances_and_remedies_are_printed)
+    heater = lineup["cl-heat-2k"]
+    text = " ".join(_pages(render_summary_pdf([heater, lineup["cl-desk-30"]], [], RENDERED_AT)))
+    assert "Min. distance to Exempt" in text and re.search(r"CL-HEAT-2K .* 2× RG2 limit 1590 mm", text)
+    bare = heater.model_copy(update={"distances": None})
+    assert "Min. distance to Exempt" not in " ".join(_pages(render_summary_pdf([bare], [], RENDERED_AT)))
+
+
+@pytest.mark.parametrize("module", [reports.fonts, reports.timestamp, reports.studies])
 def test_docstring_examples(module):
     # project habit (style.md): docstring examples run in the suite
     assert doctest.testmod(module).failed == 0
