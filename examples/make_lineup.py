@@ -334,9 +334,25 @@ def write_csv(product: Product, model: Callable[..., Product], folder: Path) -> 
     return path
 
 
+UNCERTAINTY_PCT = 10.0
+"""Invented expanded uncertainty (k = 2) of the spectral values, typical of a calibrated spectroradiometer [%]."""
+WAVELENGTH_UNCERTAINTY_NM = 0.5
+"""Invented uncertainty of the wavelength scale [nm]."""
+CLAIMS = {
+    "CL-SPOT-65": {"claimed_risk_group": "Exempt", "claimed_cct_k": 6500.0},
+    "CL-DESK-30": {"claimed_risk_group": "Exempt", "claimed_cct_k": 3000.0},
+}
+"""Invented datasheet claims, for the vendor-claim check in the demo (one of them does not hold)."""
+
+
+def _toml_value(value) -> str:
+    return f'"{value}"' if isinstance(value, str) else f"{value:.1f}"
+
+
 def write_record(product: Product, folder: Path) -> Path:
     """Write the TOML product record (flat fields)."""
     size = "\n".join(f"{key} = {value:.1f}" for key, value in product.size.items())
+    claims = "".join(f"{key} = {_toml_value(value)}\n" for key, value in CLAIMS.get(product.id, {}).items())
     text = (f"# {NOTICE}\n"
             f"# Vendor: {COMPANY} (fictional). Source size: {product.size_note}.\n"
             f"# Spectrum {product.wavelength_nm[0]:g}-{product.wavelength_nm[-1]:g} nm; the model emits "
@@ -349,7 +365,11 @@ def write_record(product: Product, folder: Path) -> Path:
             f"distance_mm = {product.distance_mm:.1f}\n"
             f"{size}\n"
             f'lamp_type = "{product.lamp_type}"\n'
-            "no_emission_outside = true\n")
+            "no_emission_outside = true\n"
+            f'vendor = "{COMPANY}"\n'
+            f"uncertainty_pct = {UNCERTAINTY_PCT:.1f}\n"
+            f"wavelength_uncertainty_nm = {WAVELENGTH_UNCERTAINTY_NM:.1f}\n"
+            + (f"# Datasheet claims (invented):\n{claims}" if claims else ""))
     path = folder / f"{product.stem}.toml"
     path.write_text(text, encoding="utf-8")
     return path
