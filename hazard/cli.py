@@ -190,6 +190,19 @@ def batch(manifest: Path, output: Path, pdf: bool, jobs: int, resume: bool, stud
     sys.exit(outcome.exit_code)
 
 
+def _lineup_folder() -> Path:
+    """The bundled line-up: package data of an installed copy, or examples/lineup of a source checkout."""
+    from importlib import resources
+
+    try:
+        return Path(str(resources.files("hazard.lineup")))
+    except ModuleNotFoundError:
+        source = Path(__file__).resolve().parents[1] / "examples" / "lineup"
+        if not source.is_dir():
+            raise
+        return source
+
+
 @main.command()
 @click.option("--output", type=click.Path(file_okay=False, path_type=Path), default=Path("hazard-demo"),
               show_default=True, help="Folder for the demo's reports.")
@@ -198,14 +211,12 @@ def batch(manifest: Path, output: Path, pdf: bool, jobs: int, resume: bool, stud
 def demo(output: Path, jobs: int) -> None:
     """Assess the bundled line-up of invented products (Corvel Lightworks, a made-up company): one PDF and
     one JSON per product, a summary CSV and summary.pdf."""
-    from importlib import resources
-
     from hazard.batch import run_batch
 
-    lineup = resources.files("hazard.lineup")
+    lineup = _lineup_folder()
     click.echo("Demo: invented products of Corvel Lightworks, a made-up company; no real product or "
                "measurement.\n")
-    outcome = run_batch(Path(str(lineup)), output, pdf=True, jobs=jobs, per_product_json=True, studies=True)
+    outcome = run_batch(lineup, output, pdf=True, jobs=jobs, per_product_json=True, studies=True)
     _finish_batch(outcome, output, pdf=True)
     sys.exit(outcome.exit_code)
 
