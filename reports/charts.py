@@ -294,7 +294,8 @@ def _group_runs(distance_mm: list[float], group: list[str | None], exact: dict[s
     """Runs of equal overall group along the grid as (group, start, end) [mm].
 
     A run ends halfway (on the log axis) between the last grid point of one group and the first of the next,
-    or at the study's own minimum distance for the nearer group when that lies between the two points.
+    or at the study's minimum distance for the next group when that lies between the two points (exact where
+    the group falls with distance, as it normally does).
     """
     runs, start = [], distance_mm[0]
     for i in range(1, len(distance_mm)):

@@ -226,8 +226,8 @@ def _geometry(a: Assessment, st: Styles, studies_page: int) -> Flowable:
         cells.append(("Scaling", _scaling(a)))
     if a.claims:
         cells.append(("Vendor claims", _claims_summary(a)))
-    if a.distances is not None or a.remedies is not None:
-        cells.append(("Studies", study_summary(a, studies_page)))
+    if (studies := study_summary(a, studies_page)) is not None:
+        cells.append(("Studies", studies))
     cells += [("Warning", warning) for warning in a.warnings]
     return _key_values(cells, st, key_width=64)
 

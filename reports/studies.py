@@ -8,7 +8,6 @@ formats them (and picks which family member's unit to print). Numbers follow the
 
 from __future__ import annotations
 
-from reportlab.pdfbase.pdfmetrics import stringWidth
 from reportlab.platypus import Flowable, Spacer, Table
 
 from hazard.formatting import UNIT_DISPLAY, format_value
@@ -18,8 +17,8 @@ from reports.charts import distance_chart
 from reports.layout import FRAME_WIDTH
 from reports.style import INK, Styles, group_fill, group_ink, table_style
 
-__all__ = ["SECTION_TITLE", "has_studies", "beyond", "minimum_text", "study_summary", "uncertainty_summary", "dimming_text",
-           "area_text", "studies_section"]
+__all__ = ["SECTION_TITLE", "has_studies", "beyond", "minimum_text", "study_summary", "uncertainty_summary",
+           "dimming_text", "area_text", "studies_section"]
 
 SECTION_TITLE = "Distance, uncertainty and remedies"
 _BOUNDARIES = ("Exempt", "RG1", "RG2")
@@ -114,9 +113,9 @@ def _group_range(low: str | None, high: str | None) -> str:
     return (low or high) if low == high else f"{low} to {high}"
 
 
-def study_summary(a: Assessment, page: int) -> str:
+def study_summary(a: Assessment, page: int) -> str | None:
     """One line for page 1: the product's minimum distance per group and the dimming that makes it Exempt;
-    ``page`` is where the section starts."""
+    ``page`` is where the section starts. None when the result has neither."""
     parts = []
     s = a.distances
     if s is not None:
@@ -136,7 +135,7 @@ def study_summary(a: Assessment, page: int) -> str:
     exempt = [r for r in _product_remedies(a) if r.group == "Exempt"] if a.remedies is not None else []
     if exempt and exempt[0].dimming_factor is not None:
         parts.append(f"Exempt at {exempt[0].dimming_factor * 100:.3g} % of today's output")
-    return "; ".join(parts) + f" — page {page}"
+    return "; ".join(parts) + f" — page {page}" if parts else None
 
 
 def uncertainty_summary(a: Assessment, page: int) -> tuple[str, str]:
@@ -182,15 +181,10 @@ def _distance_table(a: Assessment, st: Styles) -> Flowable:
             criterion = b.criterion if b.criterion and b.criterion != family else None
             cells.append(cell(b.distance_mm, criterion, None if b.distance_mm is not None else b.note, st.cell))
         rows.append([st.p(family, st.cell_bold)] + cells)
-    first = max(_bold_width(label, st) for label in ["Whole product", *by_family])
+    first = max(st.bold_width(label) for label in ["Whole product", *by_family])
     table = Table(rows, colWidths=[first] + [(FRAME_WIDTH - first) / 3] * 3, repeatRows=1)
     table.setStyle(table_style(extra=[("LINEBELOW", (0, 1), (-1, 1), 0.6, INK)]))
     return table
-
-
-def _bold_width(text: str, st: Styles) -> float:
-    """Width of a table cell holding ``text`` in bold on one line [pt]."""
-    return stringWidth(st.fonts.clean(text), st.fonts.bold, st.cell.fontSize) + 7
 
 
 def _uncertainty_block(a: Assessment, st: Styles) -> list[Flowable]:
@@ -198,8 +192,7 @@ def _uncertainty_block(a: Assessment, st: Styles) -> list[Flowable]:
     shift = f"{u.wavelength_uncertainty_nm:g} nm"
     head = ["Hazard family", "Lowest – highest value", f"λ −{shift} / +{shift}", "Unit", "Group within it"]
     rows = [[st.p(h, st.head) for h in head]]
-    extra = []
-    for i, h in enumerate(u.hazards, start=1):
+    for h in u.hazards:
         member = _member(a, h.family)
         unit = a.hazards[member].unit if member else ""
         changes = h.group_low != h.group_high
@@ -212,7 +205,7 @@ def _uncertainty_block(a: Assessment, st: Styles) -> list[Flowable]:
     widths = [100, 100, 100, 56, 0]
     widths[-1] = FRAME_WIDTH - sum(widths)
     table = Table(rows, colWidths=widths, repeatRows=1)
-    table.setStyle(table_style(extra=extra))
+    table.setStyle(table_style())
     overall = _group_range(u.risk_group_low, u.risk_group_high)
     verdict = st.p(f" — overall group {overall}: {u.note}.", st.body,
                    markup=f"<b>{u.verdict.upper()}</b>")
@@ -227,22 +220,28 @@ def _remedies_block(a: Assessment, st: Styles) -> list[Flowable]:
     r = a.remedies
     head = ["Target", "Now", "To reach", "Dimming (or a neutral filter)", "Diffuser (same power)"]
     rows = [[st.p(h, st.head) for h in head]]
-    extra = []
+    extra, targets = [], ["Target"]
+
+    def same(x: Remedy) -> tuple:
+        return x.group, x.dimming_factor, x.area_factor
+
     product = _product_remedies(a)
-    same = {(x.group, x.dimming_factor, x.area_factor): x.target for x in r.remedies if x.target != "product"}
-    families = [x for x in r.remedies if x.target != "product"
-                and not any((p.group, p.dimming_factor, p.area_factor) == (x.group, x.dimming_factor, x.area_factor)
-                            for p in product)]
+    first_family: dict[tuple, str] = {}  # a family row that says what a product row says is folded into it
+    for x in r.remedies:
+        if x.target != "product":
+            first_family.setdefault(same(x), x.target)
+    families = [x for x in r.remedies if x.target != "product" and same(x) not in {same(p) for p in product}]
     for i, x in enumerate(product + families, start=1):
         if x.target == "product":
             target, now = "Whole product", a.risk_group
-            if (x.group, x.dimming_factor, x.area_factor) in same:
-                target += f" (as {same[(x.group, x.dimming_factor, x.area_factor)]})"
+            if same(x) in first_family:
+                target += f" (as {first_family[same(x)]})"
         else:
             member = _member(a, x.target)
             target = _family_label(a, x.target)
             now = a.hazards[member].risk_group if member else None
         style = st.cell_bold if x.target == "product" else st.cell
+        targets.append(target)
         rows.append([st.p(target, style), st.p(now or "—", st.cell_bold.clone("now", textColor=group_ink(now))),
                      st.p(x.group, st.cell_bold.clone("to", textColor=group_ink(x.group))),
                      st.p(dimming_text(x.dimming_factor), style), st.p(area_text(x.area_factor), style)])
@@ -252,8 +251,8 @@ def _remedies_block(a: Assessment, st: Styles) -> list[Flowable]:
                    + ("." if a.complete else " (for the assessed hazards).") if a.risk_group == "Exempt" else
                    "no remedy in this result.")
         return [st.p("What it would take", st.h3), st.p(nothing[0].upper() + nothing[1:], st.small)]
-    group_w = _bold_width("Exempt", st)
-    target_w = max(_bold_width(row[0].text, st) for row in rows)
+    group_w = st.bold_width("Exempt")
+    target_w = max(st.bold_width(target) for target in targets)
     widths = [target_w, group_w, group_w, 0, 140]
     widths[3] = FRAME_WIDTH - sum(widths)
     table = Table(rows, colWidths=widths, repeatRows=1)

@@ -110,6 +110,10 @@ class Styles:
         """
         return Paragraph(markup + self.text(text), style or self.body)
 
+    def bold_width(self, text: str) -> float:
+        """Width of a table cell holding ``text`` in bold cell type on one line, padding included [pt]."""
+        return stringWidth(self.fonts.clean(text), self.fonts.bold, self.cell.fontSize) + 7
+
     def bold_lead(self, lead: str, text: str, style: ParagraphStyle | None = None) -> Paragraph:
         """A Paragraph starting with ``lead`` in bold, then ``text``."""
         return self.p(text, style, markup=f"<b>{self.text(lead)}</b> ")

@@ -9,7 +9,6 @@ from __future__ import annotations
 
 import datetime
 
-from reportlab.pdfbase.pdfmetrics import stringWidth
 from reportlab.platypus import Flowable, Spacer, Table
 
 from hazard.formatting import format_margin
@@ -57,11 +56,6 @@ def _counts(assessments: list[Assessment], st: Styles) -> Flowable:
     return table
 
 
-def _bold_width(text: str, st: Styles) -> float:
-    """Width of a table cell holding ``text`` in bold on one line [pt]."""
-    return stringWidth(st.fonts.clean(text), st.fonts.bold, st.cell.fontSize) + 7
-
-
 def _flags(a: Assessment, st: Styles) -> Flowable:
     """BORDERLINE and contradicted vendor claims, in words; an em dash when there is neither."""
     contradicted = sum(c.verdict == "contradicted" for c in a.claims)
@@ -104,8 +98,8 @@ def _ranked_table(assessments: list[Assessment], st: Styles) -> Flowable:
     if len(rows) == 1:
         rows.append([st.p("no products assessed", st.cell)] + [""] * (len(head) - 1))
         extra.append(("SPAN", (0, 1), (-1, 1)))
-    widths = [18, max(_bold_width(text, st) for text in ["ID", *(a.id for a in assessments)]), 0,
-              _bold_width("Exempt", st), 66, 60, 84, _bold_width("CONTRADICTED", st)]
+    widths = [18, max(st.bold_width(text) for text in ["ID", *(a.id for a in assessments)]), 0,
+              st.bold_width("Exempt"), 66, 60, 84, st.bold_width("CONTRADICTED")]
     if distances:  # room for the column: narrower completeness and margin columns, which may wrap
         widths[4], widths[6] = 50, 76
         widths.insert(7, 46)
@@ -122,7 +116,7 @@ def _failed_table(errors: list[tuple[str, str]], st: Styles) -> Flowable:
     rows = [[st.p("ID", st.head), st.p("Why it could not be assessed", st.head)]]
     rows += [[st.p(product, st.cell_bold), st.p((reason.strip().splitlines() or ["—"])[0], st.cell)]
              for product, reason in errors]
-    id_width = min(FRAME_WIDTH / 3, max(_bold_width(product, st) for product, _ in [("ID", ""), *errors]))
+    id_width = min(FRAME_WIDTH / 3, max(st.bold_width(product) for product, _ in [("ID", ""), *errors]))
     table = Table(rows, colWidths=[id_width, FRAME_WIDTH - id_width], repeatRows=1)
     table.setStyle(table_style())
     return table

@@ -128,6 +128,7 @@ LINEUP = Path(__file__).parents[1] / "examples" / "lineup"
 def _claim_record(tmp_path, stem, **claims):
     text = (LINEUP / f"{stem}.toml").read_text().replace(f'spectrum = "{stem}.csv"',
                                                           f'spectrum = "{(LINEUP / stem).as_posix()}.csv"')
+    text = "".join(line for line in text.splitlines(keepends=True) if not line.startswith("claimed_"))
     text += "".join(f"{k} = {v!r}\n".replace("'", '"') for k, v in claims.items())
     path = tmp_path / f"{stem}.toml"
     path.write_text(text)

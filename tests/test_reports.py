@@ -98,16 +98,14 @@ def test_incomplete_report_says_lower_bound_and_why(tmp_path):
     assert "INCOMPLETE" in pages[0]
 
 
-def test_contradicted_vendor_claim_is_named_on_page_one(tmp_path):
-    # examples/README.md: the spotlight is RG1 (blue light); hazard/claims.py: a computed group higher than
-    # the claimed one contradicts the claim
-    (tmp_path / "cl-spot-65.csv").write_bytes((LINEUP / "cl-spot-65.csv").read_bytes())
-    record = (LINEUP / "cl-spot-65.toml").read_text(encoding="utf-8") + 'claimed_risk_group = "Exempt"\n'
-    (tmp_path / "claimed.toml").write_text(record, encoding="utf-8")
-    a = hazard.assess(tmp_path / "claimed.toml")
-    assert [(c.claim, c.verdict) for c in a.claims] == [("risk group", "contradicted")]
-    pages = _pages(render_assessment_pdf(a, RENDERED_AT))
-    assert "1 CONTRADICTED (risk group: claimed Exempt, computed RG1)" in pages[0]
+def test_contradicted_vendor_claim_is_named_on_page_one(lineup, lineup_pdfs):
+    # examples/README.md: the spotlight is RG1 (blue light); examples/lineup/cl-spot-65.toml: its datasheet
+    # claims Exempt and 6500 K; hazard/claims.py: a computed group higher than the claimed one contradicts the
+    # claim (the CCT claim is checked with its own tolerance, consistent here)
+    a = lineup["cl-spot-65"]
+    assert [(c.claim, c.verdict) for c in a.claims] == [("risk group", "contradicted"), ("CCT", "consistent")]
+    pages = _pages(lineup_pdfs["cl-spot-65"])
+    assert "1 CONTRADICTED (risk group: claimed Exempt, computed RG1), 1 consistent" in pages[0]
     assert _normalise(a.claims[0].reason) in pages[1]
     summary = " ".join(_pages(render_summary_pdf([a], [], RENDERED_AT)))
     assert "1 vendor claim CONTRADICTED" in summary
@@ -121,6 +119,17 @@ def test_without_studies_the_report_has_two_pages(lineup):
     assert len(pages) == 2 and SECTION not in " ".join(pages)
     for caution in bare.cautions:
         assert _normalise(caution) in pages[-1]  # hazard/cautions.py: every caution in full at the end
+
+
+def test_page_one_names_the_page_the_studies_start_on(lineup):
+    # project contract: reports/product_pdf.py, page 1 points to the studies' page; 25 extra assumption lines
+    # make page 2 run over (beyond the slight shrink it allows), so the section starts on page 4
+    a = lineup["cl-heat-2k"]
+    long = a.model_copy(update={"assumptions": a.assumptions + [f"Assumption {i}: " + "an invented line. " * 12
+                                                                for i in range(25)]})
+    pages = _pages(render_assessment_pdf(long, RENDERED_AT))
+    assert [number for number, page in enumerate(pages, start=1) if page.startswith(SECTION)] == [4]
+    assert "— page 4" in pages[0] and "(page 4)" in pages[0] and "page 3" not in pages[0]
 
 
 def test_heater_distances_and_remedies_are_printed(lineup, lineup_pdfs):
@@ -153,20 +162,12 @@ def test_heater_distances_and_remedies_are_printed(lineup, lineup_pdfs):
     assert "enlarge emitting area ×836" in third  # blue light L_B is a radiance: a diffuser lowers it
 
 
-def _with_uncertainty(record: str, tmp_path: Path, extra: str = "") -> Assessment:
-    """The line-up record ``record`` with a 10 % (k = 2) and ±1 nm uncertainty (and ``extra`` TOML lines)."""
-    text = (LINEUP / f"{record}.toml").read_text(encoding="utf-8")
-    text = text.replace(f'spectrum = "{record}.csv"', f'spectrum = "{(LINEUP / f"{record}.csv").as_posix()}"')
-    path = tmp_path / f"{record}-u.toml"
-    path.write_text(text + "uncertainty_pct = 10\nwavelength_uncertainty_nm = 1\n" + extra, encoding="utf-8")
-    return hazard.assess(path)
-
-
-def test_uncertainty_verdict_is_printed_on_page_one_and_three(tmp_path):
-    # the spotlight assessed at 2700 mm, just nearer than where blue light reaches its Exempt limit: its L_B
-    # lies between 1 and 1/0.9 of that limit, so the -10 % variant is Exempt and the nominal one RG1; hazard/
-    # uncertainty.py: a product whose overall group differs between the variants is borderline
-    edge = _with_uncertainty("cl-spot-65", tmp_path, "at_distance_mm = 2700\n")
+def test_uncertainty_verdict_is_printed_on_page_one_and_three(lineup, lineup_pdfs):
+    # examples/lineup/cl-spot-65.toml states ±10 % (k = 2) and ±0.5 nm. Assessed at 2700 mm, just nearer than
+    # where its blue light reaches the Exempt limit, L_B lies between 1 and 1/0.9 of that limit, so the -10 %
+    # variant is Exempt and the nominal one RG1; hazard/uncertainty.py: a product whose overall group differs
+    # between the variants is borderline
+    edge = hazard.assess(LINEUP / "cl-spot-65.toml", {"at_distance_mm": 2700.0})
     assert edge.risk_group == "RG1" and 1.0 < edge.hazards["L_B"].margins["Exempt"] < 1 / 0.9
     assert edge.uncertainty.verdict == "borderline"
     pages = _pages(render_assessment_pdf(edge, RENDERED_AT))
@@ -178,9 +179,9 @@ def test_uncertainty_verdict_is_printed_on_page_one_and_three(tmp_path):
     assert "blue light (L_B)" in pages[2] and "Exempt to RG1 (changes)" in pages[2]
     # the heater's deciding E_IR is 2x its RG2 limit (examples/README.md, the result's margin): ±10 % cannot
     # move it out of RG3
-    robust = _with_uncertainty("cl-heat-2k", tmp_path)
+    robust = lineup["cl-heat-2k"]
     assert robust.uncertainty.verdict == "robust"
-    pages = _pages(render_assessment_pdf(robust, RENDERED_AT))
+    pages = _pages(lineup_pdfs["cl-heat-2k"])
     assert "Uncertainty: ROBUST" in pages[0] and "ROBUST — overall group RG3" in pages[2]
     assert "BORDERLINE" not in pages[0] and "(borderline)" not in pages[1]  # page 1; the running header
 
@@ -234,10 +235,11 @@ def test_without_dejavu_greek_is_spelled_out(tmp_path, monkeypatch, lineup):
 
 
 def _with_tightest(a: Assessment, new_id: str, group: str, margins: dict[str, float]) -> Assessment:
-    """``a`` re-labelled: one deciding hazard (E_UVA) in ``group`` with the given value/limit ratios."""
+    """``a`` re-labelled: one deciding hazard (E_UVA) in ``group`` with the given value/limit ratios, and no
+    uncertainty study (the line-up records state an uncertainty), so the margin rule flags it."""
     hazard_result = a.hazards["E_UVA"].model_copy(update={"risk_group": group, "margins": margins})
     return a.model_copy(update={"id": new_id, "risk_group": group, "deciding_hazards": ["E_UVA"],
-                                "hazards": {**a.hazards, "E_UVA": hazard_result}})
+                                "hazards": {**a.hazards, "E_UVA": hazard_result}, "uncertainty": None})
 
 
 def test_rank_orders_groups_then_headroom(lineup):
