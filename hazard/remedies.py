@@ -76,6 +76,19 @@ def _uv_bands(spectrum: Spectrum, to_assessment: float) -> dict[str, list[BandCo
     return out
 
 
+def _why_none(target: str, dimming: float | None, area: float | None) -> str:
+    notes = []
+    if dimming is None:
+        notes.append("dimming alone does not reach this group")
+    if area is None:
+        if target in _RADIANCE_FAMILIES:
+            notes.append(f"enlarging the area up to ×{_MAX_AREA_FACTOR:g} does not reach this group")
+        else:
+            notes.append("a diffuser changes radiance only; see the blue-light and retinal-thermal rows"
+                         if target == "product" else "no diffuser factor: not a radiance hazard")
+    return "; ".join(notes)
+
+
 def remedies_study(arrays: ProductArrays, spectrum: Spectrum, to_assessment: float, limit_set: LimitSet) -> Remedies:
     """Remedies for one product (one row of ``arrays``).
 
@@ -96,7 +109,8 @@ def remedies_study(arrays: ProductArrays, spectrum: Spectrum, to_assessment: flo
     dimming = _largest_dimming(arrays, limit_set, jobs) if jobs else []
     area_jobs = [(t, g) for t, g in jobs if t in _RADIANCE_FAMILIES]
     areas = dict(zip(area_jobs, _smallest_area(arrays, limit_set, area_jobs))) if area_jobs else {}
-    remedies = [Remedy(target=t, group=GROUPS[g], dimming_factor=f, area_factor=areas.get((t, g)))
+    remedies = [Remedy(target=t, group=GROUPS[g], dimming_factor=f, area_factor=areas.get((t, g)),
+                       note=_why_none(t, f, areas.get((t, g))))
                 for (t, g), f in zip(jobs, dimming)]
     return Remedies(remedies=remedies, uv_bands=_uv_bands(spectrum, to_assessment),
                     note="Dimming factors are the largest emission multipliers (or neutral filter transmissions) "

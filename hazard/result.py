@@ -190,7 +190,8 @@ class Remedy(_Frozen):
                                                      "transmission) [1]; null when not reachable.")
     area_factor: float | None = Field(description="Radiance hazards: enlarge the emitting area by this factor "
                                                   "(a diffuser, same power) [1]; null when not applicable or not "
-                                                  "reachable.")
+                                                  "reachable (see note).")
+    note: str = Field("", description="Why a factor is null, when it is.")
 
 
 class BandContribution(_Frozen):
