@@ -156,20 +156,22 @@ def safe_file_stem(product_id: str) -> str:
     return re.sub(r"[^A-Za-z0-9._-]", "_", product_id).strip(".") or "product"
 
 
-def _render_one(job: tuple[str, str, str | None]) -> None:
+def _render_one(job: tuple[str, str]) -> None:
     """Worker: render one saved result to a PDF file (top level, so a process pool can call it)."""
     from reports import render_assessment_pdf, report_time
 
-    text, target, _ = job
+    text, target = job
     write_atomic(Path(target), render_assessment_pdf(Assessment.model_validate_json(text), report_time()))
 
 
 def _write_pdfs(folder: Path, outcome: BatchOutcome, lines: dict[str, str], jobs: int) -> None:
     from reports import render_summary_pdf, report_time
+    from reports.fonts import report_fonts
 
-    work = [(lines[i], str(folder / f"{safe_file_stem(i)}.pdf"), None) for i in outcome.ids if i in lines]
+    work = [(lines[i], str(folder / f"{safe_file_stem(i)}.pdf")) for i in outcome.ids if i in lines]
     progress = Progress(len(work), "reports")
     if jobs > 1 and len(work) > 1:
+        report_fonts()  # register the fonts once here; the workers inherit them
         with ProcessPoolExecutor(max_workers=jobs) as pool:
             for _ in pool.map(_render_one, work, chunksize=4):
                 progress.advance()

@@ -446,9 +446,10 @@ _LEAST_SCALE = 0.88
 def _fit_page(content: list[Flowable], least_scale: float = 0.0) -> list[Flowable]:
     """``content`` on one page, shrunk when it runs long, unless that needs a scale below ``least_scale``
     (then as it is, to flow on)."""
-    height = sum(f.wrap(FRAME_WIDTH, FRAME_HEIGHT)[1] + f.getSpaceBefore() + f.getSpaceAfter() for f in content)
-    if least_scale and height * least_scale > FRAME_HEIGHT:
-        return content
+    if least_scale:  # measuring lays the content out once more: only when it may run on
+        height = sum(f.wrap(FRAME_WIDTH, FRAME_HEIGHT)[1] + f.getSpaceBefore() + f.getSpaceAfter() for f in content)
+        if height * least_scale > FRAME_HEIGHT:
+            return content
     return [KeepInFrame(FRAME_WIDTH, FRAME_HEIGHT, content, mode="shrink")]
 
 
