@@ -51,10 +51,6 @@ class Spectrum:
         """Shortest and longest wavelength [nm]."""
         return float(self.wavelength_nm[0]), float(self.wavelength_nm[-1])
 
-    def scaled(self, factor: float, quantity: str) -> "Spectrum":
-        """The same spectrum multiplied by ``factor`` [1] and relabelled as ``quantity``."""
-        return Spectrum(self.wavelength_nm, self.value * factor, quantity, self.path, self.warnings)
-
 
 def validate_spectrum(wavelength_nm: np.ndarray, value: np.ndarray, lines: np.ndarray, path: str,
                       factor_to_si: float, quantity: str, warnings: tuple[str, ...] = ()) -> Spectrum:
