@@ -13,6 +13,7 @@ import numpy as np
 
 from hazard.engine import BatchEvaluation, evaluate_loaded, evaluate_products
 from hazard.errors import InputError
+from hazard.evaluate import integral_specs
 from hazard.hazards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
 from hazard.inputs import LoadedProduct, load_product, product_from_record
 from hazard.integrals import Integrated, integrate_matrix
@@ -68,15 +69,15 @@ def _check_grid(wavelength_nm: np.ndarray, spectra: np.ndarray) -> None:
         raise ValueError("wavelength_nm must be strictly increasing [nm]")
 
 
-def _value_problem(peak: float, lowest: float) -> str | None:
-    """Why a spectrum with these extremes breaks the value rules of method §5, or None."""
+def _value_problem(peak: float, lowest: float) -> str:
+    """Why a spectrum with these extremes breaks the value rules of method §5 (or cannot be anchored)."""
     if not (np.isfinite(peak) and np.isfinite(lowest)):
         return "a value is not finite (NaN or infinity)"
     if peak <= 0:
         return "no positive value"
     if lowest < -NEGATIVE_TOLERANCE * peak:
         return f"negative beyond dark noise ({NEGATIVE_TOLERANCE:.0%} of the peak)"
-    return None
+    return "a relative spectrum with no light within V(λ) cannot be scaled by a photometric anchor"
 
 
 def _distinct(records) -> tuple[list, list[str], np.ndarray]:
@@ -194,8 +195,11 @@ def assess_many(records, wavelength_nm: np.ndarray | None = None, spectra: np.nd
     flags = np.array([ok and r.no_emission_outside for r, ok in zip(validated, is_record)])[index]
     integrated, peak, lowest = integrate_matrix(np.asarray(wavelength_nm, dtype=float), spectra, flags, limit_set,
                                                 factors)
+    visual = integrated.raw[:, [s.key for s in integral_specs(limit_set)].index("V")]
+    relative = np.array([ok and r.quantity == "relative" for r, ok in zip(validated, is_record)])[index]
     valid_values = (np.isfinite(peak) & np.isfinite(lowest) & (peak > 0)
-                    & (lowest >= -NEGATIVE_TOLERANCE * np.where(np.isfinite(peak), peak, 0)))
+                    & (lowest >= -NEGATIVE_TOLERANCE * np.where(np.isfinite(peak), peak, 0))
+                    & ~(relative & ~(visual > 0)))
     errors = {}
     for i in np.flatnonzero(~np.array(is_record)[index] | ~valid_values | (np.array(ids) == "")):
         problem = validated[index[i]]
