@@ -112,7 +112,8 @@ def render_claims(assessment: Assessment) -> list[str]:
 
 
 def render_batch_table(ids: list[str], assessments: dict[str, Assessment], errors: dict[str, str]) -> str:
-    """One line per product: id, overall group, completeness, the deciding hazards, and any error.
+    """One line per product: id, overall group, completeness, the deciding hazards and margin, flags
+    (borderline within the stated uncertainty, contradicted vendor claims), or the error.
 
     Parameters
     ----------
@@ -126,7 +127,7 @@ def render_batch_table(ids: list[str], assessments: dict[str, Assessment], error
     rows = []
     for product_id in ids:
         if product_id in errors:
-            rows.append((product_id, "error", "", "", errors[product_id]))
+            rows.append((product_id, "error", "", "", "", errors[product_id]))
             continue
         a = assessments[product_id]
         deciding = ", ".join(a.deciding_hazards) if a.risk_group != "Exempt" else ""
@@ -134,9 +135,16 @@ def render_batch_table(ids: list[str], assessments: dict[str, Assessment], error
         if a.deciding_hazards and a.risk_group != "Exempt":
             h = a.hazards[a.deciding_hazards[0]]
             margin = format_margin(h.risk_group, h.margins)
-        rows.append((product_id, a.risk_group, "complete" if a.complete else "INCOMPLETE", deciding, margin))
-    header = ("Product", "Group", "Assessment", "Set by", "Margin / error")
-    widths = [max(len(r[i]) for r in [header, *rows]) for i in range(4)]
-    line = lambda r: "  ".join([*(c.ljust(w) for c, w in zip(r[:4], widths)), r[4]]).rstrip()  # noqa: E731
-    return "\n".join([line(header), line(tuple("-" * w for w in widths) + ("-" * 14,)),
+        flags = []
+        if a.uncertainty is not None and a.uncertainty.verdict == "borderline":
+            flags.append(f"BORDERLINE {a.uncertainty.risk_group_low}-{a.uncertainty.risk_group_high}")
+        contradicted = sum(c.verdict == "contradicted" for c in a.claims)
+        if contradicted:
+            flags.append(f"{contradicted} claim(s) CONTRADICTED")
+        rows.append((product_id, a.risk_group, "complete" if a.complete else "INCOMPLETE", deciding, margin,
+                     "; ".join(flags)))
+    header = ("Product", "Group", "Assessment", "Set by", "Margin", "Flags / error")
+    widths = [max(len(r[i]) for r in [header, *rows]) for i in range(5)]
+    line = lambda r: "  ".join([*(c.ljust(w) for c, w in zip(r[:5], widths)), r[5]]).rstrip()  # noqa: E731
+    return "\n".join([line(header), line(tuple("-" * w for w in widths) + ("-" * 13,)),
                       *(line(r) for r in rows)]) + "\n"
