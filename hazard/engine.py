@@ -16,6 +16,7 @@ from hazard.cautions import select_cautions
 from hazard.claims import DEFAULT_TOLERANCES, ClaimTolerances, check_claims
 from hazard.distances import distance_study
 from hazard.evaluate import Evaluation, ProductArrays, evaluate, integral_specs
+from hazard.formatting import format_duration_s
 from hazard.geometry import FIVE_TIMES_RULE, SourceShape
 from hazard.hazards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
 from hazard.inputs import LoadedProduct, load_product, product_from_record
@@ -136,6 +137,9 @@ def _hazard_results(ev: Evaluation, i: int, spectrum_range: tuple[float, float])
             note = f"Assessed over {band}."
             if spec.exposure_limit is None and h.group_index[i] > 0:
                 note += " Above the limit for exposures longer than 10 s; that limit defines no t_max."
+        if h.assessed[i] and spec.exposure_limit is not None and h.t_max_s[i] < spec.exposure_limit.t_range_s[0]:
+            note += (f" t_max is below the {format_duration_s(spec.exposure_limit.t_range_s[0])} lower end of the "
+                     f"limit's range, so it is an extrapolation: treat it as immediate.")
         results[symbol] = HazardResult(
             symbol=symbol, title=spec.title, band_nm=spec.band_nm,
             weighting=None if spec.table is None else load_table(spec.table).symbol,

@@ -150,7 +150,8 @@ class DistanceStudy(_Frozen):
                                                                "[s]; null where the limit is not reached.")
     boundaries: list[BoundaryDistance]
     minimum_distance_mm: dict[str, float | None] = Field(description="Least distance beyond which the product is "
-                                                                     "in each group or lower [mm]; null when not "
+                                                                     "in each group or lower [mm]; 0 when it is "
+                                                                     "at every distance from 10 mm; null when not "
                                                                      "reached within 100 m.")
     near_field_below_mm: float = Field(description="Five source sizes: nearer, inverse-square values are "
                                                    "approximate [mm].")
