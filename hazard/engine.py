@@ -194,11 +194,13 @@ def _warnings(loaded: LoadedProduct, ev: Evaluation, i: int, v_covered: bool) ->
     if ev.illuminance_lx[i] > PLAUSIBLE_MAX_ILLUMINANCE_LX:
         warnings.append(f"illuminance {ev.illuminance_lx[i]:.3g} lx at the assessment distance is above "
                         f"{PLAUSIBLE_MAX_ILLUMINANCE_LX:.0f} lx: check the unit and the distance")
-    if record.quantity == "irradiance":
-        peak = float(spectrum.value.max())
+    if irradiance_input:
+        peak = float(spectrum.value.max() * ev.anchor_scale[i])
         if not PLAUSIBLE_PEAK_IRRADIANCE[0] <= peak <= PLAUSIBLE_PEAK_IRRADIANCE[1]:
-            warnings.append(f"peak spectral irradiance {peak:.3g} W/m2/nm is implausible for a lamp: check "
-                            f"the unit ({record.unit_text!r}); a factor of 10^3 or 10^4 is a common slip")
+            cause = ("the anchor (a relative spectrum with little light within V(λ) is scaled enormously)"
+                     if record.quantity == "relative" else
+                     f"the unit ({record.unit_text!r}); a factor of 10^3 or 10^4 is a common slip")
+            warnings.append(f"peak spectral irradiance {peak:.3g} W/m2/nm is implausible for a lamp: check {cause}")
     if record.quantity == "radiance":
         fov = record.measurement_fov_mrad
         if fov is None:

@@ -161,6 +161,8 @@ class HazardBounds(_Frozen):
     """One hazard family within the measurement uncertainty."""
 
     family: str
+    criterion: str | None = Field(None, description="The family member assessed at the nominal point, e.g. L_B.")
+    unit: str | None = Field(None, description="Unit of the values.")
     value_low: float | None = Field(description="Lowest value over the uncertainty variants [unit].")
     value_high: float | None
     value_shift_minus: float | None = Field(description="Value with the wavelength scale shifted by −Δλ.")

@@ -58,8 +58,11 @@ def uncertainty_study(arrays: ProductArrays, spectrum: Spectrum, no_emission_out
             continue
         finite = values[~np.isnan(values)]
         assessed = groups[groups >= 0]
+        member = next((ev.hazards[m] for m in members if ev.hazards[m].applicable[nominal]), None)
         bounds.append(HazardBounds(
-            family=name, value_low=float(finite.min()), value_high=float(finite.max()),
+            family=name, criterion=None if member is None else member.hazard.symbol,
+            unit=None if member is None else member.hazard.unit,
+            value_low=float(finite.min()), value_high=float(finite.max()),
             value_shift_minus=None if np.isnan(values[minus]) else float(values[minus]),
             value_shift_plus=None if np.isnan(values[plus]) else float(values[plus]),
             group_low=GROUPS[assessed.min()] if assessed.size else None,
