@@ -96,7 +96,8 @@ def _studies(a: Assessment) -> list[str]:
             if r.area_factor is not None:
                 lines.append(f"  {r.target} → {r.group}: or enlarge the emitting area ×{r.area_factor:.3g} (diffuser)")
         for symbol, bands in a.remedies.uv_bands.items():
-            top = ", ".join(f"{b.band_nm[0]:g}–{b.band_nm[1]:g} nm {b.share:.0%}" for b in bands[:3])
+            shown = [b for k, b in enumerate(bands[:3]) if k == 0 or b.share >= 0.01]  # the rest is noise
+            top = ", ".join(f"{b.band_nm[0]:g}–{b.band_nm[1]:g} nm {b.share * 100:.2g} %" for b in shown)
             lines.append(f"  {symbol} comes mostly from {top}")
     return lines
 
