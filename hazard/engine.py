@@ -258,7 +258,7 @@ def _anchor_text(record: ProductRecord, scale: float) -> str:
                   f"{record.reference_distance_mm:g} mm by the inverse-square law")
     else:
         target = f"{record.luminance_cd_m2:g} cd/m2 (so the spectrum is read as a radiance)"
-    unit = "W/m2/sr/nm" if record.effective_quantity == "radiance" else "W/m2/nm"
+    unit = record.unit_text  # the SI unit the anchor scales the relative spectrum into
     return (f"Relative spectrum scaled by {scale:.6g} {unit} per unit so that 683 lm/W · ∫S(λ)V(λ)dλ reproduces "
             f"the stated {target}; every absolute value rests on that figure and on the spectrum's shape.")
 

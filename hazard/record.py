@@ -23,11 +23,11 @@ from pydantic import (
 )
 
 from hazard.errors import InputError
-from hazard.units import parse_spectral_unit
+from hazard.units import IRRADIANCE_SI, RADIANCE_SI, parse_spectral_unit
 
 __all__ = ["ProductRecord", "load_record", "record_from_fields"]
 
-_DEFAULT_UNIT = {"irradiance": "W/m2/nm", "radiance": "W/m2/sr/nm"}
+_DEFAULT_UNIT = {"irradiance": IRRADIANCE_SI, "radiance": RADIANCE_SI}
 HAZARD_SYMBOLS = ("E_S", "E_UVA", "L_B", "E_B", "L_R", "L_IR", "E_IR", "E_H")
 """Symbols that may carry a claimed t_max (``claimed_t_max_s_<SYMBOL>``)."""
 RELATIVE_UNITS = ("relative", "rel", "a.u.", "au", "arb", "1", "counts")
@@ -153,7 +153,7 @@ class ProductRecord(BaseModel):
     def unit_text(self) -> str:
         """The unit as given, or the default for the quantity (relative spectra keep their own scale)."""
         if self.quantity == "relative":
-            return "W/m2/sr/nm" if self.luminance_cd_m2 is not None else "W/m2/nm"
+            return RADIANCE_SI if self.luminance_cd_m2 is not None else IRRADIANCE_SI
         return self.unit or _DEFAULT_UNIT[self.quantity]
 
     @property

@@ -41,11 +41,6 @@ class SpectralUnit:
     factor_to_si: float
     per_steradian: bool
 
-    @property
-    def si_text(self) -> str:
-        """The SI unit the values are converted to."""
-        return RADIANCE_SI if self.per_steradian else IRRADIANCE_SI
-
 
 def _normalise(text: str) -> str:
     table = str.maketrans({"µ": "u", "μ": "u", "²": "2", "⁻": "-", "¹": "1", "·": " ", "⋅": " ",

@@ -6,6 +6,7 @@ the header and footer when the document is saved.
 
 from __future__ import annotations
 
+import datetime
 import io
 from functools import partial
 
@@ -14,8 +15,9 @@ from reportlab.lib.units import mm
 from reportlab.pdfgen.canvas import Canvas
 from reportlab.platypus import Flowable, SimpleDocTemplate
 
-from reports.fonts import FontSet
-from reports.style import INK, MUTED, RULE
+from reports.fonts import FontSet, report_fonts
+from reports.style import INK, MUTED, RULE, Styles
+from reports.timestamp import report_time
 from reports.wording import FOOTER
 
 __all__ = ["PAGE_WIDTH", "PAGE_HEIGHT", "MARGIN", "FRAME_WIDTH", "FRAME_HEIGHT", "build_pdf"]
@@ -96,3 +98,10 @@ def build_pdf(flowables: list[Flowable], fonts: FontSet, title: str, header: str
                             subject="Photobiological safety pre-screen", invariant=1)
     doc.build(flowables, canvasmaker=partial(_FramedCanvas, fonts=fonts, header=header))
     return buffer.getvalue()
+
+
+def start_report(rendered_at: datetime.datetime | None) -> tuple[datetime.datetime, FontSet, Styles]:
+    """What every report begins with: the time to print (``rendered_at``, else :func:`report_time`), the
+    fonts and the paragraph styles in them."""
+    fonts = report_fonts()
+    return rendered_at or report_time(), fonts, Styles(fonts)

@@ -17,12 +17,11 @@ from reportlab.platypus import CondPageBreak, Flowable, KeepInFrame, KeepTogethe
 from hazard.formatting import UNIT_DISPLAY, format_duration_s, format_limit, format_margin, format_value
 from hazard.result import Assessment, HazardResult
 from reports.charts import margin_chart, spectrum_chart
-from reports.fonts import report_fonts
-from reports.layout import FRAME_HEIGHT, FRAME_WIDTH, build_pdf
+from reports.layout import FRAME_HEIGHT, FRAME_WIDTH, build_pdf, start_report
 from reports.ranking import tightest_margin
 from reports.studies import has_studies, studies_section, study_summary, uncertainty_summary
 from reports.style import HAIRLINE, INK, PANEL, Styles, fit_widths, group_fill, group_ink, table_style
-from reports.timestamp import format_report_time, report_time
+from reports.timestamp import format_report_time
 from reports.wording import GROUP_MEANING, GROUP_NAME, LOWER_BOUND, LOWER_BOUND_MEANING
 
 __all__ = ["render_assessment_pdf"]
@@ -420,9 +419,7 @@ def render_assessment_pdf(assessment: Assessment, rendered_at: datetime.datetime
     ValueError
         When ``rendered_at`` has no timezone.
     """
-    moment = rendered_at or report_time()
-    fonts = report_fonts()
-    st = Styles(fonts)
+    moment, fonts, st = start_report(rendered_at)
     a = assessment
     title = f"{a.id} — photobiological safety pre-screen ({a.risk_group})"
     borderline = a.uncertainty is not None and a.uncertainty.verdict == "borderline"

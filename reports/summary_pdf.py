@@ -14,12 +14,11 @@ from reportlab.platypus import Flowable, Spacer, Table
 from hazard.formatting import format_margin
 from hazard.hazards import GROUPS
 from hazard.result import Assessment
-from reports.fonts import report_fonts
-from reports.layout import FRAME_WIDTH, build_pdf
+from reports.layout import FRAME_WIDTH, build_pdf, start_report
 from reports.ranking import BORDERLINE_FACTOR, is_borderline, rank_assessments, tightest_margin
 from reports.studies import minimum_text
 from reports.style import INK, Styles, group_fill, group_ink, table_style
-from reports.timestamp import format_report_time, report_time
+from reports.timestamp import format_report_time
 
 __all__ = ["render_summary_pdf"]
 
@@ -156,9 +155,7 @@ def render_summary_pdf(assessments: list[Assessment], errors: list[tuple[str, st
     ValueError
         When ``rendered_at`` has no timezone.
     """
-    moment = rendered_at or report_time()
-    fonts = report_fonts()
-    st = Styles(fonts)
+    moment, fonts, st = start_report(rendered_at)
     versions = sorted({a.provenance.tool_version for a in assessments})
     low, high = 1 / BORDERLINE_FACTOR, BORDERLINE_FACTOR
     story = [

@@ -14,6 +14,7 @@ from pypdf import PdfReader
 
 import hazard
 import reports.fonts
+import reports.layout
 import reports.product_pdf
 import reports.studies
 import reports.timestamp
@@ -227,7 +228,7 @@ def test_without_dejavu_greek_is_spelled_out(tmp_path, monkeypatch, lineup):
     # reportlab's bundled Vera.ttf has no U+03B1 α, U+03BB λ, U+03B3 γ (its character map)
     fallback = register_fonts(tmp_path)  # an empty folder: DejaVu Sans is not there
     assert (fallback.regular, fallback.greek) == ("Vera", False)
-    monkeypatch.setattr(reports.product_pdf, "report_fonts", lambda: fallback)
+    monkeypatch.setattr(reports.layout, "report_fonts", lambda: fallback)
     text = " ".join(_pages(render_assessment_pdf(lineup["cl-pip-470"], RENDERED_AT)))
     assert "alpha" in text and "lambda" in text and "gamma" in text
     assert not {"α", "λ", "γ"} & set(text)
