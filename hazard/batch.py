@@ -28,6 +28,7 @@ from pathlib import Path
 from hazard.atomic import write_atomic
 from hazard.engine import build_assessment, evaluate_loaded
 from hazard.errors import InputError
+from hazard.formatting import NOT_DETERMINED
 from hazard.hazards import DEFAULT_LIMIT_SET, LimitSet
 from hazard.inputs import LoadedProduct, product_from_record
 from hazard.manifest import ManifestRow, read_manifest
@@ -117,7 +118,8 @@ def summary_rows(outcome: BatchOutcome, limit_set: LimitSet = DEFAULT_LIMIT_SET)
     """One summary row per product, in manifest order (the columns of ``summary.csv``)."""
     rows = []
     for product_id in outcome.ids:
-        row = {"id": product_id, "status": "ok", "risk_group": "", "complete": "", "warning_count": "",
+        row = {"id": product_id, "status": "ok", "risk_group": "", "group_note": "", "complete": "", "basis": "",
+               "standard_risk_group": "", "warning_count": "",
                "claims_contradicted": "", "claims": "", "uncertainty": "", "group_range": "",
                "min_distance_exempt_mm": "", "error": ""}
         row.update(dict.fromkeys(_hazard_columns(limit_set), ""))
@@ -125,7 +127,10 @@ def summary_rows(outcome: BatchOutcome, limit_set: LimitSet = DEFAULT_LIMIT_SET)
             row.update(status="error", error=outcome.errors[product_id])
         else:
             a = outcome.assessments[product_id]
-            row.update(risk_group=a.risk_group, complete=str(a.complete).lower(), warning_count=len(a.warnings),
+            row.update(risk_group=a.risk_group or NOT_DETERMINED, complete=str(a.complete).lower(), basis=a.basis,
+                       group_note="" if a.complete or a.risk_group is None else "lower bound",
+                       standard_risk_group=("" if a.basis == "standard" else a.standard_risk_group or NOT_DETERMINED),
+                       warning_count=len(a.warnings),
                        claims_contradicted=sum(c.verdict == "contradicted" for c in a.claims),
                        claims="; ".join(f"{c.field}: {c.verdict}" for c in a.claims))
             if a.uncertainty is not None:
@@ -142,8 +147,9 @@ def summary_rows(outcome: BatchOutcome, limit_set: LimitSet = DEFAULT_LIMIT_SET)
 
 
 def _summary_csv(outcome: BatchOutcome, limit_set: LimitSet) -> bytes:
-    columns = ["id", "status", "risk_group", "complete", *_hazard_columns(limit_set), "warning_count",
-               "claims_contradicted", "claims", "uncertainty", "group_range", "min_distance_exempt_mm", "error"]
+    columns = ["id", "status", "risk_group", "group_note", "complete", "basis", "standard_risk_group",
+               *_hazard_columns(limit_set), "warning_count", "claims_contradicted", "claims", "uncertainty",
+               "group_range", "min_distance_exempt_mm", "error"]
     buffer = io.StringIO()
     writer = csv.DictWriter(buffer, fieldnames=columns, lineterminator="\n")
     writer.writeheader()

@@ -10,6 +10,9 @@ __all__ = ["PRE_SCREEN", "select_cautions"]
 PRE_SCREEN = ("Pre-screen only, not a certification: the risk group here is computed from the data supplied. "
               "Only an accredited laboratory, measuring under the applicable standard and local regulations, "
               "can classify this product.")
+_NOT_DETERMINED = ("No risk group could be determined: none of the hazards with risk groups could be assessed "
+                   "from this spectrum. Do not read this result as safe; measure the missing wavelength range "
+                   "first.")
 _INCOMPLETE = ("Some hazards could not be assessed from this spectrum, so the group shown is a lower bound; "
                "the product may belong to a higher group.")
 _UV = ("Ultraviolet emission: shield eyes and skin (UV-blocking eyewear, covered skin) and keep people out "
@@ -24,7 +27,8 @@ _INFRARED = ("Infrared and heat: the eye and skin can be overheated by radiation
 _RANK = {"Exempt": 0, "RG1": 1, "RG2": 2, "RG3": 3}
 
 
-def select_cautions(groups: dict[str, str | None], complete: bool, uvc_fraction: float) -> list[str]:
+def select_cautions(groups: dict[str, str | None], complete: bool, uvc_fraction: float,
+                    determined: bool = True) -> list[str]:
     """Cautions for a product.
 
     Parameters
@@ -35,6 +39,8 @@ def select_cautions(groups: dict[str, str | None], complete: bool, uvc_fraction:
         Every applicable hazard was assessed.
     uvc_fraction : float
         Share of the S_UV-weighted irradiance below 280 nm [1].
+    determined : bool
+        A risk group was determined (some hazard with risk groups was assessed).
 
     Returns
     -------
@@ -50,7 +56,9 @@ def select_cautions(groups: dict[str, str | None], complete: bool, uvc_fraction:
         return any(_RANK.get(groups.get(s) or "", -1) >= _RANK[group] for s in symbols)
 
     cautions = [PRE_SCREEN]
-    if not complete:
+    if not determined:
+        cautions.append(_NOT_DETERMINED)
+    elif not complete:
         cautions.append(_INCOMPLETE)
     if at_least(("E_S", "E_UVA"), "RG1"):
         cautions.append(_UV)

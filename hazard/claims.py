@@ -41,9 +41,12 @@ class ClaimTolerances:
 DEFAULT_TOLERANCES = ClaimTolerances()
 
 
-def _group_claim(claimed: str, computed: str, complete: bool, not_assessed: list[str]) -> ClaimCheck:
+def _group_claim(claimed: str, computed: str | None, complete: bool, not_assessed: list[str]) -> ClaimCheck:
     base = dict(claim="risk group", field="claimed_risk_group", claimed=claimed, computed=computed,
                 tolerance="none: groups are compared as ordered classes")
+    if computed is None:
+        return ClaimCheck(**base, verdict="not checkable",
+                          reason=f"no risk group could be determined: {', '.join(not_assessed)} not assessed")
     worse = GROUPS.index(computed) > GROUPS.index(claimed)
     if worse:
         qualifier = "at least " if not complete else ""
@@ -87,7 +90,7 @@ def _t_max_claim(symbol: str, claimed: float, hazard: HazardResult | None, toler
                              + (" is shorter than claimed" if shorter else " is not shorter than claimed"))
 
 
-def check_claims(record: ProductRecord, *, risk_group: str, complete: bool, not_assessed: list[str],
+def check_claims(record: ProductRecord, *, risk_group: str | None, complete: bool, not_assessed: list[str],
                  hazards: dict[str, HazardResult], cct_k: float | None, cct_reason: str,
                  illuminance_at_record_distance_lx: float | None, assessment_distance_mm: float,
                  tolerances: ClaimTolerances = DEFAULT_TOLERANCES) -> list[ClaimCheck]:

@@ -134,25 +134,53 @@ def _write_report(assessment, pdf_path: Path) -> None:
 @click.argument("result", type=click.Path(dir_okay=False, path_type=Path))
 @click.option("--output", type=click.Path(dir_okay=False, path_type=Path), required=True,
               help="PDF file to write.")
-def report(result: Path, output: Path) -> None:
-    """Render the PDF report of a saved JSON result (from `hazard assess --format json`), without
-    recomputing it."""
+@click.option("--id", "product_id", help="With a results.jsonl of 'hazard batch': the product to render.")
+def report(result: Path, output: Path, product_id: str | None) -> None:
+    """Render the PDF report of a saved result (from `hazard assess --format json`, or one product of a
+    batch's results.jsonl with --id), without recomputing it. The result is checked first: its groups must
+    follow from its own values and limits."""
+    from hazard.errors import InputError
+    from hazard.verify import check_result
+
+    assessment = _load_result(result, product_id)
+    check_result(assessment, str(result))
+    if output.resolve() == result.resolve():
+        raise InputError("the PDF would replace the result it is made from", "give another --output", str(output))
+    _write_report(assessment, output)
+
+
+def _load_result(path: Path, product_id: str | None):
+    """A saved assessment: the whole JSON file, or the line of a JSON-lines file whose id is ``product_id``."""
     from pydantic import ValidationError
 
     from hazard.errors import InputError
     from hazard.result import Assessment
 
+    fix = "give a JSON file written by 'hazard assess --format json', or a results.jsonl with --id"
     try:
-        assessment = Assessment.model_validate_json(result.read_bytes())
+        raw = path.read_bytes()
     except FileNotFoundError:
-        raise InputError("result file not found", "give a JSON file written by 'hazard assess --format json'",
-                         str(result)) from None
+        raise InputError("result file not found", fix, str(path)) from None
+    except OSError as exc:
+        raise InputError(f"cannot read the result ({exc.strerror})", fix, str(path)) from None
+    line_number = None
+    if product_id is not None:
+        for number, line in enumerate(raw.splitlines(), start=1):
+            try:
+                if json.loads(line).get("id") == product_id:
+                    raw, line_number = line, number
+                    break
+            except (ValueError, AttributeError):
+                continue
+        else:
+            raise InputError(f"no result with id {product_id!r}", "check the id (see summary.csv)", str(path))
+    try:
+        return Assessment.model_validate_json(raw)
     except ValidationError as exc:
         first = exc.errors()[0]
-        raise InputError(f"not an assessment result ({first['msg']} at {'.'.join(map(str, first['loc']))})",
-                         "give a JSON file written by 'hazard assess --format json' of this tool version",
-                         str(result)) from None
-    _write_report(assessment, output)
+        where = ".".join(map(str, first["loc"])) or "the top level"
+        raise InputError(f"not an assessment result of this tool version ({first['msg']} at {where})", fix,
+                         str(path), line_number) from None
 
 
 def _finish_batch(outcome, output: Path, pdf: bool) -> None:

@@ -10,28 +10,30 @@ from __future__ import annotations
 import numpy as np
 
 from hazard.evaluate import ProductArrays
-from hazard.families import evaluate_rows, family_groups, family_margins, family_t_max, overall_groups
+from hazard.families import evaluate_rows, family_groups, family_t_max, overall_groups
 from hazard.hazards import GROUPS, LimitSet
 from hazard.result import BoundaryDistance, DistanceStudy
+from hazard.search import log_search
 
 __all__ = ["distance_study", "SEARCH_RANGE_M", "CURVE_POINTS"]
 
 SEARCH_RANGE_M = (0.01, 100.0)
 """Distances searched, 10 mm to 100 m [m]."""
 CURVE_POINTS = 121
-_BISECTIONS = 32  # the bracket spans one grid step (8 %): 32 halvings leave < 1e-10
 
 
-def _crossings(arrays: ProductArrays, limit_set: LimitSet, grid: np.ndarray, margins: dict[str, np.ndarray]
+def _crossings(arrays: ProductArrays, limit_set: LimitSet, grid: np.ndarray, groups: dict[str, np.ndarray]
                ) -> dict[tuple[str, int], tuple[float | None, str]]:
-    """Distance beyond which each family stays within each boundary [m]: bracketed on the grid, then all
-    brackets bisected together (one evaluation of every open bracket per step)."""
+    """Distance beyond which each family stays in group ``k`` or lower, for k = Exempt, RG1, RG2 [m]: bracketed
+    on the grid, then all brackets narrowed together by :func:`hazard.search.log_search`. The
+    group is the top-down one (:mod:`hazard.classify`), so a boundary distance is where the product's group
+    really changes, whichever boundary's field of view decides it."""
     families = dict(limit_set.families)
     result, open_jobs = {}, []
-    for name, m in margins.items():
+    for name, g in groups.items():
         for k in range(3):
-            above = np.flatnonzero(m[:, k] > 1)
-            if np.all(np.isnan(m[:, k])):
+            above = np.flatnonzero(g > k)
+            if np.all(g < 0):
                 result[(name, k)] = (None, "not assessed")
             elif above.size == 0:
                 result[(name, k)] = (None, f"within at every distance from {grid[0] * 1e3:.0f} mm")
@@ -41,15 +43,19 @@ def _crossings(arrays: ProductArrays, limit_set: LimitSet, grid: np.ndarray, mar
                 open_jobs.append((name, k, np.log(grid[above[-1]]), np.log(grid[above[-1] + 1])))
     if not open_jobs:
         return result
-    lo = np.array([j[2] for j in open_jobs])
-    hi = np.array([j[3] for j in open_jobs])
-    for _ in range(_BISECTIONS):
-        mid = (lo + hi) / 2
-        ev = evaluate_rows(arrays, mid.size, limit_set, forced_distance_m=np.exp(mid))
-        beyond = np.array([family_margins(ev, families[name])[i, k] > 1 for i, (name, k, _, _) in enumerate(open_jobs)])
-        lo, hi = np.where(beyond, mid, lo), np.where(beyond, hi, mid)
+
+    def within(distance_m: np.ndarray, index: np.ndarray) -> np.ndarray:
+        ev = evaluate_rows(arrays, distance_m.size, limit_set, forced_distance_m=distance_m.ravel())
+        job = np.repeat(index, distance_m.shape[1])
+        ok = np.empty(distance_m.size, dtype=bool)
+        for name in {open_jobs[j][0] for j in index}:
+            rows = np.flatnonzero([open_jobs[j][0] == name for j in job])
+            ok[rows] = family_groups(ev, families[name])[rows] <= np.array([open_jobs[j][1] for j in job[rows]])
+        return ok.reshape(distance_m.shape)
+
+    _, found = log_search(within, np.exp([j[2] for j in open_jobs]), np.exp([j[3] for j in open_jobs]))
     for i, (name, k, _, _) in enumerate(open_jobs):
-        result[(name, k)] = (float(np.exp(hi[i])), "reassessed to the boundary by bisection")
+        result[(name, k)] = (float(found[i]), "reassessed to the boundary")
     return result
 
 
@@ -65,7 +71,7 @@ def distance_study(arrays: ProductArrays, limit_set: LimitSet, largest_dimension
     """
     grid = np.geomspace(*SEARCH_RANGE_M, CURVE_POINTS)
     ev = evaluate_rows(arrays, grid.size, limit_set, forced_distance_m=grid)
-    crossings = _crossings(arrays, limit_set, grid, {name: family_margins(ev, members)
+    crossings = _crossings(arrays, limit_set, grid, {name: family_groups(ev, members)
                                                      for name, members in limit_set.families})
     found_at = [(key, d) for key, (d, _) in crossings.items() if d is not None]
     criteria = {}
@@ -83,6 +89,8 @@ def distance_study(arrays: ProductArrays, limit_set: LimitSet, largest_dimension
                                                else distance_m * 1e3, criterion=criteria.get((name, k)), note=how))
     for k, group in enumerate(GROUPS[:3]):
         found = [b for b in boundaries if b.group == group and b.note != "not assessed"]
+        if not found:
+            continue  # no family assessed: nothing to say about this group (never "at any distance")
         if any(b.note.startswith("not within") for b in found):
             minimum[group] = None
         else:

@@ -6,6 +6,7 @@ grid (:mod:`hazard.weighting`) → values, limits and groups (:mod:`hazard.evalu
 
 from __future__ import annotations
 
+import dataclasses
 from dataclasses import dataclass
 from pathlib import Path
 
@@ -16,7 +17,7 @@ from hazard.cautions import select_cautions
 from hazard.claims import DEFAULT_TOLERANCES, ClaimTolerances, check_claims
 from hazard.distances import distance_study
 from hazard.evaluate import Evaluation, ProductArrays, evaluate, integral_specs
-from hazard.formatting import format_duration_s
+from hazard.formatting import UNIT_DISPLAY, format_duration_s
 from hazard.geometry import FIVE_TIMES_RULE, SourceShape
 from hazard.hazards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
 from hazard.inputs import LoadedProduct, load_product, product_from_record
@@ -35,6 +36,7 @@ from hazard.result import (
     SpectrumSummary,
 )
 from hazard.uncertainty import uncertainty_study
+from hazard.units import IRRADIANCE_SI
 from hazard.weighting import coarse_steps_in
 from weighting_tables import TABLE_NAMES, load_table
 
@@ -103,6 +105,11 @@ def _anchor_photometric(record: ProductRecord) -> float:
     return record.luminance_cd_m2
 
 
+def _group_name(index: int) -> str | None:
+    """The group of a group index; None for −1 (no group determined)."""
+    return GROUPS[int(index)] if index >= 0 else None
+
+
 def _float(x) -> float | None:
     x = float(x)
     return None if np.isnan(x) else x
@@ -135,11 +142,18 @@ def _hazard_results(ev: Evaluation, i: int, spectrum_range: tuple[float, float])
             note = f"Assessed over {band}; exposure limit only, IEC 62471 gives this hazard no risk group."
         else:
             note = f"Assessed over {band}."
-            if spec.exposure_limit is None and h.group_index[i] > 0:
-                note += " Above the limit for exposures longer than 10 s; that limit defines no t_max."
-        if h.assessed[i] and spec.exposure_limit is not None and h.t_max_s[i] < spec.exposure_limit.t_range_s[0]:
-            note += (f" t_max is below the {format_duration_s(spec.exposure_limit.t_range_s[0])} lower end of the "
-                     f"limit's range, so it is an extrapolation: treat it as immediate.")
+        if h.assessed[i] and h.raised_by_t_max[i]:
+            note += (f" The group was raised to {GROUPS[h.group_index[i]]} because the exposure limit is reached "
+                     f"after {format_duration_s(float(h.t_max_s[i]))}, before the time base of the group its "
+                     f"tabulated limits give: a group never reads safer than its own t_max.")
+        if h.assessed[i] and any(p.exponent == 0 and p.after_s > 0 and np.isclose(h.t_max_s[i], p.after_s)
+                                 for p in spec.exposure_limit.pieces):
+            note += (f" The limit for exposures longer than {format_duration_s(float(h.t_max_s[i]))} is exceeded, "
+                     f"so t_max is that time: any longer exposure is over the limit.")
+        valid_from = spec.exposure_limit.valid_from_s
+        if h.assessed[i] and h.t_max_s[i] < valid_from:
+            note += (f" t_max is below the {format_duration_s(valid_from)} lower end of the limit's range, so it "
+                     f"is an extrapolation: treat it as immediate.")
         results[symbol] = HazardResult(
             symbol=symbol, title=spec.title, band_nm=spec.band_nm,
             weighting=None if spec.table is None else load_table(spec.table).symbol,
@@ -152,7 +166,7 @@ def _hazard_results(ev: Evaluation, i: int, spectrum_range: tuple[float, float])
             alpha_rad={g: float(h.alpha_bounded[i, k]) for k, g in enumerate(_GROUP_KEYS)}
             if spec.limits_over_alpha else {},
             time_bases_s={g: float(t) for g, t in zip(_GROUP_KEYS, spec.time_bases_s)} if grouped else {},
-            exposure_limit=None if spec.exposure_limit is None else spec.exposure_limit.text, note=note)
+            exposure_limit=spec.exposure_limit.text, note=note)
     return results
 
 
@@ -199,8 +213,9 @@ def _warnings(loaded: LoadedProduct, ev: Evaluation, i: int, v_covered: bool) ->
         if not PLAUSIBLE_PEAK_IRRADIANCE[0] <= peak <= PLAUSIBLE_PEAK_IRRADIANCE[1]:
             cause = ("the anchor (a relative spectrum with little light within V(λ) is scaled enormously)"
                      if record.quantity == "relative" else
-                     f"the unit ({record.unit_text!r}); a factor of 10^3 or 10^4 is a common slip")
-            warnings.append(f"peak spectral irradiance {peak:.3g} W/m2/nm is implausible for a lamp: check {cause}")
+                     f"the unit ({record.unit_text!r}); a factor of 10³ or 10⁴ is a common slip")
+            warnings.append(f"peak spectral irradiance {peak:.3g} {UNIT_DISPLAY[IRRADIANCE_SI]} is implausible for a "
+                            f"lamp: check {cause}")
     if record.quantity == "radiance":
         fov = record.measurement_fov_mrad
         if fov is None:
@@ -257,8 +272,8 @@ def _anchor_text(record: ProductRecord, scale: float) -> str:
         target = (f"{record.luminous_intensity_cd:g} cd, i.e. {_anchor_photometric(record):.4g} lx at "
                   f"{record.reference_distance_mm:g} mm by the inverse-square law")
     else:
-        target = f"{record.luminance_cd_m2:g} cd/m2 (so the spectrum is read as a radiance)"
-    unit = record.unit_text  # the SI unit the anchor scales the relative spectrum into
+        target = f"{record.luminance_cd_m2:g} cd/m² (so the spectrum is read as a radiance)"
+    unit = UNIT_DISPLAY[record.unit_text]  # the SI unit the anchor scales the relative spectrum into
     return (f"Relative spectrum scaled by {scale:.6g} {unit} per unit so that 683 lm/W · ∫S(λ)V(λ)dλ reproduces "
             f"the stated {target}; every absolute value rests on that figure and on the spectrum's shape.")
 
@@ -290,17 +305,19 @@ def _spectrum_summary(loaded: LoadedProduct, scale: float) -> SpectrumSummary:
     peak = int(np.argmax(value))
     return SpectrumSummary(
         path=spectrum.path, quantity=loaded.record.effective_quantity, quantity_given=loaded.record.quantity,
-        unit_given=loaded.record.unit_text,
+        unit_given=loaded.metadata.get("unit_used", loaded.record.unit_text),
         points=int(wl.size), min_nm=float(wl[0]), max_nm=float(wl[-1]), peak_nm=float(wl[peak]),
         peak_value_si=float(value[peak]),
         preview_nm=np.round(centres[filled], 2).tolist(),
-        preview_value_si=_four_digits(binned[filled]).tolist())
+        preview_value_si=_four_digits(binned[filled]).tolist(), file_metadata=loaded.metadata.get("file_metadata", {}))
 
 
 def _transfer(ev: Evaluation, i: int, covered: np.ndarray, keys: list[str], record: ProductRecord
               ) -> BlueLightTransfer | None:
-    """IEC TR 62778 transfer quantities, where the spectrum covers both B(λ) and V(λ)."""
-    if not (covered[keys.index("L_B")] and covered[keys.index("V")]) or not ev.blue_light_efficacy_w_per_lm[i] > 0:
+    """IEC TR 62778 transfer quantities, where the spectrum covers both B(λ) and V(λ) and the source is mainly
+    visible (the report's quantities are made for white-light sources)."""
+    if not (covered[keys.index("L_B")] and covered[keys.index("V")] and ev.mainly_visible[i]
+            and ev.blue_light_efficacy_w_per_lm[i] > 0):
         return None
     if record.luminous_intensity_cd is not None:
         source = "stated in the record"
@@ -328,11 +345,15 @@ def _distance_rule(record: ProductRecord, d_a_mm: float) -> str:
 
 @dataclass(frozen=True)
 class BatchEvaluation:
-    """Everything computed for n products: integrals, the method's arrays, and colour."""
+    """Everything computed for n products: integrals, the method's arrays, and colour. ``standard`` is the
+    evaluation at the standard's distance (the same object as ``evaluation`` unless a record asks for a
+    what-if distance); ``what_if`` marks the products assessed at a distance of the record's choosing."""
 
     limit_set: LimitSet
     integrated: Integrated
     evaluation: Evaluation
+    standard: Evaluation
+    what_if: np.ndarray
     chromaticity_x: np.ndarray
     chromaticity_y: np.ndarray
     cct_k: np.ndarray
@@ -343,14 +364,21 @@ def evaluate_products(records: list[ProductRecord], integrated: Integrated,
                       limit_set: LimitSet = DEFAULT_LIMIT_SET, index: np.ndarray | None = None) -> BatchEvaluation:
     """Apply the method to n products whose integrals are known; colour only where V(λ) is covered and
     there is light. ``index`` maps products to ``records`` as in :func:`product_arrays`."""
-    ev = evaluate(product_arrays(records, integrated.raw, integrated.covered, index), limit_set)
+    arrays = product_arrays(records, integrated.raw, integrated.covered, index)
+    ev = evaluate(arrays, limit_set)
+    standard = ev
+    what_if = np.zeros(ev.group_index.size, dtype=bool)
+    if arrays.forced_distance_m is not None:
+        what_if = ~np.isnan(arrays.forced_distance_m)
+        if what_if.any():
+            standard = evaluate(dataclasses.replace(arrays, forced_distance_m=None), limit_set)
     v = [s.key for s in integral_specs(limit_set)].index("V")
     nan = np.full(integrated.raw.shape[0], np.nan)
     x, y, cct, duv = nan.copy(), nan.copy(), nan.copy(), nan.copy()
     lit = integrated.covered[:, v] & (ev.illuminance_lx > 0)
     if lit.any():
         x[lit], y[lit], cct[lit], duv[lit] = cct_from_xyz(integrated.xyz[lit])
-    return BatchEvaluation(limit_set, integrated, ev, x, y, cct, duv)
+    return BatchEvaluation(limit_set, integrated, ev, standard, what_if, x, y, cct, duv)
 
 
 def evaluate_loaded(products: list[LoadedProduct], limit_set: LimitSet = DEFAULT_LIMIT_SET) -> BatchEvaluation:
@@ -384,10 +412,13 @@ def _illuminance_at_record_distance(record: ProductRecord, ev: Evaluation, i: in
 
 
 def _studies(loaded: LoadedProduct, batch: BatchEvaluation, i: int, distances_and_remedies: bool) -> dict:
-    """Uncertainty (when the record states one), hazard distances and remedies of product ``i``."""
+    """Uncertainty (when the record states one), hazard distances and remedies of product ``i``; none when no
+    risk group could be determined (a study of hazards that were not assessed would say nothing true)."""
     record, limit_set, ev = loaded.record, batch.limit_set, batch.evaluation
     arrays = product_arrays([record], batch.integrated.raw[i], batch.integrated.covered[i])
     out = {}
+    if ev.group_index[i] < 0:
+        return out
     if record.uncertainty_pct or record.wavelength_uncertainty_nm:
         out["uncertainty"] = uncertainty_study(arrays, loaded.spectrum, record.no_emission_outside, limit_set,
                                                record.uncertainty_pct or 0.0, record.wavelength_uncertainty_nm or 0.0)
@@ -398,7 +429,9 @@ def _studies(loaded: LoadedProduct, batch: BatchEvaluation, i: int, distances_an
             geometric = float(ev.source_solid_angle_sr[i])
         else:
             geometric = (record.reference_distance_mm * 1e-3 / d_a) ** 2
-        out["remedies"] = remedies_study(arrays, loaded.spectrum, float(ev.anchor_scale[i]) * geometric, limit_set)
+        assessed = {symbol for symbol, h in ev.hazards.items() if h.assessed[i]}
+        out["remedies"] = remedies_study(arrays, loaded.spectrum, float(ev.anchor_scale[i]) * geometric, limit_set,
+                                         assessed)
     return out
 
 
@@ -415,16 +448,20 @@ def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int,
     groups = {s: h.risk_group for s, h in hazards.items()}
     e_s = raw[keys.index("E_S")]
     uvc_fraction = float(raw[keys.index("UVC")] / e_s) if e_s > 0 else 0.0
-    overall = GROUPS[ev.group_index[i]]
+    overall = _group_name(ev.group_index[i])
     d_a_mm = float(ev.assessment_distance_m[i]) * 1e3
+    what_if = record.at_distance_mm is not None
     tables = {name: {"symbol": t.symbol, "source": t.metadata["source"], "edition": t.metadata["edition"],
                      "sha256": t.sha256} for name in TABLE_NAMES for t in [load_table(name)]}
     return Assessment(
         id=record.id, name=record.name, risk_group=overall, complete=bool(ev.complete[i]),
+        basis="what-if" if what_if else "standard",
+        standard_risk_group=_group_name(batch.standard.group_index[i]) if what_if else None,
+        standard_assessment_distance_mm=float(batch.standard.assessment_distance_m[i]) * 1e3 if what_if else None,
         assessment_distance_mm=d_a_mm, alpha_rad=float(ev.alpha_rad[i]),
         illuminance_lx=float(ev.illuminance_lx[i]), hazards=hazards,
         not_assessed=[s for s, h in hazards.items() if not h.assessed],
-        deciding_hazards=[s for s, g in groups.items() if g == overall],
+        deciding_hazards=[s for s, g in groups.items() if overall is not None and g == overall],
         geometry=Geometry(
             measurement_distance_mm=record.distance_mm, assessment_distance_mm=d_a_mm,
             distance_rule=_distance_rule(record, d_a_mm), alpha_rad=float(ev.alpha_rad[i]),
@@ -438,7 +475,7 @@ def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int,
         **_studies(loaded, batch, i, studies),
         record=record.model_dump(exclude_none=True), warnings=_warnings(loaded, ev, i, v_covered),
         assumptions=_assumptions(loaded, ev, i),
-        cautions=select_cautions(groups, bool(ev.complete[i]), uvc_fraction),
+        cautions=select_cautions(groups, bool(ev.complete[i]), uvc_fraction, determined=overall is not None),
         claims=check_claims(record, risk_group=overall, complete=bool(ev.complete[i]),
                             not_assessed=[s for s, h in hazards.items() if not h.assessed], hazards=hazards,
                             cct_k=_float(batch.cct_k[i]), cct_reason=_cct_reason(batch, i, v_covered),

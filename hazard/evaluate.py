@@ -10,9 +10,12 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from hazard.classify import hazard_groups
+from hazard.exposure_time import time_to_limit_s
 from hazard.geometry import (
     GLS_ILLUMINANCE_LX,
     MIN_ASSESSMENT_DISTANCE_M,
+    FieldGeometry,
     SourceShape,
     cone_solid_angle_sr,
     inverse_square_factor,
@@ -22,8 +25,17 @@ from hazard.photometry import K_M_LM_PER_W, VISIBLE_BAND_NM
 
 UVC_BAND_NM = (200.0, 280.0)
 """UV-C part of the actinic band (CIE UV-C 100-280 nm, within the S_UV table) [nm]."""
+VISIBLE_RADIATION_NM = (380.0, 780.0)
+"""Visible radiation (CIE S 017, 17-21-003), for the share of the emission that is light [nm]."""
+OPTICAL_RANGE_NM = (200.0, 3000.0)
+"""Where the hazard bands lie; the measured part of it is the emission the share is taken of [nm]."""
+MAINLY_VISIBLE_SHARE = 0.5
+"""A source is mainly visible when at least this share of its measured 200-3000 nm emission is visible
+radiation; only then do the blue-light transfer values of IEC TR 62778 (made for white-light sources) apply
+(our rule, no published source) [1]."""
 
-__all__ = ["UVC_BAND_NM", "IntegralSpec", "integral_specs", "ProductArrays", "HazardArrays", "Evaluation", "evaluate"]
+__all__ = ["UVC_BAND_NM", "VISIBLE_RADIATION_NM", "OPTICAL_RANGE_NM", "MAINLY_VISIBLE_SHARE", "IntegralSpec",
+           "integral_specs", "ProductArrays", "HazardArrays", "Evaluation", "evaluate"]
 
 
 @dataclass(frozen=True)
@@ -36,10 +48,12 @@ class IntegralSpec:
 
 
 def integral_specs(limit_set: LimitSet) -> list[IntegralSpec]:
-    """The integrals of a limit set: one per hazard, then ``V`` for photometry and ``UVC`` (S_UV-weighted
-    irradiance below 280 nm, for the cautions)."""
+    """The integrals of a limit set: one per hazard, then ``V`` for photometry, ``UVC`` (S_UV-weighted
+    irradiance below 280 nm, for the cautions), ``VIS`` and ``ALL`` (unweighted 380-780 nm and 200-3000 nm, for
+    the share of visible radiation)."""
     specs = [IntegralSpec(h.symbol, h.band_nm, h.table) for h in limit_set.hazards]
-    return specs + [IntegralSpec("V", VISIBLE_BAND_NM, "v_photopic"), IntegralSpec("UVC", UVC_BAND_NM, "s_uv")]
+    return specs + [IntegralSpec("V", VISIBLE_BAND_NM, "v_photopic"), IntegralSpec("UVC", UVC_BAND_NM, "s_uv"),
+                    IntegralSpec("VIS", VISIBLE_RADIATION_NM, None), IntegralSpec("ALL", OPTICAL_RANGE_NM, None)]
 
 
 @dataclass(frozen=True)
@@ -101,6 +115,7 @@ class HazardArrays:
     """Results of one hazard for n products. Group indices: 0 Exempt … 3 RG3, −1 none.
 
     ``limits``, ``compared``, ``alpha_bounded`` are (n, 3) over Exempt, RG1, RG2; NaN where not defined.
+    ``raised_by_t_max`` marks groups raised to agree with t_max (:mod:`hazard.classify`).
     """
 
     hazard: Hazard
@@ -112,11 +127,16 @@ class HazardArrays:
     limits: np.ndarray
     compared: np.ndarray
     alpha_bounded: np.ndarray
+    raised_by_t_max: np.ndarray
 
 
 @dataclass(frozen=True)
 class Evaluation:
-    """Results for n products: geometry, photometry and every hazard."""
+    """Results for n products: geometry, photometry and every hazard.
+
+    ``group_index`` is the highest group over the assessed hazards with groups, −1 where there is none (no
+    group determined); ``complete`` is false where an applicable hazard could not be assessed.
+    """
 
     assessment_distance_m: np.ndarray
     alpha_rad: np.ndarray
@@ -133,6 +153,7 @@ class Evaluation:
     threshold_illuminance_lx: np.ndarray
     luminous_intensity_cd: np.ndarray
     threshold_distance_m: np.ndarray
+    mainly_visible: np.ndarray
 
 
 def _assessment_distance_m(arrays: ProductArrays, v_raw: np.ndarray) -> np.ndarray:
@@ -151,17 +172,6 @@ def _assessment_distance_m(arrays: ProductArrays, v_raw: np.ndarray) -> np.ndarr
                     MIN_ASSESSMENT_DISTANCE_M)
 
 
-def _t_max_s(hazard: Hazard, value: np.ndarray, alpha: np.ndarray) -> np.ndarray:
-    """t = (value / C)^(1/k) where below the top of the limit's time range, else NaN [s]."""
-    limit = hazard.exposure_limit
-    if limit is None:
-        return np.full(value.shape, np.nan)
-    c = limit.coefficient / np.clip(alpha, *limit.alpha_bounds_rad) if limit.over_alpha else limit.coefficient
-    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):  # huge t is simply "not reached"
-        t = (value / c) ** (1.0 / limit.exponent)
-    return np.where((value > 0) & (t < limit.t_range_s[1]), t, np.nan)
-
-
 def _applicable(hazard: Hazard, limit_set: LimitSet, alpha: np.ndarray, luminance: np.ndarray) -> np.ndarray:
     small = alpha < limit_set.small_source_alpha_rad
     weak = luminance < limit_set.weak_stimulus_luminance_cd_m2
@@ -169,36 +179,74 @@ def _applicable(hazard: Hazard, limit_set: LimitSet, alpha: np.ndarray, luminanc
             "weak_visual_stimulus": weak, "visual_stimulus": ~weak}[hazard.applies]
 
 
-def _hazard_arrays(hazard: Hazard, limit_set: LimitSet, irradiance: np.ndarray, covered: np.ndarray,
-                   arrays: ProductArrays, distance_m: np.ndarray, omega_s: np.ndarray, alpha: np.ndarray,
+@dataclass(frozen=True)
+class _Viewed:
+    """The products as seen at their assessment distance: what every hazard's comparison needs."""
+
+    irradiance: dict[str, np.ndarray]
+    shape: SourceShape
+    distance_m: np.ndarray
+    field: FieldGeometry
+    peak_to_mean: np.ndarray
+
+    @property
+    def omega_s(self) -> np.ndarray:
+        """Source solid angle [sr]."""
+        return self.field.omega_s
+
+    def value(self, symbol: str) -> np.ndarray:
+        """Irradiance of a quantity at the assessment distance [W m⁻²]."""
+        return self.irradiance[symbol]
+
+    def radiance(self, symbol: str) -> np.ndarray:
+        """The source's own (peak) radiance of a quantity, E/Ω_s × peak-to-mean [W m⁻² sr⁻¹]."""
+        return self.irradiance[symbol] / self.omega_s * self.peak_to_mean
+
+    def field_radiance(self, symbol: str, fov_rad: np.ndarray | float, rows: np.ndarray | None = None
+                       ) -> np.ndarray:
+        """Radiance averaged over a field of view γ centred on the source [W m⁻² sr⁻¹] (method §4), for all
+        products or those at ``rows``.
+
+        L·f for a uniform source, f the fraction of the field the source fills; with a peak-to-mean ratio p
+        the field may see p·L over what it covers, but never more than all of the source's power:
+        (E/Ω_s)·min(p·f, Ω_s/Ω_γ).
+        """
+        take = slice(None) if rows is None else rows
+        field = self.field if rows is None else self.field.take(rows)
+        omega_s = field.omega_s
+        fraction = field.fraction(fov_rad)
+        ceiling = omega_s / cone_solid_angle_sr(fov_rad)
+        return self.irradiance[symbol][take] / omega_s * np.minimum(self.peak_to_mean[take] * fraction, ceiling)
+
+    def alpha(self, bounds_rad: tuple[float, float]) -> np.ndarray:
+        """α with each side bounded first, then averaged (method §4) [rad]."""
+        return self.shape.alpha_rad(self.distance_m, bounds_rad)
+
+
+def _hazard_arrays(hazard: Hazard, limit_set: LimitSet, viewed: _Viewed, covered: np.ndarray, alpha: np.ndarray,
                    luminance: np.ndarray) -> HazardArrays:
-    n = irradiance.size
+    n = alpha.size
     nan3 = np.full((n, 3), np.nan)
-    if hazard.kind == "radiance":
-        peak = np.ones(n) if arrays.peak_to_mean is None else arrays.peak_to_mean
-        value = irradiance / omega_s * peak  # the peak radiance: what a small field of view can see
-        compared = nan3.copy() if hazard.fov_rad is None else np.column_stack(
-            [irradiance / np.maximum(omega_s, fov) * np.where(fov < omega_s, peak, 1.0)
-             for fov in (cone_solid_angle_sr(g) for g in hazard.fov_rad)])
-    else:
-        value = irradiance
-        compared = np.repeat(value[:, None], 3, axis=1)
-    limits, alpha_bounded = nan3.copy(), nan3.copy()
-    group = np.full(n, -1)
+    radiance = hazard.kind == "radiance"
+    value = viewed.radiance(hazard.symbol) if radiance else viewed.value(hazard.symbol)
+    t_max = time_to_limit_s(hazard, n, viewed.value, viewed.field_radiance, viewed.alpha)
+    compared, limits, alpha_bounded = nan3.copy(), nan3.copy(), nan3.copy()
+    group, raised = np.full(n, -1), np.zeros(n, dtype=bool)
     if hazard.limits is not None:
-        for g, coefficient in enumerate(hazard.limits):
+        fovs, bounds = hazard.fov_rad, hazard.alpha_bounds_rad
+        for k, coefficient in enumerate(hazard.limits):
+            compared[:, k] = viewed.field_radiance(hazard.symbol, fovs[k]) if radiance else value
             if hazard.limits_over_alpha:
-                alpha_bounded[:, g] = arrays.shape.alpha_rad(distance_m, hazard.alpha_bounds_rad[g])
-                limits[:, g] = coefficient / alpha_bounded[:, g]
+                alpha_bounded[:, k] = viewed.alpha(bounds[k])
+                limits[:, k] = coefficient / alpha_bounded[:, k]
             else:
-                limits[:, g] = coefficient
-        within = compared <= limits
-        group = np.where(within[:, 0], 0, np.where(within[:, 1], 1, np.where(within[:, 2], 2, 3)))
+                limits[:, k] = coefficient
+        group, raised = hazard_groups(compared, limits, t_max, hazard.time_bases_s, limit_set.table_rounding)
     applicable = _applicable(hazard, limit_set, alpha, luminance)
     assessed = applicable & covered
-    return HazardArrays(hazard=hazard, value=value, t_max_s=_t_max_s(hazard, value, alpha),
-                        group_index=np.where(assessed, group, -1), applicable=applicable, assessed=assessed,
-                        limits=limits, compared=compared, alpha_bounded=alpha_bounded)
+    return HazardArrays(hazard=hazard, value=value, t_max_s=t_max, group_index=np.where(assessed, group, -1),
+                        applicable=applicable, assessed=assessed, limits=limits, compared=compared,
+                        alpha_bounded=alpha_bounded, raised_by_t_max=assessed & raised)
 
 
 def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
@@ -222,7 +270,8 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
     distance = _assessment_distance_m(arrays, raw[:, v])
     if arrays.forced_distance_m is not None:
         distance = np.where(np.isnan(arrays.forced_distance_m), distance, arrays.forced_distance_m)
-    omega_s = arrays.shape.solid_angle_sr(distance)
+    field = arrays.shape.seen_from(distance)
+    omega_s = field.omega_s
     alpha = arrays.shape.alpha_rad(distance)
     d_m = np.nan_to_num(arrays.measurement_distance_m, nan=1.0)
     scale = np.where(arrays.is_radiance, omega_s, inverse_square_factor(d_m, distance))
@@ -230,17 +279,21 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
     illuminance = K_M_LM_PER_W * irradiance[:, v]
     luminance = illuminance / omega_s
     transfer = _blue_light_transfer(arrays, raw[:, b], raw[:, v], d_m)
-    hazards = {h.symbol: _hazard_arrays(h, limit_set, irradiance[:, i], arrays.covered[:, i], arrays, distance,
-                                        omega_s, alpha, luminance)
+    peak = np.ones(distance.size) if arrays.peak_to_mean is None else arrays.peak_to_mean
+    viewed = _Viewed(irradiance={h.symbol: irradiance[:, i] for i, h in enumerate(limit_set.hazards)},
+                     shape=arrays.shape, distance_m=distance, field=field,
+                     peak_to_mean=peak)
+    hazards = {h.symbol: _hazard_arrays(h, limit_set, viewed, arrays.covered[:, i], alpha, luminance)
                for i, h in enumerate(limit_set.hazards)}
     group = np.max(np.column_stack([h.group_index for h in hazards.values()]), axis=1)
     complete = np.all(np.column_stack([h.assessed | ~h.applicable for h in hazards.values()]), axis=1)
+    visible, total = raw[:, keys.index("VIS")], raw[:, keys.index("ALL")]
     return Evaluation(assessment_distance_m=distance, alpha_rad=alpha, source_solid_angle_sr=omega_s,
                       illuminance_lx=illuminance, luminance_cd_m2=luminance,
                       small_source=alpha < limit_set.small_source_alpha_rad,
                       weak_visual_stimulus=luminance < limit_set.weak_stimulus_luminance_cd_m2,
-                      hazards=hazards, group_index=np.maximum(group, 0), complete=complete,
-                      anchor_scale=anchor_scale, **transfer)
+                      hazards=hazards, group_index=group, complete=complete,
+                      anchor_scale=anchor_scale, mainly_visible=visible >= MAINLY_VISIBLE_SHARE * total, **transfer)
 
 
 def _blue_light_transfer(arrays: ProductArrays, blue: np.ndarray, visual: np.ndarray, d_m: np.ndarray) -> dict:

@@ -12,21 +12,13 @@ import numpy as np
 from hazard.evaluate import Evaluation, ProductArrays, evaluate
 from hazard.hazards import LimitSet
 
-__all__ = ["family_margins", "family_groups", "family_t_max", "overall_groups", "evaluate_rows"]
+__all__ = ["family_groups", "family_t_max", "overall_groups", "evaluate_rows"]
 
 
 def _members(ev: Evaluation, members: tuple[str, ...]):
     for symbol in members:
         h = ev.hazards[symbol]
         yield h, h.applicable & h.assessed
-
-
-def family_margins(ev: Evaluation, members: tuple[str, ...]) -> np.ndarray:
-    """(n, 3) compared/limit at the Exempt, RG1, RG2 boundaries of the applicable member; NaN if none."""
-    out = np.full((ev.assessment_distance_m.size, 3), np.nan)
-    for h, mask in _members(ev, members):
-        out[mask] = (h.compared / h.limits)[mask]
-    return out
 
 
 def family_groups(ev: Evaluation, members: tuple[str, ...]) -> np.ndarray:

@@ -4,9 +4,13 @@ from __future__ import annotations
 
 import math
 
-__all__ = ["format_limit", "format_value", "format_duration_s", "margin_to_next", "format_margin", "UNIT_DISPLAY"]
+__all__ = ["format_limit", "format_value", "format_duration_s", "format_percent", "margin_to_next", "format_margin",
+           "group_words", "UNIT_DISPLAY", "NOT_DETERMINED"]
 
-UNIT_DISPLAY = {"W/m2": "W/m²", "W/m2/sr": "W/(m²·sr)"}
+UNIT_DISPLAY = {"W/m2": "W/m²", "W/m2/sr": "W/(m²·sr)", "W/m2/nm": "W/(m²·nm)", "W/m2/sr/nm": "W/(m²·sr·nm)"}
+"""How each SI unit code of the results is written for people (one spelling in every output)."""
+NOT_DETERMINED = "not determined"
+"""The overall group in words when no hazard with risk groups could be assessed."""
 _DURATION_UNITS = ((3600.0, 3600.0, "h"), (60.0, 60.0, "min"), (1.0, 0.1, "s"), (1e-3, 1e-4, "ms"),
                    (1e-6, -math.inf, "µs"))  # (seconds per unit, shown from, unit)
 
@@ -56,6 +60,29 @@ def format_duration_s(seconds: float | None) -> str:
     return f"{amount:.2g} {unit}" if amount < 10 else f"{amount:.0f} {unit}"
 
 
+def format_percent(ratio: float) -> str:
+    """A ratio ≤ 1 as a percentage with up to three significant digits, never in exponent form.
+
+    Examples
+    --------
+    >>> format_percent(0.38), format_percent(0.9999), format_percent(0.0045), format_percent(1e-7)
+    ('38 %', '100 %', '0.45 %', '<0.01 %')
+    """
+    percent = ratio * 100
+    if percent < 0.01:
+        return "<0.01 %"
+    digits = 3 if percent >= 1 else 2
+    text = f"{percent:.{digits}g}"
+    if "e" in text:  # 99.96 → 1e+02 at two digits: print the whole number instead
+        text = f"{percent:.0f}"
+    return f"{text} %"
+
+
+def _times(ratio: float) -> str:
+    """A ratio > 1 as a multiple: ``'1.8×'``, ``'37×'``, ``'2.5e+04×'`` beyond 10⁴."""
+    return f"{format_value(ratio, 2)}×"
+
+
 def margin_to_next(risk_group: str | None, margins: dict[str, float]) -> tuple[str, float] | None:
     """The boundary that matters for a hazard in ``risk_group`` and the ratio value/limit there.
 
@@ -69,21 +96,44 @@ def margin_to_next(risk_group: str | None, margins: dict[str, float]) -> tuple[s
 
 
 def format_margin(risk_group: str | None, margins: dict[str, float]) -> str:
-    """Margin as text, e.g. ``'38% of RG1 limit'`` or ``'3.2× RG2 limit'``.
+    """The ratio value/limit at the nearest boundary below the hazard's group and above it.
 
     Examples
     --------
-    >>> format_margin("RG1", {"Exempt": 2.0, "RG1": 0.38, "RG2": 0.001})
-    '38% of RG1 limit'
+    >>> format_margin("Exempt", {"Exempt": 0.38, "RG1": 0.1, "RG2": 0.001})
+    '38 % of Exempt limit'
+    >>> format_margin("RG2", {"Exempt": 180.0, "RG1": 1.8, "RG2": 0.0045})
+    '1.8× RG1 limit; 0.45 % of RG2 limit'
     >>> format_margin("RG3", {"Exempt": 300.0, "RG1": 100.0, "RG2": 3.2})
     '3.2× RG2 limit'
     """
-    found = margin_to_next(risk_group, margins)
-    if found is None:
+    if risk_group is None or not margins:
         return "—"
-    boundary, ratio = found
-    if ratio > 1:
-        return f"{format_value(ratio, 2)}× {boundary} limit"
-    percent = ratio * 100
-    shown = f"{percent:.2g}" if percent >= 0.01 else "<0.01"
-    return f"{shown}% of {boundary} limit"
+    order = ("Exempt", "RG1", "RG2", "RG3")
+    rank = order.index(risk_group)
+    parts = []
+    if rank > 0:
+        below = order[rank - 1]
+        parts.append(f"{_times(margins[below])} {below} limit" if margins[below] > 1 else
+                     f"{format_percent(margins[below])} of {below} limit")
+    if rank < 3:
+        above = order[rank]
+        parts.append(f"{format_percent(margins[above])} of {above} limit" if margins[above] <= 1 else
+                     f"{_times(margins[above])} {above} limit")
+    return "; ".join(parts)
+
+
+def group_words(risk_group: str | None, complete: bool = True, basis: str = "standard",
+                distance_mm: float | None = None) -> str:
+    """The overall group as words for a heading: ``'RG2'``, ``'RG1 (lower bound)'``, ``'not determined'``,
+    ``'what-if at 500 mm: Exempt'``.
+
+    Examples
+    --------
+    >>> group_words("RG1", complete=False), group_words(None), group_words("Exempt", True, "what-if", 500.0)
+    ('RG1 (lower bound)', 'not determined', 'what-if at 500 mm: Exempt')
+    """
+    text = NOT_DETERMINED if risk_group is None else risk_group + ("" if complete else " (lower bound)")
+    if basis == "what-if":
+        return f"what-if at {distance_mm:.0f} mm: {text}"
+    return text

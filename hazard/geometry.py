@@ -10,8 +10,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
-__all__ = ["SourceShape", "cone_solid_angle_sr", "inverse_square_factor", "GLS_ILLUMINANCE_LX",
-           "MIN_ASSESSMENT_DISTANCE_M", "FIVE_TIMES_RULE"]
+__all__ = ["SourceShape", "FieldGeometry", "cone_solid_angle_sr", "inverse_square_factor", "disc_rectangle_area",
+           "GLS_ILLUMINANCE_LX", "MIN_ASSESSMENT_DISTANCE_M", "FIVE_TIMES_RULE"]
 
 GLS_ILLUMINANCE_LX = 500.0
 """GLS lamps are assessed where they give this illuminance (IEC 62471:2006, 5.1.2) [lx]."""
@@ -31,6 +31,38 @@ def cone_solid_angle_sr(full_angle_rad: np.ndarray | float) -> np.ndarray:
     '9.5033e-05'
     """
     return 2 * np.pi * (1 - np.cos(np.asarray(full_angle_rad, dtype=float) / 2))
+
+
+def disc_rectangle_area(radius: np.ndarray, half_width: np.ndarray, half_height: np.ndarray) -> np.ndarray:
+    """Area of a disc of ``radius`` clipped by a rectangle of the given half-sides, both centred at the origin
+    [unit²].
+
+    Exact: four times the quarter ∫₀^min(p, r) min(q, √(r² − x²)) dx, with
+    ∫₀^x √(r² − t²) dt = (x·√(r² − x²) + r²·asin(x/r))/2.
+
+    Examples
+    --------
+    >>> float(disc_rectangle_area(1.0, 2.0, 2.0)) / np.pi  # the disc inside the rectangle
+    1.0
+    >>> float(disc_rectangle_area(2.0, 0.5, 1.0))  # the rectangle inside the disc
+    2.0
+    >>> round(float(disc_rectangle_area(1.0, 0.01, 5.0)), 5)  # a thin strip across: width × chord
+    0.04
+    """
+    r = np.asarray(radius, dtype=float)
+    p = np.asarray(half_width, dtype=float)
+    q = np.asarray(half_height, dtype=float)
+
+    def under_circle(x):
+        x = np.minimum(x, r)
+        with np.errstate(invalid="ignore", divide="ignore"):
+            return 0.5 * (x * np.sqrt(np.maximum(r ** 2 - x ** 2, 0.0)) + r ** 2 * np.arcsin(np.clip(x / r, 0, 1)))
+
+    x_end = np.minimum(p, r)
+    x_cap = np.sqrt(np.maximum(r ** 2 - q ** 2, 0.0))  # for x below this the circle is above the rectangle's top
+    flat = np.where(q < r, q * np.minimum(x_end, x_cap), 0.0)
+    curved = under_circle(x_end) - under_circle(np.where(q < r, np.minimum(x_end, x_cap), 0.0))
+    return 4 * (flat + curved)
 
 
 def inverse_square_factor(from_m: np.ndarray | float, to_m: np.ndarray | float) -> np.ndarray:
@@ -100,17 +132,86 @@ class SourceShape:
         b = np.arctan(np.where(self.is_disc, self.width_m, self.height_m) / (2 * d))
         return np.where(self.is_disc, disc, 4 * np.arcsin(np.sin(a) * np.sin(b)))
 
+    def seen_from(self, distance_m: np.ndarray | float) -> "FieldGeometry":
+        """The sources as seen from ``distance_m``, ready for field-of-view fractions (:class:`FieldGeometry`)."""
+        d = np.asarray(distance_m, dtype=float)
+        omega_s = self.solid_angle_sr(d)
+        a = np.arctan(self.width_m / (2 * d))
+        b = np.arctan(np.where(self.is_disc, self.width_m, self.height_m) / (2 * d))
+        with np.errstate(divide="ignore", invalid="ignore"):
+            stretch = np.sqrt(omega_s / (4 * a * b))  # rectangle of area Ω_s with the source's aspect
+        return FieldGeometry(omega_s=np.broadcast_to(omega_s, self.width_m.shape), half_width=a * stretch,
+                             half_height=b * stretch, is_disc=self.is_disc)
+
+    def field_fraction(self, distance_m: np.ndarray | float, fov_rad: np.ndarray | float) -> np.ndarray:
+        """Fraction of a field of view γ that the source fills (:meth:`FieldGeometry.fraction`) [1].
+
+        Examples
+        --------
+        >>> strip = SourceShape(np.array([0.0001]), np.array([0.04]))  # 0.1 mm × 40 mm
+        >>> f = strip.field_fraction(0.2, 0.011)[0]
+        >>> round(float(f / (0.0005 * 0.011 / cone_solid_angle_sr(0.011))), 2)  # width·chord / Ω_γ
+        1.0
+        """
+        return self.seen_from(distance_m).fraction(fov_rad)
+
     def distance_for_solid_angle_m(self, solid_angle_sr: np.ndarray) -> np.ndarray:
         """Distance at which the source subtends ``solid_angle_sr`` [m] (inverse of :meth:`solid_angle_sr`).
 
-        Bisection on a log scale (the solid angle falls monotonically with distance), to a relative
-        precision far below 1e-12. A solid angle of 2π or more is never reached and gives 0.
+        The solid angle falls monotonically with distance: :func:`hazard.search.log_search` between 1 nm and
+        10⁶ km, to a relative precision of 1e-12. A solid angle of 2π or more is never reached and gives 0.
         """
+        from hazard.search import log_search
+
         omega = np.broadcast_to(np.asarray(solid_angle_sr, dtype=float), np.shape(self.width_m))
-        lo = np.full(omega.shape, 1e-9)
-        hi = np.full(omega.shape, 1e9)
-        for _ in range(100):
-            mid = np.sqrt(lo * hi)
-            too_close = self.solid_angle_sr(mid) > omega
-            lo, hi = np.where(too_close, mid, lo), np.where(too_close, hi, mid)
-        return np.where(omega >= 2 * np.pi, 0.0, np.sqrt(lo * hi))
+
+        def small_enough(d: np.ndarray, jobs: np.ndarray) -> np.ndarray:
+            shape = self.take(np.repeat(jobs, d.shape[1]))
+            return (shape.solid_angle_sr(d.ravel()) <= np.repeat(omega[jobs], d.shape[1])).reshape(d.shape)
+
+        _, found = log_search(small_enough, np.full(omega.shape, 1e-9), np.full(omega.shape, 1e9))
+        return np.where(omega >= 2 * np.pi, 0.0, found)
+
+
+@dataclass(frozen=True)
+class FieldGeometry:
+    """Sources as seen from one distance each, drawn in a plane of angles with their exact solid angles: a disc
+    of area Ω_s, or a rectangle of the source's aspect with area Ω_s.
+
+    Attributes
+    ----------
+    omega_s : numpy.ndarray
+        Source solid angle Ω_s [sr].
+    half_width, half_height : numpy.ndarray
+        Half-sides of the equal-solid-angle rectangle [rad] (unused for discs).
+    is_disc : numpy.ndarray
+        True where the source is a disc.
+    """
+
+    omega_s: np.ndarray
+    half_width: np.ndarray
+    half_height: np.ndarray
+    is_disc: np.ndarray
+
+    def take(self, index: np.ndarray) -> "FieldGeometry":
+        """The sources at ``index``."""
+        return FieldGeometry(self.omega_s[index], self.half_width[index], self.half_height[index],
+                             self.is_disc[index])
+
+    def fraction(self, fov_rad: np.ndarray | float) -> np.ndarray:
+        """Fraction of a field of view γ (a cone, Ω_γ = 2π(1 − cos(γ/2))) that the source fills, the cone
+        centred on the source (where it catches most of a centrally symmetric source) [1].
+
+        area(cone ∩ source)/Ω_γ with the cone drawn as a disc of area Ω_γ (method §4): exactly Ω_s/Ω_γ when
+        the cone holds the whole source and 1 when the source fills the cone, so a uniform source's field
+        average is L·fraction and a disc source's reduces to E/max(Ω_s, Ω_γ). A long thin source (a filament,
+        an LED strip) fills a cone only along its length: its fraction is about width × chord / Ω_γ.
+        """
+        omega_g = np.broadcast_to(cone_solid_angle_sr(fov_rad), self.omega_s.shape)
+        overlap = np.minimum(self.omega_s, omega_g)  # discs: the smaller of two concentric discs
+        rect = ~self.is_disc
+        if rect.any():
+            overlap = overlap.copy()
+            overlap[rect] = disc_rectangle_area(np.sqrt(omega_g[rect] / np.pi), self.half_width[rect],
+                                                self.half_height[rect])
+        return np.minimum(overlap / omega_g, 1.0)

@@ -3,16 +3,15 @@
 from __future__ import annotations
 
 import hashlib
-import math
 from dataclasses import dataclass
 from pathlib import Path
 
 from hazard.errors import InputError
+from hazard.file_statements import file_metadata, metadata_warnings, resolve_unit
 from hazard.photometry import VISIBLE_BAND_NM
 from hazard.readers import read_spectrum
 from hazard.record import ProductRecord, load_record, record_from_fields
 from hazard.spectrum import Spectrum, validate_spectrum
-from hazard.units import SpectralUnit, parse_spectral_unit
 from hazard.weighting import quadrature_weights
 from weighting_tables import load_table
 
@@ -39,26 +38,6 @@ class LoadedProduct:
     spectrum: Spectrum
     inputs: dict[str, str]
     metadata: dict
-
-
-def _resolve_unit(record: ProductRecord, header_unit: str | None, origin: str) -> SpectralUnit:
-    """The unit of the values: the record's, checked against the file's header when both state one. A
-    relative spectrum keeps its own scale (factor 1); its anchor sets the level."""
-    if record.quantity == "relative":
-        return SpectralUnit("relative", 1.0, record.effective_quantity == "radiance")
-    if header_unit is None:
-        return parse_spectral_unit(record.unit_text)
-    stated = parse_spectral_unit(header_unit)
-    if record.unit is None:
-        if stated.per_steradian != (record.quantity == "radiance"):
-            raise InputError(f"the file's header gives {header_unit!r}, which does not fit quantity "
-                             f"{record.quantity!r}", "set quantity (and unit) to match the file", origin)
-        return stated
-    given = parse_spectral_unit(record.unit)
-    if not math.isclose(given.factor_to_si, stated.factor_to_si) or given.per_steradian != stated.per_steradian:
-        raise InputError(f"the record says unit {record.unit!r} but the file's header says {header_unit!r}",
-                         "correct the record's unit, or remove it to use the header's", origin)
-    return given
 
 
 def _check_anchorable(spectrum: Spectrum, origin: str) -> None:
@@ -88,10 +67,12 @@ def product_from_record(record: ProductRecord, base_dir: Path, origin: str,
         raise InputError("the record names no spectrum file", "add spectrum = \"FILE.csv\"", origin)
     raw, metadata = read_spectrum(str(base_dir / record.spectrum), display_path=record.spectrum,
                                   column=record.column)
-    unit = _resolve_unit(record, raw.unit, origin)
+    unit, unit_warnings = resolve_unit(record, raw, metadata, origin)
     metadata["unit_used"] = unit.text
+    metadata["file_metadata"] = file_metadata(metadata)
+    warnings = (*raw.warnings, *unit_warnings, *metadata_warnings(record, metadata["file_metadata"], raw.path))
     spectrum = validate_spectrum(raw.wavelength_nm, raw.value, raw.lines, raw.path, unit.factor_to_si,
-                                 record.quantity, raw.warnings)
+                                 record.quantity, warnings)
     if record.quantity == "relative":
         _check_anchorable(spectrum, origin)
     inputs = dict(record_inputs or {})

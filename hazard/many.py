@@ -28,7 +28,8 @@ _BOUNDARIES = GROUPS[:3]
 
 def frame_columns(limit_set: LimitSet = DEFAULT_LIMIT_SET) -> list[str]:
     """Columns of the DataFrame that :func:`assess_many` returns."""
-    columns = ["id", "status", "error", "risk_group", "complete", "assessment_distance_mm", "alpha_rad",
+    columns = ["id", "status", "error", "risk_group", "complete", "basis", "standard_risk_group",
+               "assessment_distance_mm", "alpha_rad",
                "illuminance_lx", "luminance_cd_m2", "cct_k", "duv", "small_source", "weak_visual_stimulus"]
     for h in limit_set.hazards:
         columns += [f"{h.symbol}_{part}" for part in ("applicable", "assessed", "value", "group", "t_max_s")]
@@ -122,9 +123,12 @@ def _frame(batch: BatchEvaluation | None, ids: list[str], good: list[int], error
             "error": [errors.get(i) for i in range(n)]}
     if batch is not None:
         ev = batch.evaluation
+        what_if = batch.what_if
         data.update({
             "risk_group": groups(ev.group_index),
             "complete": spread(ev.complete, False),
+            "basis": spread(np.where(what_if, "what-if", "standard"), False),
+            "standard_risk_group": groups(np.where(what_if, batch.standard.group_index, -1)),
             "assessment_distance_mm": spread(ev.assessment_distance_m * 1e3), "alpha_rad": spread(ev.alpha_rad),
             "illuminance_lx": spread(ev.illuminance_lx), "luminance_cd_m2": spread(ev.luminance_cd_m2),
             "cct_k": spread(batch.cct_k), "duv": spread(batch.duv),

@@ -2,8 +2,8 @@
 larger emitting area that bring each hazard family and the product into each lower group; and which 5 nm
 bands dominate the UV quantities, so the engineer knows what to filter.
 
-Dimming and enlarging are found by bisection on full re-assessments (a GLS lamp's 500 lx distance moves
-with its output, so dimming is not simply 1/margin), to a relative precision far below 0.1 %.
+Dimming and enlarging are found by :func:`hazard.search.log_search` on full re-assessments (a GLS lamp's 500 lx
+distance moves with its output, so dimming is not simply 1/margin), to a relative precision of 1e-12.
 """
 
 from __future__ import annotations
@@ -14,6 +14,7 @@ from hazard.evaluate import ProductArrays
 from hazard.families import evaluate_rows, family_groups, overall_groups
 from hazard.hazards import GROUPS, LimitSet
 from hazard.result import BandContribution, Remedies, Remedy
+from hazard.search import log_search
 from hazard.spectrum import Spectrum
 from hazard.weighting import quadrature_matrix
 from weighting_tables import load_table
@@ -21,7 +22,7 @@ from weighting_tables import load_table
 __all__ = ["remedies_study", "UV_BAND_STEP_NM"]
 
 UV_BAND_STEP_NM = 5.0
-_BISECTIONS = 44  # over 30 decades of dimming or 2 of size: better than 1e-12 relative
+_LEAST_DIMMING = 1e-30  # dimming searched down to this factor [1]
 _RADIANCE_FAMILIES = ("blue light", "retinal thermal")
 _MAX_AREA_FACTOR = 1e4
 
@@ -32,37 +33,48 @@ def _groups_of(ev, target: str, limit_set: LimitSet) -> np.ndarray:
     return family_groups(ev, dict(limit_set.families)[target])
 
 
+def _reaches(arrays, limit_set, jobs: list[tuple[str, int]], variant: str):
+    """A test for :func:`hazard.search.log_search`: at factor x, is each job's target in its group or lower?
+    ``variant`` is ``raw_scale`` (dimming) or ``size_scale`` (a diffuser)."""
+    def test(x: np.ndarray, index: np.ndarray) -> np.ndarray:
+        ev = evaluate_rows(arrays, x.size, limit_set, **{variant: x.ravel()})
+        targets = np.repeat(np.asarray(index), x.shape[1])
+        ok = np.empty(x.size, dtype=bool)
+        for target in {jobs[j][0] for j in index}:
+            rows = np.flatnonzero([jobs[j][0] == target for j in targets])
+            groups = _groups_of(ev, target, limit_set)[rows]
+            ok[rows] = groups <= np.array([jobs[j][1] for j in targets[rows]])
+        return ok.reshape(x.shape)
+    return test
+
+
 def _largest_dimming(arrays, limit_set, jobs: list[tuple[str, int]]) -> list[float | None]:
-    """For each (target, group index): the largest factor f ≤ 1 with the target's group ≤ that index."""
-    lo = np.full(len(jobs), -30.0)  # log10 f
-    hi = np.zeros(len(jobs))
-    for _ in range(_BISECTIONS):
-        mid = (lo + hi) / 2
-        ev = evaluate_rows(arrays, len(jobs), limit_set, raw_scale=10 ** mid)
-        ok = np.array([_groups_of(ev, t, limit_set)[i] <= g for i, (t, g) in enumerate(jobs)])
-        lo, hi = np.where(ok, mid, lo), np.where(ok, hi, mid)
-    ev = evaluate_rows(arrays, len(jobs), limit_set, raw_scale=10 ** lo)
-    return [float(10 ** lo[i]) if _groups_of(ev, t, limit_set)[i] <= g else None for i, (t, g) in enumerate(jobs)]
+    """For each (target, group index): the largest factor f ≤ 1 with the target's group ≤ that index, to a
+    relative 1e-12; None where even f = 1e-30 does not reach it. Dimming never raises a group, so the test is
+    monotonic (searched in 1/f, which grows towards the answer)."""
+    reaches = _reaches(arrays, limit_set, jobs, "raw_scale")
+    ok_at_least = reaches(np.full((len(jobs), 1), _LEAST_DIMMING), np.arange(len(jobs)))[:, 0]
+    _, inverse = log_search(lambda y, index: reaches(1 / y, index), np.ones(len(jobs)),
+                            np.full(len(jobs), 1 / _LEAST_DIMMING))
+    return [float(1 / inverse[i]) if ok_at_least[i] else None for i in range(len(jobs))]
 
 
 def _smallest_area(arrays, limit_set, jobs: list[tuple[str, int]]) -> list[float | None]:
-    """For each (radiance family, group index): the least area factor s² ≥ 1 reaching that group."""
-    lo = np.zeros(len(jobs))  # log10 s
-    hi = np.full(len(jobs), np.log10(np.sqrt(_MAX_AREA_FACTOR)))
-    ev = evaluate_rows(arrays, len(jobs), limit_set, size_scale=10 ** hi)
-    reachable = np.array([_groups_of(ev, t, limit_set)[i] <= g for i, (t, g) in enumerate(jobs)])
-    for _ in range(_BISECTIONS):
-        mid = (lo + hi) / 2
-        ev = evaluate_rows(arrays, len(jobs), limit_set, size_scale=10 ** mid)
-        ok = np.array([_groups_of(ev, t, limit_set)[i] <= g for i, (t, g) in enumerate(jobs)])
-        lo, hi = np.where(ok, lo, mid), np.where(ok, mid, hi)
-    return [float(10 ** (2 * hi[i])) if reachable[i] else None for i in range(len(jobs))]
+    """For each (radiance family, group index): the least area factor s² ≥ 1 reaching that group; None beyond
+    :data:`_MAX_AREA_FACTOR`."""
+    reaches = _reaches(arrays, limit_set, jobs, "size_scale")
+    largest = np.sqrt(_MAX_AREA_FACTOR)
+    ok_at_largest = reaches(np.full((len(jobs), 1), largest), np.arange(len(jobs)))[:, 0]
+    _, scale = log_search(reaches, np.ones(len(jobs)), np.full(len(jobs), largest))
+    return [float(scale[i] ** 2) if ok_at_largest[i] else None for i in range(len(jobs))]
 
 
-def _uv_bands(spectrum: Spectrum, to_assessment: float) -> dict[str, list[BandContribution]]:
+def _uv_bands(spectrum: Spectrum, to_assessment: float, assessed: set[str]) -> dict[str, list[BandContribution]]:
     edges = np.arange(200.0, 400.0 + UV_BAND_STEP_NM, UV_BAND_STEP_NM)
     out = {}
     for symbol, table, lo in (("E_S", "s_uv", 200.0), ("E_UVA", None, 315.0)):
+        if symbol not in assessed:
+            continue
         weight = None if table is None else load_table(table)
         bands = [(a, b) for a, b in zip(edges[:-1], edges[1:]) if a >= lo]
         values = spectrum.value @ quadrature_matrix(spectrum.wavelength_nm, [(band, weight) for band in bands])
@@ -89,7 +101,8 @@ def _why_none(target: str, dimming: float | None, area: float | None) -> str:
     return "; ".join(notes)
 
 
-def remedies_study(arrays: ProductArrays, spectrum: Spectrum, to_assessment: float, limit_set: LimitSet) -> Remedies:
+def remedies_study(arrays: ProductArrays, spectrum: Spectrum, to_assessment: float, limit_set: LimitSet,
+                   assessed: set[str]) -> Remedies:
     """Remedies for one product (one row of ``arrays``).
 
     Parameters
@@ -98,6 +111,8 @@ def remedies_study(arrays: ProductArrays, spectrum: Spectrum, to_assessment: flo
         The product's spectrum, for the UV bands.
     to_assessment : float
         Multiplier from the spectrum's integrals to irradiance at the assessment distance [1].
+    assessed : set of str
+        Hazards assessed; the UV bands are given only for those.
     """
     ev = evaluate_rows(arrays, 1, limit_set)
     jobs = []
@@ -112,7 +127,7 @@ def remedies_study(arrays: ProductArrays, spectrum: Spectrum, to_assessment: flo
     remedies = [Remedy(target=t, group=GROUPS[g], dimming_factor=f, area_factor=areas.get((t, g)),
                        note=_why_none(t, f, areas.get((t, g))))
                 for (t, g), f in zip(jobs, dimming)]
-    return Remedies(remedies=remedies, uv_bands=_uv_bands(spectrum, to_assessment),
+    return Remedies(remedies=remedies, uv_bands=_uv_bands(spectrum, to_assessment, assessed),
                     note="Dimming factors are the largest emission multipliers (or neutral filter transmissions) "
                          "that reach the group; area factors enlarge the emitting area at the same power (a "
                          "diffuser). Each was found by re-assessing the product, as the standard's distances "

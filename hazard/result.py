@@ -16,6 +16,7 @@ __all__ = ["HazardResult", "SpectrumSummary", "BlueLightTransfer", "ClaimCheck",
            "Geometry", "Assessment", "RiskGroup"]
 
 RiskGroup = Literal["Exempt", "RG1", "RG2", "RG3"]
+Basis = Literal["standard", "what-if"]
 
 
 class _Frozen(BaseModel):
@@ -92,6 +93,9 @@ class SpectrumSummary(_Frozen):
     preview_nm: list[float] = Field(description="Bin centres of the chart preview [nm].")
     preview_value_si: list[float] = Field(description="Highest sample in each preview bin, 4 significant "
                                                       "digits, for charts only [SI].")
+    file_metadata: dict[str, str] = Field(default_factory=dict, description="Metadata lines of the spectrum file "
+                                                                            "(key → value, the first 40, cut to "
+                                                                            "120 characters).")
 
 
 class BlueLightTransfer(_Frozen):
@@ -152,7 +156,8 @@ class DistanceStudy(_Frozen):
     minimum_distance_mm: dict[str, float | None] = Field(description="Least distance beyond which the product is "
                                                                      "in each group or lower [mm]; 0 when it is "
                                                                      "at every distance from 10 mm; null when not "
-                                                                     "reached within 100 m.")
+                                                                     "reached within 100 m; absent when no hazard "
+                                                                     "family was assessed.")
     near_field_below_mm: float = Field(description="Five source sizes: nearer, inverse-square values are "
                                                    "approximate [mm].")
 
@@ -177,8 +182,9 @@ class UncertaintyStudy(_Frozen):
     uncertainty_pct: float = Field(description="Expanded (k = 2) scale uncertainty applied [%].")
     wavelength_uncertainty_nm: float = Field(description="Wavelength shift applied, ± [nm].")
     hazards: list[HazardBounds]
-    risk_group_low: str
-    risk_group_high: str
+    risk_group_low: str | None = Field(description="Lowest overall group over the variants; null when none is "
+                                                   "determined.")
+    risk_group_high: str | None
     verdict: Literal["robust", "borderline"] = Field(description="borderline when the overall group can change "
                                                                  "within the uncertainty.")
     note: str
@@ -229,15 +235,24 @@ class Assessment(_Frozen):
 
     id: str
     name: str | None
-    risk_group: RiskGroup = Field(description="Highest group over the assessed hazards; a lower bound when "
-                                              "complete is false.")
+    risk_group: RiskGroup | None = Field(description="Highest group over the assessed hazards with risk groups; a "
+                                                     "lower bound when complete is false; null when no such hazard "
+                                                     "could be assessed (no group determined).")
     complete: bool = Field(description="Every applicable hazard was assessed.")
+    basis: Basis = Field("standard", description="'standard': assessed at the standard's distance, a "
+                                                 "classification; 'what-if': at a distance the record asks for "
+                                                 "(at_distance_mm), not a classification.")
+    standard_risk_group: RiskGroup | None = Field(None, description="For a what-if result: the group at the "
+                                                                    "standard's assessment distance.")
+    standard_assessment_distance_mm: float | None = Field(None, description="For a what-if result: the "
+                                                                            "standard's assessment distance [mm].")
     assessment_distance_mm: float
     alpha_rad: float
     illuminance_lx: float | None
     hazards: dict[str, HazardResult]
     not_assessed: list[str] = Field(description="Applicable hazards whose band the spectrum does not cover.")
-    deciding_hazards: list[str] = Field(description="Hazards that set the overall group.")
+    deciding_hazards: list[str] = Field(description="Hazards that set the overall group (empty when none is "
+                                                    "determined).")
     geometry: Geometry
     photometry: Photometry
     spectrum: SpectrumSummary

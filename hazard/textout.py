@@ -2,12 +2,31 @@
 
 from __future__ import annotations
 
-from hazard.formatting import UNIT_DISPLAY, format_duration_s, format_limit, format_margin, format_value
+from hazard.formatting import (
+    NOT_DETERMINED,
+    UNIT_DISPLAY,
+    format_duration_s,
+    format_limit,
+    format_margin,
+    format_value,
+    group_words,
+)
 from hazard.result import Assessment
 
-__all__ = ["render_text"]
+__all__ = ["render_text", "overall_lines", "render_claims", "render_batch_table"]
 
-_COLUMNS = ("Hazard", "Quantity", "Value", "Unit", "Exempt", "RG1", "RG2", "t_max", "Group", "Margin")
+_COLUMNS = ("Hazard", "Quantity", "Value", "Unit", "Compared", "Exempt", "RG1", "RG2", "t_max", "Group", "Margin")
+
+
+def _compared(h) -> str:
+    """The values compared with the Exempt / RG1 / RG2 limits: field-of-view averages for radiance; one value
+    when all three are the same."""
+    if not h.compared:
+        return "—"
+    values = [h.compared[g] for g in ("Exempt", "RG1", "RG2")]
+    if len(set(values)) == 1:
+        return "= value" if values[0] == h.value else format_value(values[0])
+    return " / ".join(format_value(v) for v in values)
 
 
 def _rows(assessment: Assessment) -> list[tuple[str, ...]]:
@@ -15,7 +34,7 @@ def _rows(assessment: Assessment) -> list[tuple[str, ...]]:
     for symbol, h in assessment.hazards.items():
         limits = [format_limit(h.limits.get(g)) for g in ("Exempt", "RG1", "RG2")]
         rows.append((symbol, h.title, format_value(h.value) if h.assessed else "not assessed",
-                     UNIT_DISPLAY.get(h.unit, h.unit), *limits, format_duration_s(h.t_max_s),
+                     UNIT_DISPLAY.get(h.unit, h.unit), _compared(h), *limits, format_duration_s(h.t_max_s),
                      h.risk_group or ("EL only" if h.assessed else "—"), format_margin(h.risk_group, h.margins)))
     return rows
 
@@ -38,23 +57,23 @@ def render_text(assessment: Assessment) -> str:
     str
     """
     a, g, p = assessment, assessment.geometry, assessment.photometry
-    status = "complete" if a.complete else f"INCOMPLETE, lower bound: not assessed {', '.join(a.not_assessed)}"
-    decided = f"; set by {', '.join(a.deciding_hazards)}" if a.risk_group != "Exempt" else ""
     title = f"{a.id}  {a.name}" if a.name else a.id
     photometric = [f"{format_value(p.illuminance_lx)} lx"]
     if p.cct_k is not None:
         photometric.append(f"CCT {p.cct_k:.0f} K")
     lines = [
         title,
-        f"Overall risk group: {a.risk_group}  ({status}{decided})",
+        *overall_lines(a),
         f"Assessed at {a.assessment_distance_mm:.0f} mm ({g.distance_rule})",
         f"Source: α = {g.alpha_rad * 1e3:.3g} mrad, {g.largest_dimension_mm:g} mm"
         f"{', small source (E_B)' if g.small_source else ''}"
         f"{', weak visual stimulus (L_IR)' if g.weak_visual_stimulus else ''};  " + ", ".join(photometric),
         "",
         *_table(_rows(a)),
-        "Limits are those applied at each group boundary (thermal: after α bounds); margin is value/limit at "
-        "the group's upper boundary.",
+        "Value: for L_B, L_R, L_IR the source's own radiance; Compared: what was compared with the Exempt / RG1 / "
+        "RG2 limits (field-of-view averages). Limits as applied (thermal: after the α bounds). Margin: value ÷ "
+        "limit at the boundary below the hazard's group and the one above it. t_max: time to reach the exposure "
+        "limit (—: not reached).",
     ]
     if a.scaling is not None:
         lines += ["", f"Scaling: {a.scaling.note}"]
@@ -74,6 +93,27 @@ def render_text(assessment: Assessment) -> str:
     return "\n".join(lines) + "\n"
 
 
+def overall_lines(a: Assessment) -> list[str]:
+    """The overall group in words, what it means and what decides it; a what-if names the standard's group
+    beside it; an undetermined group names the fix."""
+    if a.risk_group is None:
+        head = [f"Overall risk group: {NOT_DETERMINED.upper()} — no hazard with risk groups could be assessed "
+                f"(not assessed: {', '.join(a.not_assessed) or 'none'}); measure the missing wavelength range, or "
+                f"state no_emission_outside if the source truly emits nothing outside the measured range"]
+    else:
+        status = ("complete" if a.complete else
+                  f"INCOMPLETE, lower bound: not assessed {', '.join(a.not_assessed)}")
+        decided = f"; set by {', '.join(a.deciding_hazards)}" if a.risk_group != "Exempt" else ""
+        meaning = (" — within the exposure limits for the Exempt time bases at the assessment distance"
+                   if a.risk_group == "Exempt" else "")
+        head = [f"Overall risk group: {group_words(a.risk_group, a.complete)}{meaning}  ({status}{decided})"]
+    if a.basis == "what-if":
+        head.insert(0, f"WHAT-IF at {a.assessment_distance_mm:.0f} mm, not a classification: the standard's "
+                       f"distance ({a.standard_assessment_distance_mm:.0f} mm) gives "
+                       f"{group_words(a.standard_risk_group, a.complete)}")
+    return head
+
+
 def _studies(a: Assessment) -> list[str]:
     """Uncertainty, hazard distances and remedies, as short lines."""
     lines = []
@@ -83,10 +123,12 @@ def _studies(a: Assessment) -> list[str]:
     if a.distances is not None:
         shown = []
         for group, d in a.distances.minimum_distance_mm.items():
-            shown.append(f"{group} beyond {d:.0f} mm" if d else f"{group} at any distance" if d == 0
-                         else f"{group} not within 100 m")
+            name = group if group == "Exempt" else f"{group} or lower"
+            shown.append(f"{name} beyond {d:.0f} mm" if d else f"{name} at any distance" if d == 0
+                         else f"{name} not within 100 m")
+        scope = "" if a.complete else "assessed hazards only; "
         lines += ["", "Distances: " + "; ".join(shown)
-                  + f" (values nearer than {a.distances.near_field_below_mm:.0f} mm are approximate)"]
+                  + f" ({scope}values nearer than {a.distances.near_field_below_mm:.0f} mm are approximate)"]
     if a.remedies is not None:
         product = [r for r in a.remedies.remedies if r.target == "product" and r.dimming_factor is not None]
         if product:
@@ -131,19 +173,22 @@ def render_batch_table(ids: list[str], assessments: dict[str, Assessment], error
             rows.append((product_id, "error", "", "", "", errors[product_id]))
             continue
         a = assessments[product_id]
-        deciding = ", ".join(a.deciding_hazards) if a.risk_group != "Exempt" else ""
+        deciding = ", ".join(a.deciding_hazards) if a.risk_group not in (None, "Exempt") else ""
         margin = ""
         if a.deciding_hazards and a.risk_group != "Exempt":
             h = a.hazards[a.deciding_hazards[0]]
             margin = format_margin(h.risk_group, h.margins)
         flags = []
+        if a.basis == "what-if":
+            flags.append(f"WHAT-IF at {a.assessment_distance_mm:.0f} mm (standard: "
+                         f"{group_words(a.standard_risk_group, a.complete)})")
         if a.uncertainty is not None and a.uncertainty.verdict == "borderline":
             flags.append(f"BORDERLINE {a.uncertainty.risk_group_low}-{a.uncertainty.risk_group_high}")
         contradicted = sum(c.verdict == "contradicted" for c in a.claims)
         if contradicted:
             flags.append(f"{contradicted} claim(s) CONTRADICTED")
-        rows.append((product_id, a.risk_group, "complete" if a.complete else "INCOMPLETE", deciding, margin,
-                     "; ".join(flags)))
+        rows.append((product_id, group_words(a.risk_group, a.complete), "complete" if a.complete else "INCOMPLETE",
+                     deciding, margin, "; ".join(flags)))
     header = ("Product", "Group", "Assessment", "Set by", "Margin", "Flags / error")
     widths = [max(len(r[i]) for r in [header, *rows]) for i in range(5)]
     line = lambda r: "  ".join([*(c.ljust(w) for c, w in zip(r[:5], widths)), r[5]]).rstrip()  # noqa: E731

@@ -68,11 +68,15 @@ def uncertainty_study(arrays: ProductArrays, spectrum: Spectrum, no_emission_out
             group_low=GROUPS[assessed.min()] if assessed.size else None,
             group_high=GROUPS[assessed.max()] if assessed.size else None))
     overall = overall_groups(ev, limit_set)
-    overall = np.maximum(overall, 0)
-    low, high = GROUPS[overall.min()], GROUPS[overall.max()]
+    name = [GROUPS[g] if g >= 0 else None for g in overall]
+    low, high = name[int(np.argmin(overall))], name[int(np.argmax(overall))]
     verdict = "borderline" if low != high else "robust"
-    note = (f"within ±{uncertainty_pct:g} % (k = 2) and ±{shift:g} nm the product may be {low} or {high}: send "
-            f"it to the laboratory" if verdict == "borderline" else
-            f"the group {GROUPS[overall[nominal]]} holds across ±{uncertainty_pct:g} % (k = 2) and ±{shift:g} nm")
+    if high is None:
+        note = "no risk group could be determined at any variant"
+    elif verdict == "borderline":
+        note = (f"within ±{uncertainty_pct:g} % (k = 2) and ±{shift:g} nm the product may be {low or 'undetermined'} "
+                f"or {high}: send it to the laboratory")
+    else:
+        note = f"the group {name[nominal]} holds across ±{uncertainty_pct:g} % (k = 2) and ±{shift:g} nm"
     return UncertaintyStudy(uncertainty_pct=uncertainty_pct, wavelength_uncertainty_nm=shift, hazards=bounds,
                             risk_group_low=low, risk_group_high=high, verdict=verdict, note=note)

@@ -14,15 +14,23 @@ from collections.abc import Callable
 from reportlab.pdfbase.pdfmetrics import stringWidth
 from reportlab.platypus import CondPageBreak, Flowable, KeepInFrame, KeepTogether, PageBreak, Spacer, Table
 
-from hazard.formatting import UNIT_DISPLAY, format_duration_s, format_limit, format_margin, format_value
+from hazard.formatting import UNIT_DISPLAY, format_duration_s, format_limit, format_margin, format_value, group_words
 from hazard.result import Assessment, HazardResult
 from reports.charts import margin_chart, spectrum_chart
 from reports.layout import FRAME_HEIGHT, FRAME_WIDTH, build_pdf, start_report
 from reports.ranking import tightest_margin
 from reports.studies import has_studies, studies_section, study_summary, uncertainty_summary
-from reports.style import HAIRLINE, INK, PANEL, Styles, fit_widths, group_fill, group_ink, table_style
+from reports.style import HAIRLINE, INK, NEUTRAL, PANEL, Styles, fit_widths, group_fill, group_ink, table_style
 from reports.timestamp import format_report_time
-from reports.wording import GROUP_MEANING, GROUP_NAME, LOWER_BOUND, LOWER_BOUND_MEANING
+from reports.wording import (
+    GROUP_MEANING,
+    GROUP_NAME,
+    LOWER_BOUND,
+    LOWER_BOUND_MEANING,
+    NOT_DETERMINED_MEANING,
+    NOT_DETERMINED_NAME,
+    WHAT_IF_MEANING,
+)
 
 __all__ = ["render_assessment_pdf"]
 
@@ -81,7 +89,7 @@ def _heading(a: Assessment, st: Styles, moment: datetime.datetime) -> Flowable:
 def _deciding(a: Assessment) -> tuple[str, str]:
     """Lead-in and text naming what sets the overall group."""
     if not a.deciding_hazards:
-        return "Decided by:", "none: no hazard with risk groups could be assessed"
+        return "Not assessed:", ", ".join(a.not_assessed) or "—"
     if a.risk_group == "Exempt":
         closest = tightest_margin(a)
         h = a.hazards[closest.symbol]
@@ -110,21 +118,37 @@ class _PageMark(Flowable):
 
 def _verdict(a: Assessment, st: Styles, studies_page: int) -> Flowable:
     group = a.risk_group
-    size = min(st.verdict.fontSize, 80 / stringWidth(group, st.fonts.bold, 1))
+    shown = group or NOT_DETERMINED_NAME
+    fill = group_fill(group) if group else NEUTRAL
+    size = min(st.verdict.fontSize, 80 / stringWidth(group or "n/d", st.fonts.bold, 1))
     label_style = st.verdict.clone("verdict_group", textColor=group_ink(group), fontSize=size, leading=size * 1.15)
-    label = [st.p(group, label_style)]
-    text = [st.p(f"Overall risk group: {group} — {GROUP_NAME[group]}", st.verdict_head),
-            st.p(GROUP_MEANING[group] + ("" if a.complete else " " + LOWER_BOUND_MEANING)),
-            st.bold_lead(*_deciding(a), st.small)]
-    if not a.complete:
-        label.append(st.p("lower bound", st.head.clone("lb", alignment=1, textColor=group_ink(group))))
+    small_label = st.head.clone("tile_note", alignment=1, textColor=group_ink(group))
+    label = [st.p(group or "n/d", label_style)] if group else [st.p("not determined", small_label.clone(
+        "nd", fontSize=11, leading=13))]
+    if group is None:
+        text = [st.p(f"Overall risk group: {shown}", st.verdict_head), st.p(NOT_DETERMINED_MEANING)]
+    else:
+        lead = (f"What-if group at {a.assessment_distance_mm:.0f} mm" if a.basis == "what-if"
+                else "Overall risk group")
+        text = [st.p(f"{lead}: {group} — {GROUP_NAME[group]}", st.verdict_head),
+                st.p(GROUP_MEANING[group] + ("" if a.complete else " " + LOWER_BOUND_MEANING))]
+    text.append(st.bold_lead(*_deciding(a), st.small))
+    if group is not None and not a.complete:
+        label.append(st.p("lower bound", small_label))
         text.insert(0, st.p(f"{LOWER_BOUND}: {', '.join(a.not_assessed)} not assessed", st.banner))
+    if a.basis == "what-if":
+        label.insert(0, st.p(f"what-if at {a.assessment_distance_mm:.0f} mm", small_label))
+        standard = a.standard_risk_group or "not determined"
+        text.insert(0, st.p(f"WHAT-IF at {a.assessment_distance_mm:.0f} mm — the standard's distance "
+                            f"({a.standard_assessment_distance_mm:.0f} mm) gives {standard}"
+                            f"{'' if a.complete or a.standard_risk_group is None else ' (lower bound)'}", st.banner))
+        text.insert(1, st.p(WHAT_IF_MEANING, st.small))
     if a.uncertainty is not None:
         if a.uncertainty.verdict == "borderline":
-            label.append(st.p("BORDERLINE", st.head.clone("bl", alignment=1, textColor=group_ink(group))))
+            label.append(st.p("BORDERLINE", small_label))
         text.append(st.bold_lead(*uncertainty_summary(a, studies_page), st.small))
     table = Table([[label, text]], colWidths=[96, FRAME_WIDTH - 96])
-    table.setStyle([("BACKGROUND", (0, 0), (0, 0), group_fill(group)), ("BOX", (0, 0), (0, 0), 1.2, INK),
+    table.setStyle([("BACKGROUND", (0, 0), (0, 0), fill), ("BOX", (0, 0), (0, 0), 1.2, INK),
                     ("VALIGN", (0, 0), (0, 0), "MIDDLE"), ("VALIGN", (1, 0), (1, 0), "TOP"),
                     ("LEFTPADDING", (1, 0), (1, 0), 10), ("TOPPADDING", (0, 0), (-1, -1), 4),
                     ("BOTTOMPADDING", (0, 0), (-1, -1), 4)])
@@ -142,7 +166,7 @@ def _cautions(a: Assessment, st: Styles) -> Flowable:
 
 
 _TYPICAL_ROW = ["E_UVA", "near-UV, eye (lens)", "7.50e-04", "W/(m²·sr)", "5.05e+05", "5.05e+05", "1.31e+06",
-                "4.4 min", "Exempt", "<0.01% of Exempt limit"]
+                "4.4 min", "Exempt", "58.4 % of Exempt limit"]
 """Wide entries of each hazard-table column, so the columns stay the same from report to report."""
 
 
@@ -166,10 +190,11 @@ def _hazard_table(a: Assessment, st: Styles) -> Flowable:
             extra.append(("SPAN", (2, i), (9, i)))
             continue
         cells = _hazard_row(h)
-        fitted.append(cells)
+        fitted.append(cells[:9] + [max(cells[9].split("; "), key=len)])
         styles = [st.cell_bold if c in (0, 2) else st.cell for c in range(len(cells))]
         styles[8] = st.cell_bold.clone("group", textColor=group_ink(h.risk_group))
-        rows.append([st.p(text, style) for text, style in zip(cells, styles)])
+        row = [st.p(text, style) for text, style in zip(cells[:9], styles)]
+        rows.append(row + [st.p("", st.cell, markup="<br/>".join(st.text(part) for part in cells[9].split("; ")))])
         extra.append(("BACKGROUND", (8, i), (8, i), group_fill(h.risk_group)))
     header = [top if top != "Limits as applied" and top else below for top, below in zip(head, sub)]
     widths = fit_widths(header, fitted, st.fonts, FRAME_WIDTH, flexible=1, size=st.cell.fontSize, bold={0, 2, 8})
@@ -214,8 +239,9 @@ def _geometry(a: Assessment, st: Styles, studies_page: int) -> Flowable:
     if a.complete:
         completeness = "complete: every applicable hazard was assessed"
     else:
-        completeness = (f"INCOMPLETE — not assessed: {', '.join(a.not_assessed)} (why: see the table); the "
-                        f"overall group is a lower bound")
+        completeness = (f"INCOMPLETE — not assessed: {', '.join(a.not_assessed)} (why: see the table); "
+                        + ("no risk group could be determined" if a.risk_group is None else
+                           "the overall group is a lower bound"))
     cells = [("Distance", f"{g.assessment_distance_mm:.0f} mm{measured} — {g.distance_rule}"),
              ("Source", source),
              ("Photometry", f"{format_value(ph.illuminance_lx)} lx at the assessment distance; luminance "
@@ -381,7 +407,9 @@ def _inputs(a: Assessment, st: Styles) -> list[Flowable]:
             _key_values([("Colour", "; ".join(colour) or "—")]
                         + ([("Blue-light transfer", _transfer(a))]
                            if a.blue_light_transfer is not None else [])
-                        + ([("Scaling", _scaling(a))] if a.scaling is not None else []), st)]
+                        + ([("Scaling", _scaling(a))] if a.scaling is not None else [])
+                        + ([("File metadata", "; ".join(f"{k}: {v}" for k, v in s.file_metadata.items()))]
+                           if s.file_metadata else []), st)]
 
 
 def _method(a: Assessment, st: Styles) -> list[Flowable]:
@@ -421,10 +449,10 @@ def render_assessment_pdf(assessment: Assessment, rendered_at: datetime.datetime
     """
     moment, fonts, st = start_report(rendered_at)
     a = assessment
-    title = f"{a.id} — photobiological safety pre-screen ({a.risk_group})"
+    words = group_words(a.risk_group, a.complete, a.basis, a.assessment_distance_mm)
+    title = f"{a.id} — photobiological safety pre-screen ({words})"
     borderline = a.uncertainty is not None and a.uncertainty.verdict == "borderline"
-    header = f"{a.id}{' — ' + a.name if a.name else ''} · overall {a.risk_group}" + (
-        "" if a.complete else " (lower bound)") + (" (borderline)" if borderline else "")
+    header = f"{a.id}{' — ' + a.name if a.name else ''} · overall {words}" + (" (borderline)" if borderline else "")
     studies_page = 3  # page 1 names the page the studies start on: a second pass when page 2 ran over
     for _ in range(2):
         marks: dict[str, int] = {}

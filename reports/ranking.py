@@ -93,11 +93,13 @@ def rank_assessments(assessments: list[Assessment]) -> list[Assessment]:
     Returns
     -------
     list of Assessment
-        A new list; products without a tightest margin come last within their group, ties go by id.
+        A new list; products whose group could not be determined first (nothing is known of them), products
+        without a tightest margin last within their group, ties by id.
     """
     def key(assessment: Assessment) -> tuple[int, bool, float, str]:
         tightest = tightest_margin(assessment)
-        return (-GROUPS.index(assessment.risk_group), not is_borderline(assessment),
+        rank = len(GROUPS) if assessment.risk_group is None else GROUPS.index(assessment.risk_group)
+        return (-rank, not is_borderline(assessment),
                 -(tightest.ratio if tightest else -1.0), assessment.id)
 
     return sorted(assessments, key=key)

@@ -170,7 +170,8 @@ def _distance_table(a: Assessment, st: Styles) -> Flowable:
                 + [cell(s.minimum_distance_mm.get(g), None, None, st.cell_bold, g) for g in _BOUNDARIES])
     by_family: dict[str, dict[str, object]] = {}
     for b in s.boundaries:
-        by_family.setdefault(b.family, {})[b.group] = b
+        if b.note != "not assessed":  # a family that was not assessed has nothing true to say about distance
+            by_family.setdefault(b.family, {})[b.group] = b
     for family, found in by_family.items():
         cells = []
         for group in _BOUNDARIES:

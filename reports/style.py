@@ -18,7 +18,8 @@ from reportlab.platypus import Paragraph, TableStyle
 
 from reports.fonts import FontSet
 
-__all__ = ["INK", "MUTED", "RULE", "HAIRLINE", "PANEL", "SPECTRUM_FILL", "SPECTRUM_EDGE", "GROUP_FILL", "GROUP_INK",
+__all__ = ["INK", "MUTED", "RULE", "HAIRLINE", "PANEL", "NEUTRAL", "SPECTRUM_FILL", "SPECTRUM_EDGE", "GROUP_FILL",
+           "GROUP_INK",
            "group_fill", "group_ink", "Styles", "table_style", "fit_widths"]
 
 INK = colors.HexColor("#1F2A36")
@@ -31,6 +32,8 @@ HAIRLINE = colors.HexColor("#D5DBE0")
 """Light rules between key-value rows."""
 PANEL = colors.HexColor("#EEF1F4")
 """Background of table headers and boxed notes."""
+NEUTRAL = colors.HexColor("#D9DCDF")
+"""Fill of a tile that holds no group (not determined): grey, no group colour."""
 SPECTRUM_FILL = colors.HexColor("#C5D3E0")
 """Area under the relative spectrum in the spectrum chart."""
 SPECTRUM_EDGE = colors.HexColor("#3D5A78")

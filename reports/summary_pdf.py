@@ -11,13 +11,13 @@ import datetime
 
 from reportlab.platypus import Flowable, Spacer, Table
 
-from hazard.formatting import format_margin
+from hazard.formatting import format_margin, group_words
 from hazard.hazards import GROUPS
 from hazard.result import Assessment
 from reports.layout import FRAME_WIDTH, build_pdf, start_report
 from reports.ranking import BORDERLINE_FACTOR, is_borderline, rank_assessments, tightest_margin
 from reports.studies import minimum_text
-from reports.style import INK, Styles, group_fill, group_ink, table_style
+from reports.style import INK, NEUTRAL, Styles, group_fill, group_ink, table_style
 from reports.timestamp import format_report_time
 
 __all__ = ["render_summary_pdf"]
@@ -47,7 +47,14 @@ def _counts(assessments: list[Assessment], st: Styles) -> Flowable:
         cells.append(st.p(f"{group}: {count}", st.cell_bold.clone(f"n{group}", textColor=group_ink(group),
                                                                    alignment=1)))
         style.append(("BACKGROUND", (i, 0), (i, 0), group_fill(group)))
+    undetermined = sum(a.risk_group is None for a in assessments)
+    if undetermined:
+        cells.append(st.p(f"not determined: {undetermined}", st.cell_bold))
+        style.append(("BACKGROUND", (len(cells) - 1, 0), (len(cells) - 1, 0), NEUTRAL))
     cells.append(st.p(f"incomplete: {sum(not a.complete for a in assessments)}", st.cell_bold))
+    what_if = sum(a.basis == "what-if" for a in assessments)
+    if what_if:
+        cells.append(st.p(f"what-if: {what_if}", st.cell_bold))
     cells.append(st.p(f"borderline: {sum(is_borderline(a) for a in assessments)}", st.cell_bold))
     table = Table([cells], colWidths=[FRAME_WIDTH / len(cells)] * len(cells))
     table.setStyle(style + [("BOX", (0, 0), (-1, -1), 0.8, INK), ("INNERGRID", (0, 0), (-1, -1), 0.8, INK),
@@ -60,7 +67,9 @@ def _flags(a: Assessment, st: Styles) -> Flowable:
     contradicted = sum(c.verdict == "contradicted" for c in a.claims)
     by_study = "" if a.uncertainty is None else (f" (within ±{a.uncertainty.uncertainty_pct:g} %, "
                                                  f"±{a.uncertainty.wavelength_uncertainty_nm:g} nm)")
-    flags = ([f"<b>BORDERLINE</b>{by_study}"] if is_borderline(a) else []) + (
+    what_if = ([f"<b>WHAT-IF</b> at {a.assessment_distance_mm:.0f} mm; standard: "
+                f"{st.text(group_words(a.standard_risk_group, a.complete))}"] if a.basis == "what-if" else [])
+    flags = what_if + ([f"<b>BORDERLINE</b>{by_study}"] if is_borderline(a) else []) + (
         [f"<b>{contradicted}</b> vendor claim{'s' if contradicted > 1 else ''} <b>CONTRADICTED</b>"]
         if contradicted else [])
     return st.p("", st.cell, markup="<br/>".join(flags) or "—")
@@ -88,12 +97,13 @@ def _ranked_table(assessments: list[Assessment], st: Styles) -> Flowable:
             h = a.hazards[tightest.symbol]
             margin = f"{tightest.symbol}: {format_margin(h.risk_group, h.margins)}"
         rows.append([st.p(str(rank), st.cell), st.p(a.id, st.cell_bold), st.p(a.name or "—", st.cell),
-                     st.p(a.risk_group, st.cell_bold.clone("g", textColor=group_ink(a.risk_group))),
+                     st.p(group_words(a.risk_group, a.complete),
+                          st.cell_bold.clone("g", textColor=group_ink(a.risk_group))),
                      st.p("yes", st.cell) if a.complete else
                      st.bold_lead("INCOMPLETE", f"lower bound; not assessed: {', '.join(a.not_assessed)}", st.cell),
                      st.p(", ".join(a.deciding_hazards) or "—", st.cell), st.p(margin, st.cell),
                      *([st.p(_min_distance(a), st.cell)] if distances else []), _flags(a, st)])
-        extra.append(("BACKGROUND", (3, rank), (3, rank), group_fill(a.risk_group)))
+        extra.append(("BACKGROUND", (3, rank), (3, rank), group_fill(a.risk_group) if a.risk_group else NEUTRAL))
     if len(rows) == 1:
         rows.append([st.p("no products assessed", st.cell)] + [""] * (len(head) - 1))
         extra.append(("SPAN", (0, 1), (-1, 1)))
@@ -167,7 +177,9 @@ def render_summary_pdf(assessments: list[Assessment], errors: list[tuple[str, st
              f"(RG3: multiple of the RG2 limit). BORDERLINE: with an uncertainty study (the record states its "
              f"measurement uncertainty), the overall group changes within it; without one, the tightest hazard "
              f"lies within a factor {high:g} of a group boundary on either side ({low:g}–{high:g} × the limit), so "
-             f"a modest measurement error could change its group. An INCOMPLETE product's group is a lower bound. "
+             f"a modest measurement error could change its group. An INCOMPLETE product's group is a lower bound; "
+             f"'not determined': no hazard with risk groups could be assessed, nothing is known. WHAT-IF: assessed "
+             f"at a distance the record asks for, not a classification; the standard's group is named beside it. "
              f"CONTRADICTED: a vendor claim in the record that the result does not bear out (see its report)."
              + (" Min. distance to Exempt: beyond it the product is Exempt (its report's distance study; —: none "
                 "in the result)." if any(a.distances is not None for a in assessments) else ""),

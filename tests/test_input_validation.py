@@ -289,8 +289,9 @@ def test_infinite_record_numbers_are_refused(tmp_path, field):
 
 @pytest.mark.parametrize(("header", "fields", "pattern"), [
     ("E [mW/m2/nm]", {**SIZE, "unit": "W/m2/nm"},
-     r"the record says unit 'W/m2/nm' but the file's header says 'mW/m2/nm'"),
-    ("L [W/m2/sr/nm]", SIZE, r"the file's header gives 'W/m2/sr/nm', which does not fit quantity 'irradiance'"),
+     r"the record says unit 'W/m2/nm' but the file's header cell says 'mW/m2/nm'"),
+    ("L [W/m2/sr/nm]", SIZE, r"the file's header cell gives 'W/m2/sr/nm', which does not fit quantity "
+                             r"'irradiance'"),
 ])
 def test_unit_in_the_header_that_contradicts_the_record(tmp_path, header, fields, pattern):
     # method §5: units are converted, never guessed; a header and a record that disagree are refused
@@ -358,8 +359,9 @@ def test_band_not_covered_is_not_assessed(tmp_path, monkeypatch, diameter_mm, bl
     path = write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, _lamp(VISIBLE_NM))
     a = hazard.assess(path, {"distance_mm": 200.0, "source_diameter_mm": diameter_mm})
     expected = {"E_S", "E_UVA", blue, "L_R", "E_IR", "E_H"}
-    # method §5: a hazard is assessed only when the spectrum spans its band; the group is then a lower bound
-    assert a.complete is False
+    # method §5: a hazard is assessed only when the spectrum spans its band; method §3: with no hazard that has
+    # risk groups assessed there is no group at all (never "Exempt")
+    assert a.complete is False and a.risk_group is None and a.deciding_hazards == []
     assert set(a.not_assessed) == expected
     assert not a.geometry.weak_visual_stimulus  # bright lamp: L_R, not L_IR (method §1)
     for symbol in expected:
@@ -372,7 +374,9 @@ def test_band_not_covered_is_not_assessed(tmp_path, monkeypatch, diameter_mm, bl
     result = CliRunner().invoke(main, ["assess", "lamp.csv", "--distance-mm", "200", "--source-diameter-mm",
                                        str(diameter_mm)])
     assert result.exit_code == 0
-    assert "INCOMPLETE, lower bound" in result.stdout
+    overall = next(line for line in result.stdout.splitlines() if line.startswith("Overall risk group"))
+    assert overall.startswith("Overall risk group: NOT DETERMINED") and "Exempt" not in overall
+    assert "measure the missing wavelength range" in result.stdout  # the fix is named
 
 
 def test_band_gap_assumed_empty_with_no_emission_outside(tmp_path, monkeypatch):

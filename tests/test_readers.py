@@ -50,7 +50,7 @@ def test_metadata_lines_are_kept():
 
 def test_header_unit_contradicting_the_record_is_refused():
     # the header states mW/m²/nm; a record claiming W/m2/nm would be off by 10^3 (method §5 unit slips)
-    with pytest.raises(InputError, match=r"the record says unit 'W/m2/nm' but the file's header says"):
+    with pytest.raises(InputError, match=r"the record says unit 'W/m2/nm' but the file's header cell says"):
         _load("semicolon_decimal_comma.csv", unit="W/m2/nm")
     assert _load("semicolon_decimal_comma.csv", unit="mW/m2/nm").spectrum.value[0] == pytest.approx(
         REFERENCE[0, 1], rel=2e-6)

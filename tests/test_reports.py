@@ -174,7 +174,8 @@ def test_uncertainty_verdict_is_printed_on_page_one_and_three(lineup, lineup_pdf
     pages = _pages(render_assessment_pdf(edge, RENDERED_AT))
     assert len(pages) == 3
     # project contract: issue "Beyond the label", "borderline" next to the overall group on page 1
-    assert re.search(r"RG1 BORDERLINE Overall risk group: RG1", pages[0])
+    assert re.search(r"what-if at 2700 mm RG1 BORDERLINE WHAT-IF at 2700 mm", pages[0])  # issue: what-if
+    assert "What-if group at 2700 mm: RG1" in pages[0] and "Overall risk group" not in pages[0]
     assert f"Uncertainty: BORDERLINE — {_normalise(edge.uncertainty.note)}" in pages[0]
     assert f"BORDERLINE — overall group Exempt to RG1: {_normalise(edge.uncertainty.note)}" in pages[2]
     assert "blue light (L_B)" in pages[2] and "Exempt to RG1 (changes)" in pages[2]
@@ -308,7 +309,7 @@ def test_summary_ranks_flags_and_lists_failures(tmp_path, lineup):
     # product lies within 1.25x of a boundary by the values in its result)
     assert "incomplete: 1" in text and "borderline: 1" in text
     # CL-EDGE keeps the curing lamp's distance study: its minimum distance to Exempt sits between margin and flag
-    assert re.search(r"CL-EDGE .* E_UVA: 90% of RG2 limit \d+ mm BORDERLINE", text)
+    assert re.search(r"CL-EDGE .* E_UVA: 2.7× RG1 limit; 90 % of RG2 limit \d+ mm BORDERLINE", text)
     assert _normalise(str(failure.value)) in text and "second line, not shown" not in text
     for caution in {c for a in products for c in a.cautions}:
         assert _normalise(caution) in text  # project contract: hazard/cautions.py, every caution shown

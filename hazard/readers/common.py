@@ -48,8 +48,10 @@ class RawSpectrum:
         1-based line (or row) number of each sample in the file.
     path : str
         The file as the user named it.
-    unit : str or None
-        Unit of the values found in the file's header, if any.
+    header_cell : str or None
+        What the file says of the values: the value column's header cell, or the unit a JSON file states.
+    header_line : int or None
+        1-based line (or row) of that header cell.
     warnings : tuple of str
         What the reader tolerated.
     """
@@ -58,7 +60,8 @@ class RawSpectrum:
     value: np.ndarray
     lines: np.ndarray
     path: str
-    unit: str | None = None
+    header_cell: str | None = None
+    header_line: int | None = None
     warnings: tuple[str, ...] = field(default=())
 
 

@@ -17,7 +17,7 @@ import numpy as np
 
 from hazard.errors import InputError
 from hazard.readers.common import Limits, RawSpectrum, current_limits, decode_text, read_bytes
-from hazard.readers.headers import choose_value_column, header_unit, wavelength_scale
+from hazard.readers.headers import choose_value_column, wavelength_scale
 
 __all__ = ["read_delimited"]
 
@@ -169,7 +169,7 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
         raise InputError("no data rows", "give two columns: wavelength in nm, then the spectral value",
                          display_path)
     width = len(cells)
-    header = None
+    header, header_number = None, None
     if preamble:
         last_number, last_line = preamble[-1]
         header_cells = _cells(last_line, delimiter, False)
@@ -178,7 +178,7 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
                 bad = header_cells[0]  # numbers beside it: a data row whose first cell is mistyped
                 raise InputError(f"text {bad!r} in a number column", "use plain numbers (a letter O or l for a "
                                  "digit is a common slip)", display_path, last_number)
-            header = header_cells
+            header, header_number = header_cells, last_number
             preamble = preamble[:-1]
     metadata = dict(item for _, line in preamble if (item := _metadata_item(line)) is not None)
     value_index = choose_value_column(header, width, column, display_path)
@@ -195,9 +195,9 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
     if not raw.endswith(b"\n"):
         warnings.append(f"{display_path}: the file does not end with a line break, so it may be truncated; "
                         f"check its last row")
-    unit = header_unit(header[value_index]) if header else None
     spectrum = RawSpectrum(wavelength_nm=table[:, 0] * scale, value=table[:, value_index], lines=numbers,
-                           path=display_path, unit=unit, warnings=tuple(warnings))
+                           path=display_path, header_cell=header[value_index] if header else None,
+                           header_line=header_number, warnings=tuple(warnings))
     info = {"header": header, "value_column": header[value_index] if header else value_index,
             "comments": comments, "metadata": metadata, "delimiter": delimiter or "whitespace",
             "decimal_comma": decimal_comma, "sha256": digest}

@@ -4,11 +4,12 @@ and which value column a record's ``column`` names."""
 from __future__ import annotations
 
 import re
+from dataclasses import dataclass
 
 from hazard.errors import InputError
 from hazard.units import parse_spectral_unit
 
-__all__ = ["header_unit", "wavelength_scale", "choose_value_column", "WAVELENGTH_NAMES"]
+__all__ = ["HeaderStatement", "header_statement", "wavelength_scale", "choose_value_column", "WAVELENGTH_NAMES"]
 
 WAVELENGTH_NAMES = ("wavelength", "wavelength_nm", "wl", "lambda", "λ", "nm", "wave")
 _BRACKETED = re.compile(r"[\[(]\s*([^\[\]()]*(?:\([^()]*\)[^\[\]()]*)*)\s*[\])]\s*$")
@@ -23,23 +24,73 @@ def _unit_text(cell: str) -> str | None:
     return parts[1].strip() if len(parts) == 2 else None
 
 
-def header_unit(cell: str) -> str | None:
-    """The spectral unit a value-column header states, or None when it states none we can read.
+_UNCALIBRATED = re.compile(r"(?<![a-z])(counts?|cnts?|digits|adc|dn|raw|signal|intensity|relative|rel|a\.?u\.?|arb"
+                           r"|arbitrary|normali[sz]ed|norm|percent|transmittance|reflectance|absorbance|scope"
+                           r"|sample)(?![a-z])|%", re.IGNORECASE)
+"""Words in a header cell that name values which are not a calibrated spectral irradiance or radiance."""
+
+
+@dataclass(frozen=True)
+class HeaderStatement:
+    """What a value column's header cell (or a file's stated unit) says about the values.
+
+    Attributes
+    ----------
+    cell : str
+        The cell as written.
+    unit : str or None
+        The spectral unit it states, when it states one this tool reads.
+    problem : str or None
+        Why the values cannot be taken as calibrated spectral values without the record's ``unit``: the cell
+        names counts, a percentage, a relative scale, or a unit this tool does not read.
+    """
+
+    cell: str
+    unit: str | None = None
+    problem: str | None = None
+
+
+def header_statement(cell: str) -> HeaderStatement:
+    """Read what a header cell states: a spectral unit, nothing (a plain name), or something the values cannot
+    be trusted as (units are never guessed).
 
     Examples
     --------
-    >>> header_unit("Irradiance [mW/m²/nm]"), header_unit("E (µW/(cm²·nm))"), header_unit("counts")
-    ('mW/m²/nm', 'µW/(cm²·nm)', None)
+    >>> header_statement("Irradiance [mW/m²/nm]").unit, header_statement("irradiance").problem
+    ('mW/m²/nm', None)
+    >>> header_statement("Counts").problem
+    "'Counts' names values that are not a calibrated spectral irradiance or radiance"
+    >>> header_statement("Irradiance (W/m2)").problem
+    "'Irradiance (W/m2)' states 'W/m2', a power per area without /nm: not a spectral quantity"
+    >>> header_statement("E (furlongs/fortnight)").problem
+    "'E (furlongs/fortnight)' states 'furlongs/fortnight', a unit this tool does not read"
     """
-    for candidate in (_unit_text(cell), cell):
-        if not candidate:
-            continue
-        try:
-            parse_spectral_unit(candidate)
-        except ValueError:
-            continue
-        return candidate
-    return None
+    stated = _unit_text(cell)
+    for candidate in (stated, cell):
+        if candidate:
+            try:
+                parse_spectral_unit(candidate)
+            except ValueError:
+                continue
+            return HeaderStatement(cell, unit=candidate)
+    if _UNCALIBRATED.search(cell):
+        return HeaderStatement(cell, problem=f"{cell!r} names values that are not a calibrated spectral "
+                                             f"irradiance or radiance")
+    if stated:
+        if _per_area(stated):
+            return HeaderStatement(cell, problem=f"{cell!r} states {stated!r}, a power per area without /nm: "
+                                                 f"not a spectral quantity")
+        return HeaderStatement(cell, problem=f"{cell!r} states {stated!r}, a unit this tool does not read")
+    return HeaderStatement(cell)
+
+
+def _per_area(text: str) -> bool:
+    """``text`` reads as a spectral unit once '/nm' is added: a power per area (or per area and sr)."""
+    try:
+        parse_spectral_unit(f"{text}/nm")
+    except ValueError:
+        return False
+    return True
 
 
 def wavelength_scale(cell: str | None) -> float:

@@ -62,6 +62,6 @@ def read_json(path: str, *, display_path: str, column: str | int | None = None,
                 raise InputError(f"entry {i + 1}: {item!r} is not a number", "use numbers for wavelength and "
                                  "value", display_path)
     spectrum = RawSpectrum(np.array(wavelength, dtype=float), np.array(value, dtype=float), numbers, display_path,
-                           unit)
+                           header_cell=unit, header_line=None)
     return spectrum, {"header": None, "value_column": column or "value", "comments": [], "metadata": meta,
                       "sha256": digest}

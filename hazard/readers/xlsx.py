@@ -7,7 +7,7 @@ import numpy as np
 
 from hazard.errors import InputError
 from hazard.readers.common import Limits, RawSpectrum, current_limits, read_bytes
-from hazard.readers.headers import choose_value_column, header_unit, wavelength_scale
+from hazard.readers.headers import choose_value_column, wavelength_scale
 
 __all__ = ["read_xlsx"]
 
@@ -33,7 +33,7 @@ def read_xlsx(path: str, *, display_path: str, column: str | int | None = None,
         raise InputError(f"more than {limits.max_rows:,} rows", "resample the spectrum", display_path)
     rows = [list(r) for r in sheet.iter_rows(values_only=True)]
     book.close()
-    preamble, data, numbers = [], [], []
+    preamble, preamble_rows, data, numbers = [], [], [], []
     for number, cells in enumerate(rows, start=1):
         cells = [c for c in cells]
         while cells and cells[-1] is None:
@@ -42,6 +42,7 @@ def read_xlsx(path: str, *, display_path: str, column: str | int | None = None,
             continue
         if not data and not (len(cells) >= 2 and _number(cells[0])):
             preamble.append(cells)
+            preamble_rows.append(number)
             continue
         data.append(cells)
         numbers.append(number)
@@ -67,6 +68,7 @@ def read_xlsx(path: str, *, display_path: str, column: str | int | None = None,
     scale = wavelength_scale(header[0] if header else None)
     spectrum = RawSpectrum(wavelength_nm=table[:, 0] * scale, value=table[:, value_index],
                            lines=np.array(numbers), path=display_path,
-                           unit=header_unit(header[value_index]) if header else None)
+                           header_cell=header[value_index] if header else None,
+                           header_line=preamble_rows[-1] if header else None)
     return spectrum, {"header": header, "value_column": header[value_index] if header else value_index,
                       "comments": [], "metadata": metadata, "sheet": sheet.title, "sha256": digest}

@@ -1,0 +1,119 @@
+"""t_max: the exposure duration at which a hazard's exposure limit is first reached (method §1).
+
+The time axis is cut where the limit's formula changes (:class:`~hazard.hazards.LimitPiece`) and where the
+viewing rule changes (:class:`~hazard.hazards.Viewing`: the field of view γ and the α bounds that belong to
+each duration). On each cut the limit is a power law C·t^k and, for a fixed field, the compared value is
+constant, so the time is (value/C)^(1/k) in closed form; where the field grows with the duration (blue light,
+γ = 1.1·√t mrad from 100 s) the dose value·t never falls with t and the time is found by
+:func:`hazard.search.log_search`.
+t_max is the earliest time over all cuts, so it sees the same fields and α bounds as the group boundaries.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+
+import numpy as np
+
+from hazard.hazards import FieldOfView, Hazard, LimitPiece
+from hazard.search import log_search
+
+__all__ = ["time_to_limit_s"]
+
+
+RadianceAt = Callable[..., np.ndarray]
+"""(symbol, γ [rad], rows=None) → the field-averaged radiance of that quantity [W m⁻² sr⁻¹], one per product
+(or per product at ``rows``)."""
+ValueOf = Callable[[str], np.ndarray]
+"""symbol → the irradiance value of that quantity [W m⁻²], one per product."""
+AlphaIn = Callable[[tuple[float, float]], np.ndarray]
+"""α bounds [rad] → the bounded angular subtense, one per product [rad]."""
+
+
+def _cuts(hazard: Hazard) -> list[tuple[float, float, LimitPiece, FieldOfView | None, tuple | None]]:
+    """(after, up_to, piece, field of view, α bounds) for every stretch of duration with one formula and one
+    viewing rule; a growing field is cut where it reaches its cap, beyond which it is fixed."""
+    cuts = []
+    for piece in hazard.exposure_limit.pieces:
+        if not hazard.viewing:
+            cuts.append((piece.after_s, piece.up_to_s, piece, None, None))
+            continue
+        start = 0.0
+        for rule in hazard.viewing:
+            a, b = max(piece.after_s, start), min(piece.up_to_s, rule.up_to_s)
+            start = rule.up_to_s
+            if a >= b:
+                continue
+            fov = rule.fov
+            if fov.grows and np.isfinite(fov.cap_rad):
+                t_cap = (fov.cap_rad / fov.growth_rad_per_sqrt_s) ** 2
+                if a < t_cap:
+                    cuts.append((a, min(b, t_cap), piece, fov, rule.alpha_bounds_rad))
+                if b > t_cap:
+                    cuts.append((max(a, t_cap), b, piece, FieldOfView(fov.cap_rad), rule.alpha_bounds_rad))
+                continue
+            cuts.append((a, b, piece, fov, rule.alpha_bounds_rad))
+    return cuts
+
+
+def _closed_form(value: np.ndarray, coefficient: np.ndarray, exponent: float, a: float, b: float) -> np.ndarray:
+    """Earliest t in (a, b] with value > coefficient·t^exponent (reached exactly at the time the two are equal);
+    NaN where not within the cut."""
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+        if exponent == 0:
+            return np.where(value > coefficient, a, np.nan)
+        t = (value / coefficient) ** (1.0 / exponent)
+    t = np.where(value > 0, t, np.inf)
+    return np.where(t <= b, np.maximum(t, a), np.nan)
+
+
+def _growing(exceeded: Callable[[np.ndarray, np.ndarray], np.ndarray], n: int, a: float, b: float) -> np.ndarray:
+    """Earliest t in [a, b] where the monotonic ``exceeded(t, rows)`` holds (t and rows flat, one each); NaN
+    where it does not hold at b."""
+    every = np.arange(n)
+    at_end = exceeded(np.full(n, b), every)
+    at_start = exceeded(np.full(n, a), every)
+    out = np.where(at_start, a, np.nan)
+    rows = np.flatnonzero(at_end & ~at_start)
+    if rows.size:
+        def test(t, jobs):
+            return exceeded(t.ravel(), np.repeat(rows[jobs], t.shape[1])).reshape(t.shape)
+        out[rows] = log_search(test, np.full(rows.size, a), np.full(rows.size, b))[1]
+    return out
+
+
+def time_to_limit_s(hazard: Hazard, n: int, value_of: ValueOf, radiance_at: RadianceAt, alpha_in: AlphaIn
+                    ) -> np.ndarray:
+    """t_max of ``hazard`` for n products [s]; NaN where the limit is not reached within its durations.
+
+    Parameters
+    ----------
+    hazard : Hazard
+    n : int
+        Products.
+    value_of : callable
+        Irradiance values by symbol (irradiance hazards).
+    radiance_at : callable
+        Field-averaged radiance by symbol and field of view (radiance hazards).
+    alpha_in : callable
+        Bounded α for a pair of bounds.
+
+    Returns
+    -------
+    numpy.ndarray
+        (n,) [s].
+    """
+    earliest = np.full(n, np.inf)
+    for a, b, piece, fov, bounds in _cuts(hazard):
+        symbol = piece.quantity or hazard.symbol
+        coefficient = piece.coefficient / alpha_in(bounds) if piece.over_alpha else np.full(n, piece.coefficient)
+        if fov is None:
+            reach = _closed_form(value_of(symbol), coefficient, piece.exponent, a, b)
+        elif not fov.grows:
+            reach = _closed_form(radiance_at(symbol, np.full(n, fov.fixed_rad)), coefficient, piece.exponent, a, b)
+        else:
+            def exceeded(t, rows, symbol=symbol, coefficient=coefficient, piece=piece, fov=fov):
+                return radiance_at(symbol, fov.at(t), rows) > coefficient[rows] * t ** piece.exponent
+            reach = _growing(exceeded, n, max(a, 1e-9), b)
+        earliest = np.fmin(earliest, reach)
+    return np.where(np.isfinite(earliest), earliest, np.nan)

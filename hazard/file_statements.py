@@ -1,0 +1,121 @@
+"""What a spectrum file says about itself, checked against the record: the unit is never guessed, and a
+distance the file states that the record contradicts is named in a warning.
+
+A file states its unit in the value column's header cell (``Irradiance [mW/m²/nm]``), in a metadata line
+before the table (``Unit: uW/cm2/nm``) or, for JSON, in its ``unit`` key. A statement this tool reads is used
+(and must agree with the record's ``unit``); a statement it cannot trust as calibrated spectral values
+(``Counts``, ``%``, ``W/m2`` without /nm, a unit it does not read) is an error unless the record states
+``unit`` itself.
+"""
+
+from __future__ import annotations
+
+import math
+import re
+
+from hazard.errors import InputError
+from hazard.readers import RawSpectrum
+from hazard.readers.headers import HeaderStatement, header_statement
+from hazard.record import ProductRecord
+from hazard.units import SpectralUnit, parse_spectral_unit
+
+__all__ = ["resolve_unit", "file_metadata", "metadata_warnings", "MAX_METADATA_ITEMS", "MAX_METADATA_TEXT"]
+
+MAX_METADATA_ITEMS = 40
+"""Metadata lines of a file kept in the result (the first ones) [1]."""
+MAX_METADATA_TEXT = 120
+"""Characters kept of each metadata key and value [1]."""
+DISTANCE_TOLERANCE = 0.01
+"""A distance the file states differs from the record's beyond this relative amount: a warning [1]."""
+
+_UNIT_KEY = re.compile(r"^\s*units?\b", re.IGNORECASE)
+_DISTANCE_KEY = re.compile(r"distance", re.IGNORECASE)
+_LENGTH = re.compile(r"([0-9]+(?:[.,][0-9]+)?)\s*(mm|cm|m)\b")
+_TO_MM = {"mm": 1.0, "cm": 10.0, "m": 1000.0}
+
+
+def _statements(raw: RawSpectrum, metadata: dict) -> list[tuple[HeaderStatement, int | None, str]]:
+    """(statement, line, where) for every place the file speaks of its values' unit."""
+    found = []
+    if raw.header_cell:
+        found.append((header_statement(raw.header_cell), raw.header_line, "header cell"))
+    for key, value in metadata.get("metadata", {}).items():
+        if _UNIT_KEY.match(str(key)) and str(value).strip():
+            found.append((header_statement(str(value).strip()), None, f"metadata line {key!r}"))
+    return found
+
+
+def resolve_unit(record: ProductRecord, raw: RawSpectrum, metadata: dict, origin: str
+                 ) -> tuple[SpectralUnit, list[str]]:
+    """The unit of the values, and warnings: the record's, checked against every statement of the file.
+
+    A relative spectrum keeps its own scale (factor 1); its anchor sets the level.
+
+    Raises
+    ------
+    InputError
+        A statement that cannot be trusted while the record states no unit; statements that disagree with
+        each other or with the record; a unit that does not fit the record's quantity.
+    """
+    if record.quantity == "relative":
+        return SpectralUnit("relative", 1.0, record.effective_quantity == "radiance"), []
+    warnings = []
+    units = []
+    for statement, line, where in _statements(raw, metadata):
+        if statement.problem is not None:
+            if record.unit is None:
+                raise InputError(f"the {where} says {statement.problem}; units are never guessed",
+                                 "if the values are calibrated, state the unit in the record (e.g. unit = "
+                                 "\"W/m2/nm\"); otherwise export calibrated spectral values", raw.path, line)
+            warnings.append(f"{raw.path}: the {where} says {statement.problem}; the values are taken in "
+                            f"{record.unit!r} as the record states")
+            continue
+        if statement.unit is not None:
+            units.append((parse_spectral_unit(statement.unit), statement.unit, line, where))
+    for (first, text, _, where), (other, other_text, line, other_where) in zip(units, units[1:]):
+        if not _same(first, other):
+            raise InputError(f"the {where} says {text!r} but the {other_where} says {other_text!r}",
+                             "correct the file so it states one unit", raw.path, line)
+    if not units:
+        return parse_spectral_unit(record.unit_text), warnings
+    stated, text, line, where = units[0]
+    if record.unit is None:
+        if stated.per_steradian != (record.quantity == "radiance"):
+            raise InputError(f"the file's {where} gives {text!r}, which does not fit quantity "
+                             f"{record.quantity!r}", "set quantity (and unit) to match the file", origin)
+        return stated, warnings
+    given = parse_spectral_unit(record.unit)
+    if not _same(given, stated):
+        raise InputError(f"the record says unit {record.unit!r} but the file's {where} says {text!r}",
+                         "correct the record's unit, or remove it to use the file's", origin)
+    return given, warnings
+
+
+def _same(a: SpectralUnit, b: SpectralUnit) -> bool:
+    return math.isclose(a.factor_to_si, b.factor_to_si) and a.per_steradian == b.per_steradian
+
+
+def file_metadata(metadata: dict) -> dict[str, str]:
+    """The file's metadata lines as text, bounded: the first :data:`MAX_METADATA_ITEMS`, each key and value cut
+    to :data:`MAX_METADATA_TEXT` characters of printable text."""
+    def clean(text: object) -> str:
+        printable = "".join(c if c.isprintable() else " " for c in str(text))
+        return printable[:MAX_METADATA_TEXT].strip()
+
+    items = list(metadata.get("metadata", {}).items())[:MAX_METADATA_ITEMS]
+    return {clean(key): clean(value) for key, value in items}
+
+
+def metadata_warnings(record: ProductRecord, kept: dict[str, str], path: str) -> list[str]:
+    """A distance the file states that differs from the record's ``distance_mm``, named in a warning."""
+    warnings = []
+    for key, value in kept.items():
+        match = _LENGTH.search(value) if _DISTANCE_KEY.search(key) else None
+        if match is None or record.distance_mm is None:
+            continue
+        stated_mm = float(match.group(1).replace(",", ".")) * _TO_MM[match.group(2)]
+        if not math.isclose(stated_mm, record.distance_mm, rel_tol=DISTANCE_TOLERANCE):
+            warnings.append(f"{path}: the file's metadata line '{key}: {value}' states {stated_mm:g} mm but the "
+                            f"record's distance_mm is {record.distance_mm:g} mm; the record's value is used, "
+                            f"check which is right")
+    return warnings
