@@ -57,8 +57,8 @@ def _peak_rss_mib() -> float:
 def part_memory(n: int) -> dict:
     """Part 1 in this process: floor and assess_many on the same float32 array."""
     from hazard import assess_many
-    from hazard.hazards import DEFAULT_LIMIT_SET
-    from hazard.integrals import integral_matrix
+    from hazard.method.integrals import integral_matrix
+    from hazard.standards import DEFAULT_LIMIT_SET
 
     spectra = _spectra(n)
     weights = integral_matrix(GRID_NM, DEFAULT_LIMIT_SET).astype(np.float32)

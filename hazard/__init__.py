@@ -12,11 +12,11 @@ A pre-screen, not a certification. Public API:
 from hazard._version import __version__
 from hazard.engine import assess
 from hazard.errors import InputError
-from hazard.hazards import IEC_62471_2006
 from hazard.inputs import load_product
 from hazard.many import assess_many
 from hazard.record import ProductRecord
 from hazard.result import Assessment, HazardResult
+from hazard.standards import IEC_62471_2006
 
 __all__ = ["__version__", "assess", "assess_many", "load_product", "ProductRecord", "Assessment", "HazardResult",
            "InputError", "IEC_62471_2006"]

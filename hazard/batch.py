@@ -29,13 +29,13 @@ from hazard.atomic import write_atomic
 from hazard.engine import build_assessment, evaluate_loaded
 from hazard.errors import InputError
 from hazard.formatting import NOT_DETERMINED
-from hazard.hazards import DEFAULT_LIMIT_SET, LimitSet
 from hazard.inputs import LoadedProduct, product_from_record
 from hazard.manifest import ManifestRow, read_manifest
-from hazard.photometry import import_colour
+from hazard.method.photometry import import_colour
 from hazard.progress import Progress
 from hazard.record import record_from_fields
 from hazard.result import Assessment
+from hazard.standards import DEFAULT_LIMIT_SET, LimitSet
 
 __all__ = ["BatchOutcome", "run_batch", "summary_rows", "SUMMARY_NAME", "RESULTS_NAME", "EXIT_SOME_FAILED"]
 
@@ -195,7 +195,7 @@ def _assess_chunk(job: tuple[list[ManifestRow], bool, LimitSet]) -> list[tuple[s
     """Worker: load, assess and serialise a chunk of rows → (id, JSON line or None, error or None) each.
 
     Top level, so a process pool can run it; every product's numbers are independent of the others in its
-    chunk (:func:`hazard.integrals.integrate_spectra`), so any split of the work gives the same lines.
+    chunk (:func:`hazard.method.integrals.integrate_spectra`), so any split of the work gives the same lines.
     """
     rows, studies, limit_set = job
     loaded = [_load_or_error(row) for row in rows]

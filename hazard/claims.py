@@ -11,9 +11,9 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from hazard.formatting import format_duration_s
-from hazard.hazards import GROUPS
 from hazard.record import ProductRecord
 from hazard.result import ClaimCheck, HazardResult
+from hazard.standards import GROUPS
 
 __all__ = ["ClaimTolerances", "DEFAULT_TOLERANCES", "check_claims"]
 

@@ -1,7 +1,7 @@
 """``assess``: one product from record to :class:`~hazard.result.Assessment`.
 
 Data flows one way: record and spectrum (:mod:`hazard.inputs`) → weighted integrals on the spectrum's own
-grid (:mod:`hazard.weighting`) → values, limits and groups (:mod:`hazard.evaluate`) → a frozen result.
+grid (:mod:`hazard.method.weighting`) → values, limits and groups (:mod:`hazard.method.evaluate`) → a frozen result.
 """
 
 from __future__ import annotations
@@ -15,29 +15,30 @@ import numpy as np
 from hazard._version import __version__
 from hazard.cautions import select_cautions
 from hazard.claims import DEFAULT_TOLERANCES, ClaimTolerances, check_claims
-from hazard.distances import distance_study
-from hazard.evaluate import Evaluation, ProductArrays, evaluate, integral_specs
 from hazard.formatting import UNIT_DISPLAY, format_duration_s
-from hazard.geometry import FIVE_TIMES_RULE, SourceShape
-from hazard.hazards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
 from hazard.inputs import LoadedProduct, load_product, product_from_record
-from hazard.integrals import Integrated, integrate_spectra
-from hazard.photometry import CCT_DUV_LIMIT, CCT_RANGE_K, VISIBLE_BAND_NM, cct_from_xyz
+from hazard.method.evaluate import Evaluation, ProductArrays, evaluate, integral_index, share_key
+from hazard.method.geometry import FIVE_TIMES_RULE, SourceShape
+from hazard.method.integrals import Integrated, integrate_spectra
+from hazard.method.photometry import CCT_DUV_LIMIT, CCT_RANGE_K, VISIBLE_BAND_NM, cct_from_xyz
+from hazard.method.weighting import coarse_steps_in
 from hazard.record import ANCHORS, ProductRecord
-from hazard.remedies import remedies_study
 from hazard.result import (
     Assessment,
     BlueLightTransfer,
     Geometry,
     HazardResult,
+    LimitSetInfo,
     Photometry,
     Provenance,
     Scaling,
     SpectrumSummary,
 )
-from hazard.uncertainty import uncertainty_study
+from hazard.standards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
+from hazard.studies.distances import distance_study
+from hazard.studies.remedies import remedies_study
+from hazard.studies.uncertainty import uncertainty_study
 from hazard.units import IRRADIANCE_SI
-from hazard.weighting import coarse_steps_in
 from weighting_tables import TABLE_NAMES, load_table
 
 __all__ = ["assess", "evaluate_loaded", "evaluate_products", "build_assessment", "BatchEvaluation", "METHOD_TEXT",
@@ -55,7 +56,6 @@ PLAUSIBLE_MAX_ILLUMINANCE_LX = 200e3
 PLAUSIBLE_PEAK_IRRADIANCE = (1e-9, 1e4)
 """Peak spectral irradiance outside this range suggests a unit slip by 10³ or 10⁴ (common practice, no
 published source) [W m⁻² nm⁻¹]."""
-_GROUP_KEYS = GROUPS[:3]
 
 
 def source_shape(records: list[ProductRecord]) -> SourceShape:
@@ -73,7 +73,7 @@ def source_shape(records: list[ProductRecord]) -> SourceShape:
 
 def product_arrays(records: list[ProductRecord], raw: np.ndarray, covered: np.ndarray,
                    index: np.ndarray | None = None) -> ProductArrays:
-    """Stack records and their integrals for :func:`~hazard.evaluate.evaluate`.
+    """Stack records and their integrals for :func:`~hazard.method.evaluate.evaluate`.
 
     With ``index``, product i uses ``records[index[i]]`` (many products sharing one validated record's
     geometry); otherwise product i uses ``records[i]``.
@@ -124,15 +124,17 @@ def _missing_text(range_nm: tuple[float, float], band: tuple[float, float]) -> s
     return " and ".join(gaps)
 
 
-def _hazard_results(ev: Evaluation, i: int, spectrum_range: tuple[float, float]) -> dict[str, HazardResult]:
+def _hazard_results(ev: Evaluation, i: int, spectrum_range: tuple[float, float], limit_set: LimitSet
+                    ) -> dict[str, HazardResult]:
+    boundaries = limit_set.boundaries
     results = {}
     for symbol, h in ev.hazards.items():
         if not h.applicable[i]:
             continue
         spec = h.hazard
         grouped = spec.limits is not None
-        limits = {g: float(h.limits[i, k]) for k, g in enumerate(_GROUP_KEYS)} if grouped else {}
-        compared = {g: float(h.compared[i, k]) for k, g in enumerate(_GROUP_KEYS)} if grouped else {}
+        limits = {g: float(h.limits[i, k]) for k, g in enumerate(boundaries)} if grouped else {}
+        compared = {g: float(h.compared[i, k]) for k, g in enumerate(boundaries)} if grouped else {}
         band = f"{spec.band_nm[0]:g}–{spec.band_nm[1]:g} nm"
         if not h.assessed[i]:
             note = (f"Not assessed: the spectrum covers {spectrum_range[0]:g}–{spectrum_range[1]:g} nm and the "
@@ -162,10 +164,10 @@ def _hazard_results(ev: Evaluation, i: int, spectrum_range: tuple[float, float])
             risk_group=GROUPS[h.group_index[i]] if (h.assessed[i] and grouped) else None,
             assessed=bool(h.assessed[i]), limits=limits, compared=compared if h.assessed[i] else {},
             margins={g: compared[g] / limits[g] for g in limits} if h.assessed[i] else {},
-            fov_rad=dict(zip(_GROUP_KEYS, spec.fov_rad)) if spec.fov_rad else {},
-            alpha_rad={g: float(h.alpha_bounded[i, k]) for k, g in enumerate(_GROUP_KEYS)}
+            fov_rad=dict(zip(boundaries, spec.fov_rad)) if spec.fov_rad else {},
+            alpha_rad={g: float(h.alpha_bounded[i, k]) for k, g in enumerate(boundaries)}
             if spec.limits_over_alpha else {},
-            time_bases_s={g: float(t) for g, t in zip(_GROUP_KEYS, spec.time_bases_s)} if grouped else {},
+            time_bases_s={g: float(t) for g, t in zip(boundaries, spec.time_bases_s)} if grouped else {},
             exposure_limit=spec.exposure_limit.text, note=note)
     return results
 
@@ -312,11 +314,12 @@ def _spectrum_summary(loaded: LoadedProduct, scale: float) -> SpectrumSummary:
         preview_value_si=_four_digits(binned[filled]).tolist(), file_metadata=loaded.metadata.get("file_metadata", {}))
 
 
-def _transfer(ev: Evaluation, i: int, covered: np.ndarray, keys: list[str], record: ProductRecord
-              ) -> BlueLightTransfer | None:
-    """IEC TR 62778 transfer quantities, where the spectrum covers both B(λ) and V(λ) and the source is mainly
-    visible (the report's quantities are made for white-light sources)."""
-    if not (covered[keys.index("L_B")] and covered[keys.index("V")] and ev.mainly_visible[i]
+def _transfer(ev: Evaluation, i: int, covered: np.ndarray, keys: dict[str, int], record: ProductRecord,
+              limit_set: LimitSet) -> BlueLightTransfer | None:
+    """IEC TR 62778 transfer quantities, where the spectrum covers both the blue-light band and V(λ) and the
+    source is mainly visible (the report's quantities are made for white-light sources)."""
+    blue = limit_set.transfer_quantity()
+    if not (blue and covered[keys[blue]] and covered[keys["V"]] and ev.mainly_visible[i]
             and ev.blue_light_efficacy_w_per_lm[i] > 0):
         return None
     if record.luminous_intensity_cd is not None:
@@ -372,7 +375,7 @@ def evaluate_products(records: list[ProductRecord], integrated: Integrated,
         what_if = ~np.isnan(arrays.forced_distance_m)
         if what_if.any():
             standard = evaluate(dataclasses.replace(arrays, forced_distance_m=None), limit_set)
-    v = [s.key for s in integral_specs(limit_set)].index("V")
+    v = integral_index(limit_set)["V"]
     nan = np.full(integrated.raw.shape[0], np.nan)
     x, y, cct, duv = nan.copy(), nan.copy(), nan.copy(), nan.copy()
     lit = integrated.covered[:, v] & (ev.illuminance_lx > 0)
@@ -435,6 +438,18 @@ def _studies(loaded: LoadedProduct, batch: BatchEvaluation, i: int, distances_an
     return out
 
 
+def _shares(raw: np.ndarray, keys: dict[str, int], limit_set: LimitSet) -> dict[tuple[str, str], float]:
+    """(symbol, share) → the share of a hazard's value in its sub-band (0 when the value is 0) [1]."""
+    out = {}
+    for h in limit_set.hazards:
+        total = raw[keys[h.symbol]]
+        for share in h.shares:
+            if share.step_nm is None:
+                out[(h.symbol, share.name)] = float(raw[keys[share_key(h.symbol, share.name)]] / total) \
+                    if total > 0 else 0.0
+    return out
+
+
 def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int,
                      tolerances: ClaimTolerances = DEFAULT_TOLERANCES, studies: bool = True) -> Assessment:
     """The result of product ``i`` of an evaluation; vendor claims checked with ``tolerances``. With
@@ -442,12 +457,10 @@ def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int,
     an uncertainty)."""
     record, spectrum, limit_set = loaded.record, loaded.spectrum, batch.limit_set
     ev, covered, raw = batch.evaluation, batch.integrated.covered[i], batch.integrated.raw[i]
-    keys = [s.key for s in integral_specs(limit_set)]
-    v_covered = bool(covered[keys.index("V")])
-    hazards = _hazard_results(ev, i, spectrum.range_nm)
+    keys = integral_index(limit_set)
+    v_covered = bool(covered[keys["V"]])
+    hazards = _hazard_results(ev, i, spectrum.range_nm, limit_set)
     groups = {s: h.risk_group for s, h in hazards.items()}
-    e_s = raw[keys.index("E_S")]
-    uvc_fraction = float(raw[keys.index("UVC")] / e_s) if e_s > 0 else 0.0
     overall = _group_name(ev.group_index[i])
     d_a_mm = float(ev.assessment_distance_m[i]) * 1e3
     what_if = record.at_distance_mm is not None
@@ -470,19 +483,30 @@ def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int,
             weak_visual_stimulus=bool(ev.weak_visual_stimulus[i])),
         photometry=_photometry(batch, i, v_covered),
         spectrum=_spectrum_summary(loaded, float(ev.anchor_scale[i])),
-        blue_light_transfer=_transfer(ev, i, covered, keys, record),
+        blue_light_transfer=_transfer(ev, i, covered, keys, record, limit_set),
         scaling=_scaling(record, float(ev.anchor_scale[i])),
         **_studies(loaded, batch, i, studies),
         record=record.model_dump(exclude_none=True), warnings=_warnings(loaded, ev, i, v_covered),
         assumptions=_assumptions(loaded, ev, i),
-        cautions=select_cautions(groups, bool(ev.complete[i]), uvc_fraction, determined=overall is not None),
+        cautions=select_cautions(limit_set, groups, _shares(raw, keys, limit_set), bool(ev.complete[i]),
+                                 determined=overall is not None),
         claims=check_claims(record, risk_group=overall, complete=bool(ev.complete[i]),
                             not_assessed=[s for s, h in hazards.items() if not h.assessed], hazards=hazards,
                             cct_k=_float(batch.cct_k[i]), cct_reason=_cct_reason(batch, i, v_covered),
                             illuminance_at_record_distance_lx=_illuminance_at_record_distance(record, ev, i),
                             assessment_distance_mm=d_a_mm, tolerances=tolerances),
         provenance=Provenance(tool_version=__version__, limit_set=limit_set.name, tables=tables,
-                              inputs=dict(sorted(loaded.inputs.items())), method=METHOD_TEXT))
+                              inputs=dict(sorted(loaded.inputs.items())), method=METHOD_TEXT),
+        limit_set=limit_set_info(limit_set))
+
+
+def limit_set_info(limit_set: LimitSet) -> LimitSetInfo:
+    """What a renderer needs of a limit set, as it is stored in a result."""
+    return LimitSetInfo(name=limit_set.name, groups=list(limit_set.groups), boundaries=list(limit_set.boundaries),
+                        families={name: list(members) for name, members in limit_set.families},
+                        grouped_families=[name for name, _ in limit_set.grouped_families],
+                        small_source_alpha_rad=limit_set.small_source_alpha_rad,
+                        weak_stimulus_luminance_cd_m2=limit_set.weak_stimulus_luminance_cd_m2)
 
 
 def assess(product: str | Path | ProductRecord | LoadedProduct, overrides: dict | None = None,

@@ -86,12 +86,12 @@ def _times(ratio: float) -> str:
 def margin_to_next(risk_group: str | None, margins: dict[str, float]) -> tuple[str, float] | None:
     """The boundary that matters for a hazard in ``risk_group`` and the ratio value/limit there.
 
-    For Exempt, RG1 and RG2 it is the group's own upper limit (ratio ≤ 1: how much headroom is left); for
-    RG3 it is the RG2 limit (ratio > 1: how far over). None when the hazard has no groups.
+    For a group with an upper limit it is that limit (ratio ≤ 1: how much headroom is left); for the highest
+    group it is the last boundary's limit (ratio > 1: how far over). None when the hazard has no groups.
     """
     if risk_group is None or not margins:
         return None
-    boundary = "RG2" if risk_group == "RG3" else risk_group
+    boundary = risk_group if risk_group in margins else list(margins)[-1]
     return boundary, margins[boundary]
 
 
@@ -109,15 +109,15 @@ def format_margin(risk_group: str | None, margins: dict[str, float]) -> str:
     """
     if risk_group is None or not margins:
         return "—"
-    order = ("Exempt", "RG1", "RG2", "RG3")
-    rank = order.index(risk_group)
+    boundaries = list(margins)  # in rising order; a group beyond the last boundary is the highest
+    rank = boundaries.index(risk_group) if risk_group in boundaries else len(boundaries)
     parts = []
     if rank > 0:
-        below = order[rank - 1]
+        below = boundaries[rank - 1]
         parts.append(f"{_times(margins[below])} {below} limit" if margins[below] > 1 else
                      f"{format_percent(margins[below])} of {below} limit")
-    if rank < 3:
-        above = order[rank]
+    if rank < len(boundaries):
+        above = boundaries[rank]
         parts.append(f"{format_percent(margins[above])} of {above} limit" if margins[above] <= 1 else
                      f"{_times(margins[above])} {above} limit")
     return "; ".join(parts)

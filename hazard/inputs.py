@@ -8,11 +8,11 @@ from pathlib import Path
 
 from hazard.errors import InputError
 from hazard.file_statements import file_metadata, metadata_warnings, resolve_unit
-from hazard.photometry import VISIBLE_BAND_NM
+from hazard.method.photometry import VISIBLE_BAND_NM
+from hazard.method.weighting import quadrature_weights
 from hazard.readers import read_spectrum
 from hazard.record import ProductRecord, load_record, record_from_fields
 from hazard.spectrum import Spectrum, validate_spectrum
-from hazard.weighting import quadrature_weights
 from weighting_tables import load_table
 
 __all__ = ["LoadedProduct", "load_product", "product_from_record"]

@@ -1,8 +1,8 @@
 """``assess_many``: many products at once, as a pandas DataFrame (one row per product).
 
-The same method as :func:`hazard.assess` (the arrays of :mod:`hazard.evaluate`), without building a
+The same method as :func:`hazard.assess` (the arrays of :mod:`hazard.method.evaluate`), without building a
 result object per product. Spectra come either from the records' files, or as one in-memory matrix on a
-common grid, which goes through one BLAS matrix product per chunk (:func:`hazard.integrals.integrate_matrix`).
+common grid, which goes through one BLAS matrix product per chunk (:func:`hazard.method.integrals.integrate_matrix`).
 """
 
 from __future__ import annotations
@@ -13,17 +13,15 @@ import numpy as np
 
 from hazard.engine import BatchEvaluation, evaluate_loaded, evaluate_products
 from hazard.errors import InputError
-from hazard.evaluate import integral_specs
-from hazard.hazards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
 from hazard.inputs import LoadedProduct, load_product, product_from_record
-from hazard.integrals import Integrated, integrate_matrix
+from hazard.method.evaluate import integral_index
+from hazard.method.integrals import Integrated, integrate_matrix
 from hazard.record import ProductRecord, load_record, record_from_fields
 from hazard.spectrum import NEGATIVE_TOLERANCE
+from hazard.standards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
 from hazard.units import parse_spectral_unit
 
 __all__ = ["assess_many", "frame_columns"]
-
-_BOUNDARIES = GROUPS[:3]
 
 
 def frame_columns(limit_set: LimitSet = DEFAULT_LIMIT_SET) -> list[str]:
@@ -33,7 +31,7 @@ def frame_columns(limit_set: LimitSet = DEFAULT_LIMIT_SET) -> list[str]:
                "illuminance_lx", "luminance_cd_m2", "cct_k", "duv", "small_source", "weak_visual_stimulus"]
     for h in limit_set.hazards:
         columns += [f"{h.symbol}_{part}" for part in ("applicable", "assessed", "value", "group", "t_max_s")]
-        columns += [f"{h.symbol}_margin_{g}" for g in _BOUNDARIES]
+        columns += [f"{h.symbol}_margin_{g}" for g in limit_set.boundaries]
     return columns
 
 
@@ -141,7 +139,7 @@ def _frame(batch: BatchEvaluation | None, ids: list[str], good: list[int], error
             data[f"{symbol}_value"] = spread(np.where(h.assessed, h.value, np.nan))
             data[f"{symbol}_group"] = groups(np.where(h.assessed & grouped, h.group_index, -1))
             data[f"{symbol}_t_max_s"] = spread(np.where(h.assessed, h.t_max_s, np.nan))
-            for k, g in enumerate(_BOUNDARIES):
+            for k, g in enumerate(limit_set.boundaries):
                 margin = h.compared[:, k] / h.limits[:, k] if grouped else np.nan
                 data[f"{symbol}_margin_{g}"] = spread(np.where(h.assessed, margin, np.nan))
     return pd.DataFrame(data, columns=frame_columns(limit_set))
@@ -199,7 +197,7 @@ def assess_many(records, wavelength_nm: np.ndarray | None = None, spectra: np.nd
     flags = np.array([ok and r.no_emission_outside for r, ok in zip(validated, is_record)])[index]
     integrated, peak, lowest = integrate_matrix(np.asarray(wavelength_nm, dtype=float), spectra, flags, limit_set,
                                                 factors)
-    visual = integrated.raw[:, [s.key for s in integral_specs(limit_set)].index("V")]
+    visual = integrated.raw[:, integral_index(limit_set)["V"]]
     relative = np.array([ok and r.quantity == "relative" for r, ok in zip(validated, is_record)])[index]
     valid_values = (np.isfinite(peak) & np.isfinite(lowest) & (peak > 0)
                     & (lowest >= -NEGATIVE_TOLERANCE * np.where(np.isfinite(peak), peak, 0))

@@ -13,7 +13,7 @@ from pydantic import BaseModel, ConfigDict, Field
 __all__ = ["HazardResult", "SpectrumSummary", "BlueLightTransfer", "ClaimCheck", "Scaling", "BoundaryDistance",
            "DistanceStudy", "HazardBounds", "UncertaintyStudy", "Remedy", "BandContribution", "Remedies", "Provenance",
            "Photometry",
-           "Geometry", "Assessment", "RiskGroup"]
+           "Geometry", "LimitSetInfo", "Assessment", "RiskGroup"]
 
 RiskGroup = Literal["Exempt", "RG1", "RG2", "RG3"]
 Basis = Literal["standard", "what-if"]
@@ -26,7 +26,7 @@ class _Frozen(BaseModel):
 class HazardResult(_Frozen):
     """One hazard quantity at the assessment distance."""
 
-    symbol: str = Field(description="Quantity symbol, e.g. E_S, L_B.")
+    symbol: str = Field(description="Quantity symbol of the limit set.")
     title: str = Field(description="What the hazard is.")
     band_nm: tuple[float, float] = Field(description="Integration band [nm].")
     weighting: str | None = Field(description="Weighting function symbol, or null for an unweighted band.")
@@ -36,7 +36,7 @@ class HazardResult(_Frozen):
     t_max_s: float | None = Field(description="Exposure time at which the exposure limit is reached [s]; null "
                                               "when not reached within the limit's time range.")
     risk_group: RiskGroup | None = Field(description="Group of this hazard; null when not assessed or when "
-                                                     "the hazard has no risk groups (E_H).")
+                                                     "the hazard has no risk groups.")
     assessed: bool = Field(description="False when the spectrum does not cover the band.")
     limits: dict[str, float] = Field(description="Group limits as applied (after α bounds) [unit].")
     compared: dict[str, float] = Field(description="Value compared with each limit: the field-of-view "
@@ -73,8 +73,10 @@ class Geometry(_Frozen):
     source_solid_angle_sr: float = Field(description="Solid angle of the source at the assessment distance "
                                                      "[sr].")
     largest_dimension_mm: float = Field(description="Largest linear dimension of the source [mm].")
-    small_source: bool = Field(description="α below 0.011 rad: blue light assessed as irradiance E_B.")
-    weak_visual_stimulus: bool = Field(description="Luminance below 10 cd/m2: L_IR assessed instead of L_R.")
+    small_source: bool = Field(description="α below the limit set's small-source bound: the small-source "
+                                             "members of the families apply.")
+    weak_visual_stimulus: bool = Field(description="Luminance below the limit set's weak-stimulus bound: the "
+                                                   "weak-stimulus members of the families apply.")
 
 
 class SpectrumSummary(_Frozen):
@@ -102,14 +104,16 @@ class BlueLightTransfer(_Frozen):
     """Blue-light transfer quantities of IEC TR 62778:2014 (the report since replaced by IEC 62471-7:2023,
     whose details this tool does not implement)."""
 
-    k_bv_w_per_lm: float = Field(description="Blue-light hazard efficacy of luminous radiation K_B,v = "
-                                             "L_B/L_v = E_B/E_v [W/lm].")
-    threshold_illuminance_lx: float = Field(description="E_thr = 1/K_B,v: illuminance at which E_B reaches "
-                                                        "1 W/m2, the small-source RG1/RG2 boundary [lx].")
+    k_bv_w_per_lm: float = Field(description="Blue-light hazard efficacy of luminous radiation K_B,v: blue-light "
+                                             "weighted over luminous radiance (or irradiance over illuminance) "
+                                             "[W/lm].")
+    threshold_illuminance_lx: float = Field(description="E_thr: illuminance at which the blue-light weighted "
+                                                        "irradiance reaches the limit set's transfer threshold "
+                                                        "[lx].")
     luminous_intensity_cd: float = Field(description="Luminous intensity used for d_thr [cd].")
     intensity_source: str = Field(description="Where the luminous intensity comes from.")
-    threshold_distance_mm: float = Field(description="d_thr = √(I_v/E_thr): nearer than this E_B exceeds "
-                                                     "1 W/m2 [mm].")
+    threshold_distance_mm: float = Field(description="d_thr = √(I_v/E_thr): nearer than this the threshold is "
+                                                     "exceeded [mm].")
 
 
 class Scaling(_Frozen):
@@ -125,7 +129,7 @@ class Scaling(_Frozen):
 class ClaimCheck(_Frozen):
     """One vendor claim against the computed value."""
 
-    claim: str = Field(description="What is claimed, e.g. 'risk group', 'CCT', 't_max of L_B'.")
+    claim: str = Field(description="What is claimed, e.g. 'risk group', 'CCT', or a hazard's t_max.")
     field: str = Field(description="The record field holding the claim.")
     claimed: str = Field(description="The claimed value as stated.")
     computed: str | None = Field(description="The computed value, or null when it cannot be computed.")
@@ -137,7 +141,7 @@ class ClaimCheck(_Frozen):
 class BoundaryDistance(_Frozen):
     """Where one hazard family crosses one group boundary."""
 
-    family: str = Field(description="E_S, E_UVA, blue light (L_B or E_B), retinal thermal (L_R or L_IR), E_IR.")
+    family: str = Field(description="The hazard family (see LimitSetInfo.families).")
     group: str = Field(description="Beyond distance_mm the family is in this group or a lower one.")
     distance_mm: float | None = Field(description="The crossing distance [mm]; null when there is none in range.")
     criterion: str | None = Field(description="The family member that applies at that distance.")
@@ -150,7 +154,7 @@ class DistanceStudy(_Frozen):
     distance_mm: list[float] = Field(description="Distances of the curves [mm].")
     group: list[str | None] = Field(description="Overall group at each distance.")
     family_group: dict[str, list[str | None]] = Field(description="Group of each hazard family at each distance.")
-    t_max_s: dict[str, list[float | None]] = Field(description="t_max of each family (and E_H) at each distance "
+    t_max_s: dict[str, list[float | None]] = Field(description="t_max of each family at each distance "
                                                                "[s]; null where the limit is not reached.")
     boundaries: list[BoundaryDistance]
     minimum_distance_mm: dict[str, float | None] = Field(description="Least distance beyond which the product is "
@@ -166,7 +170,7 @@ class HazardBounds(_Frozen):
     """One hazard family within the measurement uncertainty."""
 
     family: str
-    criterion: str | None = Field(None, description="The family member assessed at the nominal point, e.g. L_B.")
+    criterion: str | None = Field(None, description="The family member assessed at the nominal point.")
     unit: str | None = Field(None, description="Unit of the values.")
     value_low: float | None = Field(description="Lowest value over the uncertainty variants [unit].")
     value_high: float | None
@@ -215,9 +219,23 @@ class Remedies(_Frozen):
     """What it would take to reach lower groups."""
 
     remedies: list[Remedy]
-    uv_bands: dict[str, list[BandContribution]] = Field(description="E_S and E_UVA by 5 nm band, largest first "
+    uv_bands: dict[str, list[BandContribution]] = Field(description="Hazards split by fixed-width bands (the UV "
+                                                                    "hazards by 5 nm), largest first "
                                                                     "(bands with a share of at least 0.1 %).")
     note: str
+
+
+class LimitSetInfo(_Frozen):
+    """What a renderer needs of the limit set the result was made with."""
+
+    name: str
+    groups: list[str] = Field(description="Risk groups in rising order.")
+    boundaries: list[str] = Field(description="Groups whose upper limits are tabulated, in rising order.")
+    families: dict[str, list[str]] = Field(description="Hazard family → its member symbols.")
+    grouped_families: list[str] = Field(description="Families with risk groups.")
+    small_source_alpha_rad: float = Field(description="Below this α the small-source members apply [rad].")
+    weak_stimulus_luminance_cd_m2: float = Field(description="Below this luminance the weak-stimulus members "
+                                                             "apply [cd/m²].")
 
 
 class Provenance(_Frozen):
@@ -269,4 +287,5 @@ class Assessment(_Frozen):
     assumptions: list[str]
     cautions: list[str]
     provenance: Provenance
+    limit_set: LimitSetInfo = Field(description="The limit set's groups, boundaries and families, for renderers.")
     kind: Literal["hazard.assessment"] = "hazard.assessment"

@@ -15,15 +15,16 @@ from hazard.result import Assessment
 
 __all__ = ["render_text", "overall_lines", "render_claims", "render_batch_table"]
 
-_COLUMNS = ("Hazard", "Quantity", "Value", "Unit", "Compared", "Exempt", "RG1", "RG2", "t_max", "Group", "Margin")
+def _columns(boundaries: list[str]) -> tuple[str, ...]:
+    return ("Hazard", "Quantity", "Value", "Unit", "Compared", *boundaries, "t_max", "Group", "Margin")
 
 
-def _compared(h) -> str:
+def _compared(h, boundaries: list[str]) -> str:
     """The values compared with the Exempt / RG1 / RG2 limits: field-of-view averages for radiance; one value
     when all three are the same."""
     if not h.compared:
         return "—"
-    values = [h.compared[g] for g in ("Exempt", "RG1", "RG2")]
+    values = [h.compared[g] for g in boundaries]
     if len(set(values)) == 1:
         return "= value" if values[0] == h.value else format_value(values[0])
     return " / ".join(format_value(v) for v in values)
@@ -31,18 +32,19 @@ def _compared(h) -> str:
 
 def _rows(assessment: Assessment) -> list[tuple[str, ...]]:
     rows = []
+    boundaries = assessment.limit_set.boundaries
     for symbol, h in assessment.hazards.items():
-        limits = [format_limit(h.limits.get(g)) for g in ("Exempt", "RG1", "RG2")]
+        limits = [format_limit(h.limits.get(g)) for g in boundaries]
         rows.append((symbol, h.title, format_value(h.value) if h.assessed else "not assessed",
-                     UNIT_DISPLAY.get(h.unit, h.unit), _compared(h), *limits, format_duration_s(h.t_max_s),
+                     UNIT_DISPLAY.get(h.unit, h.unit), _compared(h, boundaries), *limits, format_duration_s(h.t_max_s),
                      h.risk_group or ("EL only" if h.assessed else "—"), format_margin(h.risk_group, h.margins)))
     return rows
 
 
-def _table(rows: list[tuple[str, ...]]) -> list[str]:
-    widths = [max(len(r[i]) for r in [_COLUMNS, *rows]) for i in range(len(_COLUMNS))]
+def _table(columns: tuple[str, ...], rows: list[tuple[str, ...]]) -> list[str]:
+    widths = [max(len(r[i]) for r in [columns, *rows]) for i in range(len(columns))]
     line = lambda r: "  ".join(c.ljust(w) for c, w in zip(r, widths)).rstrip()  # noqa: E731
-    return [line(_COLUMNS), line(tuple("-" * w for w in widths)), *(line(r) for r in rows)]
+    return [line(columns), line(tuple("-" * w for w in widths)), *(line(r) for r in rows)]
 
 
 def render_text(assessment: Assessment) -> str:
@@ -69,7 +71,7 @@ def render_text(assessment: Assessment) -> str:
         f"{', small source (E_B)' if g.small_source else ''}"
         f"{', weak visual stimulus (L_IR)' if g.weak_visual_stimulus else ''};  " + ", ".join(photometric),
         "",
-        *_table(_rows(a)),
+        *_table(_columns(a.limit_set.boundaries), _rows(a)),
         "Value: for L_B, L_R, L_IR the source's own radiance; Compared: what was compared with the Exempt / RG1 / "
         "RG2 limits (field-of-view averages). Limits as applied (thermal: after the α bounds). Margin: value ÷ "
         "limit at the boundary below the hazard's group and the one above it. t_max: time to reach the exposure "

@@ -2,7 +2,7 @@
 
 A result file can be edited by hand or damaged; rendering it as it stands could print "Exempt" beside values
 far above a limit. :func:`check_result` re-derives each hazard's group from the values compared and the limits
-applied (top-down, and never safer than its t_max: :mod:`hazard.classify`), and the overall group from the
+applied (top-down, and never safer than its t_max: :mod:`hazard.method.classify`), and the overall group from the
 hazards, and refuses a result that disagrees, naming the hazard, what the file says and what its numbers give.
 """
 
@@ -12,15 +12,12 @@ import math
 
 import numpy as np
 
-from hazard.classify import hazard_groups
 from hazard.errors import InputError
-from hazard.hazards import BOUNDARIES, DEFAULT_LIMIT_SET, GROUPS, LimitSet
+from hazard.method.classify import hazard_groups
 from hazard.result import Assessment
+from hazard.standards import LIMIT_SETS, LimitSet
 
-__all__ = ["check_result", "LIMIT_SETS"]
-
-LIMIT_SETS = {DEFAULT_LIMIT_SET.name: DEFAULT_LIMIT_SET}
-"""Limit sets by the name a result records in its provenance."""
+__all__ = ["check_result"]
 
 _FIX = "re-run 'hazard assess' on the product instead of editing its result"
 
@@ -34,20 +31,20 @@ def _hazard_group(symbol: str, h, limit_set: LimitSet, path: str) -> str | None:
     if not (h.assessed and h.limits):
         return None
     try:
-        compared = np.array([[h.compared[b] for b in BOUNDARIES]], dtype=float)
-        limits = np.array([[h.limits[b] for b in BOUNDARIES]], dtype=float)
-        bases = tuple(float(h.time_bases_s[b]) for b in BOUNDARIES)
+        compared = np.array([[h.compared[b] for b in limit_set.boundaries]], dtype=float)
+        limits = np.array([[h.limits[b] for b in limit_set.boundaries]], dtype=float)
+        bases = tuple(float(h.time_bases_s[b]) for b in limit_set.boundaries)
     except KeyError as missing:
         raise _refuse(f"hazard {symbol} lacks its {missing} boundary", path) from None
     if not (np.all(np.isfinite(compared)) and np.all(np.isfinite(limits))):
         raise _refuse(f"hazard {symbol} holds a value that is not a finite number", path)
-    for b, c, lim in zip(BOUNDARIES, compared[0], limits[0]):
+    for b, c, lim in zip(limit_set.boundaries, compared[0], limits[0]):
         margin = h.margins.get(b)
         if margin is None or not math.isclose(margin, c / lim, rel_tol=1e-9):
             raise _refuse(f"hazard {symbol}: margin at {b} is {margin!r} but compared/limit is {c / lim:.6g}", path)
     t_max = np.array([np.nan if h.t_max_s is None else h.t_max_s])
     group, _ = hazard_groups(compared, limits, t_max, bases, limit_set.table_rounding)
-    return GROUPS[int(group[0])]
+    return limit_set.groups[int(group[0])]
 
 
 def check_result(assessment: Assessment, path: str) -> None:
@@ -76,8 +73,8 @@ def check_result(assessment: Assessment, path: str) -> None:
             shown = "the compared values and limits" if h.assessed else "its assessed flag"
             raise _refuse(f"hazard {symbol} says {h.risk_group or 'no group'} but {shown} give "
                           f"{derived[symbol] or 'no group'}", path)
-    grouped = [GROUPS.index(g) for g in derived.values() if g is not None]
-    overall = GROUPS[max(grouped)] if grouped else None
+    grouped = [limit_set.groups.index(g) for g in derived.values() if g is not None]
+    overall = limit_set.groups[max(grouped)] if grouped else None
     if overall != assessment.risk_group:
         raise _refuse(f"the overall group says {assessment.risk_group or 'not determined'} but its hazards give "
                       f"{overall or 'not determined'}", path)

@@ -164,7 +164,7 @@ def _legend(x: float, y: float, width: float, fonts: FontSet) -> Group:
 
 
 def _chart_rows(assessment: Assessment) -> list[HazardResult]:
-    """Assessed hazards that have risk groups (E_H has an exposure limit only), in report order."""
+    """Assessed hazards that have risk groups, in report order."""
     return [h for h in assessment.hazards.values() if h.assessed and h.limits]
 
 
@@ -214,35 +214,36 @@ def margin_chart(assessment: Assessment, width: float, fonts: FontSet) -> Drawin
         title_size = min(6.3, (label_w - 4) / stringWidth(title, fonts.regular, 1))
         d.add(_text(0, y + row_h / 2 + 1.5, hazard.symbol, fonts, 7.5, bold=True))
         d.add(_text(0, y + row_h / 2 - 6, title, fonts, title_size, color=MUTED))
-        d.add(_row(hazard, left, y, pw, row_h, px, fonts))
+        d.add(_row(hazard, assessment.limit_set.groups, left, y, pw, row_h, px, fonts))
         d.add(_result(hazard, left + pw + 8, y, row_h, fonts))
-    d.add(_text(one, height - top + 4, "Exempt limit", fonts, 6.5, bold=True, anchor="middle"))
-    d.add(_text(left + pw / 2, 2, "value ÷ Exempt limit (log scale); zones end where the value reaches "
+    lowest = assessment.limit_set.boundaries[0]
+    d.add(_text(one, height - top + 4, f"{lowest} limit", fonts, 6.5, bold=True, anchor="middle"))
+    d.add(_text(left + pw / 2, 2, f"value ÷ {lowest} limit (log scale); zones end where the value reaches "
                 "each group's limit", fonts, 7, color=MUTED, anchor="middle"))
     return d
 
 
-def _row(hazard: HazardResult, left: float, y: float, pw: float, row_h: float, px: Callable[[float], float],
-         fonts: FontSet) -> Group:
+def _row(hazard: HazardResult, groups: list[str], left: float, y: float, pw: float, row_h: float,
+         px: Callable[[float], float], fonts: FontSet) -> Group:
     """One hazard's band: group zones, boundary lines and the value marker (or why there is none)."""
     g = Group()
     margins = hazard.margins
-    if margins["Exempt"] <= 0:
+    boundaries = list(margins)  # rising; the zone beyond the last is the next group
+    if margins[boundaries[0]] <= 0:
         g.add(Rect(left, y, pw, row_h, fillColor=colors.white, strokeColor=RULE, strokeWidth=0.5))
         g.add(_text(left + 6, y + row_h / 2 - 2.5, "value 0: nothing emitted in this band", fonts, 7,
                     color=MUTED))
         return g
-    value = margins["Exempt"]
-    edges = [px(10.0 ** _X_DECADES[0]), px(1.0), px(value / margins["RG1"]), px(value / margins["RG2"]),
-             px(10.0 ** _X_DECADES[1])]
-    for group, start, end in zip(("Exempt", "RG1", "RG2", "RG3"), edges, edges[1:]):
+    value = margins[boundaries[0]]
+    edges = [px(10.0 ** _X_DECADES[0]), *(px(value / margins[b]) for b in boundaries), px(10.0 ** _X_DECADES[1])]
+    for group, start, end in zip(groups, edges, edges[1:]):
         if end - start <= 0:
             continue
         g.add(Rect(start, y, end - start, row_h, fillColor=group_fill(group), strokeColor=None))
         if end - start >= stringWidth(group, fonts.bold, _ZONE_LABEL) + 5:
             g.add(_text(start + 2.5, y + row_h - 5.6, group, fonts, _ZONE_LABEL, bold=True,
                         color=group_ink(group)))
-    for edge in edges[1:4]:
+    for edge in edges[1:-1]:
         g.add(Line(edge, y, edge, y + row_h, strokeColor=INK, strokeWidth=0.7))
     g.add(Rect(left, y, pw, row_h, fillColor=None, strokeColor=INK, strokeWidth=0.5))
     g.add(_marker(px(value), y + 4.6, value))
@@ -274,11 +275,17 @@ def _result(hazard: HazardResult, x: float, y: float, row_h: float, fonts: FontS
     return g
 
 
-FAMILY_LINES = {"E_S": ((), 1.3), "E_UVA": ((4.5, 2.0), 1.1), "blue light": ((0.9, 1.9), 1.5),
-                "retinal thermal": ((6.0, 1.8, 1.2, 1.8), 1.0), "E_IR": ((10.0, 2.5), 1.6),
-                "E_H": ((2.0, 1.2, 2.0, 1.2, 0.6, 3.0), 0.7)}
-"""Dash pattern (empty: solid) and line width of each family's t_max curve in :func:`distance_chart`."""
+FAMILY_LINES = (((), 1.3), ((4.5, 2.0), 1.1), ((0.9, 1.9), 1.5), ((6.0, 1.8, 1.2, 1.8), 1.0), ((10.0, 2.5), 1.6),
+                ((2.0, 1.2, 2.0, 1.2, 0.6, 3.0), 0.7))
+"""Dash pattern (empty: solid) and line width of the t_max curve of each family, in the limit set's order, in
+:func:`distance_chart`."""
 _FALLBACK_LINE = ((1.5, 1.5), 0.8)
+
+
+def _line_of(study, family: str) -> tuple[tuple[float, ...], float]:
+    order = list(study.t_max_s)
+    index = order.index(family)
+    return FAMILY_LINES[index] if index < len(FAMILY_LINES) else _FALLBACK_LINE
 _MAX_T_DECADES = 12           # distance chart: at most this many decades of t_max
 
 
@@ -457,7 +464,7 @@ def _curves(study, px: Callable[[float], float], py: Callable[[float], float],
     g, labels = Group(), Group()
     placed: list[tuple[float, float, float, float]] = []
     for family, ts in study.t_max_s.items():
-        dash, line_width = FAMILY_LINES.get(family, _FALLBACK_LINE)
+        dash, line_width = _line_of(study, family)
         points, keep = [], []
         for mm, t in zip(study.distance_mm, ts):
             ok = t is not None and t > 0 and bottom - 0.01 <= py(t) <= bottom + ph + 0.01
@@ -492,14 +499,14 @@ def _end_label(family: str, end: tuple[float, float], box: tuple[float, float, f
 
 def _family_legend(study, x: float, y: float, width: float, fonts: FontSet) -> Group:
     """One sample line and name per family drawn (those whose limit is reached somewhere)."""
-    entries = [(family, fonts.clean(family + (" (no groups)" if family == "E_H" else "")))
+    entries = [(family, fonts.clean(family + ("" if family in study.family_group else " (no groups)")))
                for family, ts in study.t_max_s.items() if any(t is not None for t in ts)]
     natural = sum(stringWidth(t, fonts.regular, 7) for _, t in entries) + len(entries) * 36
     size = 7 * min(1.0, width / max(natural, 1.0))
     g = Group()
     cursor = x
     for family, text in entries:
-        dash, line_width = FAMILY_LINES.get(family, _FALLBACK_LINE)
+        dash, line_width = _line_of(study, family)
         g.add(Line(cursor, y + 2.5, cursor + 20, y + 2.5, strokeColor=INK, strokeWidth=line_width, **_dash(dash)))
         g.add(_text(cursor + 24, y, text, fonts, size))
         cursor += 24 + stringWidth(text, fonts.regular, size) + 12

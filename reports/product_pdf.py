@@ -34,7 +34,6 @@ from reports.wording import (
 
 __all__ = ["render_assessment_pdf"]
 
-_BOUNDARIES = ("Exempt", "RG1", "RG2")
 _ANCHOR = {"illuminance_lx": ("illuminance", "lx"), "luminous_intensity_cd": ("luminous intensity", "cd"),
            "luminance_cd_m2": ("luminance", "cd/m²")}
 _SPECTRAL_UNIT = {"irradiance": "W/(m²·nm)", "radiance": "W/(m²·sr·nm)"}
@@ -56,7 +55,7 @@ def _triple(values: dict[str, float], fmt: Callable[[float], str], scale: float 
     """The Exempt / RG1 / RG2 entries of ``values`` as one string, or an em dash when there are none."""
     if not values:
         return "—"
-    return " / ".join(fmt(values[b] * scale) for b in _BOUNDARIES)
+    return " / ".join(fmt(value * scale) for value in values.values())
 
 
 def _record_value(value: object) -> str:
@@ -165,21 +164,21 @@ def _cautions(a: Assessment, st: Styles) -> Flowable:
     return table
 
 
-_TYPICAL_ROW = ["E_UVA", "near-UV, eye (lens)", "7.50e-04", "W/(m²·sr)", "5.05e+05", "5.05e+05", "1.31e+06",
+_TYPICAL_ROW = ["X_XXX", "xxxxxxx, xxx (xxxx)", "7.50e-04", "W/(m²·sr)", "5.05e+05", "5.05e+05", "1.31e+06",
                 "4.4 min", "Exempt", "58.4 % of Exempt limit"]
 """Wide entries of each hazard-table column, so the columns stay the same from report to report."""
 
 
-def _hazard_row(h: HazardResult) -> list[str]:
+def _hazard_row(h: HazardResult, boundaries: list[str]) -> list[str]:
     """The hazard-table cells of an assessed hazard, formatted as the text output formats them."""
     return [h.symbol, h.title, format_value(h.value), _unit(h.unit),
-            *(format_limit(h.limits.get(b)) for b in _BOUNDARIES), format_duration_s(h.t_max_s),
+            *(format_limit(h.limits.get(b)) for b in boundaries), format_duration_s(h.t_max_s),
             h.risk_group or "EL only", format_margin(h.risk_group, h.margins)]
 
 
 def _hazard_table(a: Assessment, st: Styles) -> Flowable:
     head = ["Symbol", "Hazard", "Value", "Unit", "Limits as applied", "", "", "t_max", "Group", "Margin"]
-    sub = ["", "", "", "", "Exempt", "RG1", "RG2", "", "", ""]
+    sub = ["", "", "", "", *a.limit_set.boundaries, "", "", ""]
     rows = [[st.p(h, st.head) for h in head], [st.p(h, st.head) for h in sub]]
     extra = [("SPAN", (4, 0), (6, 0))] + [("SPAN", (c, 0), (c, 1)) for c in (0, 1, 2, 3, 7, 8, 9)]
     fitted = [_TYPICAL_ROW]
@@ -189,7 +188,7 @@ def _hazard_table(a: Assessment, st: Styles) -> Flowable:
                         + [""] * 7)
             extra.append(("SPAN", (2, i), (9, i)))
             continue
-        cells = _hazard_row(h)
+        cells = _hazard_row(h, a.limit_set.boundaries)
         fitted.append(cells[:9] + [max(cells[9].split("; "), key=len)])
         styles = [st.cell_bold if c in (0, 2) else st.cell for c in range(len(cells))]
         styles[8] = st.cell_bold.clone("group", textColor=group_ink(h.risk_group))
@@ -228,9 +227,11 @@ def _geometry(a: Assessment, st: Styles, studies_page: int) -> Flowable:
     source = (f"largest dimension {g.largest_dimension_mm:g} mm; α = {format_value(g.alpha_rad)} rad at the "
               f"assessment distance; Ω_s = {format_value(g.source_solid_angle_sr)} sr")
     if g.small_source:
-        source += "; small source (α < 0.011 rad): blue light as irradiance E_B"
+        source += (f"; small source (α < {a.limit_set.small_source_alpha_rad:g} rad): the small-source forms of "
+                   f"the hazards apply")
     if g.weak_visual_stimulus:
-        source += "; weak visual stimulus (below 10 cd/m²): L_IR instead of L_R"
+        source += (f"; weak visual stimulus (below {a.limit_set.weak_stimulus_luminance_cd_m2:g} cd/m²): the "
+                   f"weak-stimulus forms of the hazards apply")
     peak_to_mean = a.record.get("peak_to_mean_radiance", 1.0)
     if peak_to_mean > 1:
         source += f"; radiance values × {peak_to_mean:g}, the record's peak-to-mean radiance (hot spots)"

@@ -16,7 +16,6 @@ from __future__ import annotations
 from typing import NamedTuple
 
 from hazard.formatting import margin_to_next
-from hazard.hazards import GROUPS
 from hazard.result import Assessment
 
 __all__ = ["BORDERLINE_FACTOR", "Tightest", "tightest_margin", "is_borderline", "rank_assessments"]
@@ -77,8 +76,9 @@ def is_borderline(assessment: Assessment) -> bool:
     if tightest is None:
         return False
     hazard = assessment.hazards[tightest.symbol]
-    rank = GROUPS.index(hazard.risk_group)
-    boundaries = {GROUPS[min(rank, 2)], GROUPS[max(rank - 1, 0)]}
+    limits = list(hazard.margins)  # the boundaries, rising
+    rank = assessment.limit_set.groups.index(hazard.risk_group)
+    boundaries = {limits[min(rank, len(limits) - 1)], limits[max(rank - 1, 0)]}
     return any(1 / BORDERLINE_FACTOR <= hazard.margins[b] <= BORDERLINE_FACTOR for b in boundaries)
 
 
@@ -98,7 +98,8 @@ def rank_assessments(assessments: list[Assessment]) -> list[Assessment]:
     """
     def key(assessment: Assessment) -> tuple[int, bool, float, str]:
         tightest = tightest_margin(assessment)
-        rank = len(GROUPS) if assessment.risk_group is None else GROUPS.index(assessment.risk_group)
+        groups = assessment.limit_set.groups
+        rank = len(groups) if assessment.risk_group is None else groups.index(assessment.risk_group)
         return (-rank, not is_borderline(assessment),
                 -(tightest.ratio if tightest else -1.0), assessment.id)
 

@@ -11,7 +11,6 @@ from __future__ import annotations
 from reportlab.platypus import Flowable, Spacer, Table
 
 from hazard.formatting import UNIT_DISPLAY, format_value
-from hazard.hazards import DEFAULT_LIMIT_SET
 from hazard.result import Assessment, DistanceStudy, Remedy
 from reports.charts import distance_chart
 from reports.layout import FRAME_WIDTH
@@ -21,8 +20,6 @@ __all__ = ["SECTION_TITLE", "has_studies", "beyond", "minimum_text", "study_summ
            "dimming_text", "area_text", "studies_section"]
 
 SECTION_TITLE = "Distance, uncertainty and remedies"
-_BOUNDARIES = ("Exempt", "RG1", "RG2")
-_FAMILY_MEMBERS = dict(DEFAULT_LIMIT_SET.families)
 
 
 def has_studies(a: Assessment) -> bool:
@@ -96,7 +93,7 @@ def area_text(factor: float | None) -> str:
 
 def _member(a: Assessment, family: str) -> str | None:
     """The family member assessed at the assessment distance (blue light: L_B or E_B), if any."""
-    for symbol in _FAMILY_MEMBERS.get(family, (family,)):
+    for symbol in a.limit_set.families.get(family, [family]):
         if symbol in a.hazards and a.hazards[symbol].assessed:
             return symbol
     return None
@@ -120,7 +117,7 @@ def study_summary(a: Assessment, page: int) -> str | None:
     s = a.distances
     if s is not None:
         distances = []
-        for group in _BOUNDARIES:  # up to the first group that holds at every distance studied
+        for group in a.limit_set.boundaries:  # up to the first group that holds at every distance studied
             distance = s.minimum_distance_mm.get(group)
             name = group if group == "Exempt" else f"{group} or lower"
             if minimum_text(s, group) == "not assessed":
@@ -152,7 +149,7 @@ def _product_remedies(a: Assessment) -> list[Remedy]:
 def _distance_table(a: Assessment, st: Styles) -> Flowable:
     s = a.distances
     near = s.near_field_below_mm
-    head = ["Beyond: in the group or lower", "Exempt", "RG1", "RG2"]
+    head = ["Beyond: in the group or lower", *a.limit_set.boundaries]
     rows = [[st.p(h, st.head) for h in head]]
 
     def cell(distance: float | None, criterion: str | None, note: str | None, style,
@@ -167,14 +164,14 @@ def _distance_table(a: Assessment, st: Styles) -> Flowable:
         return st.p(text, style)
 
     rows.append([st.p("Whole product", st.cell_bold)]
-                + [cell(s.minimum_distance_mm.get(g), None, None, st.cell_bold, g) for g in _BOUNDARIES])
+                + [cell(s.minimum_distance_mm.get(g), None, None, st.cell_bold, g) for g in a.limit_set.boundaries])
     by_family: dict[str, dict[str, object]] = {}
     for b in s.boundaries:
         if b.note != "not assessed":  # a family that was not assessed has nothing true to say about distance
             by_family.setdefault(b.family, {})[b.group] = b
     for family, found in by_family.items():
         cells = []
-        for group in _BOUNDARIES:
+        for group in a.limit_set.boundaries:
             b = found.get(group)
             if b is None:
                 cells.append(st.p("—", st.cell))

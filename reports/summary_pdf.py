@@ -12,8 +12,8 @@ import datetime
 from reportlab.platypus import Flowable, Spacer, Table
 
 from hazard.formatting import format_margin, group_words
-from hazard.hazards import GROUPS
 from hazard.result import Assessment
+from hazard.standards import GROUPS
 from reports.layout import FRAME_WIDTH, build_pdf, start_report
 from reports.ranking import BORDERLINE_FACTOR, is_borderline, rank_assessments, tightest_margin
 from reports.studies import minimum_text

@@ -2,7 +2,7 @@
 
 import pytest
 
-from hazard.photometry import import_colour
+from hazard.method.photometry import import_colour
 
 
 @pytest.fixture(scope="session")

@@ -17,11 +17,11 @@ from hypothesis import strategies as st
 
 from hazard.cli import main
 from hazard.engine import build_assessment, evaluate_loaded
-from hazard.geometry import SourceShape, cone_solid_angle_sr, disc_rectangle_area
-from hazard.hazards import GROUPS
 from hazard.inputs import LoadedProduct
+from hazard.method.geometry import SourceShape, cone_solid_angle_sr, disc_rectangle_area
 from hazard.record import ProductRecord
 from hazard.spectrum import validate_spectrum
+from hazard.standards import GROUPS
 
 GRID = np.arange(200.0, 3000.5, 0.5)
 """Spans every hazard band (method §1) at 0.5 nm."""

@@ -15,7 +15,7 @@ from conftest import assess_arrays, triangle_line
 from hypothesis import HealthCheck, assume, given, settings
 from hypothesis import strategies as st
 
-from hazard.hazards import GROUPS
+from hazard.standards import GROUPS
 
 FAST = settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 GRID = np.arange(200.0, 3000.5, 1.0)

@@ -6,8 +6,8 @@ import numpy as np
 import pytest
 from conftest import assess_arrays, triangle_line
 
-from hazard.geometry import SourceShape, cone_solid_angle_sr
-from hazard.hazards import IEC_62471_2006
+from hazard.method.geometry import SourceShape, cone_solid_angle_sr
+from hazard.standards import IEC_62471_2006
 
 GRID = np.concatenate([np.arange(200.0, 400.0, 0.01), np.arange(400.0, 3000.5, 0.5)])
 

@@ -10,23 +10,14 @@ from __future__ import annotations
 
 import numpy as np
 
-from hazard.evaluate import ProductArrays
-from hazard.families import evaluate_rows, family_groups, overall_groups
-from hazard.hazards import GROUPS, LimitSet
-from hazard.integrals import integrate_spectra
+from hazard.method.evaluate import ProductArrays
+from hazard.method.families import evaluate_rows, family_groups, family_member, family_values
+from hazard.method.integrals import integrate_spectra
 from hazard.result import HazardBounds, UncertaintyStudy
 from hazard.spectrum import Spectrum
+from hazard.standards import LimitSet
 
 __all__ = ["uncertainty_study"]
-
-
-def _family_values(ev, members: tuple[str, ...]) -> np.ndarray:
-    out = np.full(ev.assessment_distance_m.size, np.nan)
-    for symbol in members:
-        h = ev.hazards[symbol]
-        mask = h.applicable & h.assessed
-        out[mask] = h.value[mask]
-    return out
 
 
 def uncertainty_study(arrays: ProductArrays, spectrum: Spectrum, no_emission_outside: bool, limit_set: LimitSet,
@@ -52,23 +43,23 @@ def uncertainty_study(arrays: ProductArrays, spectrum: Spectrum, no_emission_out
     ev = evaluate_rows(arrays, 9, limit_set, raw=np.repeat(shifted.raw, 3, axis=0), raw_scale=np.tile(scales, 3))
     nominal, minus, plus = 4, 1, 7  # (shift index × 3 + scale index)
     bounds = []
-    for name, members in limit_set.families:
-        values, groups = _family_values(ev, members), family_groups(ev, members)
+    names = limit_set.groups
+    for name, members in limit_set.grouped_families:
+        values, groups = family_values(ev, members), family_groups(ev, members)
         if np.all(np.isnan(values)):
             continue
         finite = values[~np.isnan(values)]
         assessed = groups[groups >= 0]
-        member = next((ev.hazards[m] for m in members if ev.hazards[m].applicable[nominal]), None)
+        member = family_member(ev, members, nominal)
         bounds.append(HazardBounds(
-            family=name, criterion=None if member is None else member.hazard.symbol,
-            unit=None if member is None else member.hazard.unit,
+            family=name, criterion=member, unit=None if member is None else limit_set[member].unit,
             value_low=float(finite.min()), value_high=float(finite.max()),
             value_shift_minus=None if np.isnan(values[minus]) else float(values[minus]),
             value_shift_plus=None if np.isnan(values[plus]) else float(values[plus]),
-            group_low=GROUPS[assessed.min()] if assessed.size else None,
-            group_high=GROUPS[assessed.max()] if assessed.size else None))
-    overall = overall_groups(ev, limit_set)
-    name = [GROUPS[g] if g >= 0 else None for g in overall]
+            group_low=names[assessed.min()] if assessed.size else None,
+            group_high=names[assessed.max()] if assessed.size else None))
+    overall = ev.group_index
+    name = [names[g] if g >= 0 else None for g in overall]
     low, high = name[int(np.argmin(overall))], name[int(np.argmax(overall))]
     verdict = "borderline" if low != high else "robust"
     if high is None:

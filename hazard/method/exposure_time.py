@@ -1,11 +1,11 @@
 """t_max: the exposure duration at which a hazard's exposure limit is first reached (method §1).
 
-The time axis is cut where the limit's formula changes (:class:`~hazard.hazards.LimitPiece`) and where the
-viewing rule changes (:class:`~hazard.hazards.Viewing`: the field of view γ and the α bounds that belong to
+The time axis is cut where the limit's formula changes (:class:`~hazard.standards.LimitPiece`) and where the
+viewing rule changes (:class:`~hazard.standards.Viewing`: the field of view γ and the α bounds that belong to
 each duration). On each cut the limit is a power law C·t^k and, for a fixed field, the compared value is
 constant, so the time is (value/C)^(1/k) in closed form; where the field grows with the duration (blue light,
 γ = 1.1·√t mrad from 100 s) the dose value·t never falls with t and the time is found by
-:func:`hazard.search.log_search`.
+:func:`hazard.method.search.log_search`.
 t_max is the earliest time over all cuts, so it sees the same fields and α bounds as the group boundaries.
 """
 
@@ -15,8 +15,8 @@ from collections.abc import Callable
 
 import numpy as np
 
-from hazard.hazards import FieldOfView, Hazard, LimitPiece
-from hazard.search import log_search
+from hazard.method.search import log_search
+from hazard.standards import FieldOfView, Hazard, LimitPiece
 
 __all__ = ["time_to_limit_s"]
 
@@ -50,7 +50,7 @@ def _cuts(hazard: Hazard) -> list[tuple[float, float, LimitPiece, FieldOfView | 
                 if a < t_cap:
                     cuts.append((a, min(b, t_cap), piece, fov, rule.alpha_bounds_rad))
                 if b > t_cap:
-                    cuts.append((max(a, t_cap), b, piece, FieldOfView(fov.cap_rad), rule.alpha_bounds_rad))
+                    cuts.append((max(a, t_cap), b, piece, FieldOfView(fixed_rad=fov.cap_rad), rule.alpha_bounds_rad))
                 continue
             cuts.append((a, b, piece, fov, rule.alpha_bounds_rad))
     return cuts

@@ -10,9 +10,9 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from hazard.classify import hazard_groups
-from hazard.exposure_time import time_to_limit_s
-from hazard.geometry import (
+from hazard.method.classify import hazard_groups
+from hazard.method.exposure_time import time_to_limit_s
+from hazard.method.geometry import (
     GLS_ILLUMINANCE_LX,
     MIN_ASSESSMENT_DISTANCE_M,
     FieldGeometry,
@@ -20,11 +20,9 @@ from hazard.geometry import (
     cone_solid_angle_sr,
     inverse_square_factor,
 )
-from hazard.hazards import Hazard, LimitSet
-from hazard.photometry import K_M_LM_PER_W, VISIBLE_BAND_NM
+from hazard.method.photometry import K_M_LM_PER_W, VISIBLE_BAND_NM
+from hazard.standards import Hazard, LimitSet
 
-UVC_BAND_NM = (200.0, 280.0)
-"""UV-C part of the actinic band (CIE UV-C 100-280 nm, within the S_UV table) [nm]."""
 VISIBLE_RADIATION_NM = (380.0, 780.0)
 """Visible radiation (CIE S 017, 17-21-003), for the share of the emission that is light [nm]."""
 OPTICAL_RANGE_NM = (200.0, 3000.0)
@@ -34,8 +32,8 @@ MAINLY_VISIBLE_SHARE = 0.5
 radiation; only then do the blue-light transfer values of IEC TR 62778 (made for white-light sources) apply
 (our rule, no published source) [1]."""
 
-__all__ = ["UVC_BAND_NM", "VISIBLE_RADIATION_NM", "OPTICAL_RANGE_NM", "MAINLY_VISIBLE_SHARE", "IntegralSpec",
-           "integral_specs", "ProductArrays", "HazardArrays", "Evaluation", "evaluate"]
+__all__ = ["VISIBLE_RADIATION_NM", "OPTICAL_RANGE_NM", "MAINLY_VISIBLE_SHARE", "IntegralSpec", "integral_specs",
+           "share_key", "integral_index", "ProductArrays", "HazardArrays", "Evaluation", "evaluate"]
 
 
 @dataclass(frozen=True)
@@ -47,13 +45,25 @@ class IntegralSpec:
     table: str | None
 
 
+def share_key(symbol: str, share: str) -> str:
+    """Key of the integral of a hazard's sub-band (a :class:`~hazard.standards.BandShare` without steps)."""
+    return f"{symbol}|{share}"
+
+
 def integral_specs(limit_set: LimitSet) -> list[IntegralSpec]:
-    """The integrals of a limit set: one per hazard, then ``V`` for photometry, ``UVC`` (S_UV-weighted
-    irradiance below 280 nm, for the cautions), ``VIS`` and ``ALL`` (unweighted 380-780 nm and 200-3000 nm, for
-    the share of visible radiation)."""
+    """The integrals of a limit set: one per hazard, ``V`` for photometry, one per sub-band share of a hazard
+    (weighted as the hazard, for cautions), ``VIS`` and ``ALL`` (unweighted 380-780 nm and 200-3000 nm, for the
+    share of visible radiation)."""
     specs = [IntegralSpec(h.symbol, h.band_nm, h.table) for h in limit_set.hazards]
-    return specs + [IntegralSpec("V", VISIBLE_BAND_NM, "v_photopic"), IntegralSpec("UVC", UVC_BAND_NM, "s_uv"),
-                    IntegralSpec("VIS", VISIBLE_RADIATION_NM, None), IntegralSpec("ALL", OPTICAL_RANGE_NM, None)]
+    specs.append(IntegralSpec("V", VISIBLE_BAND_NM, "v_photopic"))
+    specs += [IntegralSpec(share_key(h.symbol, share.name), share.band_nm, h.table)
+              for h in limit_set.hazards for share in h.shares if share.step_nm is None]
+    return specs + [IntegralSpec("VIS", VISIBLE_RADIATION_NM, None), IntegralSpec("ALL", OPTICAL_RANGE_NM, None)]
+
+
+def integral_index(limit_set: LimitSet) -> dict[str, int]:
+    """Column of each integral key in the (n, k) arrays of :func:`integral_specs`."""
+    return {spec.key: k for k, spec in enumerate(integral_specs(limit_set))}
 
 
 @dataclass(frozen=True)
@@ -115,7 +125,7 @@ class HazardArrays:
     """Results of one hazard for n products. Group indices: 0 Exempt … 3 RG3, −1 none.
 
     ``limits``, ``compared``, ``alpha_bounded`` are (n, 3) over Exempt, RG1, RG2; NaN where not defined.
-    ``raised_by_t_max`` marks groups raised to agree with t_max (:mod:`hazard.classify`).
+    ``raised_by_t_max`` marks groups raised to agree with t_max (:mod:`hazard.method.classify`).
     """
 
     hazard: Hazard
@@ -261,8 +271,8 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
     -------
     Evaluation
     """
-    keys = [spec.key for spec in integral_specs(limit_set)]
-    v, b = keys.index("V"), keys.index("L_B")
+    keys = integral_index(limit_set)
+    v = keys["V"]
     with np.errstate(divide="ignore", invalid="ignore"):
         anchor_scale = np.where(np.isnan(arrays.anchor_photometric), 1.0,
                                 arrays.anchor_photometric / (K_M_LM_PER_W * arrays.raw[:, v]))
@@ -278,7 +288,9 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
     irradiance = raw * scale[:, None]
     illuminance = K_M_LM_PER_W * irradiance[:, v]
     luminance = illuminance / omega_s
-    transfer = _blue_light_transfer(arrays, raw[:, b], raw[:, v], d_m)
+    blue = limit_set.transfer_quantity()
+    transfer = _blue_light_transfer(arrays, raw[:, keys[blue]] if blue else np.full(raw.shape[0], np.nan), raw[:, v],
+                                    d_m, limit_set.transfer_threshold_w_m2 or np.nan)
     peak = np.ones(distance.size) if arrays.peak_to_mean is None else arrays.peak_to_mean
     viewed = _Viewed(irradiance={h.symbol: irradiance[:, i] for i, h in enumerate(limit_set.hazards)},
                      shape=arrays.shape, distance_m=distance, field=field,
@@ -287,7 +299,7 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
                for i, h in enumerate(limit_set.hazards)}
     group = np.max(np.column_stack([h.group_index for h in hazards.values()]), axis=1)
     complete = np.all(np.column_stack([h.assessed | ~h.applicable for h in hazards.values()]), axis=1)
-    visible, total = raw[:, keys.index("VIS")], raw[:, keys.index("ALL")]
+    visible, total = raw[:, keys["VIS"]], raw[:, keys["ALL"]]
     return Evaluation(assessment_distance_m=distance, alpha_rad=alpha, source_solid_angle_sr=omega_s,
                       illuminance_lx=illuminance, luminance_cd_m2=luminance,
                       small_source=alpha < limit_set.small_source_alpha_rad,
@@ -296,17 +308,18 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
                       anchor_scale=anchor_scale, mainly_visible=visible >= MAINLY_VISIBLE_SHARE * total, **transfer)
 
 
-def _blue_light_transfer(arrays: ProductArrays, blue: np.ndarray, visual: np.ndarray, d_m: np.ndarray) -> dict:
-    """IEC TR 62778:2014 transfer quantities: K_B,v = E_B/E_v [W lm⁻¹], the illuminance E_thr = 1/K_B,v at
-    which E_B reaches 1 W m⁻² (the small-source RG1/RG2 boundary for t_max = 100 s) [lx], and the distance at
-    which that illuminance falls, d_thr = √(I_v/E_thr) [m].
+def _blue_light_transfer(arrays: ProductArrays, blue: np.ndarray, visual: np.ndarray, d_m: np.ndarray,
+                         threshold_w_m2: float) -> dict:
+    """IEC TR 62778:2014 transfer quantities: K_B,v = E_B/E_v [W lm⁻¹], the illuminance E_thr = E_B,thr/K_B,v
+    at which the blue-light irradiance reaches the limit set's threshold [lx], and the distance at which that
+    illuminance falls, d_thr = √(I_v/E_thr) [m]. NaN where the set has no transfer quantity.
 
     I_v is the record's luminous intensity when given; otherwise E_v·d² at the measurement distance
     (inverse-square estimate) for irradiance, or L_v times the source's projected area for radiance.
     """
     with np.errstate(divide="ignore", invalid="ignore"):
         efficacy = np.where(visual > 0, blue / (K_M_LM_PER_W * visual), np.nan)
-        threshold = np.where(efficacy > 0, 1.0 / efficacy, np.nan)
+        threshold = np.where(efficacy > 0, threshold_w_m2 / efficacy, np.nan)
         width, height = arrays.shape.width_m, arrays.shape.height_m
         area = np.where(arrays.shape.is_disc, np.pi * width ** 2 / 4, width * np.nan_to_num(height))
         estimated = np.where(arrays.is_radiance, K_M_LM_PER_W * visual * area, K_M_LM_PER_W * visual * d_m ** 2)

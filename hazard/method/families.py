@@ -1,18 +1,18 @@
-"""Hazard families across what-if variants: the margin, group and t_max of whichever member applies.
+"""Hazard families across what-if variants: the group, t_max and value of whichever member applies.
 
 Blue light is L_B for a large source and E_B for a small one, so a study across distance must follow the
 switch; retinal thermal is L_R, or L_IR for a weak visual stimulus. Every study (distance, uncertainty,
-remedies) evaluates variants of one product as rows of :func:`hazard.evaluate.evaluate` and reads them here.
+remedies) evaluates variants of one product as rows of :func:`hazard.method.evaluate.evaluate` and reads them here.
 """
 
 from __future__ import annotations
 
 import numpy as np
 
-from hazard.evaluate import Evaluation, ProductArrays, evaluate
-from hazard.hazards import LimitSet
+from hazard.method.evaluate import Evaluation, ProductArrays, evaluate
+from hazard.standards import LimitSet
 
-__all__ = ["family_groups", "family_t_max", "overall_groups", "evaluate_rows"]
+__all__ = ["family_groups", "family_t_max", "family_values", "family_member", "evaluate_rows"]
 
 
 def _members(ev: Evaluation, members: tuple[str, ...]):
@@ -21,25 +21,32 @@ def _members(ev: Evaluation, members: tuple[str, ...]):
         yield h, h.applicable & h.assessed
 
 
+def _pick(ev: Evaluation, members: tuple[str, ...], part: str, empty: float) -> np.ndarray:
+    """(n,) ``part`` of the applicable, assessed member at each row; ``empty`` where there is none."""
+    out = np.full(ev.assessment_distance_m.size, empty)
+    for h, mask in _members(ev, members):
+        out[mask] = getattr(h, part)[mask]
+    return out
+
+
 def family_groups(ev: Evaluation, members: tuple[str, ...]) -> np.ndarray:
     """(n,) group index 0-3 of the applicable member; −1 if none."""
-    out = np.full(ev.assessment_distance_m.size, -1)
-    for h, mask in _members(ev, members):
-        out[mask] = h.group_index[mask]
-    return out
+    return _pick(ev, members, "group_index", -1).astype(int)
 
 
 def family_t_max(ev: Evaluation, members: tuple[str, ...]) -> np.ndarray:
     """(n,) t_max of the applicable member [s]; NaN where not reached or none applies."""
-    out = np.full(ev.assessment_distance_m.size, np.nan)
-    for h, mask in _members(ev, members):
-        out[mask] = h.t_max_s[mask]
-    return out
+    return _pick(ev, members, "t_max_s", np.nan)
 
 
-def overall_groups(ev: Evaluation, limit_set: LimitSet) -> np.ndarray:
-    """(n,) overall group index, the highest over the families."""
-    return np.max(np.column_stack([family_groups(ev, m) for _, m in limit_set.families]), axis=1)
+def family_values(ev: Evaluation, members: tuple[str, ...]) -> np.ndarray:
+    """(n,) value of the applicable member [its unit]; NaN where none applies."""
+    return _pick(ev, members, "value", np.nan)
+
+
+def family_member(ev: Evaluation, members: tuple[str, ...], row: int) -> str | None:
+    """The member that applies at ``row`` (assessed or not); None when none does."""
+    return next((symbol for symbol in members if ev.hazards[symbol].applicable[row]), None)
 
 
 def evaluate_rows(arrays: ProductArrays, count: int, limit_set: LimitSet, *, raw=None, raw_scale=None,

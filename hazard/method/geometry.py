@@ -27,8 +27,8 @@ def cone_solid_angle_sr(full_angle_rad: np.ndarray | float) -> np.ndarray:
 
     Examples
     --------
-    >>> f"{float(cone_solid_angle_sr(0.011)):.4e}"
-    '9.5033e-05'
+    >>> f"{float(cone_solid_angle_sr(0.01)):.4e}"
+    '7.8540e-05'
     """
     return 2 * np.pi * (1 - np.cos(np.asarray(full_angle_rad, dtype=float) / 2))
 
@@ -104,8 +104,8 @@ class SourceShape:
         Examples
         --------
         >>> s = SourceShape(np.array([0.002, 0.002]), np.array([np.nan, 0.05]))
-        >>> s.alpha_rad(0.2).round(4).tolist(), s.alpha_rad(0.2, (0.011, 0.1)).round(4).tolist()
-        ([0.01, 0.13], [0.011, 0.0555])
+        >>> s.alpha_rad(0.2).round(4).tolist(), s.alpha_rad(0.2, (0.02, 0.1)).round(4).tolist()
+        ([0.01, 0.13], [0.02, 0.06])
         """
         d = np.asarray(distance_m, dtype=float)
         a = self.width_m / d
@@ -149,8 +149,8 @@ class SourceShape:
         Examples
         --------
         >>> strip = SourceShape(np.array([0.0001]), np.array([0.04]))  # 0.1 mm × 40 mm
-        >>> f = strip.field_fraction(0.2, 0.011)[0]
-        >>> round(float(f / (0.0005 * 0.011 / cone_solid_angle_sr(0.011))), 2)  # width·chord / Ω_γ
+        >>> f = strip.field_fraction(0.2, 0.01)[0]
+        >>> round(float(f / (0.0005 * 0.01 / cone_solid_angle_sr(0.01))), 2)  # width·chord / Ω_γ
         1.0
         """
         return self.seen_from(distance_m).fraction(fov_rad)
@@ -158,10 +158,10 @@ class SourceShape:
     def distance_for_solid_angle_m(self, solid_angle_sr: np.ndarray) -> np.ndarray:
         """Distance at which the source subtends ``solid_angle_sr`` [m] (inverse of :meth:`solid_angle_sr`).
 
-        The solid angle falls monotonically with distance: :func:`hazard.search.log_search` between 1 nm and
+        The solid angle falls monotonically with distance: :func:`hazard.method.search.log_search` between 1 nm and
         10⁶ km, to a relative precision of 1e-12. A solid angle of 2π or more is never reached and gives 0.
         """
-        from hazard.search import log_search
+        from hazard.method.search import log_search
 
         omega = np.broadcast_to(np.asarray(solid_angle_sr, dtype=float), np.shape(self.width_m))
 

@@ -2,7 +2,7 @@
 larger emitting area that bring each hazard family and the product into each lower group; and which 5 nm
 bands dominate the UV quantities, so the engineer knows what to filter.
 
-Dimming and enlarging are found by :func:`hazard.search.log_search` on full re-assessments (a GLS lamp's 500 lx
+Dimming and enlarging are found by :func:`hazard.method.search.log_search` on full re-assessments (a GLS lamp's 500 lx
 distance moves with its output, so dimming is not simply 1/margin), to a relative precision of 1e-12.
 """
 
@@ -10,31 +10,34 @@ from __future__ import annotations
 
 import numpy as np
 
-from hazard.evaluate import ProductArrays
-from hazard.families import evaluate_rows, family_groups, overall_groups
-from hazard.hazards import GROUPS, LimitSet
+from hazard.method.evaluate import ProductArrays
+from hazard.method.families import evaluate_rows, family_groups
+from hazard.method.search import log_search
+from hazard.method.weighting import quadrature_matrix
 from hazard.result import BandContribution, Remedies, Remedy
-from hazard.search import log_search
 from hazard.spectrum import Spectrum
-from hazard.weighting import quadrature_matrix
+from hazard.standards import LimitSet
 from weighting_tables import load_table
 
-__all__ = ["remedies_study", "UV_BAND_STEP_NM"]
+__all__ = ["remedies_study"]
 
-UV_BAND_STEP_NM = 5.0
 _LEAST_DIMMING = 1e-30  # dimming searched down to this factor [1]
-_RADIANCE_FAMILIES = ("blue light", "retinal thermal")
 _MAX_AREA_FACTOR = 1e4
 
 
 def _groups_of(ev, target: str, limit_set: LimitSet) -> np.ndarray:
     if target == "product":
-        return overall_groups(ev, limit_set)
+        return ev.group_index
     return family_groups(ev, dict(limit_set.families)[target])
 
 
+def _radiance_families(limit_set: LimitSet) -> set[str]:
+    """Families with a radiance member: the ones a diffuser (a larger emitting area) can lower."""
+    return {h.family for h in limit_set.hazards if h.kind == "radiance"}
+
+
 def _reaches(arrays, limit_set, jobs: list[tuple[str, int]], variant: str):
-    """A test for :func:`hazard.search.log_search`: at factor x, is each job's target in its group or lower?
+    """A test for :func:`hazard.method.search.log_search`: at factor x, is each job's target in its group or lower?
     ``variant`` is ``raw_scale`` (dimming) or ``size_scale`` (a diffuser)."""
     def test(x: np.ndarray, index: np.ndarray) -> np.ndarray:
         ev = evaluate_rows(arrays, x.size, limit_set, **{variant: x.ravel()})
@@ -69,34 +72,40 @@ def _smallest_area(arrays, limit_set, jobs: list[tuple[str, int]]) -> list[float
     return [float(scale[i] ** 2) if ok_at_largest[i] else None for i in range(len(jobs))]
 
 
-def _uv_bands(spectrum: Spectrum, to_assessment: float, assessed: set[str]) -> dict[str, list[BandContribution]]:
-    edges = np.arange(200.0, 400.0 + UV_BAND_STEP_NM, UV_BAND_STEP_NM)
+def _band_shares(spectrum: Spectrum, to_assessment: float, limit_set: LimitSet, assessed: set[str]
+                 ) -> dict[str, list[BandContribution]]:
+    """Each assessed hazard's value by bands of a fixed width (its stepped :class:`~hazard.standards.BandShare`),
+    largest first, bands of at least 0.1 % of the total."""
     out = {}
-    for symbol, table, lo in (("E_S", "s_uv", 200.0), ("E_UVA", None, 315.0)):
-        if symbol not in assessed:
-            continue
-        weight = None if table is None else load_table(table)
-        bands = [(a, b) for a, b in zip(edges[:-1], edges[1:]) if a >= lo]
-        values = spectrum.value @ quadrature_matrix(spectrum.wavelength_nm, [(band, weight) for band in bands])
-        values = values * to_assessment
-        total = values.sum()
-        if not total > 0:
-            continue
-        order = np.argsort(-values)
-        out[symbol] = [BandContribution(band_nm=bands[k], value=float(values[k]), share=float(values[k] / total))
-                       for k in order if values[k] / total >= 1e-3]
+    for hazard in limit_set.hazards:
+        for share in hazard.shares:
+            if share.step_nm is None or hazard.symbol not in assessed:
+                continue
+            edges = np.arange(share.band_nm[0], share.band_nm[1] + share.step_nm / 2, share.step_nm)
+            bands = [(float(a), float(b)) for a, b in zip(edges[:-1], edges[1:])]
+            weight = None if hazard.table is None else load_table(hazard.table)
+            values = spectrum.value @ quadrature_matrix(spectrum.wavelength_nm, [(band, weight) for band in bands])
+            values = values * to_assessment
+            total = values.sum()
+            if not total > 0:
+                continue
+            order = np.argsort(-values)
+            out[hazard.symbol] = [BandContribution(band_nm=bands[k], value=float(values[k]),
+                                                   share=float(values[k] / total))
+                                  for k in order if values[k] / total >= 1e-3]
     return out
 
 
-def _why_none(target: str, dimming: float | None, area: float | None) -> str:
+def _why_none(target: str, dimming: float | None, area: float | None, radiance: set[str]) -> str:
     notes = []
     if dimming is None:
         notes.append("dimming alone does not reach this group")
     if area is None:
-        if target in _RADIANCE_FAMILIES:
+        if target in radiance:
             notes.append(f"enlarging the area up to ×{_MAX_AREA_FACTOR:g} does not reach this group")
         else:
-            notes.append("a diffuser changes radiance only; see the blue-light and retinal-thermal rows"
+            notes.append(f"a diffuser changes radiance only; see the "
+                         f"{' and '.join(name.replace(' ', '-') for name in sorted(radiance))} rows"
                          if target == "product" else "no diffuser factor: not a radiance hazard")
     return "; ".join(notes)
 
@@ -112,22 +121,23 @@ def remedies_study(arrays: ProductArrays, spectrum: Spectrum, to_assessment: flo
     to_assessment : float
         Multiplier from the spectrum's integrals to irradiance at the assessment distance [1].
     assessed : set of str
-        Hazards assessed; the UV bands are given only for those.
+        Hazards assessed; band contributions are given only for those.
     """
     ev = evaluate_rows(arrays, 1, limit_set)
     jobs = []
-    for name, members in limit_set.families:
+    for name, members in limit_set.grouped_families:
         current = family_groups(ev, members)[0]
         jobs += [(name, g) for g in range(max(current, 0))]
-    overall = overall_groups(ev, limit_set)[0]
+    overall = ev.group_index[0]
     jobs += [("product", g) for g in range(max(overall, 0))]
     dimming = _largest_dimming(arrays, limit_set, jobs) if jobs else []
-    area_jobs = [(t, g) for t, g in jobs if t in _RADIANCE_FAMILIES]
+    radiance = _radiance_families(limit_set)
+    area_jobs = [(t, g) for t, g in jobs if t in radiance]
     areas = dict(zip(area_jobs, _smallest_area(arrays, limit_set, area_jobs))) if area_jobs else {}
-    remedies = [Remedy(target=t, group=GROUPS[g], dimming_factor=f, area_factor=areas.get((t, g)),
-                       note=_why_none(t, f, areas.get((t, g))))
+    remedies = [Remedy(target=t, group=limit_set.groups[g], dimming_factor=f, area_factor=areas.get((t, g)),
+                       note=_why_none(t, f, areas.get((t, g)), radiance))
                 for (t, g), f in zip(jobs, dimming)]
-    return Remedies(remedies=remedies, uv_bands=_uv_bands(spectrum, to_assessment, assessed),
+    return Remedies(remedies=remedies, uv_bands=_band_shares(spectrum, to_assessment, limit_set, assessed),
                     note="Dimming factors are the largest emission multipliers (or neutral filter transmissions) "
                          "that reach the group; area factors enlarge the emitting area at the same power (a "
                          "diffuser). Each was found by re-assessing the product, as the standard's distances "

@@ -9,11 +9,11 @@ from __future__ import annotations
 
 import numpy as np
 
-from hazard.evaluate import ProductArrays
-from hazard.families import evaluate_rows, family_groups, family_t_max, overall_groups
-from hazard.hazards import GROUPS, LimitSet
+from hazard.method.evaluate import ProductArrays
+from hazard.method.families import evaluate_rows, family_groups, family_member, family_t_max
+from hazard.method.search import log_search
 from hazard.result import BoundaryDistance, DistanceStudy
-from hazard.search import log_search
+from hazard.standards import LimitSet
 
 __all__ = ["distance_study", "SEARCH_RANGE_M", "CURVE_POINTS"]
 
@@ -25,8 +25,8 @@ CURVE_POINTS = 121
 def _crossings(arrays: ProductArrays, limit_set: LimitSet, grid: np.ndarray, groups: dict[str, np.ndarray]
                ) -> dict[tuple[str, int], tuple[float | None, str]]:
     """Distance beyond which each family stays in group ``k`` or lower, for k = Exempt, RG1, RG2 [m]: bracketed
-    on the grid, then all brackets narrowed together by :func:`hazard.search.log_search`. The
-    group is the top-down one (:mod:`hazard.classify`), so a boundary distance is where the product's group
+    on the grid, then all brackets narrowed together by :func:`hazard.method.search.log_search`. The
+    group is the top-down one (:mod:`hazard.method.classify`), so a boundary distance is where the product's group
     really changes, whichever boundary's field of view decides it."""
     families = dict(limit_set.families)
     result, open_jobs = {}, []
@@ -71,23 +71,22 @@ def distance_study(arrays: ProductArrays, limit_set: LimitSet, largest_dimension
     """
     grid = np.geomspace(*SEARCH_RANGE_M, CURVE_POINTS)
     ev = evaluate_rows(arrays, grid.size, limit_set, forced_distance_m=grid)
-    crossings = _crossings(arrays, limit_set, grid, {name: family_groups(ev, members)
-                                                     for name, members in limit_set.families})
+    grouped = limit_set.grouped_families
+    crossings = _crossings(arrays, limit_set, grid, {name: family_groups(ev, members) for name, members in grouped})
     found_at = [(key, d) for key, (d, _) in crossings.items() if d is not None]
     criteria = {}
     if found_at:
         at = evaluate_rows(arrays, len(found_at), limit_set, forced_distance_m=np.array([d for _, d in found_at]))
-        families = dict(limit_set.families)
-        criteria = {key: next((s for s in families[key[0]] if at.hazards[s].applicable[i]), None)
-                    for i, (key, _) in enumerate(found_at)}
+        families = dict(grouped)
+        criteria = {key: family_member(at, families[key[0]], i) for i, (key, _) in enumerate(found_at)}
     boundaries: list[BoundaryDistance] = []
     minimum: dict[str, float | None] = {}
-    for name, _ in limit_set.families:
-        for k, group in enumerate(GROUPS[:3]):
+    for name, _ in grouped:
+        for k, group in enumerate(limit_set.boundaries):
             distance_m, how = crossings[(name, k)]
             boundaries.append(BoundaryDistance(family=name, group=group, distance_mm=None if distance_m is None
                                                else distance_m * 1e3, criterion=criteria.get((name, k)), note=how))
-    for k, group in enumerate(GROUPS[:3]):
+    for group in limit_set.boundaries:
         found = [b for b in boundaries if b.group == group and b.note != "not assessed"]
         if not found:
             continue  # no family assessed: nothing to say about this group (never "at any distance")
@@ -97,10 +96,9 @@ def distance_study(arrays: ProductArrays, limit_set: LimitSet, largest_dimension
             minimum[group] = max((b.distance_mm for b in found if b.distance_mm is not None), default=0.0)
     t_max = {name: [None if np.isnan(t) else float(t) for t in family_t_max(ev, members)]
              for name, members in limit_set.families}
-    t_max["E_H"] = [None if np.isnan(t) else float(t) for t in ev.hazards["E_H"].t_max_s]
-    groups = {name: [GROUPS[g] if g >= 0 else None for g in family_groups(ev, members)]
-              for name, members in limit_set.families}
-    return DistanceStudy(distance_mm=[float(d * 1e3) for d in grid], group=[GROUPS[g] if g >= 0 else None for g in
-                                                                           overall_groups(ev, limit_set)],
+    names = limit_set.groups
+    groups = {name: [names[g] if g >= 0 else None for g in family_groups(ev, members)] for name, members in grouped}
+    return DistanceStudy(distance_mm=[float(d * 1e3) for d in grid],
+                         group=[names[g] if g >= 0 else None for g in ev.group_index],
                          family_group=groups, t_max_s=t_max, boundaries=boundaries, minimum_distance_mm=minimum,
                          near_field_below_mm=5 * largest_dimension_mm)

@@ -1,7 +1,7 @@
 """Weighted integrals of many spectra against one quadrature matrix per wavelength grid.
 
-The columns are the integrals of :func:`hazard.evaluate.integral_specs` followed by CIE 1931 X, Y, Z; the
-matrix comes from :mod:`hazard.weighting`, the one integration routine.
+The columns are the integrals of :func:`hazard.method.evaluate.integral_specs` followed by CIE 1931 X, Y, Z; the
+matrix comes from :mod:`hazard.method.weighting`, the one integration routine.
 
 Two ways to apply it, same numbers:
 
@@ -18,10 +18,10 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from hazard.evaluate import integral_specs
-from hazard.hazards import LimitSet
-from hazard.photometry import cmf_quadrature
-from hazard.weighting import quadrature_matrix
+from hazard.method.evaluate import integral_specs
+from hazard.method.photometry import cmf_quadrature
+from hazard.method.weighting import quadrature_matrix
+from hazard.standards import LimitSet
 from weighting_tables import load_table
 
 __all__ = ["Integrated", "integral_matrix", "coverage", "integrate_matrix", "integrate_spectra", "CHUNK_ROWS"]

@@ -1,0 +1,1 @@
+"""The method on arrays: quadrature, integrals, geometry, photometry, groups, t_max and the searches."""

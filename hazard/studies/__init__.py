@@ -1,0 +1,1 @@
+"""Studies of one product by re-assessment: hazard distances, measurement uncertainty, remedies."""
