@@ -119,7 +119,7 @@ def summary_rows(outcome: BatchOutcome, limit_set: LimitSet = DEFAULT_LIMIT_SET)
     rows = []
     for product_id in outcome.ids:
         row = {"id": product_id, "status": "ok", "risk_group": "", "group_note": "", "complete": "", "basis": "",
-               "standard_risk_group": "", "warning_count": "",
+               "what_if_distance_mm": "", "what_if_risk_group": "", "warning_count": "",
                "claims_contradicted": "", "claims": "", "uncertainty": "", "group_range": "",
                "min_distance_exempt_mm": "", "error": ""}
         row.update(dict.fromkeys(_hazard_columns(limit_set), ""))
@@ -127,17 +127,23 @@ def summary_rows(outcome: BatchOutcome, limit_set: LimitSet = DEFAULT_LIMIT_SET)
             row.update(status="error", error=outcome.errors[product_id])
         else:
             a = outcome.assessments[product_id]
-            row.update(risk_group=a.risk_group or NOT_DETERMINED, complete=str(a.complete).lower(), basis=a.basis,
-                       group_note="" if a.complete or a.risk_group is None else "lower bound",
-                       standard_risk_group=("" if a.basis == "standard" else a.standard_risk_group or NOT_DETERMINED),
+            group = a.classification_group
+            row.update(risk_group=group or NOT_DETERMINED, complete=str(a.complete).lower(), basis=a.basis,
+                       group_note="" if a.complete or group is None else "lower bound")
+            if a.basis == "what-if":
+                row.update(what_if_distance_mm=repr(a.assessment_distance_mm),
+                           what_if_risk_group=a.risk_group or NOT_DETERMINED)
+            row.update(
                        warning_count=len(a.warnings),
                        claims_contradicted=sum(c.verdict == "contradicted" for c in a.claims),
                        claims="; ".join(f"{c.field}: {c.verdict}" for c in a.claims))
             if a.uncertainty is not None:
                 row.update(uncertainty=a.uncertainty.verdict,
                            group_range=f"{a.uncertainty.risk_group_low}-{a.uncertainty.risk_group_high}")
-            if a.distances is not None and a.distances.minimum_distance_mm.get("Exempt") is not None:
-                row["min_distance_exempt_mm"] = repr(a.distances.minimum_distance_mm["Exempt"])
+            if a.distances is not None and "Exempt" in a.distances.minimum_distance_mm:
+                found = a.distances.minimum_distance_mm["Exempt"]
+                row["min_distance_exempt_mm"] = (repr(found) if found is not None else
+                                                 f"not within {a.distances.distance_mm[-1]:.0f}")
             for symbol, h in a.hazards.items():
                 row[f"{symbol}_value"] = "" if h.value is None else repr(h.value)
                 row[f"{symbol}_group"] = h.risk_group or ("not assessed" if not h.assessed else "")
@@ -147,7 +153,8 @@ def summary_rows(outcome: BatchOutcome, limit_set: LimitSet = DEFAULT_LIMIT_SET)
 
 
 def _summary_csv(outcome: BatchOutcome, limit_set: LimitSet) -> bytes:
-    columns = ["id", "status", "risk_group", "group_note", "complete", "basis", "standard_risk_group",
+    columns = ["id", "status", "risk_group", "group_note", "complete", "basis", "what_if_distance_mm",
+               "what_if_risk_group",
                *_hazard_columns(limit_set), "warning_count", "claims_contradicted", "claims", "uncertainty",
                "group_range", "min_distance_exempt_mm", "error"]
     buffer = io.StringIO()

@@ -11,7 +11,8 @@ __all__ = ["PRE_SCREEN", "CAUTIONS", "select_cautions"]
 
 PRE_SCREEN = ("Pre-screen only, not a certification: the risk group here is computed from the data supplied. "
               "Only an accredited laboratory, measuring under the applicable standard and local regulations, "
-              "can classify this product.")
+              "can classify this product. Ultraviolet and high-radiance sources can harm eyes and skin before "
+              "anything is felt: protect both whatever the group.")
 _NOT_DETERMINED = ("No risk group could be determined: none of the hazards with risk groups could be assessed "
                    "from this spectrum. Do not read this result as safe; measure the missing wavelength range "
                    "first.")

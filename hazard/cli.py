@@ -293,8 +293,13 @@ def check(source: Path, output_format: str, cct_tolerance_k: float, cct_toleranc
         if output_format == "json":
             click.echo(assessment.model_dump_json())
             continue
-        click.echo(f"{assessment.id}: computed {assessment.risk_group}"
-                   f"{'' if assessment.complete else ' (lower bound)'}")
+        from hazard.formatting import group_words
+
+        what_if = (f"; the record's what-if at {assessment.assessment_distance_mm:.0f} mm gives "
+                   f"{group_words(assessment.risk_group, assessment.complete)}, not used for claims"
+                   if assessment.basis == "what-if" else "")
+        click.echo(f"{assessment.id}: computed {group_words(assessment.classification_group, assessment.complete)} "
+                   f"at the standard's distance{what_if}")
         click.echo("\n".join(render_claims(assessment)) if assessment.claims else "  no claims in the record")
         click.echo("")
     if output_format == "text":

@@ -17,6 +17,7 @@ from hazard.cautions import select_cautions
 from hazard.claims import DEFAULT_TOLERANCES, ClaimTolerances, check_claims
 from hazard.formatting import UNIT_DISPLAY, format_duration_s
 from hazard.inputs import LoadedProduct, load_product, product_from_record
+from hazard.method.classify import top_down_groups
 from hazard.method.evaluate import Evaluation, ProductArrays, evaluate, integral_index, share_key
 from hazard.method.geometry import FIVE_TIMES_RULE, SourceShape
 from hazard.method.integrals import Integrated, integrate_spectra
@@ -105,6 +106,12 @@ def _anchor_photometric(record: ProductRecord) -> float:
     return record.luminance_cd_m2
 
 
+def _higher(a: str | None, b: str | None, limit_set: LimitSet) -> str | None:
+    """The higher of two groups (None: no group)."""
+    ranked = [g for g in (a, b) if g is not None]
+    return max(ranked, key=limit_set.groups.index) if ranked else None
+
+
 def _group_name(index: int) -> str | None:
     """The group of a group index; None for −1 (no group determined)."""
     return GROUPS[int(index)] if index >= 0 else None
@@ -180,6 +187,38 @@ def _photometry(batch: "BatchEvaluation", i: int, covered: bool) -> Photometry:
                       chromaticity_xy=None if np.isnan(x) else (float(x), float(y)), covered=covered)
 
 
+SWITCH_NEIGHBOURHOOD = 1.25
+"""Within this factor of a switch between family members (small source, weak visual stimulus) the result says
+what the other member would give, when that is worse (our rule, no published source) [1]."""
+
+
+def _switch_warnings(ev: Evaluation, i: int, limit_set: LimitSet) -> list[str]:
+    """Where the source sits near a switch between members of a family and the other member reads a higher
+    group: a small change of size, distance or light would change the group (the standard's own step)."""
+    out = []
+    for family, members in limit_set.grouped_families:
+        applied = [m for m in members if ev.hazards[m].applicable[i] and ev.hazards[m].assessed[i]]
+        if len(members) < 2 or not applied:
+            continue
+        used = ev.hazards[applied[0]]
+        for other in (ev.hazards[m] for m in members if m != applied[0]):
+            spec = other.hazard
+            if spec.applies in ("small_source", "large_source"):
+                quantity, threshold, shown = ev.alpha_rad[i], limit_set.small_source_alpha_rad, "α"
+                text = f"{quantity * 1e3:.3g} mrad, switch at {threshold * 1e3:g} mrad"
+            else:
+                quantity, threshold, shown = ev.luminance_cd_m2[i], limit_set.weak_stimulus_luminance_cd_m2, "L_v"
+                text = f"{quantity:.3g} cd/m², switch at {threshold:g} cd/m²"
+            near = 1 / SWITCH_NEIGHBOURHOOD <= quantity / threshold <= SWITCH_NEIGHBOURHOOD
+            reading = int(top_down_groups(other.compared[i:i + 1], other.limits[i:i + 1])[0])
+            if near and reading > used.group_index[i]:
+                out.append(f"{family}: {shown} = {text}; {used.hazard.symbol} applies and gives "
+                           f"{limit_set.groups[used.group_index[i]]}, but {spec.symbol} would give "
+                           f"{limit_set.groups[reading]}: a small change of size, distance or light changes the "
+                           f"group here (the standard's own step); have the laboratory confirm it")
+    return out
+
+
 def _warnings(loaded: LoadedProduct, ev: Evaluation, i: int, v_covered: bool) -> list[str]:
     record, spectrum = loaded.record, loaded.spectrum
     warnings = list(spectrum.warnings)
@@ -241,6 +280,10 @@ def _assumptions(loaded: LoadedProduct, ev: Evaluation, i: int) -> list[str]:
     d_a_mm = float(ev.assessment_distance_m[i]) * 1e3
     if record.quantity == "relative":
         assumptions.append(_anchor_text(record, float(ev.anchor_scale[i])))
+    if record.lamp_type == "gls" and record.at_distance_mm is None and d_a_mm > 200.0 + 1e-9:
+        assumptions.append(f"General lighting service lamp: assessed where it gives 500 lx, {d_a_mm:.0f} mm away; "
+                           f"nearer than that (e.g. at 200 mm, as other lamps are assessed) its group can be "
+                           f"higher: see the distances")
     if record.peak_to_mean_radiance > 1:
         assumptions.append(f"Peak-to-mean radiance {record.peak_to_mean_radiance:g} (record): radiance values and "
                            f"the radiance seen by fields of view smaller than the source are multiplied by it.")
@@ -460,17 +503,23 @@ def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int,
     keys = integral_index(limit_set)
     v_covered = bool(covered[keys["V"]])
     hazards = _hazard_results(ev, i, spectrum.range_nm, limit_set)
-    groups = {s: h.risk_group for s, h in hazards.items()}
     overall = _group_name(ev.group_index[i])
     d_a_mm = float(ev.assessment_distance_m[i]) * 1e3
     what_if = record.at_distance_mm is not None
+    # claims and cautions are about the product as the standard classifies it: at the standard's distance;
+    # a what-if never lowers a caution (each hazard's higher group of the two)
+    standard = _hazard_results(batch.standard, i, spectrum.range_nm, limit_set) if what_if else hazards
+    standard_overall = _group_name(batch.standard.group_index[i])
+    standard_distance_mm = float(batch.standard.assessment_distance_m[i]) * 1e3
+    groups = {s: _higher(h.risk_group, standard[s].risk_group if s in standard else None, limit_set)
+              for s, h in hazards.items()}
     tables = {name: {"symbol": t.symbol, "source": t.metadata["source"], "edition": t.metadata["edition"],
                      "sha256": t.sha256} for name in TABLE_NAMES for t in [load_table(name)]}
     return Assessment(
         id=record.id, name=record.name, risk_group=overall, complete=bool(ev.complete[i]),
         basis="what-if" if what_if else "standard",
-        standard_risk_group=_group_name(batch.standard.group_index[i]) if what_if else None,
-        standard_assessment_distance_mm=float(batch.standard.assessment_distance_m[i]) * 1e3 if what_if else None,
+        standard_risk_group=standard_overall if what_if else None,
+        standard_assessment_distance_mm=standard_distance_mm if what_if else None,
         assessment_distance_mm=d_a_mm, alpha_rad=float(ev.alpha_rad[i]),
         illuminance_lx=float(ev.illuminance_lx[i]), hazards=hazards,
         not_assessed=[s for s, h in hazards.items() if not h.assessed],
@@ -486,18 +535,19 @@ def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int,
         blue_light_transfer=_transfer(ev, i, covered, keys, record, limit_set),
         scaling=_scaling(record, float(ev.anchor_scale[i])),
         **_studies(loaded, batch, i, studies),
-        record=record.model_dump(exclude_none=True), warnings=_warnings(loaded, ev, i, v_covered),
+        record=record.model_dump(exclude_none=True),
+        warnings=_warnings(loaded, ev, i, v_covered) + _switch_warnings(ev, i, limit_set),
         assumptions=_assumptions(loaded, ev, i),
         cautions=select_cautions(limit_set, groups, _shares(raw, keys, limit_set), bool(ev.complete[i]),
-                                 determined=overall is not None),
-        claims=check_claims(record, risk_group=overall, complete=bool(ev.complete[i]),
-                            not_assessed=[s for s, h in hazards.items() if not h.assessed], hazards=hazards,
+                                 determined=overall is not None or standard_overall is not None),
+        claims=check_claims(record, risk_group=standard_overall, complete=bool(ev.complete[i]),
+                            not_assessed=[s for s, h in standard.items() if not h.assessed], hazards=standard,
                             cct_k=_float(batch.cct_k[i]), cct_reason=_cct_reason(batch, i, v_covered),
                             illuminance_at_record_distance_lx=_illuminance_at_record_distance(record, ev, i),
-                            assessment_distance_mm=d_a_mm, tolerances=tolerances),
+                            assessment_distance_mm=standard_distance_mm, tolerances=tolerances),
         provenance=Provenance(tool_version=__version__, limit_set=limit_set.name, tables=tables,
                               inputs=dict(sorted(loaded.inputs.items())), method=METHOD_TEXT),
-        limit_set=limit_set_info(limit_set))
+        limit_set=limit_set_info(limit_set)).sealed()
 
 
 def limit_set_info(limit_set: LimitSet) -> LimitSetInfo:

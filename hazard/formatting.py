@@ -34,6 +34,68 @@ def format_value(value: float | None, digits: int = 3) -> str:
     return f"{value:.{digits - 1}e}"
 
 
+def _significant(value: float, digits: int, direction: str) -> float:
+    """``value`` > 0 rounded to ``digits`` significant digits towards ``"up"`` or ``"down"``."""
+    exponent = math.floor(math.log10(value)) - digits + 1
+    scaled = value / 10.0 ** exponent
+    scaled = round(scaled, 9)  # floating noise (1.2300000000001) is not a digit
+    step = math.ceil(scaled) if direction == "up" else math.floor(scaled)
+    return step * 10.0 ** exponent
+
+
+def plain(value: float) -> str:
+    """A positive number already rounded, without exponent or trailing zeros: ``'1.02'``, ``'227'``, ``'0.0015'``."""
+    text = f"{value:.12f}".rstrip("0").rstrip(".")
+    return text if "." in text or len(text) <= 15 else f"{value:.0f}"
+
+
+def round_up(value: float, digits: int = 3) -> str:
+    """``value`` rounded up at ``digits`` significant digits: the safe way to print how far a limit is exceeded
+    or a distance to keep.
+
+    Examples
+    --------
+    >>> round_up(1.0001), round_up(99.6), round_up(226.04), round_up(25300.0)
+    ('1.01', '99.6', '227', '25300')
+    """
+    return plain(_significant(value, digits, "up"))
+
+
+def round_down(value: float, digits: int = 3) -> str:
+    """``value`` rounded down at ``digits`` significant digits: the safe way to print a dimming factor or a time.
+
+    Examples
+    --------
+    >>> round_down(66.72), round_down(0.24999, 2)
+    ('66.7', '0.24')
+    """
+    return plain(_significant(value, digits, "down"))
+
+
+def distance_beyond_mm(distance_mm: float) -> str:
+    """A distance beyond which something holds, rounded up: whole millimetres from 10 mm, else two significant
+    digits (a product is never said to be safe nearer than it is).
+
+    Examples
+    --------
+    >>> distance_beyond_mm(226.04), distance_beyond_mm(0.2501)
+    ('227 mm', '0.26 mm')
+    """
+    return f"{math.ceil(distance_mm)} mm" if distance_mm >= 10 else f"{round_up(distance_mm, 2)} mm"
+
+
+def dimming_percent(factor: float) -> str:
+    """A dimming factor as a percentage of today's output, rounded down at three significant digits (dimming to
+    the printed figure always reaches the group).
+
+    Examples
+    --------
+    >>> dimming_percent(0.66672)
+    '66.6 %'
+    """
+    return f"{round_down(factor * 100)} %"
+
+
 def format_limit(value: float | None) -> str:
     """A limit as the standard prints it: three significant digits, no trailing zeros.
 
@@ -46,18 +108,19 @@ def format_limit(value: float | None) -> str:
 
 
 def format_duration_s(seconds: float | None) -> str:
-    """A duration in the largest sensible unit: µs, ms, s, min, h.
+    """A duration in the largest sensible unit (µs, ms, s, min, h), rounded down at two significant digits
+    (a time to a limit is never printed longer than it is).
 
     Examples
     --------
-    >>> format_duration_s(263.49), format_duration_s(0.25), format_duration_s(9000), format_duration_s(None)
-    ('4.4 min', '0.25 s', '2.5 h', '—')
+    >>> format_duration_s(263.49), format_duration_s(0.2499), format_duration_s(9000), format_duration_s(None)
+    ('4.3 min', '0.24 s', '2.5 h', '—')
     """
     if seconds is None:
         return "—"
     scale, unit = next((scale, unit) for scale, threshold, unit in _DURATION_UNITS if seconds >= threshold)
     amount = seconds / scale
-    return f"{amount:.2g} {unit}" if amount < 10 else f"{amount:.0f} {unit}"
+    return f"{round_down(amount, 2)} {unit}" if amount < 10 else f"{math.floor(amount):.0f} {unit}"
 
 
 def format_percent(ratio: float) -> str:
@@ -79,8 +142,8 @@ def format_percent(ratio: float) -> str:
 
 
 def _times(ratio: float) -> str:
-    """A ratio > 1 as a multiple: ``'1.8×'``, ``'37×'``, ``'2.5e+04×'`` beyond 10⁴."""
-    return f"{format_value(ratio, 2)}×"
+    """A ratio > 1 as a multiple, rounded up at three significant digits (never "1×"): ``'1.02×'``, ``'99.6×'``."""
+    return f"{round_up(ratio)}×"
 
 
 def margin_to_next(risk_group: str | None, margins: dict[str, float]) -> tuple[str, float] | None:

@@ -6,6 +6,7 @@ Reports render these and never compute hazard quantities themselves; a saved JSO
 
 from __future__ import annotations
 
+import hashlib
 from typing import Literal
 
 from pydantic import BaseModel, ConfigDict, Field
@@ -246,6 +247,8 @@ class Provenance(_Frozen):
     tables: dict[str, dict[str, str]] = Field(description="Table name → source, edition, sha256.")
     inputs: dict[str, str] = Field(description="Input file (as named in the record) → SHA-256.")
     method: str = Field(description="Integration and interpolation rule.")
+    result_sha256: str = Field("", description="SHA-256 of this result's JSON with this field empty: a result "
+                                               "changed after it was made no longer matches it.")
 
 
 class Assessment(_Frozen):
@@ -289,3 +292,19 @@ class Assessment(_Frozen):
     provenance: Provenance
     limit_set: LimitSetInfo = Field(description="The limit set's groups, boundaries and families, for renderers.")
     kind: Literal["hazard.assessment"] = "hazard.assessment"
+
+    def content_sha256(self) -> str:
+        """SHA-256 of the result's JSON with ``provenance.result_sha256`` empty."""
+        blank = self.model_copy(update={"provenance": self.provenance.model_copy(update={"result_sha256": ""})})
+        return hashlib.sha256(blank.model_dump_json().encode("utf-8")).hexdigest()
+
+    def sealed(self) -> "Assessment":
+        """This result with its :meth:`content_sha256` recorded in the provenance."""
+        return self.model_copy(update={"provenance": self.provenance.model_copy(
+            update={"result_sha256": self.content_sha256()})})
+
+    @property
+    def classification_group(self) -> RiskGroup | None:
+        """The group the standard's distance gives: ``risk_group`` of a standard result, ``standard_risk_group``
+        of a what-if. Summaries, rankings and claims use this one."""
+        return self.standard_risk_group if self.basis == "what-if" else self.risk_group

@@ -5,6 +5,8 @@ from __future__ import annotations
 from hazard.formatting import (
     NOT_DETERMINED,
     UNIT_DISPLAY,
+    dimming_percent,
+    distance_beyond_mm,
     format_duration_s,
     format_limit,
     format_margin,
@@ -81,10 +83,11 @@ def render_text(assessment: Assessment) -> str:
         lines += ["", f"Scaling: {a.scaling.note}"]
     t = a.blue_light_transfer
     if t is not None:
-        lines += ["", f"Blue-light transfer (IEC TR 62778): K_B,v = {t.k_bv_w_per_lm * 1e3:.3g} mW/lm; E_B reaches "
-                      f"1 W/m² at E_thr = {format_value(t.threshold_illuminance_lx)} lx, i.e. nearer than "
-                      f"d_thr = {t.threshold_distance_mm:.0f} mm (I_v = {format_value(t.luminous_intensity_cd)} cd, "
-                      f"{t.intensity_source})"]
+        lines += ["", f"Blue-light transfer (IEC TR 62778): K_B,v = {t.k_bv_w_per_lm * 1e3:.3g} mW/lm; the "
+                      f"blue-light irradiance reaches its threshold at E_thr = "
+                      f"{format_value(t.threshold_illuminance_lx)} lx, i.e. nearer than "
+                      f"d_thr = {distance_beyond_mm(t.threshold_distance_mm)} "
+                      f"(I_v = {format_value(t.luminous_intensity_cd)} cd, {t.intensity_source})"]
     if a.claims:
         lines += ["", *render_claims(a)]
     lines += _studies(a)
@@ -126,16 +129,17 @@ def _studies(a: Assessment) -> list[str]:
         shown = []
         for group, d in a.distances.minimum_distance_mm.items():
             name = group if group == "Exempt" else f"{group} or lower"
-            shown.append(f"{name} beyond {d:.0f} mm" if d else f"{name} at any distance" if d == 0
+            shown.append(f"{name} beyond {distance_beyond_mm(d)}" if d else f"{name} at any distance" if d == 0
                          else f"{name} not within 100 m")
         scope = "" if a.complete else "assessed hazards only; "
         lines += ["", "Distances: " + "; ".join(shown)
-                  + f" ({scope}values nearer than {a.distances.near_field_below_mm:.0f} mm are approximate)"]
+                  + f" ({scope}values nearer than {distance_beyond_mm(a.distances.near_field_below_mm)} are "
+                    f"approximate)"]
     if a.remedies is not None:
         product = [r for r in a.remedies.remedies if r.target == "product" and r.dimming_factor is not None]
         if product:
             lines += ["", "What it would take: " + "; ".join(
-                f"{r.group}: dim to {r.dimming_factor * 100:.3g} % of today's output" for r in product)]
+                f"{r.group}: dim to {dimming_percent(r.dimming_factor)} of today's output" for r in product)]
         for r in a.remedies.remedies:
             if r.area_factor is not None:
                 lines.append(f"  {r.target} → {r.group}: or enlarge the emitting area ×{r.area_factor:.3g} (diffuser)")
@@ -175,21 +179,23 @@ def render_batch_table(ids: list[str], assessments: dict[str, Assessment], error
             rows.append((product_id, "error", "", "", "", errors[product_id]))
             continue
         a = assessments[product_id]
-        deciding = ", ".join(a.deciding_hazards) if a.risk_group not in (None, "Exempt") else ""
+        standard = a.basis == "standard"  # a what-if row shows the standard's group; its own is a flag
+        deciding = ", ".join(a.deciding_hazards) if standard and a.risk_group not in (None, "Exempt") else ""
         margin = ""
-        if a.deciding_hazards and a.risk_group != "Exempt":
+        if standard and a.deciding_hazards and a.risk_group != "Exempt":
             h = a.hazards[a.deciding_hazards[0]]
             margin = format_margin(h.risk_group, h.margins)
         flags = []
-        if a.basis == "what-if":
-            flags.append(f"WHAT-IF at {a.assessment_distance_mm:.0f} mm (standard: "
-                         f"{group_words(a.standard_risk_group, a.complete)})")
+        if not standard:
+            flags.append(f"WHAT-IF at {a.assessment_distance_mm:.0f} mm gives "
+                         f"{group_words(a.risk_group, a.complete)} (not a classification)")
         if a.uncertainty is not None and a.uncertainty.verdict == "borderline":
             flags.append(f"BORDERLINE {a.uncertainty.risk_group_low}-{a.uncertainty.risk_group_high}")
         contradicted = sum(c.verdict == "contradicted" for c in a.claims)
         if contradicted:
             flags.append(f"{contradicted} claim(s) CONTRADICTED")
-        rows.append((product_id, group_words(a.risk_group, a.complete), "complete" if a.complete else "INCOMPLETE",
+        rows.append((product_id, group_words(a.classification_group, a.complete),
+                     "complete" if a.complete else "INCOMPLETE",
                      deciding, margin, "; ".join(flags)))
     header = ("Product", "Group", "Assessment", "Set by", "Margin", "Flags / error")
     widths = [max(len(r[i]) for r in [header, *rows]) for i in range(5)]

@@ -1,9 +1,13 @@
-"""Check a saved result before it is rendered: its groups must follow from its own numbers.
+"""Check a saved result before it is rendered: unchanged since it was made, and groups that follow from its own
+numbers and its limit set.
 
 A result file can be edited by hand or damaged; rendering it as it stands could print "Exempt" beside values
-far above a limit. :func:`check_result` re-derives each hazard's group from the values compared and the limits
-applied (top-down, and never safer than its t_max: :mod:`hazard.method.classify`), and the overall group from the
-hazards, and refuses a result that disagrees, naming the hazard, what the file says and what its numbers give.
+far above a limit. :func:`check_result` first compares the result with the SHA-256 it was sealed with, then
+re-derives each hazard's group from the values compared and the limits applied (top-down, and never safer
+than its t_max: :mod:`hazard.method.classify`), checks those limits, time bases and fields of view against the
+limit set, that every family of the set is present, that what the spectrum covers was assessed, that a
+standard result sits at the standard's distance, and that the cautions its groups call for are there. A result
+that fails is refused, naming what it says and what its numbers give.
 """
 
 from __future__ import annotations
@@ -12,8 +16,10 @@ import math
 
 import numpy as np
 
+from hazard.cautions import PRE_SCREEN, select_cautions
 from hazard.errors import InputError
 from hazard.method.classify import hazard_groups
+from hazard.method.geometry import MIN_ASSESSMENT_DISTANCE_M
 from hazard.result import Assessment
 from hazard.standards import LIMIT_SETS, LimitSet
 
@@ -62,10 +68,15 @@ def check_result(assessment: Assessment, path: str) -> None:
     InputError
         Naming the hazard, what the result says and what its numbers give.
     """
+    if not assessment.provenance.result_sha256:
+        raise _refuse("the result carries no SHA-256 of its own, so it cannot be trusted as made", path)
+    if assessment.content_sha256() != assessment.provenance.result_sha256:
+        raise _refuse("the result was changed after it was made: its content no longer matches its SHA-256", path)
     limit_set = LIMIT_SETS.get(assessment.provenance.limit_set)
     if limit_set is None:
         raise InputError(f"limit set {assessment.provenance.limit_set!r} is not one this tool knows",
                          f"use a result made with one of: {', '.join(LIMIT_SETS)}", path)
+    _check_against_set(assessment, limit_set, path)
     derived = {}
     for symbol, h in assessment.hazards.items():
         derived[symbol] = _hazard_group(symbol, h, limit_set, path)
@@ -85,3 +96,56 @@ def check_result(assessment: Assessment, path: str) -> None:
     if (assessment.basis == "what-if") != what_if:
         raise _refuse(f"its basis says {assessment.basis} but the record "
                       f"{'asks' if what_if else 'does not ask'} for a what-if distance", path)
+    _check_distance_and_cautions(assessment, limit_set, derived, path)
+
+
+def _check_against_set(a: Assessment, limit_set: LimitSet, path: str) -> None:
+    """Hazards, units, limits, time bases and fields of view as the limit set has them; every family present;
+    what the spectrum covers assessed."""
+    lo, hi = a.spectrum.min_nm, a.spectrum.max_nm
+    no_emission_outside = bool(a.record.get("no_emission_outside", False))
+    for name, members in limit_set.families:
+        present = [m for m in members if m in a.hazards]
+        if len(present) != 1:
+            raise _refuse(f"hazard family {name!r} should appear once among {', '.join(members)}", path)
+    for symbol, h in a.hazards.items():
+        try:
+            spec = limit_set[symbol]
+        except KeyError:
+            raise _refuse(f"hazard {symbol} is not in {limit_set.name}", path) from None
+        covered = no_emission_outside or (lo <= spec.band_nm[0] and hi >= spec.band_nm[1])
+        if h.assessed != covered or h.unit != spec.unit or tuple(h.band_nm) != tuple(spec.band_nm):
+            raise _refuse(f"hazard {symbol}: band, unit or assessed flag differ from the spectrum and "
+                          f"{limit_set.name}", path)
+        if not spec.grouped:
+            continue
+        expected = {}
+        for k, b in enumerate(limit_set.boundaries):
+            coefficient = spec.limits[k]
+            if spec.limits_over_alpha:
+                alpha = h.alpha_rad.get(b, math.nan)
+                low, high = spec.alpha_bounds_rad[k]
+                if not low * (1 - 1e-12) <= alpha <= high * (1 + 1e-12):
+                    raise _refuse(f"hazard {symbol}: α at {b} is outside {low:g}–{high:g} rad", path)
+                coefficient = coefficient / alpha
+            expected[b] = coefficient
+        bases = dict(zip(limit_set.boundaries, spec.time_bases_s))
+        fovs = dict(zip(limit_set.boundaries, spec.fov_rad)) if spec.fov_rad else {}
+        if (any(not math.isclose(h.limits.get(b, math.nan), v, rel_tol=1e-9) for b, v in expected.items())
+                or h.time_bases_s != bases or h.fov_rad != fovs):
+            raise _refuse(f"hazard {symbol}: limits, time bases or fields of view differ from {limit_set.name}",
+                          path)
+
+
+def _check_distance_and_cautions(a: Assessment, limit_set: LimitSet, groups: dict[str, str | None],
+                                 path: str) -> None:
+    """A standard result at the standard's distance; the cautions its groups call for present."""
+    if a.basis == "standard":
+        other = a.record.get("lamp_type", "other") != "gls"
+        at_minimum = math.isclose(a.assessment_distance_mm, MIN_ASSESSMENT_DISTANCE_M * 1e3, rel_tol=1e-9)
+        if (other and not at_minimum) or a.assessment_distance_mm < MIN_ASSESSMENT_DISTANCE_M * 1e3 * (1 - 1e-9):
+            raise _refuse(f"a standard result at {a.assessment_distance_mm:g} mm is not at the standard's "
+                          f"assessment distance", path)
+    needed = select_cautions(limit_set, groups, {}, a.complete, determined=a.risk_group is not None)
+    if not a.cautions or a.cautions[0] != PRE_SCREEN or not set(needed) <= set(a.cautions):
+        raise _refuse("its cautions are not the ones its groups call for", path)

@@ -193,6 +193,10 @@ def _hazard_table(a: Assessment, st: Styles) -> Flowable:
         styles = [st.cell_bold if c in (0, 2) else st.cell for c in range(len(cells))]
         styles[8] = st.cell_bold.clone("group", textColor=group_ink(h.risk_group))
         row = [st.p(text, style) for text, style in zip(cells[:9], styles)]
+        if h.compared and any(v != h.value for v in h.compared.values()):  # field averages: show what was compared
+            for k, b in enumerate(a.limit_set.boundaries):
+                row[4 + k] = st.p("", st.cell, markup=f"{st.text(cells[4 + k])}<br/><font size=6>"
+                                                      f"{st.text('(' + format_value(h.compared[b]) + ')')}</font>")
         rows.append(row + [st.p("", st.cell, markup="<br/>".join(st.text(part) for part in cells[9].split("; ")))])
         extra.append(("BACKGROUND", (8, i), (8, i), group_fill(h.risk_group)))
     header = [top if top != "Limits as applied" and top else below for top, below in zip(head, sub)]
@@ -203,10 +207,10 @@ def _hazard_table(a: Assessment, st: Styles) -> Flowable:
 
 
 def _hazard_caption(st: Styles) -> Flowable:
-    return st.p("L_B, L_R, L_IR: the source's own radiance, compared with field-of-view averages (page 2). "
-                "Thermal limits after the α bounds. t_max: time to the exposure limit (—: not within its range). "
-                "Margin: value ÷ limit at the group's upper boundary (RG3: × RG2 limit). EL only: no groups.",
-                st.caption)
+    return st.p("Radiance hazards: the value is the source's own radiance; the field-of-view average compared with "
+                "each limit is in brackets under it. Limits over α after the α bounds. t_max: time to the exposure "
+                "limit (—: not within its range). Margin: value ÷ limit at the boundary below the hazard's group and "
+                "the one above it. EL only: no groups.", st.caption)
 
 
 _KEY_VALUE_STYLE = [("VALIGN", (0, 0), (-1, -1), "TOP"), ("LEFTPADDING", (0, 0), (-1, -1), 0),

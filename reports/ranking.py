@@ -98,8 +98,8 @@ def rank_assessments(assessments: list[Assessment]) -> list[Assessment]:
     """
     def key(assessment: Assessment) -> tuple[int, bool, float, str]:
         tightest = tightest_margin(assessment)
-        groups = assessment.limit_set.groups
-        rank = len(groups) if assessment.risk_group is None else groups.index(assessment.risk_group)
+        groups, group = assessment.limit_set.groups, assessment.classification_group
+        rank = len(groups) if group is None else groups.index(group)
         return (-rank, not is_borderline(assessment),
                 -(tightest.ratio if tightest else -1.0), assessment.id)
 

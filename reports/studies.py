@@ -10,7 +10,7 @@ from __future__ import annotations
 
 from reportlab.platypus import Flowable, Spacer, Table
 
-from hazard.formatting import UNIT_DISPLAY, format_value
+from hazard.formatting import UNIT_DISPLAY, dimming_percent, distance_beyond_mm, format_value, round_up
 from hazard.result import Assessment, DistanceStudy, Remedy
 from reports.charts import distance_chart
 from reports.layout import FRAME_WIDTH
@@ -45,14 +45,14 @@ def beyond(distance_mm: float | None, study: DistanceStudy, metres: bool = True)
     >>> s = DistanceStudy(distance_mm=[10.0, 1e5], group=["RG1", "Exempt"], family_group={}, t_max_s={},
     ...                   boundaries=[], minimum_distance_mm={}, near_field_below_mm=50.0)
     >>> beyond(1589.66, s), beyond(25.2, s, metres=False), beyond(0.0, s), beyond(None, s)
-    ('1590 mm (1.59 m)', '25 mm', 'from 10 mm', 'not within 100 m')
+    ('1590 mm (1.59 m)', '26 mm', 'from 10 mm', 'not within 100 m')
     """
     if distance_mm is None:
         return f"not within {study.distance_mm[-1] / 1000:g} m"
     if distance_mm == 0:
         return f"from {study.distance_mm[0]:.0f} mm"
-    text = f"{distance_mm:.0f} mm"
-    return text + (f" ({distance_mm / 1000:.3g} m)" if metres and distance_mm >= 1000 else "")
+    text = distance_beyond_mm(distance_mm)
+    return text + (f" ({round_up(distance_mm / 1000)} m)" if metres and distance_mm >= 1000 else "")
 
 
 def minimum_text(study: DistanceStudy, group: str, metres: bool = True) -> str:
@@ -73,7 +73,7 @@ def dimming_text(factor: float | None) -> str:
     """
     if factor is None:
         return "not reachable by dimming"
-    return f"reduce to {factor * 100:.3g} % of today's output"
+    return f"reduce to {dimming_percent(factor)} of today's output"
 
 
 def area_text(factor: float | None) -> str:
@@ -131,7 +131,7 @@ def study_summary(a: Assessment, page: int) -> str | None:
         parts.append(", ".join(distances) + ("" if a.complete else " (assessed hazards only)"))
     exempt = [r for r in _product_remedies(a) if r.group == "Exempt"] if a.remedies is not None else []
     if exempt and exempt[0].dimming_factor is not None:
-        parts.append(f"Exempt at {exempt[0].dimming_factor * 100:.3g} % of today's output")
+        parts.append(f"Exempt at {dimming_percent(exempt[0].dimming_factor)} of today's output")
     return "; ".join(parts) + f" — page {page}" if parts else None
 
 
@@ -301,11 +301,11 @@ def studies_section(a: Assessment, st: Styles) -> list[list[Flowable]]:
                    "range." + (f" No curve ({', '.join(never)}): not reached at any distance studied."
                                if never else "")
                    + " Vertical line and triangle: the assessment distance."
-                   + (f" Shaded: the near field, under {s.near_field_below_mm:.0f} mm (five source sizes), where "
-                      f"inverse-square values are approximate." if near else ""))
+                   + (f" Shaded: the near field, under {distance_beyond_mm(s.near_field_below_mm)} (five source "
+                      f"sizes), where inverse-square values are approximate." if near else ""))
         blocks += [[st.p("Group and t_max against distance", st.h3), chart, st.p(caption, st.caption)],
                    [Spacer(1, 4)], [_distance_table(a, st)],
-                   [Spacer(1, 2), st.p((f"* nearer than {s.near_field_below_mm:.0f} mm: approximate (near "
+                   [Spacer(1, 2), st.p((f"* nearer than {distance_beyond_mm(s.near_field_below_mm)}: approximate (near "
                                         f"field). " if near else "")
                                        + ("" if a.complete else "Incomplete result: the whole-product distances "
                                                                 "cover the assessed hazards only. ")

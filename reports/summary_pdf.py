@@ -43,11 +43,11 @@ def _counts(assessments: list[Assessment], st: Styles) -> Flowable:
     """One labelled cell per group with its count, then the incomplete and borderline counts."""
     cells, style = [], []
     for i, group in enumerate(reversed(GROUPS)):
-        count = sum(a.risk_group == group for a in assessments)
+        count = sum(a.classification_group == group for a in assessments)
         cells.append(st.p(f"{group}: {count}", st.cell_bold.clone(f"n{group}", textColor=group_ink(group),
                                                                    alignment=1)))
         style.append(("BACKGROUND", (i, 0), (i, 0), group_fill(group)))
-    undetermined = sum(a.risk_group is None for a in assessments)
+    undetermined = sum(a.classification_group is None for a in assessments)
     if undetermined:
         cells.append(st.p(f"not determined: {undetermined}", st.cell_bold))
         style.append(("BACKGROUND", (len(cells) - 1, 0), (len(cells) - 1, 0), NEUTRAL))
@@ -67,8 +67,8 @@ def _flags(a: Assessment, st: Styles) -> Flowable:
     contradicted = sum(c.verdict == "contradicted" for c in a.claims)
     by_study = "" if a.uncertainty is None else (f" (within ±{a.uncertainty.uncertainty_pct:g} %, "
                                                  f"±{a.uncertainty.wavelength_uncertainty_nm:g} nm)")
-    what_if = ([f"<b>WHAT-IF</b> at {a.assessment_distance_mm:.0f} mm; standard: "
-                f"{st.text(group_words(a.standard_risk_group, a.complete))}"] if a.basis == "what-if" else [])
+    what_if = ([f"<b>WHAT-IF</b> at {a.assessment_distance_mm:.0f} mm gives "
+                f"{st.text(group_words(a.risk_group, a.complete))}"] if a.basis == "what-if" else [])
     flags = what_if + ([f"<b>BORDERLINE</b>{by_study}"] if is_borderline(a) else []) + (
         [f"<b>{contradicted}</b> vendor claim{'s' if contradicted > 1 else ''} <b>CONTRADICTED</b>"]
         if contradicted else [])
@@ -97,13 +97,14 @@ def _ranked_table(assessments: list[Assessment], st: Styles) -> Flowable:
             h = a.hazards[tightest.symbol]
             margin = f"{tightest.symbol}: {format_margin(h.risk_group, h.margins)}"
         rows.append([st.p(str(rank), st.cell), st.p(a.id, st.cell_bold), st.p(a.name or "—", st.cell),
-                     st.p(group_words(a.risk_group, a.complete),
-                          st.cell_bold.clone("g", textColor=group_ink(a.risk_group))),
+                     st.p(group_words(a.classification_group, a.complete),
+                          st.cell_bold.clone("g", textColor=group_ink(a.classification_group))),
                      st.p("yes", st.cell) if a.complete else
                      st.bold_lead("INCOMPLETE", f"lower bound; not assessed: {', '.join(a.not_assessed)}", st.cell),
                      st.p(", ".join(a.deciding_hazards) or "—", st.cell), st.p(margin, st.cell),
                      *([st.p(_min_distance(a), st.cell)] if distances else []), _flags(a, st)])
-        extra.append(("BACKGROUND", (3, rank), (3, rank), group_fill(a.risk_group) if a.risk_group else NEUTRAL))
+        group = a.classification_group
+        extra.append(("BACKGROUND", (3, rank), (3, rank), group_fill(group) if group else NEUTRAL))
     if len(rows) == 1:
         rows.append([st.p("no products assessed", st.cell)] + [""] * (len(head) - 1))
         extra.append(("SPAN", (0, 1), (-1, 1)))

@@ -32,10 +32,12 @@ def _cli(*args, cwd=None):
 
 
 def _without_record_input(result: dict) -> dict:
-    """A result with the record's own provenance entry removed (a manifest row has no TOML file)."""
+    """A result with the record's own provenance entry removed (a manifest row has no TOML file), and so the seal
+    over its content."""
     result = json.loads(json.dumps(result))
     spectrum = result["record"]["spectrum"]
     result["provenance"]["inputs"] = {spectrum: result["provenance"]["inputs"][spectrum]}
+    result["provenance"]["result_sha256"] = ""
     return result
 
 

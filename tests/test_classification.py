@@ -18,7 +18,7 @@ from hypothesis import strategies as st
 from hazard.cli import main
 from hazard.engine import build_assessment, evaluate_loaded
 from hazard.inputs import LoadedProduct
-from hazard.method.geometry import SourceShape, cone_solid_angle_sr, disc_rectangle_area
+from hazard.method.geometry import SourceShape, cone_rectangle_solid_angle, cone_solid_angle_sr
 from hazard.record import ProductRecord
 from hazard.spectrum import validate_spectrum
 from hazard.standards import GROUPS
@@ -172,14 +172,27 @@ def test_thin_strip_fills_the_field_only_along_its_length():
     assert radiance / l_b.compared["RG1"] > 15
 
 
-def test_disc_rectangle_area_against_a_dense_sum():
-    # An independent numeric integral: the area of {x² + y² ≤ r²} ∩ {|x| ≤ p, |y| ≤ q} summed on a fine grid
-    x = np.linspace(-1.5, 1.5, 3001)
-    xx, yy = np.meshgrid(x, x)
-    cell = (x[1] - x[0]) ** 2
-    for r, p, q in ((1.0, 0.3, 2.0), (1.0, 0.7, 0.8), (0.5, 1.0, 1.0), (1.2, 1.0, 0.2)):
-        dense = np.sum((xx ** 2 + yy ** 2 <= r ** 2) & (np.abs(xx) <= p) & (np.abs(yy) <= q)) * cell
-        assert float(disc_rectangle_area(r, p, q)) == pytest.approx(dense, rel=5e-3)
+def test_cone_rectangle_solid_angle_against_a_dense_sum():
+    # An independent numeric integral: the solid angle of {x² + y² ≤ tan²θ} ∩ {|x| ≤ p, |y| ≤ q} in the plane at
+    # unit distance, summing the solid-angle kernel 1/(1 + x² + y²)^{3/2} on a fine grid (definition of the solid
+    # angle of a flat region seen from a point)
+    for theta, p, q in ((0.0055, 0.0025, 3.0), (0.0055, 0.002, 0.004), (0.05, 0.03, 0.02), (0.05, 0.06, 0.01)):
+        reach = math.tan(theta)
+        x = np.linspace(-min(p, reach), min(p, reach), 4001)
+        y = np.linspace(-min(q, reach), min(q, reach), 4001)
+        xx, yy = np.meshgrid(x, y)
+        kernel = (xx ** 2 + yy ** 2 <= reach ** 2) / (1 + xx ** 2 + yy ** 2) ** 1.5
+        dense = np.trapezoid(np.trapezoid(kernel, y, axis=0), x)
+        assert float(cone_rectangle_solid_angle(np.array(theta), np.array(p), np.array(q))) == pytest.approx(
+            dense, rel=5e-5)  # the grid's staircase edge of the circle limits the sum's own accuracy
+
+
+def test_long_strip_field_fraction_on_the_sphere():
+    # A 1 × 1200 mm strip at 200 mm, 11 mrad field: a flat drawing of the strip with its area Ω_s narrows its
+    # central width; on the sphere the cone holds 0.5581 of its area (independent review: exact integration and
+    # Monte Carlo gave 0.5581)
+    strip = SourceShape(np.array([0.001]), np.array([1.2]))
+    assert float(strip.field_fraction(0.2, 0.011)[0]) == pytest.approx(0.5581, abs=1e-4)
 
 
 def test_disc_sources_keep_e_over_the_larger_solid_angle():
@@ -246,12 +259,31 @@ def test_what_if_is_never_mistaken_for_a_classification(tmp_path, monkeypatch):
     (tmp_path / "manifest.csv").write_text("id,spectrum,distance_mm,source_diameter_mm,no_emission_outside,"
                                            "at_distance_mm\nA,uv.csv,200,5,true,5000\nB,uv.csv,200,5,true,\n")
     batch = CliRunner().invoke(main, ["batch", "manifest.csv", "--output", "out"])
-    assert "WHAT-IF at 5000 mm" in batch.stdout
+    row_a = next(line for line in batch.stdout.splitlines() if line.startswith("A "))
+    assert row_a.split()[1] == far["risk_group"] and "WHAT-IF at 5000 mm gives Exempt" in row_a
     import csv
 
     rows = list(csv.DictReader((tmp_path / "out" / "summary.csv").open()))
     assert [r["basis"] for r in rows] == ["what-if", "standard"]
-    assert rows[0]["standard_risk_group"] == far["risk_group"]
+    # the classification column always holds the standard's group; the what-if has its own columns
+    assert [r["risk_group"] for r in rows] == [far["risk_group"]] * 2
+    assert rows[0]["what_if_risk_group"] == "Exempt" and rows[0]["what_if_distance_mm"] == "5000.0"
+
+
+def test_claims_and_cautions_follow_the_standard_distance_not_the_what_if(tmp_path, monkeypatch):
+    # A UV lamp that is RG2 at the standard's 200 mm and Exempt at 5 m: a claim of Exempt is contradicted (claims
+    # are about the classification), and the UV caution stays (a what-if never lowers a caution)
+    write_spectrum(tmp_path / "uv.csv", GRID, triangle_line(GRID, 365.0, 50.0))
+    (tmp_path / "uv.toml").write_text('id = "UV"\nspectrum = "uv.csv"\ndistance_mm = 200.0\nsource_diameter_mm = 5.0\n'
+                                      'no_emission_outside = true\nat_distance_mm = 5000.0\n'
+                                      'claimed_risk_group = "Exempt"\n')
+    monkeypatch.chdir(tmp_path)
+    check = CliRunner().invoke(main, ["check", "uv.toml"])
+    assert check.exit_code == 4, check.stdout
+    assert "computed RG2 at the standard's distance" in check.stdout and "not used for claims" in check.stdout
+    result = json.loads(CliRunner().invoke(main, ["assess", "uv.toml", "--format", "json"]).stdout)
+    assert result["risk_group"] == "Exempt" and result["standard_risk_group"] == "RG2"
+    assert any(c.startswith("Ultraviolet emission") for c in result["cautions"])
 
 
 @pytest.mark.parametrize(("header", "problem"), [
@@ -303,13 +335,34 @@ def test_report_refuses_a_result_whose_groups_do_not_follow_from_its_numbers(tmp
     (tmp_path / "edited.json").write_text(json.dumps(edited))
     refused = CliRunner().invoke(main, ["report", "edited.json", "--output", "edited.pdf"])
     assert refused.exit_code == 2 and not (tmp_path / "edited.pdf").exists()
-    # the first hazard that disagrees is named (E_S: S_UV(365) = 1.1e-4, so 150 W/m² give E_S ≈ 0.017 W/m², RG2)
+    assert "edited.json: the result was changed after it was made" in refused.stderr
+    # the same edit with its SHA-256 recomputed: the groups still have to follow from the numbers; the first
+    # hazard that disagrees is named (E_S: S_UV(365) = 1.1e-4, so 150 W/m² give E_S ≈ 0.017 W/m², RG2)
+    from hazard.result import Assessment
+
+    resealed = Assessment.model_validate(edited).sealed()
+    (tmp_path / "resealed.json").write_text(resealed.model_dump_json())
+    refused = CliRunner().invoke(main, ["report", "resealed.json", "--output", "resealed.pdf"])
+    assert refused.exit_code == 2
     assert "hazard E_S says Exempt but the compared values and limits give RG2" in refused.stderr
+    for change in (lambda r: r["hazards"].pop("E_S"),                                  # a family left out
+                   lambda r: r["hazards"]["E_S"].update(limits={k: v * 1000 for k, v in  # limits not the set's
+                                                                r["hazards"]["E_S"]["limits"].items()}),
+                   lambda r: r.update(cautions=[]),                                     # cautions emptied
+                   lambda r: r.update(assessment_distance_mm=20000.0)):                 # not the standard's
+        tampered = json.loads(json.dumps(result))
+        change(tampered)
+        for h in tampered["hazards"].values():  # keep the margins consistent with the changed limits
+            h["margins"] = {b: h["compared"][b] / h["limits"][b] for b in h["limits"]} if h["compared"] else {}
+        (tmp_path / "t.json").write_text(Assessment.model_validate(tampered).sealed().model_dump_json())
+        refused = CliRunner().invoke(main, ["report", "t.json", "--output", "t.pdf"])
+        assert refused.exit_code == 2 and refused.stderr.count("\n") == 1, refused.stderr
     # one line of a batch's results.jsonl, by id
-    (tmp_path / "results.jsonl").write_text(json.dumps(edited) + "\n" + json.dumps({**result, "id": "B"}) + "\n")
+    (tmp_path / "results.jsonl").write_text(json.dumps(edited) + "\n" + Assessment.model_validate(
+        {**result, "id": "B"}).sealed().model_dump_json() + "\n")
     assert CliRunner().invoke(main, ["report", "results.jsonl", "--id", "B", "--output", "b.pdf"]).exit_code == 0
     line = CliRunner().invoke(main, ["report", "results.jsonl", "--id", "uv", "--output", "c.pdf"])
-    assert line.exit_code == 2 and "says Exempt" in line.stderr
+    assert line.exit_code == 2 and "changed after it was made" in line.stderr
 
 
 def test_margins_name_the_boundary_below_and_above(tmp_path):

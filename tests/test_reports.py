@@ -356,10 +356,11 @@ def test_summary_without_failures_says_so_in_a_sentence(lineup):
 
 def test_summary_shows_the_minimum_distance_to_exempt(lineup):
     # project contract: issue "Beyond the label", a "min. distance to Exempt" column when distances are present;
-    # the heater is Exempt beyond 1590 mm (test_heater_distances_and_remedies_are_printed)
+    # the heater is Exempt beyond 1590 mm (test_heater_distances_and_remedies_are_printed); its E_IR is 1.974× the
+    # RG2 limit, printed rounded up (hazard.formatting: a multiple over a limit is never printed smaller)
     heater = lineup["cl-heat-2k"]
     text = " ".join(_pages(render_summary_pdf([heater, lineup["cl-desk-30"]], [], RENDERED_AT)))
-    assert "Min. distance to Exempt" in text and re.search(r"CL-HEAT-2K .* 2× RG2 limit 1590 mm", text)
+    assert "Min. distance to Exempt" in text and re.search(r"CL-HEAT-2K .* 1.98× RG2 limit 1590 mm", text)
     bare = heater.model_copy(update={"distances": None})
     assert "Min. distance to Exempt" not in " ".join(_pages(render_summary_pdf([bare], [], RENDERED_AT)))
 

@@ -10,7 +10,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-__all__ = ["SourceShape", "FieldGeometry", "cone_solid_angle_sr", "inverse_square_factor", "disc_rectangle_area",
+__all__ = ["SourceShape", "FieldGeometry", "cone_solid_angle_sr", "inverse_square_factor", "cone_rectangle_solid_angle",
            "GLS_ILLUMINANCE_LX", "MIN_ASSESSMENT_DISTANCE_M", "FIVE_TIMES_RULE"]
 
 GLS_ILLUMINANCE_LX = 500.0
@@ -23,46 +23,54 @@ source beyond photometric habit) [1]."""
 
 
 def cone_solid_angle_sr(full_angle_rad: np.ndarray | float) -> np.ndarray:
-    """Solid angle of a cone of full plane angle γ: Ω = 2π(1 − cos(γ/2)) [sr].
+    """Solid angle of a cone of full plane angle γ: Ω = 2π(1 − cos(γ/2)) = 4π·sin²(γ/4) [sr] (the second form
+    keeps its precision for the smallest angles).
 
     Examples
     --------
     >>> f"{float(cone_solid_angle_sr(0.01)):.4e}"
     '7.8540e-05'
     """
-    return 2 * np.pi * (1 - np.cos(np.asarray(full_angle_rad, dtype=float) / 2))
+    return 4 * np.pi * np.sin(np.asarray(full_angle_rad, dtype=float) / 4) ** 2
 
 
-def disc_rectangle_area(radius: np.ndarray, half_width: np.ndarray, half_height: np.ndarray) -> np.ndarray:
-    """Area of a disc of ``radius`` clipped by a rectangle of the given half-sides, both centred at the origin
-    [unit²].
+def _edge(a: np.ndarray, half: np.ndarray) -> np.ndarray:
+    """a − asin(sin a/√(1 + half²)) without cancellation: atan2 of sin and cos of the difference [rad]."""
+    root = np.sqrt(np.cos(a) ** 2 + half ** 2)
+    return np.arctan2(np.sin(a) * half ** 2 / (root + np.cos(a)), np.cos(a) * root + np.sin(a) ** 2)
 
-    Exact: four times the quarter ∫₀^min(p, r) min(q, √(r² − x²)) dx, with
-    ∫₀^x √(r² − t²) dt = (x·√(r² − x²) + r²·asin(x/r))/2.
+
+def cone_rectangle_solid_angle(cone_half_angle_rad: np.ndarray, half_width: np.ndarray, half_height: np.ndarray
+                               ) -> np.ndarray:
+    """Solid angle of a flat rectangle seen on axis, clipped by a cone about the same axis [sr]; the rectangle's
+    half-sides are given relative to its distance (p/d, q/d) [1].
+
+    Exact on the sphere: in polar angle φ about the axis the region reaches out to the nearer of the cone
+    (tan θ at unit distance) and the rectangle's edge, and ∫₀^R r dr/(1 + r²)^{3/2} = 1 − 1/√(1 + R²). Along the
+    cone that gives 1 − cos θ per radian of φ; along the edge x = p it integrates in closed form to
+    φ − asin(sin φ/√(1 + p²)) (and likewise along y = q), so no numerical integration is needed.
 
     Examples
     --------
-    >>> float(disc_rectangle_area(1.0, 2.0, 2.0)) / np.pi  # the disc inside the rectangle
-    1.0
-    >>> float(disc_rectangle_area(2.0, 0.5, 1.0))  # the rectangle inside the disc
-    2.0
-    >>> round(float(disc_rectangle_area(1.0, 0.01, 5.0)), 5)  # a thin strip across: width × chord
-    0.04
+    >>> p, q = np.array(0.05), np.array(0.02)
+    >>> whole = 4 * np.arcsin(np.sin(np.arctan(p)) * np.sin(np.arctan(q)))  # the rectangle alone
+    >>> bool(np.isclose(cone_rectangle_solid_angle(np.array(0.5), p, q), whole, rtol=1e-12))
+    True
+    >>> bool(np.isclose(cone_rectangle_solid_angle(np.array(0.001), p, q), cone_solid_angle_sr(0.002), rtol=1e-12))
+    True
     """
-    r = np.asarray(radius, dtype=float)
+    theta = np.asarray(cone_half_angle_rad, dtype=float)
     p = np.asarray(half_width, dtype=float)
     q = np.asarray(half_height, dtype=float)
-
-    def under_circle(x):
-        x = np.minimum(x, r)
-        with np.errstate(invalid="ignore", divide="ignore"):
-            return 0.5 * (x * np.sqrt(np.maximum(r ** 2 - x ** 2, 0.0)) + r ** 2 * np.arcsin(np.clip(x / r, 0, 1)))
-
-    x_end = np.minimum(p, r)
-    x_cap = np.sqrt(np.maximum(r ** 2 - q ** 2, 0.0))  # for x below this the circle is above the rectangle's top
-    flat = np.where(q < r, q * np.minimum(x_end, x_cap), 0.0)
-    curved = under_circle(x_end) - under_circle(np.where(q < r, np.minimum(x_end, x_cap), 0.0))
-    return 4 * (flat + curved)
+    reach = np.tan(theta)
+    corner = np.arctan2(q, p)                               # φ of the rectangle's corner
+    right = np.arccos(np.minimum(p / reach, 1.0))           # the edge x = p lies inside the cone for φ below this
+    top = np.arcsin(np.minimum(q / reach, 1.0))             # the edge y = q lies inside the cone for φ above this
+    cap = 2 * np.sin(theta / 2) ** 2                        # 1 − cos θ
+    a1 = np.minimum(corner, right)
+    a2 = np.maximum(corner, top)
+    quarter = _edge(a1, p) + (corner - a1) * cap + (a2 - corner) * cap + _edge(np.pi / 2 - a2, q)
+    return 4 * quarter
 
 
 def inverse_square_factor(from_m: np.ndarray | float, to_m: np.ndarray | float) -> np.ndarray:
@@ -117,7 +125,7 @@ class SourceShape:
     def solid_angle_sr(self, distance_m: np.ndarray | float) -> np.ndarray:
         """Solid angle Ω_s the source subtends at ``distance_m``, on axis [sr].
 
-        Disc: 2π(1 − cos θ), θ = atan(D/2d). Rectangle: 4·asin(sin a · sin b), a = atan(w/2d),
+        Disc: 2π(1 − cos θ) = 4π·sin²(θ/2), θ = atan(D/2d). Rectangle: 4·asin(sin a · sin b), a = atan(w/2d),
         b = atan(h/2d).
 
         Examples
@@ -127,7 +135,7 @@ class SourceShape:
         1.0
         """
         d = np.asarray(distance_m, dtype=float)
-        disc = 2 * np.pi * (1 - np.cos(np.arctan(self.width_m / (2 * d))))
+        disc = 4 * np.pi * np.sin(np.arctan(self.width_m / (2 * d)) / 2) ** 2
         a = np.arctan(self.width_m / (2 * d))
         b = np.arctan(np.where(self.is_disc, self.width_m, self.height_m) / (2 * d))
         return np.where(self.is_disc, disc, 4 * np.arcsin(np.sin(a) * np.sin(b)))
@@ -136,12 +144,11 @@ class SourceShape:
         """The sources as seen from ``distance_m``, ready for field-of-view fractions (:class:`FieldGeometry`)."""
         d = np.asarray(distance_m, dtype=float)
         omega_s = self.solid_angle_sr(d)
-        a = np.arctan(self.width_m / (2 * d))
-        b = np.arctan(np.where(self.is_disc, self.width_m, self.height_m) / (2 * d))
-        with np.errstate(divide="ignore", invalid="ignore"):
-            stretch = np.sqrt(omega_s / (4 * a * b))  # rectangle of area Ω_s with the source's aspect
-        return FieldGeometry(omega_s=np.broadcast_to(omega_s, self.width_m.shape), half_width=a * stretch,
-                             half_height=b * stretch, is_disc=self.is_disc)
+        half_width = np.broadcast_to(self.width_m / (2 * d), self.width_m.shape)
+        half_height = np.broadcast_to(np.where(self.is_disc, self.width_m, self.height_m) / (2 * d),
+                                      self.width_m.shape)
+        return FieldGeometry(omega_s=np.broadcast_to(omega_s, self.width_m.shape), half_width=half_width,
+                             half_height=half_height, is_disc=self.is_disc)
 
     def field_fraction(self, distance_m: np.ndarray | float, fov_rad: np.ndarray | float) -> np.ndarray:
         """Fraction of a field of view γ that the source fills (:meth:`FieldGeometry.fraction`) [1].
@@ -175,15 +182,14 @@ class SourceShape:
 
 @dataclass(frozen=True)
 class FieldGeometry:
-    """Sources as seen from one distance each, drawn in a plane of angles with their exact solid angles: a disc
-    of area Ω_s, or a rectangle of the source's aspect with area Ω_s.
+    """Sources as seen from one distance each.
 
     Attributes
     ----------
     omega_s : numpy.ndarray
         Source solid angle Ω_s [sr].
     half_width, half_height : numpy.ndarray
-        Half-sides of the equal-solid-angle rectangle [rad] (unused for discs).
+        Half-sides of a rectangle over its distance, w/2d and h/2d [1] (unused for discs).
     is_disc : numpy.ndarray
         True where the source is a disc.
     """
@@ -202,16 +208,16 @@ class FieldGeometry:
         """Fraction of a field of view γ (a cone, Ω_γ = 2π(1 − cos(γ/2))) that the source fills, the cone
         centred on the source (where it catches most of a centrally symmetric source) [1].
 
-        area(cone ∩ source)/Ω_γ with the cone drawn as a disc of area Ω_γ (method §4): exactly Ω_s/Ω_γ when
+        Ω(cone ∩ source)/Ω_γ, exact on the sphere (method §4; :func:`cone_rectangle_solid_angle`): Ω_s/Ω_γ when
         the cone holds the whole source and 1 when the source fills the cone, so a uniform source's field
-        average is L·fraction and a disc source's reduces to E/max(Ω_s, Ω_γ). A long thin source (a filament,
-        an LED strip) fills a cone only along its length: its fraction is about width × chord / Ω_γ.
+        average is L·fraction and a disc source's is E/max(Ω_s, Ω_γ). A long thin source (a filament, an LED
+        strip) fills a cone only along its length: its fraction is about width × chord / Ω_γ.
         """
-        omega_g = np.broadcast_to(cone_solid_angle_sr(fov_rad), self.omega_s.shape)
-        overlap = np.minimum(self.omega_s, omega_g)  # discs: the smaller of two concentric discs
+        fov = np.broadcast_to(np.asarray(fov_rad, dtype=float), self.omega_s.shape)
+        omega_g = cone_solid_angle_sr(fov)
+        overlap = np.minimum(self.omega_s, omega_g)  # discs: the smaller of two concentric cones
         rect = ~self.is_disc
         if rect.any():
             overlap = overlap.copy()
-            overlap[rect] = disc_rectangle_area(np.sqrt(omega_g[rect] / np.pi), self.half_width[rect],
-                                                self.half_height[rect])
+            overlap[rect] = cone_rectangle_solid_angle(fov[rect] / 2, self.half_width[rect], self.half_height[rect])
         return np.minimum(overlap / omega_g, 1.0)
