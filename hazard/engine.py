@@ -18,6 +18,7 @@ from hazard.distances import distance_study
 from hazard.evaluate import Evaluation, ProductArrays, evaluate, integral_specs
 from hazard.formatting import format_duration_s
 from hazard.geometry import FIVE_TIMES_RULE, SourceShape
+from hazard.guard import require_finite
 from hazard.hazards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
 from hazard.inputs import LoadedProduct, load_product, product_from_record
 from hazard.integrals import Integrated, integrate_spectra
@@ -419,7 +420,7 @@ def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int,
     d_a_mm = float(ev.assessment_distance_m[i]) * 1e3
     tables = {name: {"symbol": t.symbol, "source": t.metadata["source"], "edition": t.metadata["edition"],
                      "sha256": t.sha256} for name in TABLE_NAMES for t in [load_table(name)]}
-    return Assessment(
+    return require_finite(Assessment(
         id=record.id, name=record.name, risk_group=overall, complete=bool(ev.complete[i]),
         assessment_distance_mm=d_a_mm, alpha_rad=float(ev.alpha_rad[i]),
         illuminance_lx=float(ev.illuminance_lx[i]), hazards=hazards,
@@ -445,7 +446,7 @@ def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int,
                             illuminance_at_record_distance_lx=_illuminance_at_record_distance(record, ev, i),
                             assessment_distance_mm=d_a_mm, tolerances=tolerances),
         provenance=Provenance(tool_version=__version__, limit_set=limit_set.name, tables=tables,
-                              inputs=dict(sorted(loaded.inputs.items())), method=METHOD_TEXT))
+                              inputs=dict(sorted(loaded.inputs.items())), method=METHOD_TEXT)))
 
 
 def assess(product: str | Path | ProductRecord | LoadedProduct, overrides: dict | None = None,

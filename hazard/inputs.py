@@ -4,19 +4,24 @@ from __future__ import annotations
 
 import hashlib
 import math
+import os
 from dataclasses import dataclass
 from pathlib import Path
 
-from hazard.errors import InputError
+from hazard.errors import InputError, excerpt
 from hazard.photometry import VISIBLE_BAND_NM
 from hazard.readers import read_spectrum
-from hazard.record import ProductRecord, load_record, record_from_fields
+from hazard.record import ProductRecord, read_record_file, record_from_fields
 from hazard.spectrum import Spectrum, validate_spectrum
 from hazard.units import SpectralUnit, parse_spectral_unit
+from hazard.userfiles import regular_file_size
 from hazard.weighting import quadrature_weights
 from weighting_tables import load_table
 
-__all__ = ["LoadedProduct", "load_product", "product_from_record"]
+__all__ = ["LoadedProduct", "load_product", "product_from_record", "spectrum_path", "ALLOW_OUTSIDE_OPTION"]
+
+ALLOW_OUTSIDE_OPTION = "--allow-outside"
+"""The option that lets a record name a spectrum outside its own folder tree."""
 
 RECORD_SUFFIXES = (".toml",)
 
@@ -48,7 +53,12 @@ def _resolve_unit(record: ProductRecord, header_unit: str | None, origin: str) -
         return SpectralUnit("relative", 1.0, record.effective_quantity == "radiance")
     if header_unit is None:
         return parse_spectral_unit(record.unit_text)
-    stated = parse_spectral_unit(header_unit)
+    try:
+        stated = parse_spectral_unit(header_unit)
+    except ValueError:
+        raise InputError(f"the spectrum file states the unit {excerpt(header_unit)}, which is not a spectral "
+                         f"irradiance or radiance unit this tool reads", "correct the unit in the file (e.g. "
+                         "W/m2/nm, mW/m2/nm, uW/cm2/nm, W/m2/sr/nm)", origin) from None
     if record.unit is None:
         if stated.per_steradian != (record.quantity == "radiance"):
             raise InputError(f"the file's header gives {header_unit!r}, which does not fit quantity "
@@ -70,8 +80,36 @@ def _check_anchorable(spectrum: Spectrum, origin: str) -> None:
                          "give an absolute spectrum (irradiance or radiance) instead", origin)
 
 
+def spectrum_path(record: ProductRecord, base_dir: Path, origin: str, root: Path | None) -> Path:
+    """The spectrum file a record names, relative to ``base_dir``; with ``root``, it must lie inside that
+    folder tree (symbolic links resolved), so a record from elsewhere cannot make the tool read, or tell
+    about, files outside it.
+
+    Raises
+    ------
+    InputError
+        No spectrum named, or (with ``root``) an absolute path or one that leads out of ``root``.
+    """
+    if not record.spectrum:
+        raise InputError("the record names no spectrum file", "add spectrum = \"FILE.csv\"", origin)
+    path = base_dir / record.spectrum
+    if root is None:
+        return path
+    fix = (f"keep the spectra in the folder of the record or manifest (or below it), or give "
+           f"{ALLOW_OUTSIDE_OPTION} if you trust where it points")
+    if "\x00" in record.spectrum:
+        raise InputError("the spectrum path contains a NUL byte", "remove the control character", origin)
+    if Path(record.spectrum).is_absolute() or Path(record.spectrum).drive:
+        raise InputError(f"spectrum path {excerpt(record.spectrum)} is absolute", fix, origin)
+    top = os.path.realpath(root)
+    if os.path.commonpath([top, os.path.realpath(path)]) != top:
+        raise InputError(f"spectrum path {excerpt(record.spectrum)} leads outside the folder {excerpt(root, 80)}",
+                         fix, origin)
+    return path
+
+
 def product_from_record(record: ProductRecord, base_dir: Path, origin: str,
-                        record_inputs: dict[str, str] | None = None) -> LoadedProduct:
+                        record_inputs: dict[str, str] | None = None, *, root: Path | None = None) -> LoadedProduct:
     """Read the spectrum a record names, relative to ``base_dir``.
 
     Parameters
@@ -83,11 +121,11 @@ def product_from_record(record: ProductRecord, base_dir: Path, origin: str,
         Where the record came from, for messages.
     record_inputs : dict, optional
         Hashes of the record's own file(s), to carry into the provenance.
+    root : Path, optional
+        Folder tree the spectrum must lie in (see :func:`spectrum_path`); anywhere when None.
     """
-    if not record.spectrum:
-        raise InputError("the record names no spectrum file", "add spectrum = \"FILE.csv\"", origin)
-    raw, metadata = read_spectrum(str(base_dir / record.spectrum), display_path=record.spectrum,
-                                  column=record.column)
+    path = spectrum_path(record, base_dir, origin, root)
+    raw, metadata = read_spectrum(str(path), display_path=record.spectrum, column=record.column)
     unit = _resolve_unit(record, raw.unit, origin)
     metadata["unit_used"] = unit.text
     spectrum = validate_spectrum(raw.wavelength_nm, raw.value, raw.lines, raw.path, unit.factor_to_si,
@@ -99,7 +137,7 @@ def product_from_record(record: ProductRecord, base_dir: Path, origin: str,
     return LoadedProduct(record=record, spectrum=spectrum, inputs=inputs, metadata=metadata)
 
 
-def load_product(path: str | Path, overrides: dict | None = None) -> LoadedProduct:
+def load_product(path: str | Path, overrides: dict | None = None, *, allow_outside: bool = True) -> LoadedProduct:
     """Load a product from a TOML record, or from a spectrum file with ``overrides`` as its record fields.
 
     Parameters
@@ -108,6 +146,10 @@ def load_product(path: str | Path, overrides: dict | None = None) -> LoadedProdu
         ``RECORD.toml`` or a spectrum file.
     overrides : dict, optional
         Record fields given as options; they replace the record's own.
+    allow_outside : bool
+        Let a TOML record name a spectrum outside its own folder tree (absolute, or leading out with ``..``
+        or a symbolic link). The command line refuses that unless told otherwise; from Python, a record you
+        pass is trusted.
 
     Raises
     ------
@@ -116,11 +158,14 @@ def load_product(path: str | Path, overrides: dict | None = None) -> LoadedProdu
     path = Path(path)
     overrides = {k: v for k, v in (overrides or {}).items() if v is not None}
     if path.suffix.lower() in RECORD_SUFFIXES:
-        record = load_record(path, overrides)
-        digest = hashlib.sha256(path.read_bytes()).hexdigest()
-        return product_from_record(record, path.parent, str(path), {path.name: digest})
-    if not path.exists():
-        raise InputError("file not found", "give a RECORD.toml or a spectrum file that exists", str(path))
+        fields, text, raw = read_record_file(path)
+        fields.update(overrides)
+        record = record_from_fields(fields, path=str(path), text=text)
+        digest = hashlib.sha256(raw).hexdigest()
+        return product_from_record(record, path.parent, str(path), {path.name: digest},
+                                   root=None if allow_outside else path.parent)
+    regular_file_size(path, what="file", display=str(path),
+                      fix_missing="give a RECORD.toml or a spectrum file that exists")
     fields = {"id": path.stem, **overrides, "spectrum": path.name}
     record = record_from_fields(fields, path="command line", option_names=True)
     return product_from_record(record, path.parent, str(path))

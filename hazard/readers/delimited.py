@@ -15,13 +15,13 @@ import re
 
 import numpy as np
 
-from hazard.errors import InputError
+from hazard.errors import InputError, excerpt
 from hazard.readers.common import Limits, RawSpectrum, current_limits, decode_text, read_bytes
 from hazard.readers.headers import choose_value_column, header_unit, wavelength_scale
 
 __all__ = ["read_delimited"]
 
-_NUMBER = re.compile(r"^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$")
+_NUMBER = re.compile(r"^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$")  # unambiguous: linear time on any cell
 _DECIMAL_COMMA = re.compile(r"^[+-]?\d+,\d+([eE][+-]?\d+)?$")
 _SPECIALS = ("nan", "inf", "-inf", "+inf")
 
@@ -59,7 +59,7 @@ def _metadata_item(line: str) -> tuple[str, str] | None:
 
 
 def _careful(lines: list[str], start: int, delimiter: str | None, decimal_comma: bool, width: int,
-             path: str) -> np.ndarray:
+             path: str, limits: Limits) -> tuple[np.ndarray, np.ndarray]:
     """Parse row by row, raising for the first bad line; rows (n, width) and their line numbers."""
     rows, numbers = [], []
     for number, line in enumerate(lines[start:], start=start + 1):
@@ -71,15 +71,22 @@ def _careful(lines: list[str], start: int, delimiter: str | None, decimal_comma:
             raise InputError(f"{len(cells)} cells where the table has {width}", "give every row the same columns",
                              path, number)
         for cell in cells:
+            _check_cell_length(cell, limits, path, number)
             if not cell:
                 raise InputError("empty cell in a number column (the file may be truncated)",
                                  "export the spectrum again, or remove the incomplete row", path, number)
             if not _is_number(cell):
-                raise InputError(f"text {cell!r} in a number column",
+                raise InputError(f"text {excerpt(cell)} in a number column",
                                  "use plain numbers (decimal point or decimal comma, consistently)", path, number)
         rows.append([float(c) for c in cells])
         numbers.append(number)
     return np.array(rows, dtype=float).reshape(-1, width), np.array(numbers, dtype=int)
+
+
+def _check_cell_length(cell: str, limits: Limits, path: str, line: int) -> None:
+    if len(cell) > limits.max_cell_chars:
+        raise InputError(f"a cell of {len(cell):,} characters", f"keep cells under {limits.max_cell_chars:,} "
+                         f"characters: a number, a column name or a unit", path, line)
 
 
 def _lines_from(text: str):
@@ -137,7 +144,7 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
     """
     limits = limits or current_limits()
     raw, digest = read_bytes(path, display_path, limits)
-    if raw.count(b"\n") > limits.max_rows + 1000:
+    if max(raw.count(b"\n"), raw.count(b"\r")) > limits.max_rows + 1000:
         raise InputError(f"more than {limits.max_rows:,} rows", "resample the spectrum to a coarser grid",
                          display_path)
     text = decode_text(raw, display_path)
@@ -169,6 +176,11 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
         raise InputError("no data rows", "give two columns: wavelength in nm, then the spectral value",
                          display_path)
     width = len(cells)
+    if width > limits.max_columns:
+        raise InputError(f"{width:,} columns, above the {limits.max_columns:,} limit", "keep the wavelength and "
+                         "the value columns you need", display_path, index + 1)
+    for cell in cells:
+        _check_cell_length(cell, limits, display_path, index + 1)
     header = None
     if preamble:
         last_number, last_line = preamble[-1]
@@ -176,15 +188,17 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
         if len(header_cells) == width:
             if any(_is_number(c) for c in _cells(last_line, delimiter, decimal_comma)[1:]):
                 bad = header_cells[0]  # numbers beside it: a data row whose first cell is mistyped
-                raise InputError(f"text {bad!r} in a number column", "use plain numbers (a letter O or l for a "
+                raise InputError(f"text {excerpt(bad)} in a number column", "use plain numbers (a letter O or l for a "
                                  "digit is a common slip)", display_path, last_number)
+            for cell in header_cells:
+                _check_cell_length(cell, limits, display_path, last_number)
             header = header_cells
             preamble = preamble[:-1]
     metadata = dict(item for _, line in preamble if (item := _metadata_item(line)) is not None)
     value_index = choose_value_column(header, width, column, display_path)
     parsed = _fast(text[body_offset:], start, delimiter, decimal_comma, width)
     table, numbers = parsed if parsed is not None else _careful(text.split("\n"), start, delimiter, decimal_comma,
-                                                                width, display_path)
+                                                                width, display_path, limits)
     if table.shape[0] > limits.max_rows:
         raise InputError(f"{table.shape[0]:,} rows, above the {limits.max_rows:,} limit",
                          "resample the spectrum to a coarser grid", display_path)

@@ -3,22 +3,50 @@ and which value column a record's ``column`` names."""
 
 from __future__ import annotations
 
-import re
-
 from hazard.errors import InputError
 from hazard.units import parse_spectral_unit
 
 __all__ = ["header_unit", "wavelength_scale", "choose_value_column", "WAVELENGTH_NAMES"]
 
 WAVELENGTH_NAMES = ("wavelength", "wavelength_nm", "wl", "lambda", "λ", "nm", "wave")
-_BRACKETED = re.compile(r"[\[(]\s*([^\[\]()]*(?:\([^()]*\)[^\[\]()]*)*)\s*[\])]\s*$")
+_OPEN, _CLOSE = "[(", "])"
+
+
+def _bracketed(cell: str) -> tuple[int, str] | None:
+    """Where a cell's final bracketed part starts, and its text: ``[unit]`` or ``(unit)`` at the end of the
+    cell, which may hold parenthesised groups one level deep (``(µW/(cm²·nm))``). One backward pass, so any
+    cell costs linear time.
+
+    Examples
+    --------
+    >>> _bracketed("E (µW/(cm²·nm)) "), _bracketed("a (b) (c)"), _bracketed("x]"), _bracketed("a ) b")
+    ((2, 'µW/(cm²·nm)'), (6, 'c'), None, None)
+    """
+    end = len(cell.rstrip()) - 1
+    if end < 0 or cell[end] not in _CLOSE:
+        return None
+    nested = False
+    for i in range(end - 1, -1, -1):
+        char = cell[i]
+        if nested:  # inside a nested (...) group, read backwards: anything but parentheses until its '('
+            if char == "(":
+                nested = False
+            elif char == ")":
+                return None
+        elif char == ")":
+            nested = True
+        elif char in _OPEN:
+            return i, cell[i + 1:end].strip()
+        elif char == "]":
+            return None
+    return None
 
 
 def _unit_text(cell: str) -> str | None:
     """The unit a header cell states: the text in its last brackets, or the cell after a name."""
-    match = _BRACKETED.search(cell)
-    if match:
-        return match.group(1).strip()
+    found = _bracketed(cell)
+    if found:
+        return found[1]
     parts = cell.split(None, 1)
     return parts[1].strip() if len(parts) == 2 else None
 
@@ -55,7 +83,8 @@ def wavelength_scale(cell: str | None) -> float:
 
 
 def _bare(cell: str) -> str:
-    return _BRACKETED.sub("", cell).strip().lower()
+    found = _bracketed(cell)
+    return (cell if found is None else cell[:found[0]]).strip().lower()
 
 
 def choose_value_column(header: list[str] | None, width: int, column: str | int | None, path: str) -> int:
