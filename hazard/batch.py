@@ -509,6 +509,10 @@ def run_batch(source: str | Path, output_dir: str | Path, *, pdf: bool = False, 
                     journal.flush()
                     os.fsync(journal.fileno())
                     progress.advance(len(chunk))
+        except OSError as exc:  # a full disk, a folder made read-only meanwhile: name the folder
+            if exc.filename is None:
+                raise OSError(exc.errno, exc.strerror, str(folder)) from exc
+            raise
         finally:
             if pool is not None:
                 pool.shutdown(cancel_futures=True)

@@ -74,6 +74,10 @@ class _Group(click.Group):
         except InputError as exc:
             click.echo(f"hazard: error: {exc}", err=True)
             ctx.exit(EXIT_INPUT)
+        except click.UsageError as exc:  # one line, as every other refusal
+            command = exc.ctx.command_path if exc.ctx is not None else "hazard"
+            click.echo(f"hazard: error: {exc.format_message().rstrip('.')}; fix: see '{command} --help'", err=True)
+            ctx.exit(EXIT_INPUT)
         except (click.exceptions.Exit, click.exceptions.Abort, click.ClickException):
             raise
         except BrokenPipeError:  # output piped into e.g. `head`, which stopped reading

@@ -53,10 +53,12 @@ def require_finite(assessment: Assessment) -> Assessment:
     InputError
         Naming the product and the first quantity that overflowed (or is not a number).
     """
-    serialised = pydantic_core.to_json(assessment, inf_nan_mode="constants")
-    if _BARE_CONSTANT.search(serialised) is None:  # a fast pass; a text that merely reads "NaN" is checked below
+    dumped = assessment.model_dump()
+    # a fast pass in compiled code (the model's own JSON would write infinity as null); a text that merely
+    # reads "NaN" is told apart below
+    if _BARE_CONSTANT.search(pydantic_core.to_json(dumped, inf_nan_mode="constants")) is None:
         return assessment
-    found = first_non_finite(assessment.model_dump())
+    found = first_non_finite(dumped)
     if found is None:
         return assessment
     where, value = found

@@ -100,6 +100,8 @@ def _cell(value):
     """A cell as a record field value: text stripped; dates and times (from a workbook) as ISO text."""
     if isinstance(value, str):
         return value.strip()
+    if isinstance(value, datetime.datetime) and value.time() == datetime.time():
+        return value.date().isoformat()  # a workbook's date cell: a date, not midnight of that date
     if isinstance(value, (datetime.date, datetime.time, datetime.timedelta)):
         return str(value)
     return value
