@@ -174,10 +174,9 @@ def _read_xlsx(path: Path) -> list[ManifestRow]:
     rows = workbook_rows(raw, str(path), max_rows=limits.max_workbook_rows + 1,
                          max_columns=limits.max_workbook_columns,
                          max_unpacked_bytes=limits.max_workbook_unpacked_bytes, what="manifest")
-    header = next(rows, None)
-    if header is None:
+    if not rows:
         raise InputError("the workbook's first sheet is empty", "put the header row in row 1", str(path))
-    return _table_rows(header[1], rows, path)
+    return _table_rows(rows[0][1], rows[1:], path)
 
 
 def _read_folder(folder: Path) -> list[ManifestRow]:

@@ -1,20 +1,23 @@
 """Mutation of input files for fuzzing: shared by ``tests/test_fuzz.py`` (a short, deterministic run) and
 ``benchmarks/torture.py`` (a long campaign).
 
-A mutation is a list of edits applied to a seed file's bytes: flips, insertions of tokens that have broken
-parsers before (NaN, overflowing numbers, 5000-digit integers, NUL, CR-only line ends, long runs of spaces or
-brackets, deep nesting, path escapes), deletions, duplications and truncation. Workbooks (.xlsx) are mutated
+A mutation is a list of edits applied to a seed file's bytes: numbers swapped for extreme ones (the file stays
+valid, its values do not), flips, insertions of tokens that have broken parsers before (NaN, overflowing
+numbers, 5000-digit integers, NUL, CR-only line ends, long runs of spaces or brackets, deep nesting, path
+escapes), deletions, duplications and truncation. Workbooks (.xlsx) are mutated
 inside: one XML part is edited and the archive written again (or, now and then, the zip bytes themselves).
 
 :func:`exercise` runs one input through the tool as a user would and classifies the outcome: ``"ok"`` (a
-result that reads back), ``"input error"`` (one line), or a failure: ``"crash"`` (any other exception) or
-``"not one line"``.
+result that reads back), ``"input error"`` (one line), or a failure: ``"crash"`` (any other exception),
+``"not one line"``, or ``"warning"`` (a Python warning, which would add a line to the command's stderr).
 """
 
 from __future__ import annotations
 
 import io
 import random
+import re
+import warnings
 import zipfile
 from pathlib import Path
 
@@ -33,18 +36,35 @@ TOKENS = [
 """Byte strings that have broken a parser before, or sit at the edge of what one accepts."""
 
 
+NUMBERS = [b"0", b"-0", b"1e308", b"1.7976931348623157e308", b"1e-308", b"5e-324", b"1e-320", b"1e999", b"-1e999",
+           b"1e300", b"1e-300", b"1e305", b"-1", b"-0.5", b"9" * 400, b"0.0000001", b"3000", b"1e6", b"1e7"]
+"""Numbers at the edges of the float range and of the method's ranges, still valid in CSV, JSON and TOML."""
+_NUMBER = re.compile(rb"\d+(?:\.\d+)?(?:[eE][+-]?\d+)?")
+
+
+def _swap_number(data: bytearray, rng: random.Random) -> None:
+    """Replace one number of ``data`` by an extreme one, keeping the file's syntax."""
+    found = list(_NUMBER.finditer(data))
+    if found:
+        match = rng.choice(found)
+        data[match.start():match.end()] = rng.choice(NUMBERS)
+
+
 def mutate(data: bytes, rng: random.Random, edits: int | None = None) -> bytes:
     """``data`` with ``edits`` random edits (1 to 4 when not given)."""
     data = bytearray(data)
+    numbers_only = rng.random() < 0.3  # the file stays valid: its values reach the method
     for _ in range(edits if edits is not None else rng.randint(1, 4)):
         where = rng.randint(0, len(data))
-        kind = rng.random()
-        if kind < 0.35:
+        kind = 0.0 if numbers_only else rng.random()
+        if kind < 0.25:
+            _swap_number(data, rng)
+        elif kind < 0.45:
             data[where:where] = rng.choice(TOKENS)
-        elif kind < 0.5 and data:
+        elif kind < 0.55 and data:
             end = min(len(data), where + rng.randint(1, 40))
             data[where:end] = rng.choice(TOKENS)
-        elif kind < 0.62 and data:
+        elif kind < 0.64 and data:
             data[min(where, len(data) - 1)] = rng.randrange(256)
         elif kind < 0.72 and data:
             del data[where:where + rng.randint(1, 200)]
@@ -74,36 +94,23 @@ def mutate_workbook(data: bytes, rng: random.Random) -> bytes:
     return out.getvalue()
 
 
-def mutated_file(seed: Path, folder: Path, rng: random.Random, name: str | None = None) -> Path:
-    """Write a mutation of ``seed`` into ``folder`` (same suffix) and return its path."""
-    data = seed.read_bytes()
-    new = mutate_workbook(data, rng) if seed.suffix == ".xlsx" else mutate(data, rng)
-    path = folder / (name or f"m{rng.randrange(10**9)}{seed.suffix}")
-    path.write_bytes(new)
-    return path
-
-
 SPECTRUM_FIELDS = {"distance_mm": 500.0, "source_diameter_mm": 30.0, "no_emission_outside": True}
 
 
-def exercise(path: Path, kind: str) -> tuple[str, str]:
+def exercise(path: Path, kind: str, studies: bool = False) -> tuple[str, str]:
     """Run one input through the tool in this process; (outcome, detail).
 
     ``kind``: ``"spectrum"`` (a spectrum file with record options, as ``hazard assess FILE``), ``"record"``
     (a TOML record) or ``"manifest"`` (a CSV/.xlsx manifest: each of its first five rows loaded and
-    assessed, as ``hazard batch`` does). Every result must read back from its JSON.
+    assessed, as ``hazard batch`` does). With ``studies``, hazard distances and remedies are computed too.
+    Every result must read back from its JSON.
     """
-    import traceback
-
-    from hazard.batch import load_row
     from hazard.engine import build_assessment, evaluate_loaded
     from hazard.errors import InputError
-    from hazard.inputs import load_product
-    from hazard.manifest import read_manifest
     from hazard.result import Assessment
 
     def assess(loaded):
-        result = build_assessment(loaded, evaluate_loaded([loaded]), 0, studies=False)
+        result = build_assessment(loaded, evaluate_loaded([loaded]), 0, studies=studies)
         Assessment.model_validate_json(result.model_dump_json())
 
     def one_line(exc: InputError) -> tuple[str, str]:
@@ -111,6 +118,22 @@ def exercise(path: Path, kind: str) -> tuple[str, str]:
         if "\n" in text or "\r" in text or len(text) > 2000:
             return "not one line", text[:300]
         return "input error", text
+
+    with warnings.catch_warnings(record=True) as caught:  # a warning would be a second line on stderr
+        warnings.simplefilter("always")
+        outcome = _outcome(path, kind, assess, one_line)
+    if outcome[0] in ("ok", "input error") and caught:
+        return "warning", f"{caught[0].category.__name__}: {caught[0].message}"
+    return outcome
+
+
+def _outcome(path: Path, kind: str, assess, one_line) -> tuple[str, str]:
+    import traceback
+
+    from hazard.batch import load_row
+    from hazard.errors import InputError
+    from hazard.inputs import load_product
+    from hazard.manifest import read_manifest
 
     try:
         if kind == "spectrum":

@@ -16,7 +16,7 @@ import re
 import numpy as np
 
 from hazard.errors import InputError, excerpt
-from hazard.readers.common import Limits, RawSpectrum, current_limits, decode_text, read_bytes
+from hazard.readers.common import Limits, RawSpectrum, current_limits, decode_text, read_bytes, to_nm
 from hazard.readers.headers import choose_value_column, header_unit, wavelength_scale
 
 __all__ = ["read_delimited"]
@@ -210,7 +210,7 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
         warnings.append(f"{display_path}: the file does not end with a line break, so it may be truncated; "
                         f"check its last row")
     unit = header_unit(header[value_index]) if header else None
-    spectrum = RawSpectrum(wavelength_nm=table[:, 0] * scale, value=table[:, value_index], lines=numbers,
+    spectrum = RawSpectrum(wavelength_nm=to_nm(table[:, 0], scale), value=table[:, value_index], lines=numbers,
                            path=display_path, unit=unit, warnings=tuple(warnings))
     info = {"header": header, "value_column": header[value_index] if header else value_index,
             "comments": comments, "metadata": metadata, "delimiter": delimiter or "whitespace",

@@ -1,4 +1,4 @@
-"""The first sheet of an .xlsx workbook, streamed row by row with bounded work.
+"""The first sheet of an .xlsx workbook, parsed as a stream with bounded work.
 
 openpyxl's read-only reader parses the sheet lazily, so a damaged part of the file surfaces while rows are
 read; every such failure becomes one :class:`~hazard.errors.InputError`. Before parsing, the zip directory is
@@ -10,8 +10,8 @@ size the sheet claims for itself.
 from __future__ import annotations
 
 import io
+import warnings
 import zipfile
-from collections.abc import Iterator
 
 from hazard.errors import InputError
 
@@ -34,8 +34,10 @@ def _check_parts(raw: bytes, display: str, max_unpacked_bytes: int) -> None:
 
 
 def workbook_rows(raw: bytes, display: str, *, max_rows: int, max_columns: int, max_unpacked_bytes: int,
-                  what: str = "workbook") -> Iterator[tuple[int, list]]:
-    """(row number, cell values) of the first sheet, trailing empty cells dropped.
+                  what: str = "workbook") -> list[tuple[int, list]]:
+    """(row number, cell values) of the first sheet's non-empty rows, trailing empty cells dropped.
+
+    openpyxl's warnings about the file (invalid parts it skips) are silenced: the rows say what matters.
 
     Parameters
     ----------
@@ -55,15 +57,21 @@ def workbook_rows(raw: bytes, display: str, *, max_rows: int, max_columns: int, 
     InputError
         Not a workbook, damaged content, or beyond a limit.
     """
+    _check_parts(raw, display, max_unpacked_bytes)
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")
+        return _rows(raw, display, max_rows, max_columns, what)
+
+
+def _rows(raw: bytes, display: str, max_rows: int, max_columns: int, what: str) -> list[tuple[int, list]]:
     import openpyxl
 
-    _check_parts(raw, display, max_unpacked_bytes)
     try:
         book = openpyxl.load_workbook(io.BytesIO(raw), read_only=True, data_only=True)
     except Exception as exc:  # noqa: BLE001 - a damaged workbook raises many kinds of error
         raise InputError(f"cannot read the workbook ({type(exc).__name__})", "save it again as .xlsx, or export "
                          "CSV", display) from None
-    number = 0
+    number, rows = 0, []
     try:
         if not book.worksheets:
             raise InputError("the workbook has no sheet", f"put the {what} on the first sheet", display)
@@ -79,7 +87,8 @@ def workbook_rows(raw: bytes, display: str, *, max_rows: int, max_columns: int, 
                                  display, number)
             while cells and cells[-1] is None:
                 cells.pop()
-            yield number, cells
+            if cells:
+                rows.append((number, cells))
     except InputError:
         raise
     except Exception as exc:  # noqa: BLE001 - damaged XML surfaces lazily, as any of many errors
@@ -87,3 +96,4 @@ def workbook_rows(raw: bytes, display: str, *, max_rows: int, max_columns: int, 
                          "save it again as .xlsx, or export CSV", display) from None
     finally:
         book.close()
+    return rows

@@ -9,7 +9,7 @@ import math
 import numpy as np
 
 from hazard.errors import InputError, excerpt
-from hazard.readers.common import Limits, RawSpectrum, current_limits, read_bytes
+from hazard.readers.common import Limits, RawSpectrum, current_limits, read_bytes, to_nm
 from hazard.readers.headers import choose_value_column, header_unit, wavelength_scale
 from hazard.readers.workbook import workbook_rows
 
@@ -85,7 +85,7 @@ def read_xlsx(path: str, *, display_path: str, column: str | int | None = None,
     value_index = choose_value_column(header, width, column, display_path)
     table = np.array(data, dtype=float).reshape(-1, width)
     scale = wavelength_scale(header[0] if header else None)
-    spectrum = RawSpectrum(wavelength_nm=table[:, 0] * scale, value=table[:, value_index],
+    spectrum = RawSpectrum(wavelength_nm=to_nm(table[:, 0], scale), value=table[:, value_index],
                            lines=np.array(numbers), path=display_path,
                            unit=header_unit(header[value_index]) if header else None)
     return spectrum, {"header": header, "value_column": header[value_index] if header else value_index,
