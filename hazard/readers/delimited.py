@@ -4,8 +4,8 @@ Comma, semicolon, tab or whitespace separated; decimal comma; UTF-8 with or with
 ``#`` comment lines; metadata lines before the table (``key: value``, ``key = value`` or ``key;value``,
 kept as metadata); an optional header row (its cells may state units); several value columns.
 
-The numeric body is parsed by numpy's C reader; when that fails, a careful pass finds the first bad line so
-the message can name it.
+The numeric body is parsed by numpy's C reader a chunk of rows at a time; where it fails, a careful pass over
+that chunk finds the first bad line so the message can name it. Work is linear in the file's size.
 """
 
 from __future__ import annotations
@@ -24,6 +24,8 @@ __all__ = ["read_delimited"]
 _NUMBER = re.compile(r"^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$")  # unambiguous: linear time on any cell
 _DECIMAL_COMMA = re.compile(r"^[+-]?\d+,\d+([eE][+-]?\d+)?$")
 _SPECIALS = ("nan", "inf", "-inf", "+inf")
+PARSE_CHUNK_ROWS = 20_000
+"""Rows given to numpy's parser at a time [1]."""
 
 
 def _is_number(cell: str) -> bool:
@@ -58,15 +60,12 @@ def _metadata_item(line: str) -> tuple[str, str] | None:
     return None
 
 
-def _careful(lines: list[str], start: int, delimiter: str | None, decimal_comma: bool, width: int,
-             path: str, limits: Limits) -> tuple[np.ndarray, np.ndarray]:
-    """Parse row by row, raising for the first bad line; rows (n, width) and their line numbers."""
-    rows, numbers = [], []
-    for number, line in enumerate(lines[start:], start=start + 1):
-        stripped = line.strip()
-        if not stripped or stripped.startswith("#"):
-            continue
-        cells = _cells(stripped, delimiter, decimal_comma)
+def _careful(rows: list[str], numbers: np.ndarray, delimiter: str | None, decimal_comma: bool, width: int,
+             path: str, limits: Limits) -> np.ndarray:
+    """Parse row by row, raising for the first bad line; the table (n, width)."""
+    table = []
+    for number, line in zip(numbers.tolist(), rows):
+        cells = _cells(line.strip(), delimiter, decimal_comma)
         if len(cells) != width:
             raise InputError(f"{len(cells)} cells where the table has {width}", "give every row the same columns",
                              path, number)
@@ -78,9 +77,8 @@ def _careful(lines: list[str], start: int, delimiter: str | None, decimal_comma:
             if not _is_number(cell):
                 raise InputError(f"text {excerpt(cell)} in a number column",
                                  "use plain numbers (decimal point or decimal comma, consistently)", path, number)
-        rows.append([float(c) for c in cells])
-        numbers.append(number)
-    return np.array(rows, dtype=float).reshape(-1, width), np.array(numbers, dtype=int)
+        table.append([float(c) for c in cells])
+    return np.array(table, dtype=float).reshape(-1, width)
 
 
 def _check_cell_length(cell: str, limits: Limits, path: str, line: int) -> None:
@@ -101,10 +99,18 @@ def _lines_from(text: str):
         position = end + 1
 
 
-def _fast(body: str, start: int, delimiter: str | None, decimal_comma: bool, width: int):
-    """numpy's C parser over the body; None when it fails or when the body holds blank or comment lines
-    (then each row's line number is not its position, and the careful pass takes over)."""
-    body = body.rstrip()
+def _data_rows(body: str, first_line: int) -> tuple[list[str], np.ndarray]:
+    """The body's rows without blank and comment lines, and their 1-based line numbers."""
+    lines = body.split("\n")
+    keep = [i for i, line in enumerate(lines) if (text := line.strip()) and not text.startswith("#")]
+    if len(keep) == len(lines):
+        return lines, np.arange(first_line, first_line + len(lines))
+    return [lines[i] for i in keep], np.array(keep, dtype=int) + first_line
+
+
+def _fast(rows: list[str], delimiter: str | None, decimal_comma: bool, width: int) -> np.ndarray | None:
+    """numpy's C parser over rows; None when it fails (the careful pass then names the bad line)."""
+    body = "\n".join(rows)
     if decimal_comma:
         body = body.replace(",", ".")
     try:
@@ -112,9 +118,20 @@ def _fast(body: str, start: int, delimiter: str | None, decimal_comma: bool, wid
                            comments=None)
     except ValueError:
         return None
-    if table.shape[1] != width or table.shape[0] != body.count("\n") + 1:
-        return None
-    return table, np.arange(start + 1, start + 1 + table.shape[0])
+    return table if table.shape == (len(rows), width) else None
+
+
+def _parse(rows: list[str], numbers: np.ndarray, delimiter: str | None, decimal_comma: bool, width: int, path: str,
+           limits: Limits) -> np.ndarray:
+    """The table of ``rows``: numpy's C parser a chunk at a time, the careful pass only on a chunk it refuses,
+    so that naming a bad last line costs no more than reading the file."""
+    tables = [np.empty((0, width))]
+    for k in range(0, len(rows), PARSE_CHUNK_ROWS):
+        chunk = rows[k:k + PARSE_CHUNK_ROWS]
+        table = _fast(chunk, delimiter, decimal_comma, width)
+        tables.append(table if table is not None else _careful(chunk, numbers[k:k + PARSE_CHUNK_ROWS], delimiter,
+                                                                decimal_comma, width, path, limits))
+    return np.concatenate(tables)
 
 
 def read_delimited(path: str, *, display_path: str, column: str | int | None = None,
@@ -144,7 +161,7 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
     """
     limits = limits or current_limits()
     raw, digest = read_bytes(path, display_path, limits)
-    if max(raw.count(b"\n"), raw.count(b"\r")) > limits.max_rows + 1000:
+    if max(raw.count(b"\n"), raw.count(b"\r")) > 2 * limits.max_rows + 1000:  # room for blank lines
         raise InputError(f"more than {limits.max_rows:,} rows", "resample the spectrum to a coarser grid",
                          display_path)
     text = decode_text(raw, display_path)
@@ -196,12 +213,11 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
             preamble = preamble[:-1]
     metadata = dict(item for _, line in preamble if (item := _metadata_item(line)) is not None)
     value_index = choose_value_column(header, width, column, display_path)
-    parsed = _fast(text[body_offset:], start, delimiter, decimal_comma, width)
-    table, numbers = parsed if parsed is not None else _careful(text.split("\n"), start, delimiter, decimal_comma,
-                                                                width, display_path, limits)
-    if table.shape[0] > limits.max_rows:
-        raise InputError(f"{table.shape[0]:,} rows, above the {limits.max_rows:,} limit",
+    rows, numbers = _data_rows(text[body_offset:], start + 1)
+    if len(rows) > limits.max_rows:
+        raise InputError(f"{len(rows):,} rows, above the {limits.max_rows:,} limit",
                          "resample the spectrum to a coarser grid", display_path)
+    table = _parse(rows, numbers, delimiter, decimal_comma, width, display_path, limits)
     scale = wavelength_scale(header[0] if header else None)
     warnings = []
     if scale != 1.0:
