@@ -201,6 +201,7 @@ def report(result: Path, output: Path) -> None:
     from pydantic import ValidationError
 
     from hazard.errors import InputError
+    from hazard.guard import first_non_finite
     from hazard.result import Assessment
     from hazard.userfiles import read_user_file
 
@@ -215,6 +216,10 @@ def report(result: Path, output: Path) -> None:
         raise InputError(f"not an assessment result ({first['msg']} at {'.'.join(map(str, first['loc']))})",
                          "give a JSON file written by 'hazard assess --format json' of this tool version",
                          str(result)) from None
+    found = first_non_finite(assessment.model_dump())
+    if found is not None:
+        raise InputError(f"not an assessment result: {found[0]} is {found[1]}", "give a JSON file written by 'hazard "
+                         "assess --format json' (its numbers are all finite)", str(result))
     _write_report(assessment, output)
 
 

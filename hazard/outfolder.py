@@ -105,8 +105,15 @@ class OutputFolder:
         if not self.folder.exists():
             return
         here = os.path.realpath(self.folder)
+        folders: dict[str, str] = {}  # each folder resolved once: a batch may name 10⁵ files in a few folders
         for path in self.inputs:
-            if os.path.dirname(os.path.realpath(path)) == here:
+            text = os.fspath(path)
+            if os.path.islink(text):
+                where = os.path.dirname(os.path.realpath(text))
+            else:
+                parent = os.path.dirname(text) or "."
+                where = folders.get(parent) or folders.setdefault(parent, os.path.realpath(parent))
+            if where == here:
                 raise InputError(f"the output folder holds this run's input {excerpt(Path(path).name, 80)}",
                                  "name a new sub-folder for the outputs, e.g. --output "
                                  f"{os.path.join(str(self.folder), 'hazard-out')}", str(self.folder))

@@ -12,6 +12,7 @@ import contextlib
 import io
 import json
 import os
+import re
 import signal
 import zipfile
 from pathlib import Path
@@ -538,3 +539,15 @@ def test_spectrum_paths_outside_the_manifest_folder_are_refused(tmp_path):
     assert "SECRET" not in (tmp_path / "out" / "summary.csv").read_text()
     allowed = run_batch(manifest, tmp_path / "out2", allow_outside=True)
     assert "text 'SECRET-CONTENT'" in allowed.errors["B"]  # read only when the user allows it
+
+
+def test_report_refuses_a_result_that_does_not_read_back(tmp_path):
+    good = hazard.assess(_spectrum(tmp_path), {**SIZE, "id": "P"}).model_dump_json()
+    cases = {"deep.json": "[" * 100_000, "torn.json": good[:300], "nan.json": re.sub(r'"value":[0-9.e+-]+',
+                                                                                     '"value":NaN', good, count=1)}
+    for name, text in cases.items():
+        (tmp_path / name).write_text(text)
+        _assert_exit_2(_cli(["report", name, "--output", "r.pdf"], tmp_path), name)
+    (tmp_path / "good.json").write_text(good)
+    _assert_exit_2(_cli(["report", "good.json", "--output", "good.json"], tmp_path), "would replace an input")
+    assert not (tmp_path / "r.pdf").exists()
