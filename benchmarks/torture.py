@@ -9,7 +9,7 @@
    exit 2 must come with one line on stderr.
 3. kills: a batch killed (SIGKILL) at random moments, then continued with ``--resume``: the outputs must equal
    an uninterrupted run's byte for byte, with no temporary file left behind; one run also on a file system
-   that fills up (when this machine lets the script mount a small tmpfs).
+   that fills up, and one on a read-only file system (when this machine lets the script mount a tmpfs).
 4. memory: a batch of P products (``--jobs 2``) under an address-space cap, killed half-way and resumed
    under the same cap: both must finish; the peak resident memory of the largest process is printed.
 
@@ -266,8 +266,12 @@ def _full_disk(root: Path, manifest: Path, expected: list[bytes]) -> str:
         resumed = _hazard("batch", str(manifest), "--output", str(mount / "out"), "--resume", cwd=root, timeout=3600)
         same = resumed.returncode == 0 and [(mount / "out" / n).read_bytes() for n in
                                             ("results.jsonl", "summary.csv")] == expected
+        subprocess.run(["mount", "-o", "remount,ro", str(mount)], check=True)
+        frozen = _hazard("batch", str(manifest), "--output", str(mount / "new"), cwd=root, timeout=600)
+        read_only = frozen.returncode == 2 and len(frozen.stderr.splitlines()) == 1
         return (f"{'one line, exit 2' if one_line else 'FAILED: ' + full.stderr[-200:]}; resumed "
-                f"{'identical' if same else 'DIFFERENT'}; leftovers {_leftovers(mount / 'out') or 'none'}")
+                f"{'identical' if same else 'DIFFERENT'}; leftovers {_leftovers(mount / 'out') or 'none'}; "
+                f"read-only file system: {'one line, exit 2' if read_only else 'FAILED: ' + frozen.stderr[-200:]}")
     finally:
         subprocess.run(["umount", str(mount)], capture_output=True)
 
