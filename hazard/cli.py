@@ -83,7 +83,7 @@ class _Group(click.Group):
         except BrokenPipeError:  # output piped into e.g. `head`, which stopped reading
             os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
             ctx.exit(EXIT_OK)
-        except OSError as exc:  # writing the outputs: a full disk, a read-only folder
+        except OSError as exc:  # mostly writing the outputs: a full disk, a read-only folder
             click.echo(f"hazard: error: {_os_error_text(exc)}", err=True)
             ctx.exit(EXIT_INPUT)
         except Exception as exc:  # noqa: BLE001 - the last line of defence, reported as internal
@@ -96,17 +96,20 @@ class _Group(click.Group):
 
 
 def _os_error_text(exc: OSError) -> str:
-    """An operating-system error while writing as one line with the fix."""
+    """An operating-system error (mostly while writing the outputs) as one line with the fix."""
     from hazard.errors import InputError
 
-    fixes = {errno.ENOSPC: "free disk space and run again (a batch continues with --resume)",
-             errno.EDQUOT: "free space within your quota and run again",
-             errno.EROFS: "write to a folder on a writable file system",
-             errno.EACCES: "write to a folder you may write into", errno.EPERM: "write to a folder you may write into"}
-    fix = fixes.get(exc.errno, "check the output folder and free disk space")
-    where = exc.filename if exc.filename is not None else None
-    return str(InputError(f"cannot write: {exc.strerror or type(exc).__name__}", fix,
-                          None if where is None else os.fsdecode(where)))
+    writing = {errno.ENOSPC: "free disk space and run again (a batch continues with --resume)",
+               errno.EDQUOT: "free space within your quota and run again (a batch continues with --resume)",
+               errno.EFBIG: "write to a file system that takes larger files",
+               errno.EROFS: "write to a folder on a writable file system"}
+    if exc.errno in writing:
+        problem, fix = f"cannot write: {exc.strerror}", writing[exc.errno]
+    elif exc.errno in (errno.EACCES, errno.EPERM):
+        problem, fix = f"permission denied ({exc.strerror})", "use files and folders you may read and write"
+    else:
+        problem, fix = f"file system error: {exc.strerror or type(exc).__name__}", "check the files and free space"
+    return str(InputError(problem, fix, None if exc.filename is None else os.fsdecode(exc.filename)))
 
 
 def _refuse_overwriting_inputs(outputs: list[Path | None], inputs: list[Path]) -> None:
@@ -180,7 +183,7 @@ def assess(product: Path, output_format: str, output: Path | None, pdf_path: Pat
 
 def _write_file(path: Path, data: bytes) -> None:
     """Write one output atomically, first removing what a killed run left while writing the same file."""
-    remove_stale_temporaries(path.parent if str(path.parent) else Path("."), path.name)
+    remove_stale_temporaries(path.parent, path.name)
     write_atomic(path, data)
 
 

@@ -1,10 +1,10 @@
 """Reading the files a user names: regular files only, a bounded number of bytes, every failure one input error.
 
-A FIFO, a device (``/dev/zero``), a socket or a folder is refused before anything is read (the file is opened
-without blocking and checked with ``fstat``, so a pipe cannot stall the run); a file larger than the limit is
-refused from its size, and reading stops one byte past the limit should it grow meanwhile. Missing files, a
-NUL byte or an over-long name in the path, symbolic-link loops and permission problems each become one
-:class:`~hazard.errors.InputError` naming the file and the fix.
+A FIFO, a device (``/dev/zero``), a socket or a folder is refused before it is opened (and the file opened,
+without blocking, is checked again with ``fstat``, so a path swapped meanwhile cannot stall the run); a file
+larger than the limit is refused from its size, and reading stops one byte past the limit should it grow
+meanwhile. Missing files, a NUL byte or an over-long name in the path, symbolic-link loops and permission
+problems each become one :class:`~hazard.errors.InputError` naming the file and the fix.
 """
 
 from __future__ import annotations
@@ -47,20 +47,27 @@ def _open_regular(path: str | Path, what: str, display: str, fix_missing: str) -
         raise InputError(f"the {what}'s path contains a NUL byte", "remove the control character from the path",
                          display)
     try:
+        _refuse_irregular(os.stat(text), what, display)  # before opening: opening a device can act on it
         descriptor = os.open(text, os.O_RDONLY | os.O_NONBLOCK | getattr(os, "O_CLOEXEC", 0)
                              | getattr(os, "O_NOCTTY", 0))
     except OSError as exc:
         raise _open_error(exc, what, display, fix_missing) from None
     try:
         status = os.fstat(descriptor)
+        _refuse_irregular(status, what, display)  # what was opened, should the path have changed meanwhile
     except OSError as exc:
         os.close(descriptor)
         raise _open_error(exc, what, display, fix_missing) from None
-    if not stat.S_ISREG(status.st_mode):
+    except InputError:
         os.close(descriptor)
+        raise
+    return descriptor, status
+
+
+def _refuse_irregular(status: os.stat_result, what: str, display: str) -> None:
+    if not stat.S_ISREG(status.st_mode):
         kind = next((name for test, name in _KINDS if test(status.st_mode)), "not a regular file")
         raise InputError(f"{kind}, not a {what}", "name a regular file", display)
-    return descriptor, status
 
 
 def _too_large(size_bytes: int, max_bytes: int, what: str, display: str, fix: str) -> InputError:
