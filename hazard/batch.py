@@ -107,6 +107,8 @@ class BatchOutcome:
         Products taken unchanged from an earlier run (``resume``).
     stems : dict
         id → stem of the product's own files.
+    report_failures : dict
+        id → why its PDF report could not be rendered (a defect of the tool; the other reports are written).
     """
 
     ids: list[str] = field(default_factory=list)
@@ -115,12 +117,15 @@ class BatchOutcome:
     internal: set[str] = field(default_factory=set)
     reused: int = 0
     stems: dict[str, str] = field(default_factory=dict)
+    report_failures: dict[str, str] = field(default_factory=dict)
 
     @property
     def exit_code(self) -> int:
         """0 when every product was assessed, 3 when some failed on their input, 1 when the tool failed on
-        one (after writing every output)."""
-        return EXIT_INTERNAL if self.internal else (EXIT_SOME_FAILED if self.errors else 0)
+        one or on its report (after writing every other output)."""
+        if self.internal or self.report_failures:
+            return EXIT_INTERNAL
+        return EXIT_SOME_FAILED if self.errors else 0
 
 
 @dataclass(frozen=True)
@@ -355,18 +360,20 @@ def _run_job(job: _Job) -> list[_Product]:
     return out
 
 
-def _in_order(pool: Executor | None, jobs: Iterable[_Job], ahead: int) -> Iterator[list[_Product]]:
-    """Results of ``jobs`` in order, with at most ``ahead`` of them queued at a time."""
+def _in_order(pool: Executor | None, work, jobs: Iterable, ahead: int) -> Iterator:
+    """``work`` applied to each of ``jobs``, results in order, with at most ``ahead`` queued at a time (so a
+    batch of any size holds only a few chunks in memory)."""
     if pool is None:
-        yield from map(_run_job, jobs)
+        yield from map(work, jobs)
         return
     pending: deque = deque()
     for job in jobs:
-        pending.append(pool.submit(_run_job, job))
+        pending.append(pool.submit(work, job))
         if len(pending) >= ahead:
             yield pending.popleft().result()
     while pending:
         yield pending.popleft().result()
+
 
 
 def _input_files(source: Path, rows: list[ManifestRow]) -> Iterator[Path]:
@@ -382,15 +389,22 @@ def _input_files(source: Path, rows: list[ManifestRow]) -> Iterator[Path]:
             yield row.base_dir / spectrum
 
 
-def _render_one(job: tuple[str, int, int, str]) -> None:
-    """Worker: render one saved result to a PDF file (top level, so a process pool can call it)."""
+def _render_one(job: tuple[str, int, int, str]) -> str | None:
+    """Worker: render one saved result to a PDF file (top level, so a process pool can call it); None when
+    written, else why not (one product's report never stops the others')."""
     from reports import render_assessment_pdf, report_time
 
     path, offset, length, target = job
-    with open(path, "rb") as handle:
-        handle.seek(offset)
-        line = handle.read(length)
-    write_atomic(Path(target), render_assessment_pdf(Assessment.model_validate_json(line), report_time()))
+    try:
+        with open(path, "rb") as handle:
+            handle.seek(offset)
+            line = handle.read(length)
+        write_atomic(Path(target), render_assessment_pdf(Assessment.model_validate_json(line), report_time()))
+    except OSError:
+        raise  # a full disk or a read-only folder stops the run with its one line
+    except Exception as exc:  # noqa: BLE001 - the boundary of one report
+        return f"{Path(target).name}: internal error while rendering ({type(exc).__name__}: {exc})"
+    return None
 
 
 def _write_pdfs(folder: Path, outcome: BatchOutcome, jobs: int) -> None:
@@ -398,26 +412,22 @@ def _write_pdfs(folder: Path, outcome: BatchOutcome, jobs: int) -> None:
     from reports.fonts import report_fonts
 
     assessed = outcome.assessments
-    work = ((str(assessed.path), *assessed.positions[i], str(folder / f"{outcome.stems[i]}.pdf"))
-            for i in outcome.ids if i in assessed.positions)
-    progress = Progress(len(assessed), "reports")
-    if jobs > 1 and len(assessed) > 1:
+    ids = [i for i in outcome.ids if i in assessed.positions]
+    work = ((str(assessed.path), *assessed.positions[i], str(folder / f"{outcome.stems[i]}.pdf")) for i in ids)
+    progress = Progress(len(ids), "reports")
+    pool = None
+    if jobs > 1 and len(ids) > 1:
         report_fonts()  # register the fonts once here; the workers inherit them
-        with ProcessPoolExecutor(max_workers=jobs) as pool:
-            pending: deque = deque()
-            for job in work:
-                pending.append(pool.submit(_render_one, job))
-                if len(pending) >= 4 * jobs:
-                    pending.popleft().result()
-                    progress.advance()
-            while pending:
-                pending.popleft().result()
-                progress.advance()
-    else:
-        for job in work:
-            _render_one(job)
+        pool = ProcessPoolExecutor(max_workers=jobs)
+    try:
+        for product_id, failure in zip(ids, _in_order(pool, _render_one, work, 4 * jobs)):
+            if failure is not None:
+                outcome.report_failures[product_id] = failure
             progress.advance()
-    progress.close()
+    finally:
+        if pool is not None:
+            pool.shutdown(cancel_futures=True)
+        progress.close()
     errors = [(i, outcome.errors[i]) for i in outcome.ids if i in outcome.errors]
     # the summary's renderer takes whole results: it holds one per assessed product while it ranks them
     write_atomic(folder / "summary.pdf", render_summary_pdf([assessed[i] for i in outcome.ids if i in assessed],
@@ -487,7 +497,7 @@ def run_batch(source: str | Path, output_dir: str | Path, *, pdf: bool = False, 
                 text = io.StringIO()
                 table = csv.writer(text, lineterminator="\n")
                 table.writerow(summary_columns(limit_set))
-                for chunk in _in_order(pool, work, CHUNKS_AHEAD * jobs + 1):
+                for chunk in _in_order(pool, _run_job, work, CHUNKS_AHEAD * jobs + 1):
                     for product in chunk:  # in manifest order
                         table.writerow(product.summary)
                         if product.error is not None:

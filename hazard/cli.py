@@ -240,6 +240,8 @@ def _finish_batch(outcome, output: Path, pdf: bool) -> None:
     if outcome.internal:
         click.echo(f"hazard: internal error on {len(outcome.internal)} product(s), recorded in summary.csv; please "
                    f"report it", err=True)
+    for failure in outcome.report_failures.values():
+        click.echo(f"hazard: {failure}; please report it", err=True)
     from hazard.cautions import PRE_SCREEN
 
     click.echo(f"Caution: {PRE_SCREEN}")

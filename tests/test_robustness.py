@@ -402,6 +402,24 @@ def test_a_failure_after_loading_is_that_products_error(tmp_path, monkeypatch, r
         hazard.Assessment.model_validate_json(line)  # every written result reads back
 
 
+def test_a_report_that_fails_to_render_does_not_stop_the_others(tmp_path, monkeypatch):
+    import reports
+    from hazard.batch import run_batch
+
+    real = reports.render_assessment_pdf
+
+    def failing(assessment, *args, **kwargs):
+        if assessment.id == "BAD":
+            raise ValueError("a defect")
+        return real(assessment, *args, **kwargs)
+
+    monkeypatch.setattr(reports, "render_assessment_pdf", failing)
+    outcome = run_batch(_manifest(tmp_path, ["A", "BAD"]), tmp_path / "out", pdf=True)
+    assert outcome.exit_code == 1 and "a defect" in outcome.report_failures["BAD"]
+    assert (tmp_path / "out" / "A.pdf").exists() and (tmp_path / "out" / "summary.pdf").exists()
+    assert not (tmp_path / "out" / "BAD.pdf").exists()
+
+
 def test_check_goes_on_after_a_failing_product(tmp_path, monkeypatch):
     import hazard.engine as engine
 
