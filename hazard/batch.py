@@ -5,12 +5,21 @@ Outputs in the output folder, all written atomically:
 - ``results.jsonl``: one assessment JSON per line (the contract of ``hazard assess --format json``), in
   manifest order;
 - ``summary.csv``: one row per product (id, status, group, completeness, per-hazard value, group and t_max,
-  warning count, error), in manifest order;
+  warning count, error, file stem), in manifest order;
 - with ``pdf``: one report per product and ``summary.pdf``, a ranked overview.
 
-While it runs, each finished chunk of assessments is appended to ``results.jsonl.partial`` and flushed to
-disk. Killed half-way, a rerun with ``resume`` reads what is there (ignoring a torn last line), skips every
-product whose input hashes are unchanged and ends with the same outputs as an uninterrupted run.
+Products stream through the workers in chunks and their results are written as they come, so memory does not
+grow with the number of products: the run keeps, per product, only its id, file stem, the position of its
+line in ``results.jsonl`` and any error. Every failure of one product (bad input, a number out of range, even
+a defect of the tool) is caught at that product and recorded as its error.
+
+While it runs, each finished chunk of new assessments is appended to ``results.jsonl.partial`` and flushed to
+disk. Killed half-way, a rerun with ``resume`` reads what is there (a torn last line is dropped, and cut off
+the file before it grows again), skips every product whose input hashes are unchanged and ends with the same
+outputs as an uninterrupted run.
+
+The output folder is claimed for the run (:class:`hazard.outfolder.OutputFolder`): never a folder holding
+the run's inputs or the user's own files, one run at a time, leftovers of a killed run removed.
 """
 
 from __future__ import annotations
@@ -20,50 +29,138 @@ import hashlib
 import io
 import json
 import os
-import re
-from concurrent.futures import ProcessPoolExecutor
+from collections import deque
+from collections.abc import Iterable, Iterator, Mapping
+from concurrent.futures import Executor, ProcessPoolExecutor
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from hazard.atomic import write_atomic
+from hazard.atomic import atomic_file, write_atomic
 from hazard.engine import build_assessment, evaluate_loaded
 from hazard.errors import InputError
 from hazard.formatting import NOT_DETERMINED
-from hazard.inputs import LoadedProduct, product_from_record
+from hazard.inputs import LoadedProduct, product_from_record, spectrum_path
 from hazard.manifest import ManifestRow, read_manifest
 from hazard.method.photometry import import_colour
+from hazard.outfolder import OutputFolder, file_stems
 from hazard.progress import Progress
+from hazard.readers.common import current_limits
 from hazard.record import record_from_fields
 from hazard.result import Assessment
 from hazard.standards import DEFAULT_LIMIT_SET, LimitSet
+from hazard.userfiles import read_user_file
 
-__all__ = ["BatchOutcome", "run_batch", "summary_rows", "SUMMARY_NAME", "RESULTS_NAME", "EXIT_SOME_FAILED"]
+__all__ = ["BatchOutcome", "run_batch", "load_row", "failure_reason", "summary_columns", "summary_row",
+           "SUMMARY_NAME", "RESULTS_NAME", "EXIT_SOME_FAILED", "EXIT_INTERNAL"]
 
 RESULTS_NAME = "results.jsonl"
 SUMMARY_NAME = "summary.csv"
 PARTIAL_SUFFIX = ".partial"
 EXIT_SOME_FAILED = 3
+EXIT_INTERNAL = 1
 CHUNK_PRODUCTS = 128
 """Products loaded, assessed and flushed to the partial file at a time (one unit of work for a worker)."""
+CHUNKS_AHEAD = 2
+"""Chunks queued per worker beyond the one being written: enough to keep the workers busy, few enough that
+memory stays bounded [1]."""
+INTERNAL_FIX = "please report it; 'hazard --debug assess' on this product shows the traceback"
+
+
+class LazyAssessments(Mapping):
+    """id → :class:`~hazard.result.Assessment`, each read from ``results.jsonl`` when asked for, so that a
+    batch of any size holds only the position of each line."""
+
+    def __init__(self, path: Path, positions: dict[str, tuple[int, int]]):
+        self.path, self.positions = path, positions
+
+    def line(self, product_id: str) -> bytes:
+        """The product's JSON line as written."""
+        offset, length = self.positions[product_id]
+        with open(self.path, "rb") as handle:
+            handle.seek(offset)
+            return handle.read(length)
+
+    def __getitem__(self, product_id: str) -> Assessment:
+        return Assessment.model_validate_json(self.line(product_id))
+
+    def __iter__(self) -> Iterator[str]:
+        return iter(self.positions)
+
+    def __len__(self) -> int:
+        return len(self.positions)
 
 
 @dataclass
 class BatchOutcome:
-    """What a batch run produced, in manifest order."""
+    """What a batch run produced, in manifest order.
+
+    Attributes
+    ----------
+    ids : list of str
+        Products in manifest order.
+    assessments : Mapping
+        id → Assessment of the products assessed (read back from ``results.jsonl`` on access).
+    errors : dict
+        id → one-line reason for the products that failed.
+    internal : set of str
+        Products whose failure was a defect of the tool, not of their input.
+    reused : int
+        Products taken unchanged from an earlier run (``resume``).
+    stems : dict
+        id → stem of the product's own files.
+    report_failures : dict
+        id → why its PDF report could not be rendered (a defect of the tool; the other reports are written).
+    """
 
     ids: list[str] = field(default_factory=list)
-    assessments: dict[str, Assessment] = field(default_factory=dict)
+    assessments: Mapping[str, Assessment] = field(default_factory=dict)
     errors: dict[str, str] = field(default_factory=dict)
+    internal: set[str] = field(default_factory=set)
     reused: int = 0
+    stems: dict[str, str] = field(default_factory=dict)
+    report_failures: dict[str, str] = field(default_factory=dict)
 
     @property
     def exit_code(self) -> int:
-        """0 when every product was assessed, 3 when some failed."""
+        """0 when every product was assessed, 3 when some failed on their input, 1 when the tool failed on
+        one or on its report (after writing every other output)."""
+        if self.internal or self.report_failures:
+            return EXIT_INTERNAL
         return EXIT_SOME_FAILED if self.errors else 0
 
 
-def load_row(row: ManifestRow) -> LoadedProduct:
-    """Validate one manifest row and read its spectrum.
+@dataclass(frozen=True)
+class _Earlier:
+    """Where an earlier run's result of a product sits, and what it was computed from."""
+
+    path: str
+    offset: int
+    length: int
+    inputs: str
+    studies: bool
+
+    def read(self) -> bytes:
+        with open(self.path, "rb") as handle:
+            handle.seek(self.offset)
+            return handle.read(self.length)
+
+
+@dataclass(frozen=True)
+class _Product:
+    """One product's outcome as a worker returns it: all the main process writes, nothing more."""
+
+    product_id: str
+    line: bytes | None
+    summary: list
+    error: str | None = None
+    internal: bool = False
+    reused: bool = False
+    pretty: bytes | None = None
+
+
+def load_row(row: ManifestRow, allow_outside: bool = False) -> LoadedProduct:
+    """Validate one manifest row and read its spectrum (inside the manifest's folder tree unless
+    ``allow_outside``).
 
     Raises
     ------
@@ -72,156 +169,283 @@ def load_row(row: ManifestRow) -> LoadedProduct:
     if row.problem is not None:
         raise row.problem
     record = record_from_fields(row.fields, path=row.origin, text=row.text)
-    return product_from_record(record, row.base_dir, row.origin, row.inputs)
+    return product_from_record(record, row.base_dir, row.origin, row.inputs,
+                               root=None if allow_outside else row.root)
 
 
-def _load_or_error(row: ManifestRow) -> LoadedProduct | str:
-    try:
-        return load_row(row)
-    except InputError as exc:
-        return str(exc)
-    except OSError as exc:
-        return f"{row.origin}: cannot read input ({exc.strerror or exc}); fix: check the file and its permissions"
+def failure_reason(row: ManifestRow, exc: BaseException) -> tuple[str, bool]:
+    """A product's failure as (one-line reason, whether it is a defect of the tool)."""
+    if isinstance(exc, InputError):
+        return str(exc), False
+    if isinstance(exc, OSError):
+        return str(InputError(f"cannot read input ({exc.strerror or type(exc).__name__})",
+                              "check the file and its permissions", row.origin)), False
+    if isinstance(exc, ArithmeticError):
+        return str(InputError(f"the computation left the range of numbers ({type(exc).__name__})",
+                              "check the record's distances and source size and the spectrum's unit",
+                              row.origin)), False
+    return str(InputError(f"internal error ({type(exc).__name__}: {exc})", INTERNAL_FIX, row.origin)), True
 
 
-def _current_inputs(row: ManifestRow) -> dict[str, str] | None:
-    """The input hashes a fresh assessment of ``row`` would record, or None when they cannot be known."""
+def _digest(inputs: dict) -> str:
+    return hashlib.sha256(json.dumps(dict(sorted(inputs.items())), sort_keys=True).encode()).hexdigest()
+
+
+def _current_inputs(row: ManifestRow, allow_outside: bool) -> str | None:
+    """Digest of the input hashes a fresh assessment of ``row`` would record, or None when they cannot be
+    known (the product is then assessed again, which names the problem)."""
     spectrum = row.fields.get("spectrum")
-    if row.problem is not None or not isinstance(spectrum, str):
+    if row.problem is not None or not isinstance(spectrum, str) or not spectrum:
         return None
     try:
-        digest = hashlib.sha256((row.base_dir / spectrum).read_bytes()).hexdigest()
-    except OSError:
+        record = record_from_fields(row.fields, path=row.origin, text=row.text)
+        path = spectrum_path(record, row.base_dir, row.origin, None if allow_outside else row.root)
+        raw = read_user_file(path, what="spectrum file", max_bytes=current_limits().max_bytes)
+    except (InputError, OSError):
         return None
-    return dict(sorted({**row.inputs, spectrum: digest}.items()))
+    return _digest({**row.inputs, spectrum: hashlib.sha256(raw).hexdigest()})
 
 
-def _previous_results(folder: Path) -> dict[str, str]:
-    """id → JSON line from an earlier run's final and partial results; a torn last line is ignored."""
-    found: dict[str, str] = {}
+def _complete_lines(path: Path) -> Iterator[tuple[int, bytes]]:
+    """(offset, line without its newline) of each complete line; a torn last line is left out."""
+    offset = 0
+    with open(path, "rb") as handle:
+        for line in handle:
+            if not line.endswith(b"\n"):
+                return
+            yield offset, line[:-1]
+            offset += len(line)
+
+
+def _previous_results(folder: Path) -> dict[str, _Earlier]:
+    """id → where an earlier run's final or partial result is (the partial file wins); lines that do not
+    read as a result (torn, damaged, not UTF-8) are skipped and recomputed."""
+    found: dict[str, _Earlier] = {}
     for path in (folder / RESULTS_NAME, folder / (RESULTS_NAME + PARTIAL_SUFFIX)):
-        if not path.exists():
+        if not path.is_file():
             continue
-        for line in path.read_text(encoding="utf-8").splitlines():
+        for offset, line in _complete_lines(path):
             try:
-                found[json.loads(line)["id"]] = line
-            except (json.JSONDecodeError, KeyError, TypeError):
+                result = json.loads(line)
+                earlier = _Earlier(str(path), offset, len(line), _digest(result["provenance"]["inputs"]),
+                                   result.get("distances") is not None)
+                found[str(result["id"])] = earlier
+            except (ValueError, KeyError, TypeError, AttributeError):
                 continue
     return found
+
+
+def _cut_torn_tail(path: Path) -> None:
+    """Cut a partial file after its last complete line, so that appended lines start on a line of their own."""
+    if not path.is_file():
+        return
+    size = path.stat().st_size
+    with open(path, "rb+") as handle:
+        keep = 0
+        for offset, line in _complete_lines(path):
+            keep = offset + len(line) + 1
+        if keep < size:
+            handle.truncate(keep)
 
 
 def _hazard_columns(limit_set: LimitSet) -> list[str]:
     return [f"{h.symbol}_{part}" for h in limit_set.hazards for part in ("value", "group", "t_max_s")]
 
 
-def summary_rows(outcome: BatchOutcome, limit_set: LimitSet = DEFAULT_LIMIT_SET) -> list[dict]:
-    """One summary row per product, in manifest order (the columns of ``summary.csv``)."""
-    rows = []
-    for product_id in outcome.ids:
-        row = {"id": product_id, "status": "ok", "risk_group": "", "group_note": "", "complete": "", "basis": "",
-               "what_if_distance_mm": "", "what_if_risk_group": "", "warning_count": "",
-               "claims_contradicted": "", "claims": "", "uncertainty": "", "group_range": "",
-               "min_distance_exempt_mm": "", "error": ""}
-        row.update(dict.fromkeys(_hazard_columns(limit_set), ""))
-        if product_id in outcome.errors:
-            row.update(status="error", error=outcome.errors[product_id])
-        else:
-            a = outcome.assessments[product_id]
-            group = a.classification_group
-            row.update(risk_group=group or NOT_DETERMINED, complete=str(a.complete).lower(), basis=a.basis,
-                       group_note="" if a.complete or group is None else "lower bound")
-            if a.basis == "what-if":
-                row.update(what_if_distance_mm=repr(a.assessment_distance_mm),
-                           what_if_risk_group=a.risk_group or NOT_DETERMINED)
-            row.update(
-                       warning_count=len(a.warnings),
-                       claims_contradicted=sum(c.verdict == "contradicted" for c in a.claims),
-                       claims="; ".join(f"{c.field}: {c.verdict}" for c in a.claims))
-            if a.uncertainty is not None:
-                row.update(uncertainty=a.uncertainty.verdict,
-                           group_range=f"{a.uncertainty.risk_group_low}-{a.uncertainty.risk_group_high}")
-            if a.distances is not None and "Exempt" in a.distances.minimum_distance_mm:
-                found = a.distances.minimum_distance_mm["Exempt"]
-                row["min_distance_exempt_mm"] = (repr(found) if found is not None else
-                                                 f"not within {a.distances.distance_mm[-1]:.0f}")
-            for symbol, h in a.hazards.items():
-                row[f"{symbol}_value"] = "" if h.value is None else repr(h.value)
-                row[f"{symbol}_group"] = h.risk_group or ("not assessed" if not h.assessed else "")
-                row[f"{symbol}_t_max_s"] = "" if h.t_max_s is None else repr(h.t_max_s)
-        rows.append(row)
-    return rows
+def summary_columns(limit_set: LimitSet = DEFAULT_LIMIT_SET) -> list[str]:
+    """The columns of ``summary.csv``."""
+    return ["id", "status", "risk_group", "group_note", "complete", "basis", "what_if_distance_mm",
+            "what_if_risk_group", *_hazard_columns(limit_set), "warning_count", "claims_contradicted", "claims",
+            "uncertainty", "group_range", "min_distance_exempt_mm", "error", "file_stem"]
 
 
-def _summary_csv(outcome: BatchOutcome, limit_set: LimitSet) -> bytes:
-    columns = ["id", "status", "risk_group", "group_note", "complete", "basis", "what_if_distance_mm",
-               "what_if_risk_group",
-               *_hazard_columns(limit_set), "warning_count", "claims_contradicted", "claims", "uncertainty",
-               "group_range", "min_distance_exempt_mm", "error"]
-    buffer = io.StringIO()
-    writer = csv.DictWriter(buffer, fieldnames=columns, lineterminator="\n")
-    writer.writeheader()
-    writer.writerows(summary_rows(outcome, limit_set))
-    return buffer.getvalue().encode("utf-8")
+def summary_row(product_id: str, stem: str, assessment: Assessment | None, error: str | None,
+                limit_set: LimitSet = DEFAULT_LIMIT_SET) -> dict:
+    """One product's row of ``summary.csv``: the risk group is the standard's classification (a what-if has its
+    own columns), "not determined" when there is none."""
+    row = dict.fromkeys(summary_columns(limit_set), "")
+    row.update(id=product_id, status="ok", file_stem=stem)
+    if error is not None or assessment is None:
+        row.update(status="error", error=error or "")
+        return row
+    a = assessment
+    group = a.classification_group
+    row.update(risk_group=group or NOT_DETERMINED, complete=str(a.complete).lower(), basis=a.basis,
+               group_note="" if a.complete or group is None else "lower bound", warning_count=len(a.warnings),
+               claims_contradicted=sum(c.verdict == "contradicted" for c in a.claims),
+               claims="; ".join(f"{c.field}: {c.verdict}" for c in a.claims))
+    if a.basis == "what-if":
+        row.update(what_if_distance_mm=repr(a.assessment_distance_mm),
+                   what_if_risk_group=a.risk_group or NOT_DETERMINED)
+    if a.uncertainty is not None:
+        row.update(uncertainty=a.uncertainty.verdict,
+                   group_range=f"{a.uncertainty.risk_group_low}-{a.uncertainty.risk_group_high}")
+    if a.distances is not None and "Exempt" in a.distances.minimum_distance_mm:
+        found = a.distances.minimum_distance_mm["Exempt"]
+        row["min_distance_exempt_mm"] = (repr(found) if found is not None else
+                                         f"not within {a.distances.distance_mm[-1]:.0f}")
+    for symbol, h in a.hazards.items():
+        row[f"{symbol}_value"] = "" if h.value is None else repr(h.value)
+        row[f"{symbol}_group"] = h.risk_group or ("not assessed" if not h.assessed else "")
+        row[f"{symbol}_t_max_s"] = "" if h.t_max_s is None else repr(h.t_max_s)
+    return row
 
 
-def safe_file_stem(product_id: str) -> str:
-    """A file name stem from a product id: letters, digits, '.', '-' and '_' kept, the rest as '_'."""
-    return re.sub(r"[^A-Za-z0-9._-]", "_", product_id).strip(".") or "product"
+@dataclass(frozen=True)
+class _Job:
+    """A chunk of rows for a worker, with what it needs to know of each."""
+
+    rows: list[ManifestRow]
+    stems: list[str]
+    earlier: dict[str, _Earlier]
+    studies: bool
+    limit_set: LimitSet
+    allow_outside: bool
+    pretty: bool
 
 
-def _render_one(job: tuple[str, str]) -> None:
-    """Worker: render one saved result to a PDF file (top level, so a process pool can call it)."""
-    from reports import render_assessment_pdf, report_time
-
-    text, target = job
-    write_atomic(Path(target), render_assessment_pdf(Assessment.model_validate_json(text), report_time()))
-
-
-def _write_pdfs(folder: Path, outcome: BatchOutcome, lines: dict[str, str], jobs: int) -> None:
-    from reports import render_summary_pdf, report_time
-    from reports.fonts import report_fonts
-
-    work = [(lines[i], str(folder / f"{safe_file_stem(i)}.pdf")) for i in outcome.ids if i in lines]
-    progress = Progress(len(work), "reports")
-    if jobs > 1 and len(work) > 1:
-        report_fonts()  # register the fonts once here; the workers inherit them
-        with ProcessPoolExecutor(max_workers=jobs) as pool:
-            for _ in pool.map(_render_one, work, chunksize=4):
-                progress.advance()
-    else:
-        for job in work:
-            _render_one(job)
-            progress.advance()
-    progress.close()
-    errors = [(i, outcome.errors[i]) for i in outcome.ids if i in outcome.errors]
-    assessments = [outcome.assessments[i] for i in outcome.ids if i in outcome.assessments]
-    write_atomic(folder / "summary.pdf", render_summary_pdf(assessments, errors, report_time()))
+def _finished(job: _Job, k: int, assessment: Assessment, line: bytes, reused: bool) -> _Product:
+    row = job.rows[k]
+    pretty = (assessment.model_dump_json(indent=2) + "\n").encode("utf-8") if job.pretty else None
+    return _Product(row.product_id, line, list(summary_row(row.product_id, job.stems[k], assessment, None,
+                                                           job.limit_set).values()), reused=reused, pretty=pretty)
 
 
-def _assess_chunk(job: tuple[list[ManifestRow], bool, LimitSet]) -> list[tuple[str, str | None, str | None]]:
-    """Worker: load, assess and serialise a chunk of rows → (id, JSON line or None, error or None) each.
+def _failed(job: _Job, k: int, exc: BaseException) -> _Product:
+    row = job.rows[k]
+    reason, internal = failure_reason(row, exc)
+    return _Product(row.product_id, None, list(summary_row(row.product_id, job.stems[k], None, reason,
+                                                           job.limit_set).values()), reason, internal)
+
+
+def _reuse(job: _Job, k: int) -> _Product | None:
+    """The earlier result of row ``k`` when its inputs are unchanged and it reads back; else None."""
+    row = job.rows[k]
+    earlier = job.earlier.get(row.product_id)
+    if earlier is None or earlier.studies != job.studies or earlier.inputs != _current_inputs(row, job.allow_outside):
+        return None
+    try:
+        line = earlier.read()
+        assessment = Assessment.model_validate_json(line)
+    except (OSError, ValueError):
+        return None
+    return _finished(job, k, assessment, line, reused=True) if assessment.id == row.product_id else None
+
+
+def _assess(job: _Job, k: int, loaded: LoadedProduct, batch, position: int) -> _Product:
+    """Product ``k``'s result, every failure caught at this product."""
+    try:
+        if batch is None:
+            batch, position = evaluate_loaded([loaded], job.limit_set), 0
+        assessment = build_assessment(loaded, batch, position, studies=job.studies)
+        return _finished(job, k, assessment, assessment.model_dump_json().encode("utf-8"), reused=False)
+    except Exception as exc:  # noqa: BLE001 - the boundary of one product: nothing it does stops the others
+        return _failed(job, k, exc)
+
+
+def _run_job(job: _Job) -> list[_Product]:
+    """Worker: reuse, or load, assess and serialise, each row of a chunk.
 
     Top level, so a process pool can run it; every product's numbers are independent of the others in its
     chunk (:func:`hazard.method.integrals.integrate_spectra`), so any split of the work gives the same lines.
     """
-    rows, studies, limit_set = job
-    loaded = [_load_or_error(row) for row in rows]
-    good = [item for item in loaded if isinstance(item, LoadedProduct)]
-    batch = evaluate_loaded(good, limit_set) if good else None
-    out, position = [], 0
-    for row, item in zip(rows, loaded):
-        if isinstance(item, str):
-            out.append((row.product_id, None, item))
+    out: list[_Product | None] = [_reuse(job, k) for k in range(len(job.rows))]
+    loaded: dict[int, LoadedProduct] = {}
+    for k, row in enumerate(job.rows):
+        if out[k] is not None:
             continue
-        out.append((row.product_id, build_assessment(item, batch, position, studies=studies).model_dump_json(),
-                    None))
-        position += 1
+        try:
+            loaded[k] = load_row(row, job.allow_outside)
+        except Exception as exc:  # noqa: BLE001 - the boundary of one product
+            out[k] = _failed(job, k, exc)
+    batch = None
+    if loaded:
+        try:
+            batch = evaluate_loaded(list(loaded.values()), job.limit_set)
+        except Exception:  # noqa: BLE001 - one product broke the shared evaluation: evaluate each on its own
+            batch = None
+    for position, (k, product) in enumerate(loaded.items()):
+        out[k] = _assess(job, k, product, batch, position)
     return out
+
+
+def _in_order(pool: Executor | None, work, jobs: Iterable, ahead: int) -> Iterator:
+    """``work`` applied to each of ``jobs``, results in order, with at most ``ahead`` queued at a time (so a
+    batch of any size holds only a few chunks in memory)."""
+    if pool is None:
+        yield from map(work, jobs)
+        return
+    pending: deque = deque()
+    for job in jobs:
+        pending.append(pool.submit(work, job))
+        if len(pending) >= ahead:
+            yield pending.popleft().result()
+    while pending:
+        yield pending.popleft().result()
+
+
+
+def _input_files(source: Path, rows: list[ManifestRow]) -> Iterator[Path]:
+    """Every file the run reads: the manifest (or each record) and the spectra named."""
+    records = source.is_dir()
+    if not records:
+        yield source
+    for row in rows:
+        if records:
+            yield Path(row.origin)
+        spectrum = row.fields.get("spectrum")
+        if isinstance(spectrum, str) and spectrum and "\x00" not in spectrum:
+            yield row.base_dir / spectrum
+
+
+def _render_one(job: tuple[str, int, int, str]) -> str | None:
+    """Worker: render one saved result to a PDF file (top level, so a process pool can call it); None when
+    written, else why not (one product's report never stops the others')."""
+    from reports import render_assessment_pdf, report_time
+
+    path, offset, length, target = job
+    try:
+        with open(path, "rb") as handle:
+            handle.seek(offset)
+            line = handle.read(length)
+        write_atomic(Path(target), render_assessment_pdf(Assessment.model_validate_json(line), report_time()))
+    except OSError:
+        raise  # a full disk or a read-only folder stops the run with its one line
+    except Exception as exc:  # noqa: BLE001 - the boundary of one report
+        return f"{Path(target).name}: internal error while rendering ({type(exc).__name__}: {exc})"
+    return None
+
+
+def _write_pdfs(folder: Path, outcome: BatchOutcome, jobs: int) -> None:
+    from reports import render_summary_pdf, report_time
+    from reports.fonts import report_fonts
+
+    assessed = outcome.assessments
+    ids = [i for i in outcome.ids if i in assessed.positions]
+    work = ((str(assessed.path), *assessed.positions[i], str(folder / f"{outcome.stems[i]}.pdf")) for i in ids)
+    progress = Progress(len(ids), "reports")
+    pool = None
+    if jobs > 1 and len(ids) > 1:
+        report_fonts()  # register the fonts once here; the workers inherit them
+        pool = ProcessPoolExecutor(max_workers=jobs)
+    try:
+        for product_id, failure in zip(ids, _in_order(pool, _render_one, work, 4 * jobs)):
+            if failure is not None:
+                outcome.report_failures[product_id] = failure
+            progress.advance()
+    finally:
+        if pool is not None:
+            pool.shutdown(cancel_futures=True)
+        progress.close()
+    errors = [(i, outcome.errors[i]) for i in outcome.ids if i in outcome.errors]
+    # the summary's renderer takes whole results: it holds one per assessed product while it ranks them
+    write_atomic(folder / "summary.pdf", render_summary_pdf([assessed[i] for i in outcome.ids if i in assessed],
+                                                            errors, report_time()))
 
 
 def run_batch(source: str | Path, output_dir: str | Path, *, pdf: bool = False, jobs: int = 1,
               resume: bool = False, per_product_json: bool = False, studies: bool = False,
-              limit_set: LimitSet = DEFAULT_LIMIT_SET) -> BatchOutcome:
+              allow_outside: bool = False, limit_set: LimitSet = DEFAULT_LIMIT_SET) -> BatchOutcome:
     """Assess every product of a manifest or folder of records.
 
     Parameters
@@ -229,7 +453,8 @@ def run_batch(source: str | Path, output_dir: str | Path, *, pdf: bool = False, 
     source : str or Path
         CSV or .xlsx manifest, or a folder of TOML records.
     output_dir : str or Path
-        Where the outputs go (created if needed).
+        Where the outputs go (created if needed): a new or empty folder, or one an earlier run of the same
+        manifest wrote; never a folder holding the run's inputs.
     pdf : bool
         Also render one report per product and ``summary.pdf``.
     jobs : int
@@ -237,10 +462,12 @@ def run_batch(source: str | Path, output_dir: str | Path, *, pdf: bool = False, 
     resume : bool
         Reuse results of an earlier (possibly interrupted) run whose input hashes are unchanged.
     per_product_json : bool
-        Also write one ``ID.json`` per product.
+        Also write one ``STEM.json`` per product.
     studies : bool
         Also compute hazard distances and remedies per product (about 0.1 s each); the uncertainty study
         runs whenever a record states an uncertainty.
+    allow_outside : bool
+        Let spectrum paths lead outside the manifest's folder tree (absolute paths, ``..``).
 
     Returns
     -------
@@ -249,61 +476,68 @@ def run_batch(source: str | Path, output_dir: str | Path, *, pdf: bool = False, 
     Raises
     ------
     InputError
-        When the manifest itself is unusable.
+        When the manifest itself is unusable, or the output folder cannot be used.
     """
+    source, folder = Path(source), Path(output_dir)
     rows = read_manifest(source)
-    folder = Path(output_dir)
-    folder.mkdir(parents=True, exist_ok=True)
-    partial = folder / (RESULTS_NAME + PARTIAL_SUFFIX)
-    previous = _previous_results(folder) if resume else {}
-    if not resume:
-        partial.unlink(missing_ok=True)
-    outcome = BatchOutcome(ids=[row.product_id for row in rows])
-    lines: dict[str, str] = {}
-    todo = []
-    for row in rows:
-        line = previous.get(row.product_id)
-        earlier = json.loads(line) if line is not None else None
-        if (earlier is not None and earlier["provenance"]["inputs"] == _current_inputs(row)
-                and (earlier.get("distances") is not None) == studies):
-            lines[row.product_id] = line
-            outcome.assessments[row.product_id] = Assessment.model_validate_json(line)
-            outcome.reused += 1
+    ids = [row.product_id for row in rows]
+    stems = file_stems(ids)
+    outcome = BatchOutcome(ids=ids, stems=stems)
+    with OutputFolder(folder, source, _input_files(source, rows)):
+        partial = folder / (RESULTS_NAME + PARTIAL_SUFFIX)
+        previous = _previous_results(folder) if resume else {}
+        if resume:
+            _cut_torn_tail(partial)
         else:
-            todo.append(row)
-    progress = Progress(len(rows), "products")
-    progress.advance(outcome.reused)
-    chunks = [(todo[k:k + CHUNK_PRODUCTS], studies, limit_set) for k in range(0, len(todo), CHUNK_PRODUCTS)]
-    pool = None
-    if jobs > 1 and len(chunks) > 1:
-        import_colour()  # once here, inherited by the workers instead of imported by each
-        pool = ProcessPoolExecutor(max_workers=jobs)
-    try:
-        with open(partial, "a", encoding="utf-8") as sink:
-            results = pool.map(_assess_chunk, chunks) if pool is not None else map(_assess_chunk, chunks)
-            for chunk_result in results:  # in order, so the partial file grows in manifest order
-                for product_id, line, error in chunk_result:
-                    if error is not None:
-                        outcome.errors[product_id] = error
-                        continue
-                    lines[product_id] = line
-                    outcome.assessments[product_id] = Assessment.model_validate_json(line)
-                    sink.write(line + "\n")
-                sink.flush()
-                os.fsync(sink.fileno())
-                progress.advance(len(chunk_result))
-    finally:
-        if pool is not None:
-            pool.shutdown(cancel_futures=True)
-        progress.close()
-    write_atomic(folder / RESULTS_NAME,
-                 "".join(lines[i] + "\n" for i in outcome.ids if i in lines).encode("utf-8"))
-    write_atomic(folder / SUMMARY_NAME, _summary_csv(outcome, limit_set))
-    if per_product_json:
-        for product_id, assessment in outcome.assessments.items():
-            write_atomic(folder / f"{safe_file_stem(product_id)}.json",
-                         (assessment.model_dump_json(indent=2) + "\n").encode("utf-8"))
-    if pdf:
-        _write_pdfs(folder, outcome, lines, jobs)
-    partial.unlink(missing_ok=True)
+            partial.unlink(missing_ok=True)
+        chunks = (rows[k:k + CHUNK_PRODUCTS] for k in range(0, len(rows), CHUNK_PRODUCTS))
+        work = (_Job(chunk, [stems[r.product_id] for r in chunk],
+                     {r.product_id: previous[r.product_id] for r in chunk if r.product_id in previous},
+                     studies, limit_set, allow_outside, per_product_json) for chunk in chunks)
+        positions: dict[str, tuple[int, int]] = {}
+        progress = Progress(len(rows), "products")
+        pool = None
+        if jobs > 1 and len(rows) > CHUNK_PRODUCTS:
+            import_colour()  # once here, inherited by the workers instead of imported by each
+            pool = ProcessPoolExecutor(max_workers=jobs)
+        try:
+            with atomic_file(folder / RESULTS_NAME) as results, atomic_file(folder / SUMMARY_NAME) as summary, \
+                    open(partial, "ab") as journal:
+                text = io.StringIO()
+                table = csv.writer(text, lineterminator="\n")
+                table.writerow(summary_columns(limit_set))
+                for chunk in _in_order(pool, _run_job, work, CHUNKS_AHEAD * jobs + 1):
+                    for product in chunk:  # in manifest order
+                        table.writerow(product.summary)
+                        if product.error is not None:
+                            outcome.errors[product.product_id] = product.error
+                            if product.internal:
+                                outcome.internal.add(product.product_id)
+                            continue
+                        positions[product.product_id] = (results.tell(), len(product.line))
+                        results.write(product.line + b"\n")
+                        if product.reused:
+                            outcome.reused += 1
+                        else:
+                            journal.write(product.line + b"\n")
+                        if product.pretty is not None:
+                            write_atomic(folder / f"{stems[product.product_id]}.json", product.pretty)
+                    summary.write(text.getvalue().encode("utf-8"))
+                    text.seek(0)
+                    text.truncate()
+                    journal.flush()
+                    os.fsync(journal.fileno())
+                    progress.advance(len(chunk))
+        except OSError as exc:  # a full disk, a folder made read-only meanwhile: name the folder
+            if exc.filename is None:
+                raise OSError(exc.errno, exc.strerror, str(folder)) from exc
+            raise
+        finally:
+            if pool is not None:
+                pool.shutdown(cancel_futures=True)
+            progress.close()
+        outcome.assessments = LazyAssessments(folder / RESULTS_NAME, positions)
+        if pdf:
+            _write_pdfs(folder, outcome, jobs)
+        partial.unlink(missing_ok=True)
     return outcome

@@ -7,7 +7,9 @@ them, so ``hazard --help`` answers fast.
 
 from __future__ import annotations
 
+import errno
 import json
+import os
 import sys
 import traceback
 from pathlib import Path
@@ -15,9 +17,18 @@ from pathlib import Path
 import click
 
 from hazard._version import __version__
-from hazard.atomic import write_atomic
+from hazard.atomic import remove_stale_temporaries, write_atomic
 
-EXIT_OK, EXIT_INTERNAL, EXIT_INPUT, EXIT_CONTRADICTED = 0, 1, 2, 4
+EXIT_OK, EXIT_INTERNAL, EXIT_INPUT, EXIT_SOME_FAILED, EXIT_CONTRADICTED = 0, 1, 2, 3, 4
+SCREEN_PRODUCTS = 200
+"""A batch table on screen lists at most this many products; summary.csv has them all [1]."""
+MAX_RESULT_BYTES = 64 * 1024 * 1024
+"""Largest saved result read by ``hazard report`` [bytes]."""
+
+_ALLOW_OUTSIDE = click.option(
+    "--allow-outside", is_flag=True,
+    help="Let records and manifests name spectra outside their own folder (absolute paths, '..'): only for "
+         "files you trust.")
 
 _RECORD_OPTIONS = [
     click.option("--id", "id_", help="Product id (default: the spectrum file's stem)."),
@@ -47,7 +58,7 @@ def _record_options(func):
 def _overrides(options: dict) -> dict:
     fields = {("id" if k == "id_" else k): v for k, v in options.items()}
     column = fields.get("column")
-    if isinstance(column, str) and column.isdigit():
+    if isinstance(column, str) and column.isascii() and column.isdecimal() and len(column) <= 7:
         fields["column"] = int(column)
     return {k: v for k, v in fields.items() if v is not None}
 
@@ -63,13 +74,18 @@ class _Group(click.Group):
         except InputError as exc:
             click.echo(f"hazard: error: {exc}", err=True)
             ctx.exit(EXIT_INPUT)
+        except click.UsageError as exc:  # one line, as every other refusal
+            command = exc.ctx.command_path if exc.ctx is not None else "hazard"
+            click.echo(f"hazard: error: {exc.format_message().rstrip('.')}; fix: see '{command} --help'", err=True)
+            ctx.exit(EXIT_INPUT)
         except (click.exceptions.Exit, click.exceptions.Abort, click.ClickException):
             raise
         except BrokenPipeError:  # output piped into e.g. `head`, which stopped reading
-            import os
-
             os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
             ctx.exit(EXIT_OK)
+        except OSError as exc:  # mostly writing the outputs: a full disk, a read-only folder
+            click.echo(f"hazard: error: {_os_error_text(exc)}", err=True)
+            ctx.exit(EXIT_INPUT)
         except Exception as exc:  # noqa: BLE001 - the last line of defence, reported as internal
             if ctx.obj and ctx.obj.get("debug"):
                 traceback.print_exc()
@@ -77,6 +93,42 @@ class _Group(click.Group):
                 click.echo(f"hazard: internal error: {type(exc).__name__}: {exc} (rerun with --debug for "
                            f"the traceback, and please report it)", err=True)
             ctx.exit(EXIT_INTERNAL)
+
+
+def _os_error_text(exc: OSError) -> str:
+    """An operating-system error (mostly while writing the outputs) as one line with the fix."""
+    from hazard.errors import InputError
+
+    writing = {errno.ENOSPC: "free disk space and run again (a batch continues with --resume)",
+               errno.EDQUOT: "free space within your quota and run again (a batch continues with --resume)",
+               errno.EFBIG: "write to a file system that takes larger files",
+               errno.EROFS: "write to a folder on a writable file system"}
+    if exc.errno in writing:
+        problem, fix = f"cannot write: {exc.strerror}", writing[exc.errno]
+    elif exc.errno in (errno.EACCES, errno.EPERM):
+        problem, fix = f"permission denied ({exc.strerror})", "use files and folders you may read and write"
+    else:
+        problem, fix = f"file system error: {exc.strerror or type(exc).__name__}", "check the files and free space"
+    return str(InputError(problem, fix, None if exc.filename is None else os.fsdecode(exc.filename)))
+
+
+def _refuse_overwriting_inputs(outputs: list[Path | None], inputs: list[Path]) -> None:
+    """An output path must not be an input, nor two outputs one file.
+
+    Raises
+    ------
+    InputError
+    """
+    from hazard.errors import InputError
+
+    given = [p for p in outputs if p is not None]
+    real = {os.path.realpath(p) for p in inputs}
+    for k, path in enumerate(given):
+        here = os.path.realpath(path)
+        if here in real:
+            raise InputError("the output would replace an input file", "name another output file", str(path))
+        if any(os.path.realpath(other) == here for other in given[:k]):
+            raise InputError("two outputs name the same file", "give --output and --pdf different files", str(path))
 
 
 @click.group(cls=_Group, context_settings={"help_option_names": ["-h", "--help"]})
@@ -100,14 +152,20 @@ def main(ctx: click.Context, debug: bool) -> None:
               help="Write the output to this file (atomically) instead of the terminal.")
 @click.option("--pdf", "pdf_path", type=click.Path(dir_okay=False, path_type=Path),
               help="Also render the PDF report to this file.")
-def assess(product: Path, output_format: str, output: Path | None, pdf_path: Path | None, **options) -> None:
+@_ALLOW_OUTSIDE
+def assess(product: Path, output_format: str, output: Path | None, pdf_path: Path | None, allow_outside: bool,
+           **options) -> None:
     """Assess one product: RECORD.toml, or a spectrum file with record options.
 
     Example: hazard assess lamp.csv --distance-mm 200 --source-diameter-mm 5
     """
     from hazard.engine import assess as run_assessment
+    from hazard.inputs import load_product
 
-    assessment = run_assessment(product, _overrides(options))
+    loaded = load_product(product, _overrides(options), allow_outside=allow_outside)
+    spectrum = (product.parent / loaded.record.spectrum) if loaded.record.spectrum else product
+    _refuse_overwriting_inputs([output, pdf_path], [product, spectrum])
+    assessment = run_assessment(loaded)
     if pdf_path is not None:
         _write_report(assessment, pdf_path)
     if output_format == "json":
@@ -119,14 +177,20 @@ def assess(product: Path, output_format: str, output: Path | None, pdf_path: Pat
     if output is None:
         click.echo(text, nl=False)
     else:
-        write_atomic(output, text.encode("utf-8"))
+        _write_file(output, text.encode("utf-8"))
         click.echo(f"wrote {output} ({assessment.id}: {assessment.risk_group})", err=True)
+
+
+def _write_file(path: Path, data: bytes) -> None:
+    """Write one output atomically, first removing what a killed run left while writing the same file."""
+    remove_stale_temporaries(path.parent, path.name)
+    write_atomic(path, data)
 
 
 def _write_report(assessment, pdf_path: Path) -> None:
     from reports import render_assessment_pdf, report_time
 
-    write_atomic(pdf_path, render_assessment_pdf(assessment, report_time()))
+    _write_file(pdf_path, render_assessment_pdf(assessment, report_time()))
     click.echo(f"wrote {pdf_path}", err=True)
 
 
@@ -137,16 +201,31 @@ def _write_report(assessment, pdf_path: Path) -> None:
 @click.option("--id", "product_id", help="With a results.jsonl of 'hazard batch': the product to render.")
 def report(result: Path, output: Path, product_id: str | None) -> None:
     """Render the PDF report of a saved result (from `hazard assess --format json`, or one product of a
-    batch's results.jsonl with --id), without recomputing it. The result is checked first: its groups must
-    follow from its own values and limits."""
-    from hazard.errors import InputError
+    batch's results.jsonl with --id), without recomputing it. The result is checked first: unchanged since it
+    was made, and its groups must follow from its own values and limits."""
     from hazard.verify import check_result
 
+    _refuse_overwriting_inputs([output], [result])
     assessment = _load_result(result, product_id)
     check_result(assessment, str(result))
-    if output.resolve() == result.resolve():
-        raise InputError("the PDF would replace the result it is made from", "give another --output", str(output))
     _write_report(assessment, output)
+
+
+def _result_line(path: Path, product_id: str, fix: str) -> tuple[bytes, int]:
+    """The line of a JSON-lines file whose id is ``product_id``, read one line at a time (a batch's results can
+    be large)."""
+    from hazard.errors import InputError
+    from hazard.userfiles import regular_file_size
+
+    regular_file_size(path, what="results file", display=str(path), fix_missing=fix)
+    with open(path, "rb") as handle:
+        for number, line in enumerate(handle, start=1):
+            try:
+                if json.loads(line).get("id") == product_id:
+                    return line, number
+            except (ValueError, AttributeError):
+                continue
+    raise InputError(f"no result with id {product_id!r}", "check the id (see summary.csv)", str(path))
 
 
 def _load_result(path: Path, product_id: str | None):
@@ -154,42 +233,46 @@ def _load_result(path: Path, product_id: str | None):
     from pydantic import ValidationError
 
     from hazard.errors import InputError
+    from hazard.guard import first_non_finite
     from hazard.result import Assessment
+    from hazard.userfiles import read_user_file
 
     fix = "give a JSON file written by 'hazard assess --format json', or a results.jsonl with --id"
-    try:
-        raw = path.read_bytes()
-    except FileNotFoundError:
-        raise InputError("result file not found", fix, str(path)) from None
-    except OSError as exc:
-        raise InputError(f"cannot read the result ({exc.strerror})", fix, str(path)) from None
     line_number = None
-    if product_id is not None:
-        for number, line in enumerate(raw.splitlines(), start=1):
-            try:
-                if json.loads(line).get("id") == product_id:
-                    raw, line_number = line, number
-                    break
-            except (ValueError, AttributeError):
-                continue
-        else:
-            raise InputError(f"no result with id {product_id!r}", "check the id (see summary.csv)", str(path))
+    if product_id is None:
+        raw = read_user_file(path, what="result file", max_bytes=MAX_RESULT_BYTES, fix_missing=fix,
+                             fix_large="give one result written by 'hazard assess --format json', or --id")
+    else:
+        raw, line_number = _result_line(path, product_id, fix)
     try:
-        return Assessment.model_validate_json(raw)
+        assessment = Assessment.model_validate_json(raw)
     except ValidationError as exc:
         first = exc.errors()[0]
         where = ".".join(map(str, first["loc"])) or "the top level"
         raise InputError(f"not an assessment result of this tool version ({first['msg']} at {where})", fix,
                          str(path), line_number) from None
+    found = first_non_finite(assessment.model_dump())
+    if found is not None:
+        raise InputError(f"not an assessment result: {found[0]} is {found[1]}", fix, str(path), line_number)
+    return assessment
 
 
 def _finish_batch(outcome, output: Path, pdf: bool) -> None:
     from hazard.textout import render_batch_table
 
-    click.echo(render_batch_table(outcome.ids, outcome.assessments, outcome.errors), nl=False)
+    shown = outcome.ids[:SCREEN_PRODUCTS]
+    click.echo(render_batch_table(shown, {i: outcome.assessments[i] for i in shown if i in outcome.assessments},
+                                  {i: outcome.errors[i] for i in shown if i in outcome.errors}), nl=False)
+    if len(outcome.ids) > len(shown):
+        click.echo(f"… and {len(outcome.ids) - len(shown)} more products: every one is in summary.csv")
     written = "results.jsonl, summary.csv" + (", one PDF per product and summary.pdf" if pdf else "")
     click.echo(f"\n{len(outcome.assessments)} assessed ({outcome.reused} reused), {len(outcome.errors)} failed; "
                f"wrote {written} in {output}")
+    if outcome.internal:
+        click.echo(f"hazard: internal error on {len(outcome.internal)} product(s), recorded in summary.csv; please "
+                   f"report it", err=True)
+    for failure in outcome.report_failures.values():
+        click.echo(f"hazard: {failure}; please report it", err=True)
     from hazard.cautions import PRE_SCREEN
 
     click.echo(f"Caution: {PRE_SCREEN}")
@@ -206,14 +289,21 @@ def _finish_batch(outcome, output: Path, pdf: bool) -> None:
                                              "unchanged since they were assessed.")
 @click.option("--studies", is_flag=True, help="Also compute hazard distances and remedies (about 0.1 s per "
                                               "product).")
-def batch(manifest: Path, output: Path, pdf: bool, jobs: int, resume: bool, studies: bool) -> None:
+@_ALLOW_OUTSIDE
+def batch(manifest: Path, output: Path, pdf: bool, jobs: int, resume: bool, studies: bool,
+          allow_outside: bool) -> None:
     """Assess every product of a CSV/.xlsx manifest or a folder of TOML records.
 
-    Exit code 0 when all were assessed, 3 when some failed, 2 when the manifest itself is unusable.
+    The output folder must be new, empty, or written by an earlier run of the same manifest; it may not hold
+    the run's inputs (name a new sub-folder instead), and one run at a time writes into it.
+
+    Exit code 0 when all were assessed, 3 when some failed, 2 when the manifest or the output folder is
+    unusable, 1 when the tool failed on a product (every output is still written).
     """
     from hazard.batch import run_batch
 
-    outcome = run_batch(manifest, output, pdf=pdf, jobs=jobs, resume=resume, studies=studies)
+    outcome = run_batch(manifest, output, pdf=pdf, jobs=jobs, resume=resume, studies=studies,
+                        allow_outside=allow_outside)
     _finish_batch(outcome, output, pdf)
     sys.exit(outcome.exit_code)
 
@@ -260,34 +350,39 @@ def demo(output: Path, jobs: int) -> None:
               help="Illuminance tolerance [%].")
 @click.option("--t-max-tolerance-pct", type=float, default=10.0, show_default=True,
               help="A claimed t_max longer than computed by more than this is contradicted [%].")
+@_ALLOW_OUTSIDE
 def check(source: Path, output_format: str, cct_tolerance_k: float, cct_tolerance_pct: float,
-          illuminance_tolerance_pct: float, t_max_tolerance_pct: float) -> None:
+          illuminance_tolerance_pct: float, t_max_tolerance_pct: float, allow_outside: bool) -> None:
     """Check vendor claims (claimed_risk_group, claimed_cct_k, claimed_illuminance_lx, claimed_t_max_s_*)
     of a RECORD.toml, a CSV/.xlsx manifest or a folder of records.
 
     Exit code 4 when any claim is contradicted (so a pipeline can gate on it), 3 when a product could not be
-    assessed, 2 for unusable input, else 0.
+    assessed, 2 for unusable input, 1 when the tool failed on a product, else 0.
     """
-    from hazard.batch import load_row
+    from hazard.batch import failure_reason, load_row
     from hazard.claims import ClaimTolerances
     from hazard.engine import assess as run_assessment
-    from hazard.errors import InputError
-    from hazard.manifest import read_manifest
+    from hazard.errors import one_line
+    from hazard.inputs import load_product
+    from hazard.manifest import ManifestRow, read_manifest
     from hazard.textout import render_claims
 
     tolerances = ClaimTolerances(cct_tolerance_k, cct_tolerance_pct, illuminance_tolerance_pct, t_max_tolerance_pct)
     if source.suffix.lower() == ".toml":
-        items = [(source.stem, lambda: run_assessment(source, tolerances=tolerances))]
+        items = [(ManifestRow(str(source), {}, source.parent, {}),
+                  lambda: run_assessment(load_product(source, allow_outside=allow_outside), tolerances=tolerances))]
     else:
-        items = [(row.product_id, (lambda row=row: run_assessment(load_row(row), tolerances=tolerances)))
+        items = [(row, (lambda row=row: run_assessment(load_row(row, allow_outside), tolerances=tolerances)))
                  for row in read_manifest(source)]
-    contradicted = failed = False
-    for label, run in items:
+    contradicted = failed = internal = False
+    for row, run in items:
         try:
             assessment = run()
-        except InputError as exc:
-            failed = True
-            click.echo(f"{label}: error: {exc}", err=True)
+        except Exception as exc:  # noqa: BLE001 - the boundary of one product: nothing it does stops the others
+            reason, defect = failure_reason(row, exc)
+            failed, internal = True, internal or defect
+            click.echo(f"{one_line(row.product_id if row.fields else Path(row.origin).stem, 80)}: error: {reason}",
+                       err=True)
             continue
         contradicted |= any(c.verdict == "contradicted" for c in assessment.claims)
         if output_format == "json":
@@ -306,7 +401,8 @@ def check(source: Path, output_format: str, cct_tolerance_k: float, cct_toleranc
         from hazard.cautions import PRE_SCREEN
 
         click.echo(f"Caution: {PRE_SCREEN}")
-    sys.exit(EXIT_CONTRADICTED if contradicted else (3 if failed else EXIT_OK))
+    sys.exit(EXIT_INTERNAL if internal else EXIT_CONTRADICTED if contradicted else
+             (EXIT_SOME_FAILED if failed else EXIT_OK))
 
 
 @main.command()

@@ -16,6 +16,7 @@ from hazard._version import __version__
 from hazard.cautions import select_cautions
 from hazard.claims import DEFAULT_TOLERANCES, ClaimTolerances, check_claims
 from hazard.formatting import UNIT_DISPLAY, format_duration_s
+from hazard.guard import require_finite
 from hazard.inputs import LoadedProduct, load_product, product_from_record
 from hazard.method.classify import top_down_groups
 from hazard.method.evaluate import Evaluation, ProductArrays, evaluate, integral_index, share_key
@@ -515,7 +516,7 @@ def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int,
               for s, h in hazards.items()}
     tables = {name: {"symbol": t.symbol, "source": t.metadata["source"], "edition": t.metadata["edition"],
                      "sha256": t.sha256} for name in TABLE_NAMES for t in [load_table(name)]}
-    return Assessment(
+    return require_finite(Assessment(
         id=record.id, name=record.name, risk_group=overall, complete=bool(ev.complete[i]),
         basis="what-if" if what_if else "standard",
         standard_risk_group=standard_overall if what_if else None,
@@ -547,7 +548,7 @@ def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int,
                             assessment_distance_mm=standard_distance_mm, tolerances=tolerances),
         provenance=Provenance(tool_version=__version__, limit_set=limit_set.name, tables=tables,
                               inputs=dict(sorted(loaded.inputs.items())), method=METHOD_TEXT),
-        limit_set=limit_set_info(limit_set)).sealed()
+        limit_set=limit_set_info(limit_set)).sealed())
 
 
 def limit_set_info(limit_set: LimitSet) -> LimitSetInfo:

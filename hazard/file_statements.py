@@ -1,11 +1,12 @@
 """What a spectrum file says about itself, checked against the record: the unit is never guessed, and a
 distance the file states that the record contradicts is named in a warning.
 
-A file states its unit in the value column's header cell (``Irradiance [mW/m²/nm]``), in a metadata line
-before the table (``Unit: uW/cm2/nm``) or, for JSON, in its ``unit`` key. A statement this tool reads is used
-(and must agree with the record's ``unit``); a statement it cannot trust as calibrated spectral values
-(``Counts``, ``%``, ``W/m2`` without /nm, a unit it does not read) is an error unless the record states
-``unit`` itself.
+A file states its unit in the value column's header cell (``Irradiance [mW/m²/nm]``), in a line before the
+table or a comment whose key names a unit (``Unit: uW/cm2/nm``, ``# Y units = W/cm2/nm``), in a JSON key that
+names a unit (``unit``, ``value_unit``), or in any line before the table that is a spectral unit and nothing
+else (a unit row above the column names). A statement this tool reads is used (and all must agree with each
+other and with the record's ``unit``); a statement it cannot trust as calibrated spectral values (``Counts``,
+``%``, ``W/m2`` without /nm, a unit it does not read) is an error unless the record states ``unit`` itself.
 """
 
 from __future__ import annotations
@@ -28,10 +29,31 @@ MAX_METADATA_TEXT = 120
 DISTANCE_TOLERANCE = 0.01
 """A distance the file states differs from the record's beyond this relative amount: a warning [1]."""
 
-_UNIT_KEY = re.compile(r"^\s*units?\b", re.IGNORECASE)
+_UNIT_KEY = re.compile(r"(?<![a-z])units?(?![a-z])", re.IGNORECASE)
+_COMMENT_ITEM = re.compile(r"^\s*([^:=]{1,80}?)\s*[:=]\s*(.+)$")
 _DISTANCE_KEY = re.compile(r"distance", re.IGNORECASE)
 _LENGTH = re.compile(r"([0-9]+(?:[.,][0-9]+)?)\s*(mm|cm|m)\b")
 _TO_MM = {"mm": 1.0, "cm": 10.0, "m": 1000.0}
+
+
+def _declared(text: str) -> HeaderStatement:
+    """A text that is declared to be the values' unit (it follows a key naming a unit): anything but a spectral
+    unit this tool reads is a problem."""
+    statement = header_statement(text)
+    if statement.unit is not None or statement.problem is not None:
+        return statement
+    return HeaderStatement(text, problem=f"{text!r}, a unit this tool does not read")
+
+
+def _items(metadata: dict) -> list[tuple[str, str, str]]:
+    """(key, value, where) of the metadata lines and of the comments written as ``key: value``."""
+    items = [(str(k), str(v).strip(), f"metadata line {str(k)[:40]!r}")
+             for k, v in metadata.get("metadata", {}).items()]
+    for comment in metadata.get("comments", []):
+        match = _COMMENT_ITEM.match(str(comment))
+        if match:
+            items.append((match.group(1), match.group(2).strip(), f"comment {str(comment)[:40]!r}"))
+    return items
 
 
 def _statements(raw: RawSpectrum, metadata: dict) -> list[tuple[HeaderStatement, int | None, str]]:
@@ -39,9 +61,13 @@ def _statements(raw: RawSpectrum, metadata: dict) -> list[tuple[HeaderStatement,
     found = []
     if raw.header_cell:
         found.append((header_statement(raw.header_cell), raw.header_line, "header cell"))
-    for key, value in metadata.get("metadata", {}).items():
-        if _UNIT_KEY.match(str(key)) and str(value).strip():
-            found.append((header_statement(str(value).strip()), None, f"metadata line {key!r}"))
+    for key, value, where in _items(metadata):
+        if not value:
+            continue
+        if _UNIT_KEY.search(key):
+            found.append((_declared(value), None, where))
+        elif (unit := header_statement(value)).unit == value:  # a line that is a spectral unit and nothing else
+            found.append((unit, None, where))
     return found
 
 

@@ -1,29 +1,46 @@
 """Batch input: a CSV or .xlsx manifest (one product record per row) or a folder of TOML records.
 
 Each row carries the record fields of :class:`hazard.record.ProductRecord`; ``spectrum`` paths are relative
-to the manifest's folder (or to each TOML file's folder). A manifest that cannot be used at all (missing,
-unreadable, no ``id`` column, an unknown column, duplicate ids) raises :class:`~hazard.errors.InputError`;
-a bad row is left for the batch to report on its own.
+to the manifest's folder (or to each TOML file's folder) and must stay inside that folder tree unless the run
+allows otherwise (:func:`hazard.inputs.spectrum_path`). A manifest that cannot be used at all (missing, not a
+regular file, unreadable, no ``id`` column, an unknown column, duplicate ids, beyond a size limit) raises
+:class:`~hazard.errors.InputError`; a bad row is left for the batch to report on its own.
+
+Reading costs bounded work for any file: the manifest is read up to a size limit, CSV in any line-ending
+convention (LF, CRLF, CR) with the separator taken from the header row, .xlsx streamed
+(:mod:`hazard.readers.workbook`), and rows counted against a limit.
 """
 
 from __future__ import annotations
 
 import csv
+import datetime
 import difflib
 import hashlib
 import io
 import json
-import tomllib
+import os
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from hazard.errors import InputError
-from hazard.record import ProductRecord
+from hazard.errors import InputError, excerpt
+from hazard.readers.common import current_limits
+from hazard.readers.workbook import workbook_rows
+from hazard.record import ProductRecord, read_record_file
+from hazard.userfiles import read_user_file
 
-__all__ = ["ManifestRow", "read_manifest"]
+__all__ = ["ManifestRow", "read_manifest", "MAX_MANIFEST_BYTES", "MAX_MANIFEST_ROWS"]
+
+MAX_MANIFEST_BYTES = 256 * 1024 * 1024
+"""Largest CSV manifest read (10⁶ rows of a few fields) [bytes]."""
+MAX_MANIFEST_ROWS = 1_000_000
+"""Most products in one manifest [1]."""
+MAX_FIELD_CHARS = 128 * 1024
+"""Longest CSV cell read; longer ones are refused with their line (the CSV reader's own limit) [characters]."""
+_SEPARATORS = (",", ";", "\t")
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class ManifestRow:
     """One product as the manifest gives it.
 
@@ -41,6 +58,8 @@ class ManifestRow:
         Why the row could not even be read (a TOML file with a syntax error).
     text : str or None
         The TOML text, to find line numbers in messages.
+    root : Path or None
+        The folder tree the ``spectrum`` path must lie in (the manifest's folder, or the folder of records).
     """
 
     origin: str
@@ -49,6 +68,7 @@ class ManifestRow:
     inputs: dict[str, str]
     problem: InputError | None = None
     text: str | None = field(default=None, repr=False)
+    root: Path | None = None
 
     @property
     def product_id(self) -> str:
@@ -65,54 +85,95 @@ def _check_columns(columns: list[str], path: str) -> None:
     if "id" not in columns:
         raise InputError("the manifest has no 'id' column", "add a header row naming the record fields, with "
                          "'id' and 'spectrum' among them", path, 1)
+    seen = set()
     for column in columns:
         if column not in known:
-            close = difflib.get_close_matches(column, known, n=1)
+            close = difflib.get_close_matches(column[:100], known, n=1)
             hint = f"rename it to {close[0]!r}" if close else "remove it or see 'hazard schema record'"
-            raise InputError(f"unknown column {column!r}", hint, path, 1)
+            raise InputError(f"unknown column {excerpt(column)}", hint, path, 1)
+        if column in seen:
+            raise InputError(f"column {column!r} appears twice", "keep one of them", path, 1)
+        seen.add(column)
 
 
-def _table_rows(header: list[str], rows: list[tuple[int, list]], path: Path) -> list[ManifestRow]:
-    header = [str(h).strip() if h is not None else "" for h in header]
+def _cell(value):
+    """A cell as a record field value: text stripped; dates and times (from a workbook) as ISO text."""
+    if isinstance(value, str):
+        return value.strip()
+    if isinstance(value, datetime.datetime) and value.time() == datetime.time():
+        return value.date().isoformat()  # a workbook's date cell: a date, not midnight of that date
+    if isinstance(value, (datetime.date, datetime.time, datetime.timedelta)):
+        return str(value)
+    return value
+
+
+def _table_rows(header: list, rows, path: Path) -> list[ManifestRow]:
+    """Rows from (line number, cells) pairs under ``header``, counted against :data:`MAX_MANIFEST_ROWS`."""
+    header = [str(_cell(h)) if h is not None else "" for h in header]
     _check_columns([h for h in header if h], str(path))
-    manifest = path.name
+    manifest, folder = path.name, path.parent
     result = []
     for number, cells in rows:
-        fields = {h: (c.strip() if isinstance(c, str) else c) for h, c in zip(header, cells)
-                  if h and c is not None and not (isinstance(c, str) and not c.strip())}
+        fields = {h: value for h, c in zip(header, cells)
+                  if h and (value := _cell(c)) is not None and value != ""}
         if not fields:
             continue
-        origin = f"{path}:{number}"
-        result.append(ManifestRow(origin=origin, fields=fields, base_dir=path.parent,
+        if len(result) >= MAX_MANIFEST_ROWS:
+            raise InputError(f"more than {MAX_MANIFEST_ROWS:,} products", "split the manifest", str(path), number)
+        result.append(ManifestRow(origin=f"{path}:{number}", fields=fields, base_dir=folder, root=folder,
                                   inputs={f"{manifest}:{fields.get('id', number)}": _row_digest(fields)}))
     return result
 
 
-def _read_csv(path: Path) -> list[ManifestRow]:
-    raw = path.read_bytes()
+def _decode(raw: bytes) -> str:
     try:
-        text = raw.decode("utf-8-sig")
+        return raw.decode("utf-8-sig")
     except UnicodeDecodeError:
-        text = raw.decode("latin-1")
-    dialect = csv.Sniffer().sniff(text.split("\n", 1)[0], delimiters=",;\t") if text.strip() else csv.excel
-    reader = csv.reader(io.StringIO(text), dialect)
-    lines = [(reader.line_num, row) for row in reader]
-    if not lines:
-        raise InputError("the manifest is empty", "give a header row and one row per product", str(path))
-    (_, header), body = lines[0], lines[1:]
-    return _table_rows(header, body, path)
+        return raw.decode("latin-1")
+
+
+def _csv_lines(reader, path: Path):
+    """(line number, cells) of a CSV reader, each CSV error one input error naming its line."""
+    while True:
+        try:
+            cells = next(reader)
+        except StopIteration:
+            return
+        except csv.Error as exc:
+            raise InputError(f"not a readable CSV row ({excerpt(exc, 80)})", "save the manifest again as CSV; "
+                             f"keep cells under {MAX_FIELD_CHARS // 1024} KiB", str(path), reader.line_num) from None
+        yield reader.line_num, cells
+
+
+def _read_csv(path: Path) -> list[ManifestRow]:
+    raw = read_user_file(path, what="manifest", max_bytes=MAX_MANIFEST_BYTES,
+                         fix_missing="give a CSV or .xlsx manifest, or a folder of TOML records",
+                         fix_large="split the manifest")
+    text = _decode(raw)
+    if b"\x00" in raw[:4096]:
+        raise InputError("this is a binary file, not a CSV manifest", "give a CSV or .xlsx manifest", str(path))
+    first = text.lstrip("\ufeff").splitlines()[0] if text.strip() else ""
+    separator = max(_SEPARATORS, key=first.count)  # the header names fields, none of which holds a separator
+    limit = csv.field_size_limit()
+    csv.field_size_limit(MAX_FIELD_CHARS)
+    try:  # newline=None reads LF, CRLF and CR-only files (old spreadsheet exports) alike
+        lines = _csv_lines(csv.reader(io.StringIO(text, newline=None), delimiter=separator), path)
+        header = next(lines, None)
+        if header is None:
+            raise InputError("the manifest is empty", "give a header row and one row per product", str(path))
+        return _table_rows(header[1], lines, path)
+    finally:
+        csv.field_size_limit(limit)
 
 
 def _read_xlsx(path: Path) -> list[ManifestRow]:
-    try:
-        import openpyxl
-    except ImportError:  # pragma: no cover - openpyxl is a declared dependency
-        raise InputError("reading .xlsx needs openpyxl", "pip install openpyxl, or save as CSV", str(path)) from None
-    try:
-        sheet = openpyxl.load_workbook(path, read_only=True, data_only=True).worksheets[0]
-    except Exception as exc:  # noqa: BLE001 - openpyxl raises many types for a damaged file
-        raise InputError(f"cannot read the workbook ({exc})", "save it again as .xlsx or CSV", str(path)) from None
-    rows = [(number, list(cells)) for number, cells in enumerate(sheet.iter_rows(values_only=True), start=1)]
+    limits = current_limits()
+    raw = read_user_file(path, what="manifest", max_bytes=limits.max_bytes,
+                         fix_missing="give a CSV or .xlsx manifest, or a folder of TOML records",
+                         fix_large="split the manifest, or save it as CSV")
+    rows = workbook_rows(raw, str(path), max_rows=limits.max_workbook_rows + 1,
+                         max_columns=limits.max_workbook_columns,
+                         max_unpacked_bytes=limits.max_workbook_unpacked_bytes, what="manifest")
     if not rows:
         raise InputError("the workbook's first sheet is empty", "put the header row in row 1", str(path))
     return _table_rows(rows[0][1], rows[1:], path)
@@ -121,16 +182,15 @@ def _read_xlsx(path: Path) -> list[ManifestRow]:
 def _read_folder(folder: Path) -> list[ManifestRow]:
     result = []
     for path in sorted(folder.glob("*.toml")):
-        raw = path.read_bytes()
-        inputs = {path.name: hashlib.sha256(raw).hexdigest()}
-        text = raw.decode("utf-8-sig", errors="replace")
         try:
-            fields = tomllib.loads(text)
-        except tomllib.TOMLDecodeError as exc:
-            problem = InputError(f"not valid TOML ({exc})", "write one 'field = value' per line", str(path))
-            result.append(ManifestRow(str(path), {}, path.parent, inputs, problem))
+            fields, text, raw = read_record_file(path)
+        except InputError as problem:
+            result.append(ManifestRow(str(path), {}, path.parent, {}, problem, root=folder))
             continue
-        result.append(ManifestRow(str(path), fields, path.parent, inputs, text=text))
+        inputs = {path.name: hashlib.sha256(raw).hexdigest()}
+        result.append(ManifestRow(str(path), fields, path.parent, inputs, text=text, root=folder))
+        if len(result) > MAX_MANIFEST_ROWS:
+            raise InputError(f"more than {MAX_MANIFEST_ROWS:,} records", "split the folder", str(folder))
     if not result:
         raise InputError("no *.toml records in this folder", "give a manifest file or a folder of records",
                          str(folder))
@@ -146,11 +206,10 @@ def read_manifest(path: str | Path) -> list[ManifestRow]:
         When the manifest as a whole cannot be used (including duplicate ids, naming both rows).
     """
     path = Path(path)
+    if "\x00" in os.fspath(path):
+        raise InputError("the manifest path contains a NUL byte", "remove the control character", repr(str(path)))
     if path.is_dir():
         rows = _read_folder(path)
-    elif not path.exists():
-        raise InputError("manifest not found", "give a CSV or .xlsx manifest, or a folder of TOML records",
-                         str(path))
     elif path.suffix.lower() == ".xlsx":
         rows = _read_xlsx(path)
     else:
@@ -161,7 +220,7 @@ def read_manifest(path: str | Path) -> list[ManifestRow]:
             continue
         product_id = str(row.fields["id"])
         if product_id in seen:
-            raise InputError(f"duplicate id {product_id!r} (also at {seen[product_id]})",
+            raise InputError(f"duplicate id {excerpt(product_id)} (also at {seen[product_id]})",
                              "give every product its own id", row.origin)
         seen[product_id] = row.origin
     return rows

@@ -22,10 +22,11 @@ from pydantic import (
     model_validator,
 )
 
-from hazard.errors import InputError
+from hazard.errors import InputError, excerpt
 from hazard.units import IRRADIANCE_SI, RADIANCE_SI, parse_spectral_unit
+from hazard.userfiles import read_user_file
 
-__all__ = ["ProductRecord", "load_record", "record_from_fields"]
+__all__ = ["ProductRecord", "load_record", "read_record_file", "record_from_fields", "MAGNITUDE_BOUNDS"]
 
 _DEFAULT_UNIT = {"irradiance": IRRADIANCE_SI, "radiance": RADIANCE_SI}
 HAZARD_SYMBOLS = ("E_S", "E_UVA", "L_B", "E_B", "L_R", "L_IR", "E_IR", "E_H")
@@ -34,6 +35,33 @@ RELATIVE_UNITS = ("relative", "rel", "a.u.", "au", "arb", "1", "counts")
 """Units accepted for a relative spectrum (they all mean: no physical unit)."""
 ANCHORS = ("illuminance_lx", "luminous_intensity_cd", "luminance_cd_m2")
 """Photometric anchors that scale a relative spectrum."""
+MAX_RECORD_BYTES = 1024 * 1024
+"""Largest TOML record read; a record is a few hundred bytes [bytes]."""
+MAX_COLUMN_NUMBER = 1_000_000
+"""Largest value-column number accepted [1]."""
+_GEOMETRY = "outside it no measurement geometry can be computed"
+_ANGLE = "no angle exceeds π rad"
+MAGNITUDE_BOUNDS: dict[str, tuple[float, float, str, str, str]] = {
+    # field: (lowest, highest, unit, what it is, why). Common practice, no published source: each range holds
+    # every real measurement by orders of magnitude, and keeps the geometry and the studies within the range
+    # of floating-point numbers (no overflow, no division by a vanishing number).
+    "distance_mm": (1e-3, 1e8, "mm", "distance", _GEOMETRY),
+    "at_distance_mm": (1e-3, 1e8, "mm", "distance", _GEOMETRY),
+    "source_diameter_mm": (1e-4, 1e6, "mm", "source size", _GEOMETRY),
+    "source_width_mm": (1e-4, 1e6, "mm", "source size", _GEOMETRY),
+    "source_height_mm": (1e-4, 1e6, "mm", "source size", _GEOMETRY),
+    "source_alpha_mrad": (1e-6, 3141.59, "mrad", "angular subtense", _ANGLE),
+    "measurement_fov_mrad": (1e-6, 3141.59, "mrad", "field of view", _ANGLE),
+    "illuminance_lx": (1e-6, 1e9, "lx", "illuminance", "ten thousand times full sunlight is beyond any lamp"),
+    "luminous_intensity_cd": (1e-6, 1e12, "cd", "luminous intensity", "beyond any lamp"),
+    "luminance_cd_m2": (1e-6, 1e12, "cd/m2", "luminance", "a thousand times the sun's luminance is beyond any lamp"),
+    "peak_to_mean_radiance": (1.0, 1e4, "", "peak-to-mean ratio", "beyond any LED array or hot spot"),
+    "claimed_cct_k": (100.0, 1e6, "K", "colour temperature", "outside any light source's"),
+    "claimed_illuminance_lx": (1e-6, 1e9, "lx", "illuminance", "beyond any lamp"),
+    **{f"claimed_t_max_s_{symbol}": (1e-6, 1e12, "s", "exposure time", "from a microsecond to 30 000 years")
+       for symbol in HAZARD_SYMBOLS},
+}
+"""Range of each physical field [its unit]: lowest, highest, unit, what it is, why the bound."""
 
 
 class ProductRecord(BaseModel):
@@ -41,15 +69,16 @@ class ProductRecord(BaseModel):
 
     model_config = ConfigDict(extra="forbid", frozen=True, allow_inf_nan=False)
 
-    id: str = Field(min_length=1, description="Product identifier, unique within a batch.")
-    name: str | None = Field(None, description="Human-readable product name.")
-    vendor: str | None = Field(None, description="Who makes or sells the product.")
-    model: str | None = Field(None, description="The vendor's model designation.")
-    spectrum: str | None = Field(None, description="Spectrum file, relative to the record file's folder.")
+    id: str = Field(min_length=1, max_length=200, description="Product identifier, unique within a batch.")
+    name: str | None = Field(None, max_length=1000, description="Human-readable product name.")
+    vendor: str | None = Field(None, max_length=1000, description="Who makes or sells the product.")
+    model: str | None = Field(None, max_length=1000, description="The vendor's model designation.")
+    spectrum: str | None = Field(None, max_length=4096, description="Spectrum file, relative to the record "
+                                                                     "file's folder.")
     quantity: Literal["irradiance", "radiance", "relative"] = Field(
         "irradiance", description="What the spectrum holds: spectral irradiance, spectral radiance, or a "
                                   "relative spectrum scaled by a photometric anchor.")
-    unit: str | None = Field(None, description="Unit of the spectral values, e.g. W/m2/nm, mW/m2/nm, "
+    unit: str | None = Field(None, max_length=200, description="Unit of the spectral values, e.g. W/m2/nm, mW/m2/nm, "
                                                "uW/cm2/nm, W/m2/sr/nm. Default by quantity.")
     column: StrictStr | StrictInt | None = Field(None, description="Value column to use when the file has several "
                                                        "(header name or 1-based index).")
@@ -99,6 +128,42 @@ class ProductRecord(BaseModel):
     claimed_t_max_s_E_IR: float | None = Field(None, gt=0, description="Claimed t_max of E_IR [s].")
     claimed_t_max_s_E_H: float | None = Field(None, gt=0, description="Claimed t_max of E_H [s].")
 
+    @field_validator(*MAGNITUDE_BOUNDS)
+    @classmethod
+    def _within_bounds(cls, value: float | None, info) -> float | None:
+        if value is None:
+            return value
+        low, high, unit, what, why = MAGNITUDE_BOUNDS[info.field_name]
+        if not low <= value <= high:
+            raise ValueError(f"{value:g}{' ' + unit if unit else ''} is not a usable {what}: give {low:g} to "
+                             f"{high:g}{' ' + unit if unit else ''} ({why})")
+        return value
+
+    @field_validator("id")
+    @classmethod
+    def _printable_id(cls, product_id: str) -> str:
+        if not product_id.isprintable():
+            raise ValueError(f"the id {excerpt(product_id)} holds a control character (a line break, tab or "
+                             f"similar): give a printable id")
+        return product_id
+
+    @field_validator("column")
+    @classmethod
+    def _column_number(cls, column: str | int | None) -> str | int | None:
+        number = column if isinstance(column, int) else None
+        if isinstance(column, str):
+            if len(column) > 1000:
+                raise ValueError("a column name of more than 1000 characters: give the header's name or a number")
+            if column.isdigit():  # "12", but also "²" or "١": only plain decimal digits make a number
+                if not (column.isascii() and len(column) <= 7):
+                    raise ValueError(f"column {excerpt(column)} is not a column number: give a number from 1 "
+                                     f"written with the digits 0-9, or a header name")
+                number = int(column)
+        if number is not None and not 1 <= number <= MAX_COLUMN_NUMBER:
+            raise ValueError(f"column {number} does not exist: value columns count from 1 (the first column "
+                             f"after the wavelength)")
+        return column
+
     @field_validator("unit")
     @classmethod
     def _unit_readable(cls, unit: str | None) -> str | None:
@@ -125,6 +190,8 @@ class ProductRecord(BaseModel):
             raise ValueError("source_width_mm and source_height_mm go together: give both")
         if self.quantity == "irradiance" and self.distance_mm is None:
             raise ValueError("distance_mm is required for an irradiance spectrum (the measurement distance)")
+        if self.source_alpha_mrad is not None and self.distance_mm is None:
+            raise ValueError("source_alpha_mrad needs distance_mm, the distance at which it was measured")
         anchors = [a for a in ANCHORS if getattr(self, a) is not None]
         if self.quantity == "relative":
             if self.unit is not None and self.unit.strip().lower() not in RELATIVE_UNITS:
@@ -138,8 +205,6 @@ class ProductRecord(BaseModel):
             return self
         if anchors:
             raise ValueError(f"{anchors[0]} scales a relative spectrum: set quantity = \"relative\" or remove it")
-        if self.source_alpha_mrad is not None and self.distance_mm is None:
-            raise ValueError("source_alpha_mrad needs distance_mm, the distance at which it was measured")
         try:
             unit = parse_spectral_unit(self.unit_text)
         except ValueError as exc:
@@ -188,7 +253,7 @@ class ProductRecord(BaseModel):
 
 
 def _line_of(text: str, key: str) -> int | None:
-    match = re.search(rf"^\s*{re.escape(key)}\s*=", text, flags=re.MULTILINE)
+    match = re.search(rf"^[ \t]*{re.escape(key)}[ \t]*=", text, flags=re.MULTILINE)  # no \s: linear time
     return None if match is None else text.count("\n", 0, match.start()) + 1
 
 
@@ -245,6 +310,43 @@ def record_from_fields(fields: dict, *, path: str, text: str | None = None,
         raise _as_input_error(exc, path, text, option_names) from None
 
 
+def read_record_file(path: str | Path) -> tuple[dict, str, bytes]:
+    """The fields of a TOML record, its text (for line numbers in messages) and its bytes (for the hash).
+
+    Raises
+    ------
+    InputError
+        Not a regular file, too large, not UTF-8, or not valid TOML.
+    """
+    raw = read_user_file(path, what="record", max_bytes=MAX_RECORD_BYTES, fix_missing="check the path",
+                         fix_large="a record is a few lines of 'field = value'")
+    try:
+        text = raw.decode("utf-8-sig")
+    except UnicodeDecodeError:
+        raise InputError("record is not UTF-8 text", "save the TOML file as UTF-8", str(path)) from None
+    return parse_toml(text, str(path)), text, raw
+
+
+def parse_toml(text: str, path: str) -> dict:
+    """The fields of a TOML text.
+
+    Raises
+    ------
+    InputError
+        Not valid TOML (naming the line), or beyond what the parser can hold (nesting, huge integers).
+    """
+    fix = "write one 'field = value' per line; quote text values"
+    try:
+        return tomllib.loads(text)
+    except tomllib.TOMLDecodeError as exc:
+        match = re.search(r"line (\d+)", str(exc))
+        raise InputError(f"not valid TOML ({exc})", fix, path, int(match.group(1)) if match else None) from None
+    except RecursionError:
+        raise InputError("not a record: arrays or tables nested too deep", fix, path) from None
+    except ValueError as exc:  # e.g. an integer of more than 4300 digits
+        raise InputError(f"not a usable TOML value ({excerpt(exc, 80)})", fix, path) from None
+
+
 def load_record(path: str | Path, overrides: dict | None = None) -> ProductRecord:
     """Read a TOML product record; ``overrides`` (e.g. CLI options) replace fields.
 
@@ -253,18 +355,6 @@ def load_record(path: str | Path, overrides: dict | None = None) -> ProductRecor
     InputError
         Unreadable TOML, unknown or invalid fields.
     """
-    path = Path(path)
-    try:
-        text = path.read_text(encoding="utf-8-sig")
-    except FileNotFoundError:
-        raise InputError("record file not found", "check the path", str(path)) from None
-    except UnicodeDecodeError:
-        raise InputError("record is not UTF-8 text", "save the TOML file as UTF-8", str(path)) from None
-    try:
-        fields = tomllib.loads(text)
-    except tomllib.TOMLDecodeError as exc:
-        match = re.search(r"line (\d+)", str(exc))
-        raise InputError(f"not valid TOML ({exc})", "write one 'field = value' per line; quote text values",
-                         str(path), int(match.group(1)) if match else None) from None
+    fields, text, _ = read_record_file(path)
     fields.update(overrides or {})
     return record_from_fields(fields, path=str(path), text=text)

@@ -20,6 +20,13 @@ NEGATIVE_TOLERANCE = 0.01
 """Negatives down to this fraction of the peak are dark noise (method §5) [1]."""
 
 _UM_LOOKING_MAX_NM = 100.0  # every band of the method lies above 180 nm: a column ending below 100 "nm" is µm
+MAX_WAVELENGTH_NM = 1e6
+"""Longest wavelength accepted: 1 mm, far beyond every band of the method (common practice, no published
+source) [nm]."""
+PEAK_RANGE_SI = {"irradiance": (0.0, 1e12), "radiance": (0.0, 1e12), "relative": (0.0, 1e30)}
+"""Range of a spectrum's peak value in SI units (above the first, up to the second); beyond it the file's unit
+is wrong or the numbers are not a measurement, and the method's products would leave the floating-point range
+(common practice, no published source) [W m⁻² nm⁻¹, W m⁻² sr⁻¹ nm⁻¹, or 1 for a relative spectrum]."""
 
 
 @dataclass(frozen=True)
@@ -102,6 +109,10 @@ def validate_spectrum(wavelength_nm: np.ndarray, value: np.ndarray, lines: np.nd
     if wl.max() < _UM_LOOKING_MAX_NM:
         raise InputError(f"wavelengths run from {wl.min():g} to {wl.max():g}: this looks like µm, not nm",
                          "multiply the wavelength column by 1000 so it is in nm", path, int(lines[0]))
+    beyond = np.flatnonzero(wl > MAX_WAVELENGTH_NM)
+    if beyond.size:
+        raise InputError(f"wavelength {wl[beyond[0]]:g} nm is beyond {MAX_WAVELENGTH_NM:g} nm (1 mm): not an "
+                         f"optical spectrum", "give wavelengths in nm", path, int(lines[beyond[0]]))
     nonpositive = np.flatnonzero(wl <= 0)
     if nonpositive.size:
         raise InputError(f"wavelength {wl[nonpositive[0]]:g} nm is not positive",
@@ -129,6 +140,13 @@ def validate_spectrum(wavelength_nm: np.ndarray, value: np.ndarray, lines: np.nd
         raise InputError(f"value {val[lowest]:g} at {wl[lowest]:g} nm is negative beyond dark noise "
                          f"(more than {NEGATIVE_TOLERANCE:.0%} of the peak {peak:g})",
                          "subtract the dark reading correctly or re-measure", path, int(lines[lowest]))
+    low, high = PEAK_RANGE_SI.get(quantity, PEAK_RANGE_SI["relative"])
+    with np.errstate(over="ignore"):
+        peak_si = peak * factor_to_si
+    if not low < peak_si <= high:
+        raise InputError(f"peak value {peak:g} ({peak_si:g} in SI units) is outside {low:g} to {high:g}: not a "
+                         f"plausible measurement", "check the value column and its unit", path,
+                         int(lines[int(np.argmax(val))]))
     negatives = val < 0
     if negatives.any():
         warnings.append(f"{path}: {int(negatives.sum())} small negative value(s) (down to {val[lowest]:g}, "

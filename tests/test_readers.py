@@ -1,5 +1,6 @@
 """Spectrometer export dialects, relative spectra with photometric anchors, vendor claims, malformed files."""
 
+import shutil
 import subprocess
 import sys
 from pathlib import Path
@@ -126,8 +127,8 @@ LINEUP = Path(__file__).parents[1] / "examples" / "lineup"
 
 
 def _claim_record(tmp_path, stem, **claims):
-    text = (LINEUP / f"{stem}.toml").read_text().replace(f'spectrum = "{stem}.csv"',
-                                                          f'spectrum = "{(LINEUP / stem).as_posix()}.csv"')
+    shutil.copy(LINEUP / f"{stem}.csv", tmp_path / f"{stem}.csv")  # beside the record: spectra stay in its folder
+    text = (LINEUP / f"{stem}.toml").read_text()
     text = "".join(line for line in text.splitlines(keepends=True) if not line.startswith("claimed_"))
     text += "".join(f"{k} = {v!r}\n".replace("'", '"') for k, v in claims.items())
     path = tmp_path / f"{stem}.toml"

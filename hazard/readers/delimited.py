@@ -4,8 +4,8 @@ Comma, semicolon, tab or whitespace separated; decimal comma; UTF-8 with or with
 ``#`` comment lines; metadata lines before the table (``key: value``, ``key = value`` or ``key;value``,
 kept as metadata); an optional header row (its cells may state units); several value columns.
 
-The numeric body is parsed by numpy's C reader; when that fails, a careful pass finds the first bad line so
-the message can name it.
+The numeric body is parsed by numpy's C reader a chunk of rows at a time; where it fails, a careful pass over
+that chunk finds the first bad line so the message can name it. Work is linear in the file's size.
 """
 
 from __future__ import annotations
@@ -15,15 +15,17 @@ import re
 
 import numpy as np
 
-from hazard.errors import InputError
-from hazard.readers.common import Limits, RawSpectrum, current_limits, decode_text, read_bytes
+from hazard.errors import InputError, excerpt
+from hazard.readers.common import Limits, RawSpectrum, current_limits, decode_text, read_bytes, to_nm
 from hazard.readers.headers import choose_value_column, wavelength_scale
 
 __all__ = ["read_delimited"]
 
-_NUMBER = re.compile(r"^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$")
+_NUMBER = re.compile(r"^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$")  # unambiguous: linear time on any cell
 _DECIMAL_COMMA = re.compile(r"^[+-]?\d+,\d+([eE][+-]?\d+)?$")
 _SPECIALS = ("nan", "inf", "-inf", "+inf")
+PARSE_CHUNK_ROWS = 20_000
+"""Rows given to numpy's parser at a time [1]."""
 
 
 def _is_number(cell: str) -> bool:
@@ -58,28 +60,31 @@ def _metadata_item(line: str) -> tuple[str, str] | None:
     return None
 
 
-def _careful(lines: list[str], start: int, delimiter: str | None, decimal_comma: bool, width: int,
-             path: str) -> np.ndarray:
-    """Parse row by row, raising for the first bad line; rows (n, width) and their line numbers."""
-    rows, numbers = [], []
-    for number, line in enumerate(lines[start:], start=start + 1):
-        stripped = line.strip()
-        if not stripped or stripped.startswith("#"):
-            continue
-        cells = _cells(stripped, delimiter, decimal_comma)
+def _careful(rows: list[str], numbers: np.ndarray, delimiter: str | None, decimal_comma: bool, width: int,
+             path: str, limits: Limits) -> np.ndarray:
+    """Parse row by row, raising for the first bad line; the table (n, width)."""
+    table = []
+    for number, line in zip(numbers.tolist(), rows):
+        cells = _cells(line.strip(), delimiter, decimal_comma)
         if len(cells) != width:
             raise InputError(f"{len(cells)} cells where the table has {width}", "give every row the same columns",
                              path, number)
         for cell in cells:
+            _check_cell_length(cell, limits, path, number)
             if not cell:
                 raise InputError("empty cell in a number column (the file may be truncated)",
                                  "export the spectrum again, or remove the incomplete row", path, number)
             if not _is_number(cell):
-                raise InputError(f"text {cell!r} in a number column",
+                raise InputError(f"text {excerpt(cell)} in a number column",
                                  "use plain numbers (decimal point or decimal comma, consistently)", path, number)
-        rows.append([float(c) for c in cells])
-        numbers.append(number)
-    return np.array(rows, dtype=float).reshape(-1, width), np.array(numbers, dtype=int)
+        table.append([float(c) for c in cells])
+    return np.array(table, dtype=float).reshape(-1, width)
+
+
+def _check_cell_length(cell: str, limits: Limits, path: str, line: int) -> None:
+    if len(cell) > limits.max_cell_chars:
+        raise InputError(f"a cell of {len(cell):,} characters", f"keep cells under {limits.max_cell_chars:,} "
+                         f"characters: a number, a column name or a unit", path, line)
 
 
 def _lines_from(text: str):
@@ -94,10 +99,18 @@ def _lines_from(text: str):
         position = end + 1
 
 
-def _fast(body: str, start: int, delimiter: str | None, decimal_comma: bool, width: int):
-    """numpy's C parser over the body; None when it fails or when the body holds blank or comment lines
-    (then each row's line number is not its position, and the careful pass takes over)."""
-    body = body.rstrip()
+def _data_rows(body: str, first_line: int) -> tuple[list[str], np.ndarray]:
+    """The body's rows without blank and comment lines, and their 1-based line numbers."""
+    lines = body.split("\n")
+    keep = [i for i, line in enumerate(lines) if (text := line.strip()) and not text.startswith("#")]
+    if len(keep) == len(lines):
+        return lines, np.arange(first_line, first_line + len(lines))
+    return [lines[i] for i in keep], np.array(keep, dtype=int) + first_line
+
+
+def _fast(rows: list[str], delimiter: str | None, decimal_comma: bool, width: int) -> np.ndarray | None:
+    """numpy's C parser over rows; None when it fails (the careful pass then names the bad line)."""
+    body = "\n".join(rows)
     if decimal_comma:
         body = body.replace(",", ".")
     try:
@@ -105,9 +118,20 @@ def _fast(body: str, start: int, delimiter: str | None, decimal_comma: bool, wid
                            comments=None)
     except ValueError:
         return None
-    if table.shape[1] != width or table.shape[0] != body.count("\n") + 1:
-        return None
-    return table, np.arange(start + 1, start + 1 + table.shape[0])
+    return table if table.shape == (len(rows), width) else None
+
+
+def _parse(rows: list[str], numbers: np.ndarray, delimiter: str | None, decimal_comma: bool, width: int, path: str,
+           limits: Limits) -> np.ndarray:
+    """The table of ``rows``: numpy's C parser a chunk at a time, the careful pass only on a chunk it refuses,
+    so that naming a bad last line costs no more than reading the file."""
+    tables = [np.empty((0, width))]
+    for k in range(0, len(rows), PARSE_CHUNK_ROWS):
+        chunk = rows[k:k + PARSE_CHUNK_ROWS]
+        table = _fast(chunk, delimiter, decimal_comma, width)
+        tables.append(table if table is not None else _careful(chunk, numbers[k:k + PARSE_CHUNK_ROWS], delimiter,
+                                                                decimal_comma, width, path, limits))
+    return np.concatenate(tables)
 
 
 def read_delimited(path: str, *, display_path: str, column: str | int | None = None,
@@ -137,7 +161,7 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
     """
     limits = limits or current_limits()
     raw, digest = read_bytes(path, display_path, limits)
-    if raw.count(b"\n") > limits.max_rows + 1000:
+    if max(raw.count(b"\n"), raw.count(b"\r")) > 2 * limits.max_rows + 1000:  # room for blank lines
         raise InputError(f"more than {limits.max_rows:,} rows", "resample the spectrum to a coarser grid",
                          display_path)
     text = decode_text(raw, display_path)
@@ -169,6 +193,11 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
         raise InputError("no data rows", "give two columns: wavelength in nm, then the spectral value",
                          display_path)
     width = len(cells)
+    if width > limits.max_columns:
+        raise InputError(f"{width:,} columns, above the {limits.max_columns:,} limit", "keep the wavelength and "
+                         "the value columns you need", display_path, index + 1)
+    for cell in cells:
+        _check_cell_length(cell, limits, display_path, index + 1)
     header, header_number = None, None
     if preamble:
         last_number, last_line = preamble[-1]
@@ -176,26 +205,28 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
         if len(header_cells) == width:
             if any(_is_number(c) for c in _cells(last_line, delimiter, decimal_comma)[1:]):
                 bad = header_cells[0]  # numbers beside it: a data row whose first cell is mistyped
-                raise InputError(f"text {bad!r} in a number column", "use plain numbers (a letter O or l for a "
+                raise InputError(f"text {excerpt(bad)} in a number column", "use plain numbers (a letter O or l for a "
                                  "digit is a common slip)", display_path, last_number)
+            for cell in header_cells:
+                _check_cell_length(cell, limits, display_path, last_number)
             header, header_number = header_cells, last_number
             preamble = preamble[:-1]
     metadata = dict(item for _, line in preamble if (item := _metadata_item(line)) is not None)
     value_index = choose_value_column(header, width, column, display_path)
-    parsed = _fast(text[body_offset:], start, delimiter, decimal_comma, width)
-    table, numbers = parsed if parsed is not None else _careful(text.split("\n"), start, delimiter, decimal_comma,
-                                                                width, display_path)
-    if table.shape[0] > limits.max_rows:
-        raise InputError(f"{table.shape[0]:,} rows, above the {limits.max_rows:,} limit",
+    rows, numbers = _data_rows(text[body_offset:], start + 1)
+    if len(rows) > limits.max_rows:
+        raise InputError(f"{len(rows):,} rows, above the {limits.max_rows:,} limit",
                          "resample the spectrum to a coarser grid", display_path)
-    scale = wavelength_scale(header[0] if header else None)
+    table = _parse(rows, numbers, delimiter, decimal_comma, width, display_path, limits)
+    scale = wavelength_scale(header[0] if header else None, display_path, header_number)
     warnings = []
     if scale != 1.0:
-        warnings.append(f"{display_path}: wavelength column is in µm by its header; converted to nm")
+        warnings.append(f"{display_path}: the wavelength column's header gives {1 / scale if scale < 1 else scale:g}"
+                        f"{' nm per unit' if scale >= 1 else ' units per nm'}; converted to nm")
     if not raw.endswith(b"\n"):
         warnings.append(f"{display_path}: the file does not end with a line break, so it may be truncated; "
                         f"check its last row")
-    spectrum = RawSpectrum(wavelength_nm=table[:, 0] * scale, value=table[:, value_index], lines=numbers,
+    spectrum = RawSpectrum(wavelength_nm=to_nm(table[:, 0], scale), value=table[:, value_index], lines=numbers,
                            path=display_path, header_cell=header[value_index] if header else None,
                            header_line=header_number, warnings=tuple(warnings))
     info = {"header": header, "value_column": header[value_index] if header else value_index,

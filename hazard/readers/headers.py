@@ -12,14 +12,44 @@ from hazard.units import parse_spectral_unit
 __all__ = ["HeaderStatement", "header_statement", "wavelength_scale", "choose_value_column", "WAVELENGTH_NAMES"]
 
 WAVELENGTH_NAMES = ("wavelength", "wavelength_nm", "wl", "lambda", "λ", "nm", "wave")
-_BRACKETED = re.compile(r"[\[(]\s*([^\[\]()]*(?:\([^()]*\)[^\[\]()]*)*)\s*[\])]\s*$")
+_OPEN, _CLOSE = "[(", "])"
+
+
+def _bracketed(cell: str) -> tuple[int, str] | None:
+    """Where a cell's final bracketed part starts, and its text: ``[unit]`` or ``(unit)`` at the end of the
+    cell, which may hold parenthesised groups one level deep (``(µW/(cm²·nm))``). One backward pass, so any
+    cell costs linear time.
+
+    Examples
+    --------
+    >>> _bracketed("E (µW/(cm²·nm)) "), _bracketed("a (b) (c)"), _bracketed("x]"), _bracketed("a ) b")
+    ((2, 'µW/(cm²·nm)'), (6, 'c'), None, None)
+    """
+    end = len(cell.rstrip()) - 1
+    if end < 0 or cell[end] not in _CLOSE:
+        return None
+    nested = False
+    for i in range(end - 1, -1, -1):
+        char = cell[i]
+        if nested:  # inside a nested (...) group, read backwards: anything but parentheses until its '('
+            if char == "(":
+                nested = False
+            elif char == ")":
+                return None
+        elif char == ")":
+            nested = True
+        elif char in _OPEN:
+            return i, cell[i + 1:end].strip()
+        elif char == "]":
+            return None
+    return None
 
 
 def _unit_text(cell: str) -> str | None:
     """The unit a header cell states: the text in its last brackets, or the cell after a name."""
-    match = _BRACKETED.search(cell)
-    if match:
-        return match.group(1).strip()
+    found = _bracketed(cell)
+    if found:
+        return found[1]
     parts = cell.split(None, 1)
     return parts[1].strip() if len(parts) == 2 else None
 
@@ -93,20 +123,49 @@ def _per_area(text: str) -> bool:
     return True
 
 
-def wavelength_scale(cell: str | None) -> float:
+_WAVELENGTH_UNITS = {"nm": 1.0, "nanometre": 1.0, "nanometer": 1.0, "nanometres": 1.0, "nanometers": 1.0,
+                     "um": 1000.0, "micron": 1000.0, "microns": 1000.0, "micrometre": 1000.0,
+                     "micrometer": 1000.0, "micrometres": 1000.0, "micrometers": 1000.0,
+                     "å": 0.1, "a": 0.1, "angstrom": 0.1, "angstroms": 0.1, "ångström": 0.1}
+"""Wavelength units a header may state, and their factor to nm."""
+_NOT_WAVELENGTH = re.compile(r"wave\s*number|cm\s*\^?\s*-\s*1|cm⁻¹|1\s*/\s*cm|\bev\b|\bthz\b|\bhz\b|frequency",
+                             re.IGNORECASE)
+
+
+def wavelength_scale(cell: str | None, path: str = "", line: int | None = None) -> float:
     """Multiplier to nm stated by the wavelength column's header (1 when it states nm or nothing).
+
+    Raises
+    ------
+    InputError
+        When the header states something that is not a wavelength unit this tool reads (wavenumbers,
+        frequencies, energies, an unknown unit): units are never guessed.
 
     Examples
     --------
     >>> wavelength_scale("Wavelength [µm]"), wavelength_scale("lambda (nm)"), wavelength_scale(None)
     (1000.0, 1.0, 1.0)
+    >>> wavelength_scale("Wavelength (Å)")
+    0.1
     """
-    unit = (_unit_text(cell) or "") if cell else ""
-    return 1000.0 if unit.replace("µ", "u").replace("μ", "u").strip().lower() == "um" else 1.0
+    if not cell:
+        return 1.0
+    if _NOT_WAVELENGTH.search(cell):
+        raise InputError(f"the wavelength column's header {cell[:40]!r} states wavenumbers, frequencies or "
+                         f"energies, not wavelengths", "convert the column to wavelength in nm", path, line)
+    unit = _unit_text(cell)
+    if unit is None:
+        return 1.0
+    key = unit.replace("µ", "u").replace("μ", "u").strip().lower()
+    if key not in _WAVELENGTH_UNITS:
+        raise InputError(f"the wavelength column's header states {unit[:40]!r}, a unit this tool does not read",
+                         "give the wavelength in nm (or µm or Å, named so in the header)", path, line)
+    return _WAVELENGTH_UNITS[key]
 
 
 def _bare(cell: str) -> str:
-    return _BRACKETED.sub("", cell).strip().lower()
+    found = _bracketed(cell)
+    return (cell if found is None else cell[:found[0]]).strip().lower()
 
 
 def choose_value_column(header: list[str] | None, width: int, column: str | int | None, path: str) -> int:
