@@ -10,11 +10,11 @@ A pre-screen, not a certification. Public API:
 """
 
 from hazard._version import __version__
-from hazard.engine import assess
+from hazard.assessment.build import assess
+from hazard.assessment.many import assess_many
 from hazard.errors import InputError
-from hazard.inputs import load_product
-from hazard.many import assess_many
-from hazard.record import ProductRecord
+from hazard.inputs.loading import load_product
+from hazard.inputs.record import ProductRecord
 from hazard.result import Assessment, HazardResult
 from hazard.standards import IEC_62471_2006
 

@@ -17,7 +17,7 @@ from pathlib import Path
 import click
 
 from hazard._version import __version__
-from hazard.atomic import remove_stale_temporaries, write_atomic
+from hazard.output.atomic import remove_stale_temporaries, write_atomic
 
 EXIT_OK, EXIT_INTERNAL, EXIT_INPUT, EXIT_SOME_FAILED, EXIT_CONTRADICTED = 0, 1, 2, 3, 4
 SCREEN_PRODUCTS = 200
@@ -159,8 +159,8 @@ def assess(product: Path, output_format: str, output: Path | None, pdf_path: Pat
 
     Example: hazard assess lamp.csv --distance-mm 200 --source-diameter-mm 5
     """
-    from hazard.engine import assess as run_assessment
-    from hazard.inputs import load_product
+    from hazard.assessment.build import assess as run_assessment
+    from hazard.inputs.loading import load_product
 
     loaded = load_product(product, _overrides(options), allow_outside=allow_outside)
     spectrum = (product.parent / loaded.record.spectrum) if loaded.record.spectrum else product
@@ -171,7 +171,7 @@ def assess(product: Path, output_format: str, output: Path | None, pdf_path: Pat
     if output_format == "json":
         text = assessment.model_dump_json(indent=2) + "\n"
     else:
-        from hazard.textout import render_text
+        from hazard.output.text import render_text
 
         text = render_text(assessment)
     if output is None:
@@ -188,7 +188,7 @@ def _write_file(path: Path, data: bytes) -> None:
 
 
 def _write_report(assessment, pdf_path: Path) -> None:
-    from reports import render_assessment_pdf, report_time
+    from hazard.reports import render_assessment_pdf, report_time
 
     _write_file(pdf_path, render_assessment_pdf(assessment, report_time()))
     click.echo(f"wrote {pdf_path}", err=True)
@@ -203,7 +203,7 @@ def report(result: Path, output: Path, product_id: str | None) -> None:
     """Render the PDF report of a saved result (from `hazard assess --format json`, or one product of a
     batch's results.jsonl with --id), without recomputing it. The result is checked first: unchanged since it
     was made, and its groups must follow from its own values and limits."""
-    from hazard.verify import check_result
+    from hazard.assessment.verify import check_result
 
     _refuse_overwriting_inputs([output], [result])
     assessment = _load_result(result, product_id)
@@ -215,7 +215,7 @@ def _result_line(path: Path, product_id: str, fix: str) -> tuple[bytes, int]:
     """The line of a JSON-lines file whose id is ``product_id``, read one line at a time (a batch's results can
     be large)."""
     from hazard.errors import InputError
-    from hazard.userfiles import regular_file_size
+    from hazard.inputs.userfiles import regular_file_size
 
     regular_file_size(path, what="results file", display=str(path), fix_missing=fix)
     with open(path, "rb") as handle:
@@ -232,10 +232,10 @@ def _load_result(path: Path, product_id: str | None):
     """A saved assessment: the whole JSON file, or the line of a JSON-lines file whose id is ``product_id``."""
     from pydantic import ValidationError
 
+    from hazard.assessment.guard import first_non_finite
     from hazard.errors import InputError
-    from hazard.guard import first_non_finite
+    from hazard.inputs.userfiles import read_user_file
     from hazard.result import Assessment
-    from hazard.userfiles import read_user_file
 
     fix = "give a JSON file written by 'hazard assess --format json', or a results.jsonl with --id"
     line_number = None
@@ -258,7 +258,7 @@ def _load_result(path: Path, product_id: str | None):
 
 
 def _finish_batch(outcome, output: Path, pdf: bool) -> None:
-    from hazard.textout import render_batch_table
+    from hazard.output.text import render_batch_table
 
     shown = outcome.ids[:SCREEN_PRODUCTS]
     click.echo(render_batch_table(shown, {i: outcome.assessments[i] for i in shown if i in outcome.assessments},
@@ -273,7 +273,7 @@ def _finish_batch(outcome, output: Path, pdf: bool) -> None:
                    f"report it", err=True)
     for failure in outcome.report_failures.values():
         click.echo(f"hazard: {failure}; please report it", err=True)
-    from hazard.cautions import PRE_SCREEN
+    from hazard.assessment.cautions import PRE_SCREEN
 
     click.echo(f"Caution: {PRE_SCREEN}")
 
@@ -300,7 +300,7 @@ def batch(manifest: Path, output: Path, pdf: bool, jobs: int, resume: bool, stud
     Exit code 0 when all were assessed, 3 when some failed, 2 when the manifest or the output folder is
     unusable, 1 when the tool failed on a product (every output is still written).
     """
-    from hazard.batch import run_batch
+    from hazard.assessment.batch import run_batch
 
     outcome = run_batch(manifest, output, pdf=pdf, jobs=jobs, resume=resume, studies=studies,
                         allow_outside=allow_outside)
@@ -309,16 +309,10 @@ def batch(manifest: Path, output: Path, pdf: bool, jobs: int, resume: bool, stud
 
 
 def _lineup_folder() -> Path:
-    """The bundled line-up: package data of an installed copy, or examples/lineup of a source checkout."""
+    """The bundled line-up, package data of the installed tool."""
     from importlib import resources
 
-    try:
-        return Path(str(resources.files("hazard.lineup")))
-    except ModuleNotFoundError:
-        source = Path(__file__).resolve().parents[1] / "examples" / "lineup"
-        if not source.is_dir():
-            raise
-        return source
+    return Path(str(resources.files("hazard.lineup")))
 
 
 @main.command()
@@ -329,7 +323,7 @@ def _lineup_folder() -> Path:
 def demo(output: Path, jobs: int) -> None:
     """Assess the bundled line-up of invented products (Corvel Lightworks, a made-up company): one PDF and
     one JSON per product, a summary CSV and summary.pdf."""
-    from hazard.batch import run_batch
+    from hazard.assessment.batch import run_batch
 
     lineup = _lineup_folder()
     click.echo("Demo: invented products of Corvel Lightworks, a made-up company; no real product or "
@@ -359,13 +353,13 @@ def check(source: Path, output_format: str, cct_tolerance_k: float, cct_toleranc
     Exit code 4 when any claim is contradicted (so a pipeline can gate on it), 3 when a product could not be
     assessed, 2 for unusable input, 1 when the tool failed on a product, else 0.
     """
-    from hazard.batch import failure_reason, load_row
-    from hazard.claims import ClaimTolerances
-    from hazard.engine import assess as run_assessment
+    from hazard.assessment.batch import failure_reason, load_row
+    from hazard.assessment.build import assess as run_assessment
+    from hazard.assessment.claims import ClaimTolerances
     from hazard.errors import one_line
-    from hazard.inputs import load_product
-    from hazard.manifest import ManifestRow, read_manifest
-    from hazard.textout import render_claims
+    from hazard.inputs.loading import load_product
+    from hazard.inputs.manifest import ManifestRow, read_manifest
+    from hazard.output.text import render_claims
 
     tolerances = ClaimTolerances(cct_tolerance_k, cct_tolerance_pct, illuminance_tolerance_pct, t_max_tolerance_pct)
     if source.suffix.lower() == ".toml":
@@ -388,7 +382,7 @@ def check(source: Path, output_format: str, cct_tolerance_k: float, cct_toleranc
         if output_format == "json":
             click.echo(assessment.model_dump_json())
             continue
-        from hazard.formatting import group_words
+        from hazard.output.formatting import group_words
 
         what_if = (f"; the record's what-if at {assessment.assessment_distance_mm:.0f} mm gives "
                    f"{group_words(assessment.risk_group, assessment.complete)}, not used for claims"
@@ -398,7 +392,7 @@ def check(source: Path, output_format: str, cct_tolerance_k: float, cct_toleranc
         click.echo("\n".join(render_claims(assessment)) if assessment.claims else "  no claims in the record")
         click.echo("")
     if output_format == "text":
-        from hazard.cautions import PRE_SCREEN
+        from hazard.assessment.cautions import PRE_SCREEN
 
         click.echo(f"Caution: {PRE_SCREEN}")
     sys.exit(EXIT_INTERNAL if internal else EXIT_CONTRADICTED if contradicted else
@@ -408,7 +402,7 @@ def check(source: Path, output_format: str, cct_tolerance_k: float, cct_toleranc
 @main.command()
 def tables() -> None:
     """List the weighting tables with source, range, interpolation and SHA-256."""
-    from weighting_tables import TABLE_NAMES, load_table
+    from hazard.weighting_tables import TABLE_NAMES, load_table
 
     for name in TABLE_NAMES:
         t = load_table(name)
@@ -423,7 +417,7 @@ def tables() -> None:
 @click.argument("which", type=click.Choice(["record", "result"]))
 def schema(which: str) -> None:
     """Print the JSON Schema of a product record or of an assessment result."""
-    from hazard.record import ProductRecord
+    from hazard.inputs.record import ProductRecord
     from hazard.result import Assessment
 
     model = ProductRecord if which == "record" else Assessment

@@ -10,9 +10,9 @@ JSON) and never compute a hazard quantity. Output is deterministic for a given `
 - :func:`report_time` — ``SOURCE_DATE_EPOCH`` as UTC when set, else now
 """
 
-from reports.product_pdf import render_assessment_pdf
-from reports.ranking import rank_assessments
-from reports.summary_pdf import render_summary_pdf
-from reports.timestamp import report_time
+from hazard.reports.product_pdf import render_assessment_pdf
+from hazard.reports.ranking import rank_assessments
+from hazard.reports.summary_pdf import render_summary_pdf
+from hazard.reports.timestamp import report_time
 
 __all__ = ["render_assessment_pdf", "render_summary_pdf", "rank_assessments", "report_time"]

@@ -22,11 +22,11 @@ from reportlab.graphics.shapes import Drawing, Group, Line, Polygon, PolyLine, R
 from reportlab.lib import colors
 from reportlab.pdfbase.pdfmetrics import stringWidth
 
-from hazard.formatting import format_margin
+from hazard.output.formatting import format_margin
 from hazard.result import Assessment, HazardResult
-from reports.fonts import FontSet
-from reports.style import INK, MUTED, PANEL, RULE, SPECTRUM_EDGE, SPECTRUM_FILL, group_fill, group_ink
-from weighting_tables import load_table
+from hazard.reports.fonts import FontSet
+from hazard.reports.style import INK, MUTED, PANEL, RULE, SPECTRUM_EDGE, SPECTRUM_FILL, group_fill, group_ink
+from hazard.weighting_tables import load_table
 
 __all__ = ["ACTION_SPECTRA", "FAMILY_LINES", "spectrum_chart", "margin_chart", "distance_chart"]
 

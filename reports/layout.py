@@ -15,10 +15,10 @@ from reportlab.lib.units import mm
 from reportlab.pdfgen.canvas import Canvas
 from reportlab.platypus import Flowable, SimpleDocTemplate
 
-from reports.fonts import FontSet, report_fonts
-from reports.style import INK, MUTED, RULE, Styles
-from reports.timestamp import report_time
-from reports.wording import FOOTER
+from hazard.reports.fonts import FontSet, report_fonts
+from hazard.reports.style import INK, MUTED, RULE, Styles
+from hazard.reports.timestamp import report_time
+from hazard.reports.wording import FOOTER
 
 __all__ = ["PAGE_WIDTH", "PAGE_HEIGHT", "MARGIN", "FRAME_WIDTH", "FRAME_HEIGHT", "build_pdf"]
 

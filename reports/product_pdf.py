@@ -1,9 +1,9 @@
 """The PDF report of one product: page 1 at a glance, page 2 input and method; then, when the result holds
-any of them, a page 3 on distance, uncertainty and remedies (:mod:`reports.studies`); the cautions in full end
+any of them, a page 3 on distance, uncertainty and remedies (:mod:`hazard.reports.studies`); the cautions in full end
 the report.
 
 Everything printed comes from the :class:`~hazard.result.Assessment`; numbers are formatted by
-:mod:`hazard.formatting`, exactly as the text output prints them.
+:mod:`hazard.output.formatting`, exactly as the text output prints them.
 """
 
 from __future__ import annotations
@@ -14,15 +14,15 @@ from collections.abc import Callable
 from reportlab.pdfbase.pdfmetrics import stringWidth
 from reportlab.platypus import CondPageBreak, Flowable, KeepInFrame, KeepTogether, PageBreak, Spacer, Table
 
-from hazard.formatting import UNIT_DISPLAY, format_duration_s, format_limit, format_margin, format_value, group_words
+from hazard.output.formatting import UNIT_DISPLAY, format_duration_s, format_limit, format_margin, format_value, group_words
 from hazard.result import Assessment, HazardResult
-from reports.charts import margin_chart, spectrum_chart
-from reports.layout import FRAME_HEIGHT, FRAME_WIDTH, build_pdf, start_report
-from reports.ranking import tightest_margin
-from reports.studies import has_studies, studies_section, study_summary, uncertainty_summary
-from reports.style import HAIRLINE, INK, NEUTRAL, PANEL, Styles, fit_widths, group_fill, group_ink, table_style
-from reports.timestamp import format_report_time
-from reports.wording import (
+from hazard.reports.charts import margin_chart, spectrum_chart
+from hazard.reports.layout import FRAME_HEIGHT, FRAME_WIDTH, build_pdf, start_report
+from hazard.reports.ranking import tightest_margin
+from hazard.reports.studies import has_studies, studies_section, study_summary, uncertainty_summary
+from hazard.reports.style import HAIRLINE, INK, NEUTRAL, PANEL, Styles, fit_widths, group_fill, group_ink, table_style
+from hazard.reports.timestamp import format_report_time
+from hazard.reports.wording import (
     GROUP_MEANING,
     GROUP_NAME,
     LOWER_BOUND,

@@ -1,7 +1,7 @@
 """Ranking a batch for the summary: pure functions of the results, no drawing.
 
 A product's *tightest margin* is the ratio value/limit at the boundary that matters (as
-:func:`hazard.formatting.margin_to_next` defines it) for the deciding hazard closest to the next group up:
+:func:`hazard.output.formatting.margin_to_next` defines it) for the deciding hazard closest to the next group up:
 the largest such ratio among ``Assessment.deciding_hazards``. Products rank by overall group, highest first;
 within a group the borderline ones first (they are what to send to the laboratory); then by that ratio, largest
 first (least headroom, or furthest over the RG2 limit); then by id.
@@ -15,7 +15,7 @@ from __future__ import annotations
 
 from typing import NamedTuple
 
-from hazard.formatting import margin_to_next
+from hazard.output.formatting import margin_to_next
 from hazard.result import Assessment
 
 __all__ = ["BORDERLINE_FACTOR", "Tightest", "tightest_margin", "is_borderline", "rank_assessments"]

@@ -3,18 +3,18 @@ batch summary print from the same studies.
 
 Everything comes from the result's ``distances``, ``uncertainty`` and ``remedies``; this module only words and
 formats them (and picks which family member's unit to print). Numbers follow the text output
-(:mod:`hazard.textout`): distances in whole millimetres, factors with three significant digits.
+(:mod:`hazard.output.text`): distances in whole millimetres, factors with three significant digits.
 """
 
 from __future__ import annotations
 
 from reportlab.platypus import Flowable, Spacer, Table
 
-from hazard.formatting import UNIT_DISPLAY, dimming_percent, distance_beyond_mm, format_value, round_up
+from hazard.output.formatting import UNIT_DISPLAY, dimming_percent, distance_beyond_mm, format_value, round_up
 from hazard.result import Assessment, DistanceStudy, Remedy
-from reports.charts import distance_chart
-from reports.layout import FRAME_WIDTH
-from reports.style import INK, Styles, group_fill, group_ink, table_style
+from hazard.reports.charts import distance_chart
+from hazard.reports.layout import FRAME_WIDTH
+from hazard.reports.style import INK, Styles, group_fill, group_ink, table_style
 
 __all__ = ["SECTION_TITLE", "has_studies", "beyond", "minimum_text", "study_summary", "uncertainty_summary",
            "dimming_text", "area_text", "studies_section"]

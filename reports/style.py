@@ -16,7 +16,7 @@ from reportlab.lib.styles import ParagraphStyle
 from reportlab.pdfbase.pdfmetrics import stringWidth
 from reportlab.platypus import Paragraph, TableStyle
 
-from reports.fonts import FontSet
+from hazard.reports.fonts import FontSet
 
 __all__ = ["INK", "MUTED", "RULE", "HAIRLINE", "PANEL", "NEUTRAL", "SPECTRUM_FILL", "SPECTRUM_EDGE", "GROUP_FILL",
            "GROUP_INK",

@@ -1,8 +1,8 @@
 """The PDF summary of a batch: products ranked by group and headroom (flagging incomplete and borderline
 results and contradicted vendor claims), then the products that failed, then the cautions chosen.
 
-The order comes from :func:`reports.ranking.rank_assessments`; every number is formatted by
-:mod:`hazard.formatting`.
+The order comes from :func:`hazard.reports.ranking.rank_assessments`; every number is formatted by
+:mod:`hazard.output.formatting`.
 """
 
 from __future__ import annotations
@@ -11,14 +11,14 @@ import datetime
 
 from reportlab.platypus import Flowable, Spacer, Table
 
-from hazard.formatting import format_margin, group_words
+from hazard.output.formatting import format_margin, group_words
 from hazard.result import Assessment
 from hazard.standards import GROUPS
-from reports.layout import FRAME_WIDTH, build_pdf, start_report
-from reports.ranking import BORDERLINE_FACTOR, is_borderline, rank_assessments, tightest_margin
-from reports.studies import minimum_text
-from reports.style import INK, NEUTRAL, Styles, group_fill, group_ink, table_style
-from reports.timestamp import format_report_time
+from hazard.reports.layout import FRAME_WIDTH, build_pdf, start_report
+from hazard.reports.ranking import BORDERLINE_FACTOR, is_borderline, rank_assessments, tightest_margin
+from hazard.reports.studies import minimum_text
+from hazard.reports.style import INK, NEUTRAL, Styles, group_fill, group_ink, table_style
+from hazard.reports.timestamp import format_report_time
 
 __all__ = ["render_summary_pdf"]
 

@@ -105,7 +105,8 @@ def exercise(path: Path, kind: str, studies: bool = False) -> tuple[str, str]:
     assessed, as ``hazard batch`` does). With ``studies``, hazard distances and remedies are computed too.
     Every result must read back from its JSON.
     """
-    from hazard.engine import build_assessment, evaluate_loaded
+    from hazard.assessment.build import build_assessment
+    from hazard.assessment.pipeline import evaluate_loaded
     from hazard.errors import InputError
     from hazard.result import Assessment
 
@@ -130,10 +131,10 @@ def exercise(path: Path, kind: str, studies: bool = False) -> tuple[str, str]:
 def _outcome(path: Path, kind: str, assess, one_line) -> tuple[str, str]:
     import traceback
 
-    from hazard.batch import load_row
+    from hazard.assessment.batch import load_row
     from hazard.errors import InputError
-    from hazard.inputs import load_product
-    from hazard.manifest import read_manifest
+    from hazard.inputs.loading import load_product
+    from hazard.inputs.manifest import read_manifest
 
     try:
         if kind == "spectrum":

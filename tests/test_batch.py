@@ -15,9 +15,10 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 import hazard
-from hazard.batch import run_batch
+from hazard.assessment.batch import run_batch
+from hazard.assessment.build import build_assessment
+from hazard.assessment.pipeline import evaluate_loaded
 from hazard.cli import main
-from hazard.engine import build_assessment, evaluate_loaded
 from hazard.errors import InputError
 
 LINEUP = Path(__file__).parents[1] / "examples" / "lineup"

@@ -15,12 +15,13 @@ from conftest import triangle_line, write_spectrum
 from hypothesis import HealthCheck, assume, given, settings
 from hypothesis import strategies as st
 
+from hazard.assessment.build import build_assessment
+from hazard.assessment.pipeline import evaluate_loaded
 from hazard.cli import main
-from hazard.engine import build_assessment, evaluate_loaded
-from hazard.inputs import LoadedProduct
+from hazard.inputs.loading import LoadedProduct
+from hazard.inputs.record import ProductRecord
+from hazard.inputs.spectrum import validate_spectrum
 from hazard.method.geometry import SourceShape, cone_rectangle_solid_angle, cone_solid_angle_sr
-from hazard.record import ProductRecord
-from hazard.spectrum import validate_spectrum
 from hazard.standards import GROUPS
 
 GRID = np.arange(200.0, 3000.5, 0.5)
@@ -367,7 +368,7 @@ def test_report_refuses_a_result_whose_groups_do_not_follow_from_its_numbers(tmp
 
 def test_margins_name_the_boundary_below_and_above(tmp_path):
     # method §3 "margins": a grow light 1.8× over its RG1 limit reads so, not only as a small share of RG2
-    from hazard.formatting import format_margin
+    from hazard.output.formatting import format_margin
 
     assert format_margin("RG2", {"Exempt": 180.0, "RG1": 1.8, "RG2": 0.0045}) == "1.8× RG1 limit; 0.45 % of RG2 limit"
     assert "e+" not in format_margin("Exempt", {"Exempt": 0.99996, "RG1": 0.3, "RG2": 0.01})

@@ -11,8 +11,8 @@ from conftest import write_spectrum
 
 import hazard
 from hazard.errors import InputError
-from hazard.inputs import product_from_record
-from hazard.record import ProductRecord
+from hazard.inputs.loading import product_from_record
+from hazard.inputs.record import ProductRecord
 
 DATA = Path(__file__).parent / "data"
 REFERENCE = np.loadtxt(DATA / "reference.txt")  # invented test spectrum, W/m2/nm (tests/data, our own)
@@ -163,7 +163,7 @@ def test_check_exit_codes(tmp_path):
 
 # --- malformed files ------------------------------------------------------------------------------------
 def test_malformed_files_in_a_batch_do_not_stop_the_others(tmp_path, monkeypatch):
-    from hazard.batch import run_batch
+    from hazard.assessment.batch import run_batch
     (tmp_path / "truncated.csv").write_text("wavelength_nm,value\n400,0.1\n401,0.2\n402,")
     (tmp_path / "binary.csv").write_bytes(b"\x00\x01\x02PK\x03\x04" * 20)
     (tmp_path / "huge.csv").write_text("wavelength_nm,value\n" + "".join(f"{400 + i * 1e-3:.3f},1\n"

@@ -9,21 +9,21 @@ import math
 import re
 from pathlib import Path
 
+import hazard.reports.fonts
+import hazard.reports.layout
+import hazard.reports.product_pdf
+import hazard.reports.studies
+import hazard.reports.timestamp
 import pytest
+from hazard.reports import rank_assessments, render_assessment_pdf, render_summary_pdf, report_time
+from hazard.reports.fonts import register_fonts
+from hazard.reports.ranking import is_borderline, tightest_margin
 from pypdf import PdfReader
 
 import hazard
-import reports.fonts
-import reports.layout
-import reports.product_pdf
-import reports.studies
-import reports.timestamp
 from hazard.errors import InputError
-from hazard.formatting import UNIT_DISPLAY, format_value
+from hazard.output.formatting import UNIT_DISPLAY, format_value
 from hazard.result import Assessment, UncertaintyStudy
-from reports import rank_assessments, render_assessment_pdf, render_summary_pdf, report_time
-from reports.fonts import register_fonts
-from reports.ranking import is_borderline, tightest_margin
 
 LINEUP = Path(__file__).parents[1] / "examples" / "lineup"
 RENDERED_AT = datetime.datetime(2024, 6, 1, 12, 0, tzinfo=datetime.timezone.utc)
@@ -74,7 +74,7 @@ def test_product_report_has_three_pages_with_its_facts(stem, lineup, lineup_pdfs
     assert f"Overall risk group: {EXPECTED_GROUP[stem]}" in first  # examples/README.md, as above
     for h in a.hazards.values():
         assert h.assessed  # examples/lineup: every record states no emission outside its measured range
-        # project contract: hazard.formatting.format_value prints every value, in the row of its hazard
+        # project contract: hazard.output.formatting.format_value prints every value, in the row of its hazard
         assert re.search(_row_pattern(h.symbol, h.title, format_value(h.value), UNIT_DISPLAY.get(h.unit, h.unit)),
                          first), h.symbol
     for caution in a.cautions:
@@ -229,7 +229,7 @@ def test_without_dejavu_greek_is_spelled_out(tmp_path, monkeypatch, lineup):
     # reportlab's bundled Vera.ttf has no U+03B1 α, U+03BB λ, U+03B3 γ (its character map)
     fallback = register_fonts(tmp_path)  # an empty folder: DejaVu Sans is not there
     assert (fallback.regular, fallback.greek) == ("Vera", False)
-    monkeypatch.setattr(reports.layout, "report_fonts", lambda: fallback)
+    monkeypatch.setattr(hazard.reports.layout, "report_fonts", lambda: fallback)
     text = " ".join(_pages(render_assessment_pdf(lineup["cl-pip-470"], RENDERED_AT)))
     assert "alpha" in text and "lambda" in text and "gamma" in text
     assert not {"α", "λ", "γ"} & set(text)
@@ -357,7 +357,7 @@ def test_summary_without_failures_says_so_in_a_sentence(lineup):
 def test_summary_shows_the_minimum_distance_to_exempt(lineup):
     # project contract: issue "Beyond the label", a "min. distance to Exempt" column when distances are present;
     # the heater is Exempt beyond 1590 mm (test_heater_distances_and_remedies_are_printed); its E_IR is 1.974× the
-    # RG2 limit, printed rounded up (hazard.formatting: a multiple over a limit is never printed smaller)
+    # RG2 limit, printed rounded up (hazard.output.formatting: a multiple over a limit is never printed smaller)
     heater = lineup["cl-heat-2k"]
     text = " ".join(_pages(render_summary_pdf([heater, lineup["cl-desk-30"]], [], RENDERED_AT)))
     assert "Min. distance to Exempt" in text and re.search(r"CL-HEAT-2K .* 1.98× RG2 limit 1590 mm", text)
@@ -365,7 +365,7 @@ def test_summary_shows_the_minimum_distance_to_exempt(lineup):
     assert "Min. distance to Exempt" not in " ".join(_pages(render_summary_pdf([bare], [], RENDERED_AT)))
 
 
-@pytest.mark.parametrize("module", [reports.fonts, reports.timestamp, reports.studies])
+@pytest.mark.parametrize("module", [hazard.reports.fonts, hazard.reports.timestamp, hazard.reports.studies])
 def test_docstring_examples(module):
     # project habit (style.md): docstring examples run in the suite
     assert doctest.testmod(module).failed == 0

@@ -25,10 +25,10 @@ from conftest import write_spectrum
 import hazard
 from hazard.cli import main
 from hazard.errors import InputError
-from hazard.inputs import load_product
-from hazard.manifest import read_manifest
-from hazard.readers import read_spectrum
-from hazard.readers.headers import header_statement, wavelength_scale
+from hazard.inputs.loading import load_product
+from hazard.inputs.manifest import read_manifest
+from hazard.inputs.readers import read_spectrum
+from hazard.inputs.readers.headers import header_statement, wavelength_scale
 
 GRID = np.arange(380.0, 781.0, 5.0)
 SIZE = {"distance_mm": 500.0, "source_diameter_mm": 30.0, "no_emission_outside": True}
@@ -271,7 +271,7 @@ def test_symlink_loop_nul_byte_long_name_and_folder(tmp_path):
 
 
 def test_folder_of_records_with_a_folder_named_like_a_record(tmp_path):
-    from hazard.batch import run_batch
+    from hazard.assessment.batch import run_batch
 
     records = tmp_path / "records"
     records.mkdir()
@@ -326,7 +326,7 @@ def test_spectral_values_near_the_float_limit_are_refused(tmp_path):
 
 
 def test_a_result_that_overflowed_never_leaves_the_engine(tmp_path):
-    from hazard.guard import require_finite
+    from hazard.assessment.guard import require_finite
 
     good = hazard.assess(_spectrum(tmp_path), {**SIZE, "id": "P"})
     assert require_finite(good) is good
@@ -361,7 +361,7 @@ def test_manifest_dialects_that_crashed(tmp_path):
 def test_xlsx_manifest_with_a_date_cell(tmp_path):
     import datetime
 
-    from hazard.batch import run_batch
+    from hazard.assessment.batch import run_batch
 
     _spectrum(tmp_path)
     path = _xlsx(tmp_path / "m.xlsx", [["id", "spectrum", "distance_mm", "source_diameter_mm", "name"],
@@ -383,7 +383,7 @@ def _manifest(folder: Path, ids, spectrum="lamp.csv") -> Path:
 @pytest.mark.parametrize(("raised", "status"), [(OverflowError("math range error"), 3),
                                                 (RuntimeError("a defect"), 1)])
 def test_a_failure_after_loading_is_that_products_error(tmp_path, monkeypatch, raised, status):
-    import hazard.batch as batch
+    import hazard.assessment.batch as batch
 
     real = batch.build_assessment
 
@@ -404,17 +404,18 @@ def test_a_failure_after_loading_is_that_products_error(tmp_path, monkeypatch, r
 
 
 def test_a_report_that_fails_to_render_does_not_stop_the_others(tmp_path, monkeypatch):
-    import reports
-    from hazard.batch import run_batch
+    import hazard.reports
 
-    real = reports.render_assessment_pdf
+    from hazard.assessment.batch import run_batch
+
+    real = hazard.reports.render_assessment_pdf
 
     def failing(assessment, *args, **kwargs):
         if assessment.id == "BAD":
             raise ValueError("a defect")
         return real(assessment, *args, **kwargs)
 
-    monkeypatch.setattr(reports, "render_assessment_pdf", failing)
+    monkeypatch.setattr(hazard.reports, "render_assessment_pdf", failing)
     outcome = run_batch(_manifest(tmp_path, ["A", "BAD"]), tmp_path / "out", pdf=True)
     assert outcome.exit_code == 1 and "a defect" in outcome.report_failures["BAD"]
     assert (tmp_path / "out" / "A.pdf").exists() and (tmp_path / "out" / "summary.pdf").exists()
@@ -422,7 +423,7 @@ def test_a_report_that_fails_to_render_does_not_stop_the_others(tmp_path, monkey
 
 
 def test_check_goes_on_after_a_failing_product(tmp_path, monkeypatch):
-    import hazard.engine as engine
+    import hazard.assessment.build as engine
 
     real = engine.build_assessment
 
@@ -450,7 +451,7 @@ def test_assess_refuses_to_write_over_its_input(tmp_path):
 
 
 def test_batch_refuses_the_input_folder_and_foreign_folders(tmp_path):
-    from hazard.batch import run_batch
+    from hazard.assessment.batch import run_batch
 
     manifest = _manifest(tmp_path, ["A"])
     (tmp_path / "summary.csv").write_text("the user's own file\n")
@@ -468,7 +469,7 @@ def test_batch_refuses_the_input_folder_and_foreign_folders(tmp_path):
 
 
 def test_colliding_ids_get_files_of_their_own(tmp_path):
-    from hazard.batch import run_batch
+    from hazard.assessment.batch import run_batch
 
     ids = ["lamp 1", "lamp_1", "a/b", "a_b", "summary", "...", "product", "Desk", "desk"]
     manifest = _manifest(tmp_path, [f'"{i}"' for i in ids])
@@ -484,8 +485,8 @@ def test_colliding_ids_get_files_of_their_own(tmp_path):
 
 
 def test_one_run_at_a_time_and_one_batch_per_folder(tmp_path):
-    from hazard.batch import run_batch
-    from hazard.outfolder import OutputFolder
+    from hazard.assessment.batch import run_batch
+    from hazard.assessment.outfolder import OutputFolder
 
     manifest = _manifest(tmp_path, ["A"])
     out = tmp_path / "out"
@@ -502,7 +503,7 @@ def test_one_run_at_a_time_and_one_batch_per_folder(tmp_path):
 
 
 def test_resume_survives_a_torn_utf8_tail_and_removes_stale_temporaries(tmp_path):
-    from hazard.batch import run_batch
+    from hazard.assessment.batch import run_batch
 
     manifest = _manifest(tmp_path, ["A", "B", "C"])
     out = tmp_path / "out"
@@ -522,7 +523,7 @@ def test_resume_survives_a_torn_utf8_tail_and_removes_stale_temporaries(tmp_path
 def test_full_disk_and_read_only_folder_are_one_line(tmp_path, monkeypatch):
     import errno
 
-    import hazard.atomic as atomic
+    import hazard.output.atomic as atomic
 
     _spectrum(tmp_path)
     for code in (errno.ENOSPC, errno.EROFS):
@@ -538,7 +539,7 @@ def test_full_disk_and_read_only_folder_are_one_line(tmp_path, monkeypatch):
 
 # --- confinement: a manifest cannot reach outside its folder ---------------------------------------------------
 def test_spectrum_paths_outside_the_manifest_folder_are_refused(tmp_path):
-    from hazard.batch import run_batch
+    from hazard.assessment.batch import run_batch
 
     secret = tmp_path / "secret"
     secret.mkdir()

@@ -5,8 +5,7 @@ from importlib import resources
 
 import numpy as np
 import pytest
-
-from weighting_tables import TABLE_NAMES, TableError, load_table
+from hazard.weighting_tables import TABLE_NAMES, TableError, load_table
 
 
 @pytest.mark.parametrize(("name", "rows", "lo", "hi"), [
@@ -19,7 +18,7 @@ def test_fingerprint(name, rows, lo, hi):
     table = load_table(name)
     assert table.wavelength_nm.size == rows
     assert table.range_nm == (lo, hi)
-    raw = (resources.files("weighting_tables") / f"{name}.csv").read_bytes()
+    raw = (resources.files("hazard.weighting_tables") / f"{name}.csv").read_bytes()
     assert table.sha256 == hashlib.sha256(raw).hexdigest() == table.metadata["sha256"]
     assert table.metadata["source"] and table.metadata["interpolation"] in ("linear", "log-linear")
 
@@ -87,21 +86,21 @@ def test_every_table_loads_and_is_listed():
 
 def test_edited_table_is_refused(tmp_path, monkeypatch):
     # A table whose bytes no longer match its recorded SHA-256 is refused (style.md habit 1)
-    import weighting_tables
+    import hazard.weighting_tables
 
     folder = tmp_path / "weighting_tables"
     folder.mkdir()
     for name in TABLE_NAMES:
         for suffix in (".csv", ".toml"):
-            src = resources.files("weighting_tables") / f"{name}{suffix}"
+            src = resources.files("hazard.weighting_tables") / f"{name}{suffix}"
             (folder / f"{name}{suffix}").write_bytes(src.read_bytes())
     csv = folder / "s_uv.csv"
     csv.write_text(csv.read_text().replace("270.0,1.0", "270.0,1.1"))
-    monkeypatch.setattr(weighting_tables.resources, "files", lambda _: folder)
-    weighting_tables.load_table.cache_clear()
+    monkeypatch.setattr(hazard.weighting_tables.resources, "files", lambda _: folder)
+    hazard.weighting_tables.load_table.cache_clear()
     try:
         with pytest.raises(TableError, match="SHA-256"):
-            weighting_tables.load_table("s_uv")
+            hazard.weighting_tables.load_table("s_uv")
     finally:
         monkeypatch.undo()
-        weighting_tables.load_table.cache_clear()
+        hazard.weighting_tables.load_table.cache_clear()

@@ -1,7 +1,7 @@
 """The method on arrays: from weighted integrals to values, limits, groups and t_max (method §1, §3, §4).
 
 Everything here works on many products at once (one row each), so that the single-product path
-(:func:`hazard.engine.assess`) and the batch path share one implementation of the physics.
+(:func:`hazard.assessment.build.assess`) and the batch path share one implementation of the physics.
 """
 
 from __future__ import annotations
@@ -169,7 +169,7 @@ class Evaluation:
 def _assessment_distance_m(arrays: ProductArrays, v_raw: np.ndarray) -> np.ndarray:
     """200 mm, or for GLS lamps the distance giving 500 lx but not less than 200 mm (IEC 62471:2006, 5.1.2)."""
     d_m = arrays.measurement_distance_m
-    with np.errstate(divide="ignore", invalid="ignore"):
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):  # a tiny luminance needs no finite sr
         lum_or_illum = K_M_LM_PER_W * v_raw
         from_irradiance = d_m * np.sqrt(lum_or_illum / GLS_ILLUMINANCE_LX)
         needed_sr = np.where(lum_or_illum > 0, GLS_ILLUMINANCE_LX / lum_or_illum, np.inf)

@@ -22,7 +22,7 @@ from hazard.method.evaluate import integral_specs
 from hazard.method.photometry import cmf_quadrature
 from hazard.method.weighting import quadrature_matrix
 from hazard.standards import LimitSet
-from weighting_tables import load_table
+from hazard.weighting_tables import load_table
 
 __all__ = ["Integrated", "integral_matrix", "coverage", "integrate_matrix", "integrate_spectra", "CHUNK_ROWS"]
 

@@ -15,7 +15,7 @@ from functools import cache
 import numpy as np
 
 from hazard.method.weighting import quadrature_matrix
-from weighting_tables import WeightingTable
+from hazard.weighting_tables import WeightingTable
 
 __all__ = ["import_colour", "K_M_LM_PER_W", "VISIBLE_BAND_NM", "CCT_DUV_LIMIT", "cmf_quadrature", "cct_from_xyz"]
 

@@ -30,7 +30,7 @@ _SERIES_BELOW = 1e-3  # |u| under which E0 and E1 come from their Taylor series 
 
 class Weighting(Protocol):
     """A tabulated weighting function: points, values and an interpolation rule (``linear`` or
-    ``log-linear``), zero outside its range. :class:`weighting_tables.WeightingTable` is one."""
+    ``log-linear``), zero outside its range. :class:`hazard.weighting_tables.WeightingTable` is one."""
 
     wavelength_nm: np.ndarray
     value: np.ndarray

@@ -147,7 +147,7 @@ class CautionTrigger:
     Attributes
     ----------
     caution : str
-        Key of the caution's wording (:mod:`hazard.cautions`).
+        Key of the caution's wording (:mod:`hazard.assessment.cautions`).
     from_group : str
         The caution applies from this group on.
     share : str or None

@@ -10,14 +10,14 @@ from __future__ import annotations
 
 import numpy as np
 
+from hazard.inputs.spectrum import Spectrum
 from hazard.method.evaluate import ProductArrays
 from hazard.method.families import evaluate_rows, family_groups
 from hazard.method.search import log_search
 from hazard.method.weighting import quadrature_matrix
 from hazard.result import BandContribution, Remedies, Remedy
-from hazard.spectrum import Spectrum
 from hazard.standards import LimitSet
-from weighting_tables import load_table
+from hazard.weighting_tables import load_table
 
 __all__ = ["remedies_study"]
 

@@ -10,11 +10,11 @@ from __future__ import annotations
 
 import numpy as np
 
+from hazard.inputs.spectrum import Spectrum
 from hazard.method.evaluate import ProductArrays
 from hazard.method.families import evaluate_rows, family_groups, family_member, family_values
 from hazard.method.integrals import integrate_spectra
 from hazard.result import HazardBounds, UncertaintyStudy
-from hazard.spectrum import Spectrum
 from hazard.standards import LimitSet
 
 __all__ = ["uncertainty_study"]

@@ -23,8 +23,8 @@ from pydantic import (
 )
 
 from hazard.errors import InputError, excerpt
-from hazard.units import IRRADIANCE_SI, RADIANCE_SI, parse_spectral_unit
-from hazard.userfiles import read_user_file
+from hazard.inputs.units import IRRADIANCE_SI, RADIANCE_SI, parse_spectral_unit
+from hazard.inputs.userfiles import read_user_file
 
 __all__ = ["ProductRecord", "load_record", "read_record_file", "record_from_fields", "MAGNITUDE_BOUNDS"]
 

@@ -15,10 +15,10 @@ import math
 import re
 
 from hazard.errors import InputError
-from hazard.readers import RawSpectrum
-from hazard.readers.headers import HeaderStatement, header_statement
-from hazard.record import ProductRecord
-from hazard.units import SpectralUnit, parse_spectral_unit
+from hazard.inputs.readers import RawSpectrum
+from hazard.inputs.readers.headers import HeaderStatement, header_statement
+from hazard.inputs.record import ProductRecord
+from hazard.inputs.units import SpectralUnit, parse_spectral_unit
 
 __all__ = ["resolve_unit", "file_metadata", "metadata_warnings", "MAX_METADATA_ITEMS", "MAX_METADATA_TEXT"]
 

@@ -12,7 +12,7 @@ import json
 import numpy as np
 
 from hazard.errors import InputError, excerpt
-from hazard.readers.common import Limits, RawSpectrum, current_limits, decode_text, read_bytes
+from hazard.inputs.readers.common import Limits, RawSpectrum, current_limits, decode_text, read_bytes
 
 __all__ = ["read_json"]
 
@@ -98,7 +98,7 @@ def _entry_statements(entries: list[dict], value_key: str, path: str) -> dict:
 
 def read_json(path: str, *, display_path: str, column: str | int | None = None,
               limits: Limits | None = None) -> tuple[RawSpectrum, dict]:
-    """Read a JSON spectrum; see :func:`hazard.readers.delimited.read_delimited`. Entry numbers stand in
+    """Read a JSON spectrum; see :func:`hazard.inputs.readers.delimited.read_delimited`. Entry numbers stand in
     for line numbers in messages."""
     limits = limits or current_limits()
     raw, digest = read_bytes(path, display_path, limits)

@@ -10,8 +10,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from hazard.formatting import format_duration_s
-from hazard.record import ProductRecord
+from hazard.inputs.record import ProductRecord
+from hazard.output.formatting import format_duration_s
 from hazard.result import ClaimCheck, HazardResult
 from hazard.standards import GROUPS
 

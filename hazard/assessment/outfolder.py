@@ -22,8 +22,8 @@ import socket
 from collections.abc import Iterable
 from pathlib import Path
 
-from hazard.atomic import remove_stale_temporaries
 from hazard.errors import InputError, excerpt
+from hazard.output.atomic import remove_stale_temporaries
 
 __all__ = ["OutputFolder", "file_stems", "LOCK_NAME", "RESERVED_STEMS"]
 

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from hazard.formatting import (
+from hazard.output.formatting import (
     NOT_DETERMINED,
     UNIT_DISPLAY,
     dimming_percent,

@@ -1,7 +1,7 @@
 """The last line of defence where a result is built: every number in it is finite, or the product is refused.
 
 JSON has no infinity: a value that overflowed would be written as ``null`` and the result would no longer
-read back. Record and spectrum bounds (:mod:`hazard.record`, :mod:`hazard.spectrum`) keep the method within
+read back. Record and spectrum bounds (:mod:`hazard.inputs.record`, :mod:`hazard.inputs.spectrum`) keep the method within
 the floating-point range; this check names what overflowed should anything still do so.
 """
 

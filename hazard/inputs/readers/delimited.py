@@ -16,8 +16,8 @@ import re
 import numpy as np
 
 from hazard.errors import InputError, excerpt
-from hazard.readers.common import Limits, RawSpectrum, current_limits, decode_text, read_bytes, to_nm
-from hazard.readers.headers import choose_value_column, wavelength_scale
+from hazard.inputs.readers.common import Limits, RawSpectrum, current_limits, decode_text, read_bytes, to_nm
+from hazard.inputs.readers.headers import choose_value_column, wavelength_scale
 
 __all__ = ["read_delimited"]
 

@@ -18,7 +18,7 @@ disk. Killed half-way, a rerun with ``resume`` reads what is there (a torn last 
 the file before it grows again), skips every product whose input hashes are unchanged and ends with the same
 outputs as an uninterrupted run.
 
-The output folder is claimed for the run (:class:`hazard.outfolder.OutputFolder`): never a folder holding
+The output folder is claimed for the run (:class:`hazard.assessment.outfolder.OutputFolder`): never a folder holding
 the run's inputs or the user's own files, one run at a time, leftovers of a killed run removed.
 """
 
@@ -35,20 +35,21 @@ from concurrent.futures import Executor, ProcessPoolExecutor
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from hazard.atomic import atomic_file, write_atomic
-from hazard.engine import build_assessment, evaluate_loaded
+from hazard.assessment.build import build_assessment
+from hazard.assessment.outfolder import OutputFolder, file_stems
+from hazard.assessment.pipeline import evaluate_loaded
+from hazard.assessment.progress import Progress
 from hazard.errors import InputError
-from hazard.formatting import NOT_DETERMINED
-from hazard.inputs import LoadedProduct, product_from_record, spectrum_path
-from hazard.manifest import ManifestRow, read_manifest
+from hazard.inputs.loading import LoadedProduct, product_from_record, spectrum_path
+from hazard.inputs.manifest import ManifestRow, read_manifest
+from hazard.inputs.readers.common import current_limits
+from hazard.inputs.record import record_from_fields
+from hazard.inputs.userfiles import read_user_file
 from hazard.method.photometry import import_colour
-from hazard.outfolder import OutputFolder, file_stems
-from hazard.progress import Progress
-from hazard.readers.common import current_limits
-from hazard.record import record_from_fields
+from hazard.output.atomic import atomic_file, write_atomic
+from hazard.output.formatting import NOT_DETERMINED
 from hazard.result import Assessment
 from hazard.standards import DEFAULT_LIMIT_SET, LimitSet
-from hazard.userfiles import read_user_file
 
 __all__ = ["BatchOutcome", "run_batch", "load_row", "failure_reason", "summary_columns", "summary_row",
            "SUMMARY_NAME", "RESULTS_NAME", "EXIT_SOME_FAILED", "EXIT_INTERNAL"]
@@ -401,7 +402,7 @@ def _input_files(source: Path, rows: list[ManifestRow]) -> Iterator[Path]:
 def _render_one(job: tuple[str, int, int, str]) -> str | None:
     """Worker: render one saved result to a PDF file (top level, so a process pool can call it); None when
     written, else why not (one product's report never stops the others')."""
-    from reports import render_assessment_pdf, report_time
+    from hazard.reports import render_assessment_pdf, report_time
 
     path, offset, length, target = job
     try:
@@ -417,8 +418,8 @@ def _render_one(job: tuple[str, int, int, str]) -> str | None:
 
 
 def _write_pdfs(folder: Path, outcome: BatchOutcome, jobs: int) -> None:
-    from reports import render_summary_pdf, report_time
-    from reports.fonts import report_fonts
+    from hazard.reports import render_summary_pdf, report_time
+    from hazard.reports.fonts import report_fonts
 
     assessed = outcome.assessments
     ids = [i for i in outcome.ids if i in assessed.positions]

@@ -1,6 +1,6 @@
 """Batch input: a CSV or .xlsx manifest (one product record per row) or a folder of TOML records.
 
-Each row carries the record fields of :class:`hazard.record.ProductRecord`; ``spectrum`` paths are relative
+Each row carries the record fields of :class:`hazard.inputs.record.ProductRecord`; ``spectrum`` paths are relative
 to the manifest's folder (or to each TOML file's folder) and must stay inside that folder tree unless the run
 allows otherwise (:func:`hazard.inputs.spectrum_path`). A manifest that cannot be used at all (missing, not a
 regular file, unreadable, no ``id`` column, an unknown column, duplicate ids, beyond a size limit) raises
@@ -8,7 +8,7 @@ regular file, unreadable, no ``id`` column, an unknown column, duplicate ids, be
 
 Reading costs bounded work for any file: the manifest is read up to a size limit, CSV in any line-ending
 convention (LF, CRLF, CR) with the separator taken from the header row, .xlsx streamed
-(:mod:`hazard.readers.workbook`), and rows counted against a limit.
+(:mod:`hazard.inputs.readers.workbook`), and rows counted against a limit.
 """
 
 from __future__ import annotations
@@ -24,10 +24,10 @@ from dataclasses import dataclass, field
 from pathlib import Path
 
 from hazard.errors import InputError, excerpt
-from hazard.readers.common import current_limits
-from hazard.readers.workbook import workbook_rows
-from hazard.record import ProductRecord, read_record_file
-from hazard.userfiles import read_user_file
+from hazard.inputs.readers.common import current_limits
+from hazard.inputs.readers.workbook import workbook_rows
+from hazard.inputs.record import ProductRecord, read_record_file
+from hazard.inputs.userfiles import read_user_file
 
 __all__ = ["ManifestRow", "read_manifest", "MAX_MANIFEST_BYTES", "MAX_MANIFEST_ROWS"]
 

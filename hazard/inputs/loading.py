@@ -8,15 +8,15 @@ from dataclasses import dataclass
 from pathlib import Path
 
 from hazard.errors import InputError, excerpt
-from hazard.file_statements import file_metadata, metadata_warnings, resolve_unit
+from hazard.inputs.readers import read_spectrum
+from hazard.inputs.record import ProductRecord, read_record_file, record_from_fields
+from hazard.inputs.spectrum import Spectrum, validate_spectrum
+from hazard.inputs.statements import file_metadata, metadata_warnings, resolve_unit
+from hazard.inputs.userfiles import regular_file_size
 from hazard.method.photometry import VISIBLE_BAND_NM
 from hazard.method.weighting import quadrature_weights
-from hazard.readers import read_spectrum
-from hazard.record import ProductRecord, read_record_file, record_from_fields
-from hazard.spectrum import Spectrum, validate_spectrum
 from hazard.standards import LIMIT_SETS
-from hazard.userfiles import regular_file_size
-from weighting_tables import load_table
+from hazard.weighting_tables import load_table
 
 __all__ = ["LoadedProduct", "load_product", "product_from_record", "spectrum_path", "ALLOW_OUTSIDE_OPTION"]
 

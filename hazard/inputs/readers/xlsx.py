@@ -1,5 +1,5 @@
 """Spectra in an .xlsx workbook: the first sheet, same layout rules as text: metadata rows, an optional
-header row, then numeric rows. The sheet is streamed (:mod:`hazard.readers.workbook`) with the limits applied
+header row, then numeric rows. The sheet is streamed (:mod:`hazard.inputs.readers.workbook`) with the limits applied
 as it is read."""
 
 from __future__ import annotations
@@ -9,9 +9,9 @@ import math
 import numpy as np
 
 from hazard.errors import InputError, excerpt
-from hazard.readers.common import Limits, RawSpectrum, current_limits, read_bytes, to_nm
-from hazard.readers.headers import choose_value_column, wavelength_scale
-from hazard.readers.workbook import workbook_rows
+from hazard.inputs.readers.common import Limits, RawSpectrum, current_limits, read_bytes, to_nm
+from hazard.inputs.readers.headers import choose_value_column, wavelength_scale
+from hazard.inputs.readers.workbook import workbook_rows
 
 __all__ = ["read_xlsx"]
 
@@ -46,7 +46,7 @@ def _not_a_number(cell) -> str:
 
 def read_xlsx(path: str, *, display_path: str, column: str | int | None = None,
               limits: Limits | None = None) -> tuple[RawSpectrum, dict]:
-    """Read the first sheet of a workbook; see :func:`hazard.readers.delimited.read_delimited`."""
+    """Read the first sheet of a workbook; see :func:`hazard.inputs.readers.delimited.read_delimited`."""
     limits = limits or current_limits()
     raw, digest = read_bytes(path, display_path, limits)
     preamble: list[tuple[int, list]] = []

@@ -2,17 +2,17 @@
 
 :func:`read_spectrum` picks the reader from the file name: ``.xlsx`` workbooks, ``.json`` arrays, and
 delimited text for everything else (``.csv``, ``.tsv``, ``.txt``, instrument exports). Validation and
-unit conversion happen afterwards, once for every format (:mod:`hazard.spectrum`).
+unit conversion happen afterwards, once for every format (:mod:`hazard.inputs.spectrum`).
 """
 
 from __future__ import annotations
 
 from pathlib import Path
 
-from hazard.readers.common import Limits, RawSpectrum, current_limits
-from hazard.readers.delimited import read_delimited
-from hazard.readers.jsonfile import read_json
-from hazard.readers.xlsx import read_xlsx
+from hazard.inputs.readers.common import Limits, RawSpectrum, current_limits
+from hazard.inputs.readers.delimited import read_delimited
+from hazard.inputs.readers.jsonfile import read_json
+from hazard.inputs.readers.xlsx import read_xlsx
 
 __all__ = ["read_spectrum", "RawSpectrum", "Limits", "current_limits"]
 

@@ -11,15 +11,15 @@ from pathlib import Path
 
 import numpy as np
 
-from hazard.engine import BatchEvaluation, evaluate_loaded, evaluate_products
+from hazard.assessment.pipeline import BatchEvaluation, evaluate_loaded, evaluate_products
 from hazard.errors import InputError
-from hazard.inputs import LoadedProduct, load_product, product_from_record
+from hazard.inputs.loading import LoadedProduct, load_product, product_from_record
+from hazard.inputs.record import ProductRecord, load_record, record_from_fields
+from hazard.inputs.spectrum import NEGATIVE_TOLERANCE
+from hazard.inputs.units import parse_spectral_unit
 from hazard.method.evaluate import integral_index
 from hazard.method.integrals import Integrated, integrate_matrix
-from hazard.record import ProductRecord, load_record, record_from_fields
-from hazard.spectrum import NEGATIVE_TOLERANCE
 from hazard.standards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
-from hazard.units import parse_spectral_unit
 
 __all__ = ["assess_many", "frame_columns"]
 

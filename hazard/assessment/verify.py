@@ -16,7 +16,7 @@ import math
 
 import numpy as np
 
-from hazard.cautions import PRE_SCREEN, select_cautions
+from hazard.assessment.cautions import PRE_SCREEN, select_cautions
 from hazard.errors import InputError
 from hazard.method.classify import hazard_groups
 from hazard.method.geometry import MIN_ASSESSMENT_DISTANCE_M

@@ -10,7 +10,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from hazard.errors import InputError, excerpt
-from hazard.userfiles import DEFAULT_MAX_BYTES, read_user_file
+from hazard.inputs.userfiles import DEFAULT_MAX_BYTES, read_user_file
 
 __all__ = ["RawSpectrum", "Limits", "current_limits", "read_bytes", "decode_text", "to_nm", "MAX_FILE_MB_VARIABLE"]
 

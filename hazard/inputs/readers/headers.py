@@ -7,7 +7,7 @@ import re
 from dataclasses import dataclass
 
 from hazard.errors import InputError
-from hazard.units import parse_spectral_unit
+from hazard.inputs.units import parse_spectral_unit
 
 __all__ = ["HeaderStatement", "header_statement", "wavelength_scale", "choose_value_column", "WAVELENGTH_NAMES"]
 

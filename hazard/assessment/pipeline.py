@@ -1,0 +1,117 @@
+"""The method applied to many products at once: records and integrals stacked into arrays, evaluated at the
+assessment distance (and at the standard's, for what-if records), with chromaticity and CCT.
+
+Data flows one way: record and spectrum (:mod:`hazard.inputs.loading`) → weighted integrals on the spectrum's own
+grid (:mod:`hazard.method.integrals`) → values, limits and groups (:mod:`hazard.method.evaluate`) → results
+(:mod:`hazard.assessment.build`).
+"""
+
+from __future__ import annotations
+
+import dataclasses
+from dataclasses import dataclass
+
+import numpy as np
+
+from hazard.inputs.loading import LoadedProduct
+from hazard.inputs.record import ProductRecord
+from hazard.method.evaluate import Evaluation, ProductArrays, evaluate, integral_index
+from hazard.method.geometry import SourceShape
+from hazard.method.integrals import Integrated, integrate_spectra
+from hazard.method.photometry import cct_from_xyz
+from hazard.standards import DEFAULT_LIMIT_SET, LimitSet
+
+__all__ = ["source_shape", "product_arrays", "anchor_photometric", "BatchEvaluation", "evaluate_products", "evaluate_loaded"]
+
+
+def source_shape(records: list[ProductRecord]) -> SourceShape:
+    """Source sizes of records in metres; a source given by α becomes a disc of diameter α·d."""
+    width, height = [], []
+    for r in records:
+        if r.source_diameter_mm is not None:
+            width.append(r.source_diameter_mm), height.append(np.nan)
+        elif r.source_width_mm is not None:
+            width.append(r.source_width_mm), height.append(r.source_height_mm)
+        else:
+            width.append(r.source_alpha_mrad * 1e-3 * r.distance_mm), height.append(np.nan)
+    return SourceShape(np.array(width) * 1e-3, np.array(height) * 1e-3)
+
+
+def product_arrays(records: list[ProductRecord], raw: np.ndarray, covered: np.ndarray,
+                   index: np.ndarray | None = None) -> ProductArrays:
+    """Stack records and their integrals for :func:`~hazard.method.evaluate.evaluate`.
+
+    With ``index``, product i uses ``records[index[i]]`` (many products sharing one validated record's
+    geometry); otherwise product i uses ``records[i]``.
+    """
+    take = np.arange(len(records)) if index is None else np.asarray(index)
+    distance = np.array([np.nan if r.reference_distance_mm is None else r.reference_distance_mm * 1e-3
+                         for r in records])
+    return ProductArrays(
+        raw=np.atleast_2d(raw), covered=np.atleast_2d(covered),
+        is_radiance=np.array([r.effective_quantity == "radiance" for r in records])[take],
+        measurement_distance_m=distance[take], shape=source_shape(records).take(take),
+        is_gls=np.array([r.lamp_type == "gls" for r in records])[take],
+        anchor_photometric=np.array([anchor_photometric(r) for r in records])[take],
+        luminous_intensity_cd=np.array([np.nan if r.luminous_intensity_cd is None else r.luminous_intensity_cd
+                                        for r in records])[take],
+        peak_to_mean=np.array([r.peak_to_mean_radiance for r in records])[take],
+        forced_distance_m=np.array([np.nan if r.at_distance_mm is None else r.at_distance_mm * 1e-3
+                                    for r in records])[take])
+
+
+def anchor_photometric(record: ProductRecord) -> float:
+    """The photometric value a relative spectrum must reproduce at its reference distance [lx or cd/m2]."""
+    if record.quantity != "relative":
+        return np.nan
+    if record.illuminance_lx is not None:
+        return record.illuminance_lx
+    if record.luminous_intensity_cd is not None:
+        return record.luminous_intensity_cd / (record.reference_distance_mm * 1e-3) ** 2
+    return record.luminance_cd_m2
+
+
+@dataclass(frozen=True)
+class BatchEvaluation:
+    """Everything computed for n products: integrals, the method's arrays, and colour. ``standard`` is the
+    evaluation at the standard's distance (the same object as ``evaluation`` unless a record asks for a
+    what-if distance); ``what_if`` marks the products assessed at a distance of the record's choosing."""
+
+    limit_set: LimitSet
+    integrated: Integrated
+    evaluation: Evaluation
+    standard: Evaluation
+    what_if: np.ndarray
+    chromaticity_x: np.ndarray
+    chromaticity_y: np.ndarray
+    cct_k: np.ndarray
+    duv: np.ndarray
+
+
+def evaluate_products(records: list[ProductRecord], integrated: Integrated,
+                      limit_set: LimitSet = DEFAULT_LIMIT_SET, index: np.ndarray | None = None) -> BatchEvaluation:
+    """Apply the method to n products whose integrals are known; colour only where V(λ) is covered and
+    there is light. ``index`` maps products to ``records`` as in :func:`product_arrays`."""
+    arrays = product_arrays(records, integrated.raw, integrated.covered, index)
+    ev = evaluate(arrays, limit_set)
+    standard = ev
+    what_if = np.zeros(ev.group_index.size, dtype=bool)
+    if arrays.forced_distance_m is not None:
+        what_if = ~np.isnan(arrays.forced_distance_m)
+        if what_if.any():
+            standard = evaluate(dataclasses.replace(arrays, forced_distance_m=None), limit_set)
+    v = integral_index(limit_set)["V"]
+    nan = np.full(integrated.raw.shape[0], np.nan)
+    x, y, cct, duv = nan.copy(), nan.copy(), nan.copy(), nan.copy()
+    lit = integrated.covered[:, v] & (ev.illuminance_lx > 0)
+    if lit.any():
+        x[lit], y[lit], cct[lit], duv[lit] = cct_from_xyz(integrated.xyz[lit])
+    return BatchEvaluation(limit_set, integrated, ev, standard, what_if, x, y, cct, duv)
+
+
+def evaluate_loaded(products: list[LoadedProduct], limit_set: LimitSet = DEFAULT_LIMIT_SET) -> BatchEvaluation:
+    """Integrate and evaluate loaded products (spectra sharing a grid share one matrix product)."""
+    integrated = integrate_spectra([p.spectrum.wavelength_nm for p in products],
+                                   [p.spectrum.value for p in products],
+                                   [p.record.no_emission_outside for p in products], limit_set)
+    return evaluate_products([p.record for p in products], integrated, limit_set)

@@ -1,0 +1,2 @@
+"""From what the user gives to validated records and spectra: readers, units, spectrum rules, records,
+manifests, file statements and the loading that joins them."""

@@ -1,0 +1,1 @@
+"""What people read and files receive: text for the terminal, number formatting, atomic writes."""
