@@ -17,9 +17,9 @@ from pathlib import Path
 import click
 
 from hazard._version import __version__
+from hazard.exit_codes import EXIT_CONTRADICTED, EXIT_INPUT, EXIT_INTERNAL, EXIT_OK, EXIT_SOME_FAILED
 from hazard.output.atomic import remove_stale_temporaries, write_atomic
 
-EXIT_OK, EXIT_INTERNAL, EXIT_INPUT, EXIT_SOME_FAILED, EXIT_CONTRADICTED = 0, 1, 2, 3, 4
 SCREEN_PRODUCTS = 200
 """A batch table on screen lists at most this many products; summary.csv has them all [1]."""
 MAX_RESULT_BYTES = 64 * 1024 * 1024

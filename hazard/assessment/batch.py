@@ -40,6 +40,7 @@ from hazard.assessment.outfolder import OutputFolder, file_stems
 from hazard.assessment.pipeline import evaluate_loaded
 from hazard.assessment.progress import Progress
 from hazard.errors import InputError
+from hazard.exit_codes import EXIT_INTERNAL, EXIT_OK, EXIT_SOME_FAILED
 from hazard.inputs.loading import LoadedProduct, product_from_record, spectrum_path
 from hazard.inputs.manifest import ManifestRow, read_manifest
 from hazard.inputs.readers.common import current_limits
@@ -52,13 +53,11 @@ from hazard.result import Assessment
 from hazard.standards import DEFAULT_LIMIT_SET, LimitSet
 
 __all__ = ["BatchOutcome", "run_batch", "load_row", "failure_reason", "summary_columns", "summary_row",
-           "SUMMARY_NAME", "RESULTS_NAME", "EXIT_SOME_FAILED", "EXIT_INTERNAL"]
+           "SUMMARY_NAME", "RESULTS_NAME"]
 
 RESULTS_NAME = "results.jsonl"
 SUMMARY_NAME = "summary.csv"
 PARTIAL_SUFFIX = ".partial"
-EXIT_SOME_FAILED = 3
-EXIT_INTERNAL = 1
 CHUNK_PRODUCTS = 128
 """Products loaded, assessed and flushed to the partial file at a time (one unit of work for a worker)."""
 CHUNKS_AHEAD = 2
@@ -127,7 +126,7 @@ class BatchOutcome:
         one or on its report (after writing every other output)."""
         if self.internal or self.report_failures:
             return EXIT_INTERNAL
-        return EXIT_SOME_FAILED if self.errors else 0
+        return EXIT_SOME_FAILED if self.errors else EXIT_OK
 
 
 @dataclass(frozen=True)

@@ -15,7 +15,7 @@ from hazard.assessment.pipeline import BatchEvaluation, evaluate_loaded, evaluat
 from hazard.errors import InputError
 from hazard.inputs.loading import LoadedProduct, load_product, product_from_record
 from hazard.inputs.record import ProductRecord, load_record, record_from_fields
-from hazard.inputs.spectrum import NEGATIVE_TOLERANCE
+from hazard.inputs.spectrum import VALUE_RULES, value_rule_broken
 from hazard.inputs.units import parse_spectral_unit
 from hazard.method.evaluate import integral_index
 from hazard.method.integrals import Integrated, integrate_matrix
@@ -68,15 +68,7 @@ def _check_grid(wavelength_nm: np.ndarray, spectra: np.ndarray) -> None:
         raise ValueError("wavelength_nm must be strictly increasing [nm]")
 
 
-def _value_problem(peak: float, lowest: float) -> str:
-    """Why a spectrum with these extremes breaks the value rules of method §5 (or cannot be anchored)."""
-    if not (np.isfinite(peak) and np.isfinite(lowest)):
-        return "a value is not finite (NaN or infinity)"
-    if peak <= 0:
-        return "no positive value"
-    if lowest < -NEGATIVE_TOLERANCE * peak:
-        return f"negative beyond dark noise ({NEGATIVE_TOLERANCE:.0%} of the peak)"
-    return "a relative spectrum with no light within V(λ) cannot be scaled by a photometric anchor"
+NO_LIGHT_TO_ANCHOR = "a relative spectrum with no light within V(λ) cannot be scaled by a photometric anchor"
 
 
 def _distinct(records) -> tuple[list, list[str], np.ndarray]:
@@ -198,10 +190,11 @@ def assess_many(records, wavelength_nm: np.ndarray | None = None, spectra: np.nd
     integrated, peak, lowest = integrate_matrix(np.asarray(wavelength_nm, dtype=float), spectra, flags, limit_set,
                                                 factors)
     visual = integrated.raw[:, integral_index(limit_set)["V"]]
-    relative = np.array([ok and r.quantity == "relative" for r, ok in zip(validated, is_record)])[index]
-    valid_values = (np.isfinite(peak) & np.isfinite(lowest) & (peak > 0)
-                    & (lowest >= -NEGATIVE_TOLERANCE * np.where(np.isfinite(peak), peak, 0))
-                    & ~(relative & ~(visual > 0)))
+    quantity = np.array([r.quantity if ok else "relative" for r, ok in zip(validated, is_record)])[index]
+    relative = quantity == "relative"
+    with np.errstate(over="ignore", invalid="ignore"):
+        broken = value_rule_broken(peak, lowest, peak * factors, quantity)
+    valid_values = (broken < 0) & ~(relative & ~(visual > 0))
     errors = {}
     for i in np.flatnonzero(~np.array(is_record)[index] | ~valid_values | (np.array(ids) == "")):
         problem = validated[index[i]]
@@ -210,7 +203,8 @@ def assess_many(records, wavelength_nm: np.ndarray | None = None, spectra: np.nd
         elif not ids[i]:
             errors[i] = f"record {i + 1}: the id is empty; fix: give every product an id"
         else:
-            errors[i] = f"{ids[i]}: {_value_problem(peak[i], lowest[i])}; fix: correct or remove this spectrum"
+            problem = VALUE_RULES[broken[i]] if broken[i] >= 0 else NO_LIGHT_TO_ANCHOR
+            errors[i] = f"{ids[i]}: {problem}; fix: correct or remove this spectrum"
     good = [i for i in range(len(ids)) if i not in errors]
     if not good:
         return _frame(None, ids, good, errors, limit_set)

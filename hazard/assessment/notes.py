@@ -149,13 +149,16 @@ def assumptions_for(loaded: LoadedProduct, ev: Evaluation, i: int) -> list[str]:
 
 def anchor_text(record: ProductRecord, scale: float) -> str:
     """The scaling of a relative spectrum, stated so a reader can check it."""
-    if record.illuminance_lx is not None:
-        target = f"{record.illuminance_lx:g} lx at {record.distance_mm:g} mm"
-    elif record.luminous_intensity_cd is not None:
-        target = (f"{record.luminous_intensity_cd:g} cd, i.e. {anchor_photometric(record):.4g} lx at "
+    anchor = record.anchor
+    if anchor is None:
+        return ""
+    if anchor.field == "illuminance_lx":
+        target = f"{anchor.value:g} lx at {record.distance_mm:g} mm"
+    elif anchor.field == "luminous_intensity_cd":
+        target = (f"{anchor.value:g} cd, i.e. {anchor_photometric(record):.4g} lx at "
                   f"{record.reference_distance_mm:g} mm by the inverse-square law")
     else:
-        target = f"{record.luminance_cd_m2:g} cd/m² (so the spectrum is read as a radiance)"
+        target = f"{anchor.value:g} cd/m² (so the spectrum is read as a radiance)"
     unit = UNIT_DISPLAY[record.unit_text]  # the SI unit the anchor scales the relative spectrum into
     return (f"Relative spectrum scaled by {scale:.6g} {unit} per unit so that 683 lm/W · ∫S(λ)V(λ)dλ reproduces "
             f"the stated {target}; every absolute value rests on that figure and on the spectrum's shape.")

@@ -26,15 +26,9 @@ __all__ = ["source_shape", "product_arrays", "anchor_photometric", "BatchEvaluat
 
 def source_shape(records: list[ProductRecord]) -> SourceShape:
     """Source sizes of records in metres; a source given by α becomes a disc of diameter α·d."""
-    width, height = [], []
-    for r in records:
-        if r.source_diameter_mm is not None:
-            width.append(r.source_diameter_mm), height.append(np.nan)
-        elif r.source_width_mm is not None:
-            width.append(r.source_width_mm), height.append(r.source_height_mm)
-        else:
-            width.append(r.source_alpha_mrad * 1e-3 * r.distance_mm), height.append(np.nan)
-    return SourceShape(np.array(width) * 1e-3, np.array(height) * 1e-3)
+    width = np.array([r.source.width_mm for r in records])
+    height = np.array([np.nan if r.source.height_mm is None else r.source.height_mm for r in records])
+    return SourceShape(width * 1e-3, height * 1e-3)
 
 
 def product_arrays(records: list[ProductRecord], raw: np.ndarray, covered: np.ndarray,
@@ -61,14 +55,14 @@ def product_arrays(records: list[ProductRecord], raw: np.ndarray, covered: np.nd
 
 
 def anchor_photometric(record: ProductRecord) -> float:
-    """The photometric value a relative spectrum must reproduce at its reference distance [lx or cd/m2]."""
-    if record.quantity != "relative":
+    """The photometric value a relative spectrum must reproduce at its reference distance [lx or cd/m2]; NaN for
+    an absolute spectrum."""
+    anchor = record.anchor
+    if record.quantity != "relative" or anchor is None:
         return np.nan
-    if record.illuminance_lx is not None:
-        return record.illuminance_lx
-    if record.luminous_intensity_cd is not None:
-        return record.luminous_intensity_cd / (record.reference_distance_mm * 1e-3) ** 2
-    return record.luminance_cd_m2
+    if anchor.field == "luminous_intensity_cd":
+        return anchor.value / (record.reference_distance_mm * 1e-3) ** 2
+    return anchor.value
 
 
 @dataclass(frozen=True)

@@ -8,7 +8,7 @@ import numpy as np
 from hazard.assessment.notes import anchor_text
 from hazard.assessment.pipeline import BatchEvaluation, source_shape
 from hazard.inputs.loading import LoadedProduct
-from hazard.inputs.record import ANCHORS, ProductRecord
+from hazard.inputs.record import ProductRecord
 from hazard.method.evaluate import Evaluation
 from hazard.method.photometry import CCT_DUV_LIMIT, CCT_RANGE_K
 from hazard.result import (
@@ -36,11 +36,11 @@ def photometry_summary(batch: "BatchEvaluation", i: int, covered: bool) -> Photo
 
 
 def scaling_summary(record: ProductRecord, scale: float) -> Scaling | None:
-    if record.quantity != "relative":
+    anchor = record.anchor
+    if record.quantity != "relative" or anchor is None:
         return None
-    anchor = next(a for a in ANCHORS if getattr(record, a) is not None)
-    return Scaling(anchor=anchor, anchor_value=getattr(record, anchor),
-                   reference_distance_mm=None if anchor == "luminance_cd_m2" else record.reference_distance_mm,
+    return Scaling(anchor=anchor.field, anchor_value=anchor.value,
+                   reference_distance_mm=None if anchor.is_radiance else record.reference_distance_mm,
                    scale_factor=scale, note=anchor_text(record, scale))
 
 
@@ -80,10 +80,13 @@ def spectrum_summary(loaded: LoadedProduct, scale: float) -> SpectrumSummary:
 
 def transfer_summary(ev: Evaluation, i: int, covered: np.ndarray, keys: dict[str, int], record: ProductRecord,
               limit_set: LimitSet) -> BlueLightTransfer | None:
-    """IEC TR 62778 transfer quantities, where the spectrum covers both the blue-light band and V(λ) and the
-    source is mainly visible (the report's quantities are made for white-light sources)."""
+    """IEC TR 62778 transfer quantities, where the spectrum covers both the blue-light band and V(λ), the
+    source is mainly visible (the report's quantities are made for white-light sources) and they are finite (a
+    source with next to no blue light has no threshold worth printing)."""
     blue = limit_set.transfer_quantity()
-    if not (blue and covered[keys[blue]] and covered[keys["V"]] and ev.mainly_visible[i]
+    finite = all(np.isfinite(x[i]) for x in (ev.blue_light_efficacy_w_per_lm, ev.threshold_illuminance_lx,
+                                             ev.luminous_intensity_cd, ev.threshold_distance_m))
+    if not (blue and covered[keys[blue]] and covered[keys["V"]] and ev.mainly_visible[i] and finite
             and ev.blue_light_efficacy_w_per_lm[i] > 0):
         return None
     if record.luminous_intensity_cd is not None:

@@ -8,6 +8,8 @@ from __future__ import annotations
 import difflib
 import re
 import tomllib
+from dataclasses import dataclass
+from functools import cached_property
 from pathlib import Path
 from typing import Literal
 
@@ -25,12 +27,65 @@ from pydantic import (
 from hazard.errors import InputError, excerpt
 from hazard.inputs.units import IRRADIANCE_SI, RADIANCE_SI, parse_spectral_unit
 from hazard.inputs.userfiles import read_user_file
+from hazard.standards import GROUPS, LIMIT_SETS
 
-__all__ = ["ProductRecord", "load_record", "read_record_file", "record_from_fields", "MAGNITUDE_BOUNDS"]
+__all__ = ["ProductRecord", "Anchor", "SourceSize", "load_record", "read_record_file", "record_from_fields",
+           "MAGNITUDE_BOUNDS", "CLAIMABLE", "claim_field"]
 
 _DEFAULT_UNIT = {"irradiance": IRRADIANCE_SI, "radiance": RADIANCE_SI}
-HAZARD_SYMBOLS = ("E_S", "E_UVA", "L_B", "E_B", "L_R", "L_IR", "E_IR", "E_H")
-"""Symbols that may carry a claimed t_max (``claimed_t_max_s_<SYMBOL>``)."""
+CLAIMABLE = tuple(dict.fromkeys(symbol for limit_set in LIMIT_SETS.values() for symbol in limit_set.claimable))
+"""Hazard symbols a record may claim a t_max for, from the limit sets (field :func:`claim_field`)."""
+
+
+def claim_field(symbol: str) -> str:
+    """The record field that holds a claimed t_max of ``symbol``."""
+    return f"claimed_t_max_s_{symbol}"
+
+
+@dataclass(frozen=True)
+class Anchor:
+    """The photometric value a relative spectrum is scaled by.
+
+    Attributes
+    ----------
+    field : str
+        The record field: ``illuminance_lx``, ``luminous_intensity_cd`` or ``luminance_cd_m2``.
+    value : float
+        The stated value [lx, cd or cd m⁻²].
+    """
+
+    field: Literal["illuminance_lx", "luminous_intensity_cd", "luminance_cd_m2"]
+    value: float
+
+    @property
+    def is_radiance(self) -> bool:
+        """A luminance anchor makes the spectrum a radiance."""
+        return self.field == "luminance_cd_m2"
+
+
+@dataclass(frozen=True)
+class SourceSize:
+    """The source's size as the record states it, in one typed value.
+
+    Attributes
+    ----------
+    shape : str
+        ``"disc"``, ``"rectangle"``, or ``"angle"`` (a disc given by its angular subtense at the measurement
+        distance).
+    width_mm : float
+        Diameter, or width [mm] (for an angle: α·d).
+    height_mm : float or None
+        Height of a rectangle [mm].
+    """
+
+    shape: Literal["disc", "rectangle", "angle"]
+    width_mm: float
+    height_mm: float | None = None
+
+    @property
+    def largest_dimension_mm(self) -> float:
+        """Largest linear dimension [mm]."""
+        return max(self.width_mm, self.height_mm or 0.0)
 RELATIVE_UNITS = ("relative", "rel", "a.u.", "au", "arb", "1", "counts")
 """Units accepted for a relative spectrum (they all mean: no physical unit)."""
 ANCHORS = ("illuminance_lx", "luminous_intensity_cd", "luminance_cd_m2")
@@ -58,8 +113,8 @@ MAGNITUDE_BOUNDS: dict[str, tuple[float, float, str, str, str]] = {
     "peak_to_mean_radiance": (1.0, 1e4, "", "peak-to-mean ratio", "beyond any LED array or hot spot"),
     "claimed_cct_k": (100.0, 1e6, "K", "colour temperature", "outside any light source's"),
     "claimed_illuminance_lx": (1e-6, 1e9, "lx", "illuminance", "beyond any lamp"),
-    **{f"claimed_t_max_s_{symbol}": (1e-6, 1e12, "s", "exposure time", "from a microsecond to 30 000 years")
-       for symbol in HAZARD_SYMBOLS},
+    **{claim_field(symbol): (1e-6, 1e12, "s", "exposure time", "from a microsecond to 30 000 years")
+       for symbol in CLAIMABLE},
 }
 """Range of each physical field [its unit]: lowest, highest, unit, what it is, why the bound."""
 
@@ -114,19 +169,16 @@ class ProductRecord(BaseModel):
     at_distance_mm: float | None = Field(None, gt=0, description="Assess at this distance instead of the "
                                                                  "standard's (a what-if study: the group is "
                                                                  "then not the standard's classification) [mm].")
-    claimed_risk_group: Literal["Exempt", "RG1", "RG2", "RG3"] | None = Field(
+    claimed_risk_group: Literal[GROUPS] | None = Field(  # type: ignore[valid-type]
         None, description="The vendor's claimed overall risk group.")
     claimed_cct_k: float | None = Field(None, gt=0, description="The vendor's claimed CCT [K].")
     claimed_illuminance_lx: float | None = Field(None, gt=0, description="The vendor's claimed illuminance at "
                                                                          "distance_mm [lx].")
-    claimed_t_max_s_E_S: float | None = Field(None, gt=0, description="Claimed t_max of E_S [s].")
-    claimed_t_max_s_E_UVA: float | None = Field(None, gt=0, description="Claimed t_max of E_UVA [s].")
-    claimed_t_max_s_L_B: float | None = Field(None, gt=0, description="Claimed t_max of L_B [s].")
-    claimed_t_max_s_E_B: float | None = Field(None, gt=0, description="Claimed t_max of E_B [s].")
-    claimed_t_max_s_L_R: float | None = Field(None, gt=0, description="Claimed t_max of L_R [s].")
-    claimed_t_max_s_L_IR: float | None = Field(None, gt=0, description="Claimed t_max of L_IR [s].")
-    claimed_t_max_s_E_IR: float | None = Field(None, gt=0, description="Claimed t_max of E_IR [s].")
-    claimed_t_max_s_E_H: float | None = Field(None, gt=0, description="Claimed t_max of E_H [s].")
+    # One claimed t_max field per claimable hazard of the limit sets, generated from them (never hand-written):
+    for _symbol in CLAIMABLE:
+        __annotations__[claim_field(_symbol)] = "float | None"
+        locals()[claim_field(_symbol)] = Field(None, gt=0, description=f"Claimed t_max of {_symbol} [s].")
+    del _symbol
 
     @field_validator(*MAGNITUDE_BOUNDS)
     @classmethod
@@ -217,16 +269,15 @@ class ProductRecord(BaseModel):
     @property
     def unit_text(self) -> str:
         """The unit as given, or the default for the quantity (relative spectra keep their own scale)."""
-        if self.quantity == "relative":
-            return RADIANCE_SI if self.luminance_cd_m2 is not None else IRRADIANCE_SI
-        return self.unit or _DEFAULT_UNIT[self.quantity]
+        return _DEFAULT_UNIT[self.effective_quantity] if self.quantity == "relative" else (
+            self.unit or _DEFAULT_UNIT[self.quantity])
 
     @property
-    def effective_quantity(self) -> str:
+    def effective_quantity(self) -> Literal["irradiance", "radiance"]:
         """What the spectrum is after anchoring: a relative spectrum with a luminance anchor is a radiance,
         with an illuminance or intensity anchor an irradiance."""
         if self.quantity == "relative":
-            return "radiance" if self.luminance_cd_m2 is not None else "irradiance"
+            return "radiance" if self.anchor is not None and self.anchor.is_radiance else "irradiance"
         return self.quantity
 
     @property
@@ -240,16 +291,32 @@ class ProductRecord(BaseModel):
     @property
     def claimed_t_max_s(self) -> dict[str, float]:
         """Claimed t_max per hazard symbol [s]."""
-        return {s: v for s in HAZARD_SYMBOLS if (v := getattr(self, f"claimed_t_max_s_{s}")) is not None}
+        return {s: v for s in CLAIMABLE if (v := getattr(self, claim_field(s))) is not None}
+
+    @cached_property
+    def source(self) -> SourceSize:
+        """The source size as one typed value (the validator has made sure exactly one form is given)."""
+        if self.source_diameter_mm is not None:
+            return SourceSize("disc", self.source_diameter_mm)
+        if self.source_width_mm is not None and self.source_height_mm is not None:
+            return SourceSize("rectangle", self.source_width_mm, self.source_height_mm)
+        if self.source_alpha_mrad is None or self.distance_mm is None:
+            raise ValueError("a record without a source size")  # excluded by the validator
+        return SourceSize("angle", self.source_alpha_mrad * 1e-3 * self.distance_mm)
+
+    @cached_property
+    def anchor(self) -> Anchor | None:
+        """The photometric anchor of a relative spectrum; None for an absolute one."""
+        for name in ANCHORS:
+            value = getattr(self, name)
+            if value is not None:
+                return Anchor(name, value)
+        return None
 
     @property
-    def largest_dimension_mm(self) -> float | None:
-        """Largest linear dimension of the source [mm], where the record gives it (or α and distance)."""
-        if self.source_diameter_mm is not None:
-            return self.source_diameter_mm
-        if self.source_width_mm is not None:
-            return max(self.source_width_mm, self.source_height_mm)
-        return self.source_alpha_mrad * 1e-3 * self.distance_mm
+    def largest_dimension_mm(self) -> float:
+        """Largest linear dimension of the source [mm] (for a source given by α: α·d)."""
+        return self.source.largest_dimension_mm
 
 
 def _line_of(text: str, key: str) -> int | None:

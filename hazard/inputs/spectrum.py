@@ -14,7 +14,7 @@ import numpy as np
 
 from hazard.errors import InputError
 
-__all__ = ["Spectrum", "validate_spectrum", "NEGATIVE_TOLERANCE"]
+__all__ = ["Spectrum", "validate_spectrum", "value_rule_broken", "VALUE_RULES", "NEGATIVE_TOLERANCE"]
 
 NEGATIVE_TOLERANCE = 0.01
 """Negatives down to this fraction of the peak are dark noise (method §5) [1]."""
@@ -27,6 +27,43 @@ PEAK_RANGE_SI = {"irradiance": (0.0, 1e12), "radiance": (0.0, 1e12), "relative":
 """Range of a spectrum's peak value in SI units (above the first, up to the second); beyond it the file's unit
 is wrong or the numbers are not a measurement, and the method's products would leave the floating-point range
 (common practice, no published source) [W m⁻² nm⁻¹, W m⁻² sr⁻¹ nm⁻¹, or 1 for a relative spectrum]."""
+VALUE_RULES = ("a value is not finite (NaN or infinity)", "no positive value",
+               f"negative beyond dark noise (more than {NEGATIVE_TOLERANCE:.0%} of the peak)",
+               "the peak is not a plausible measurement in its unit")
+"""The value rules of method §5, in the order they are checked (codes 0, 1, 2, 3 of :func:`value_rule_broken`)."""
+
+
+def value_rule_broken(peak: np.ndarray, lowest: np.ndarray, peak_si: np.ndarray, quantity: np.ndarray
+                      ) -> np.ndarray:
+    """The first value rule (:data:`VALUE_RULES`) each spectrum breaks, from its extreme samples; −1 where none.
+
+    The one implementation of the rules, for one spectrum read from a file (:func:`validate_spectrum`) and for
+    a matrix of spectra in memory (:func:`hazard.assessment.many.assess_many`).
+
+    Parameters
+    ----------
+    peak, lowest : numpy.ndarray
+        Highest and lowest sample of each spectrum [its unit].
+    peak_si : numpy.ndarray
+        The highest sample in SI units [W m⁻² nm⁻¹ or W m⁻² sr⁻¹ nm⁻¹, or 1 for a relative spectrum].
+    quantity : numpy.ndarray
+        ``"irradiance"``, ``"radiance"`` or ``"relative"`` of each spectrum.
+
+    Examples
+    --------
+    >>> value_rule_broken(np.array([1.0, 1.0, 0.0, np.nan]), np.array([-0.001, -0.5, 0.0, 0.0]),
+    ...                   np.array([1.0, 1.0, 0.0, np.nan]), np.array(["irradiance"] * 4)).tolist()
+    [-1, 2, 1, 0]
+    """
+    peak, lowest, peak_si = (np.asarray(x, dtype=float) for x in (peak, lowest, peak_si))
+    low = np.array([PEAK_RANGE_SI.get(q, PEAK_RANGE_SI["relative"])[0] for q in np.atleast_1d(quantity)])
+    high = np.array([PEAK_RANGE_SI.get(q, PEAK_RANGE_SI["relative"])[1] for q in np.atleast_1d(quantity)])
+    with np.errstate(invalid="ignore"):
+        finite = np.isfinite(peak) & np.isfinite(lowest)
+        positive = peak > 0
+        dark_noise = lowest >= -NEGATIVE_TOLERANCE * np.where(finite, peak, 0.0)
+        plausible = (peak_si > low) & (peak_si <= high)
+    return np.where(~finite, 0, np.where(~positive, 1, np.where(~dark_noise, 2, np.where(~plausible, 3, -1))))
 
 
 @dataclass(frozen=True)
@@ -133,17 +170,18 @@ def validate_spectrum(wavelength_nm: np.ndarray, value: np.ndarray, lines: np.nd
         raise InputError(f"wavelength {wl[i]:g} nm breaks the order (previous row {wl[i - 1]:g} nm)",
                          "sort the rows by wavelength", path, int(lines[i]))
     peak = float(val.max())
-    if peak <= 0:
-        raise InputError("no positive value in the spectrum", "check the value column and its unit", path)
     lowest = int(np.argmin(val))
-    if val[lowest] < -NEGATIVE_TOLERANCE * peak:
+    with np.errstate(over="ignore"):
+        peak_si = peak * factor_to_si
+    broken = int(value_rule_broken(np.array([peak]), val[[lowest]], np.array([peak_si]), np.array([quantity]))[0])
+    if broken == 1:
+        raise InputError("no positive value in the spectrum", "check the value column and its unit", path)
+    if broken == 2:
         raise InputError(f"value {val[lowest]:g} at {wl[lowest]:g} nm is negative beyond dark noise "
                          f"(more than {NEGATIVE_TOLERANCE:.0%} of the peak {peak:g})",
                          "subtract the dark reading correctly or re-measure", path, int(lines[lowest]))
-    low, high = PEAK_RANGE_SI.get(quantity, PEAK_RANGE_SI["relative"])
-    with np.errstate(over="ignore"):
-        peak_si = peak * factor_to_si
-    if not low < peak_si <= high:
+    if broken == 3:
+        low, high = PEAK_RANGE_SI.get(quantity, PEAK_RANGE_SI["relative"])
         raise InputError(f"peak value {peak:g} ({peak_si:g} in SI units) is outside {low:g} to {high:g}: not a "
                          f"plausible measurement", "check the value column and its unit", path,
                          int(lines[int(np.argmax(val))]))

@@ -317,7 +317,7 @@ def _blue_light_transfer(arrays: ProductArrays, blue: np.ndarray, visual: np.nda
     I_v is the record's luminous intensity when given; otherwise E_v·d² at the measurement distance
     (inverse-square estimate) for irradiance, or L_v times the source's projected area for radiance.
     """
-    with np.errstate(divide="ignore", invalid="ignore"):
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         efficacy = np.where(visual > 0, blue / (K_M_LM_PER_W * visual), np.nan)
         threshold = np.where(efficacy > 0, threshold_w_m2 / efficacy, np.nan)
         width, height = arrays.shape.width_m, arrays.shape.height_m
