@@ -86,9 +86,9 @@ def part_memory(n: int) -> dict:
 def _write_corpus(folder: Path, m: int) -> Path:
     spectra, records = _spectra(m, seed=3), _records(m, seed=5)
     lines = ["id,spectrum,distance_mm,source_diameter_mm,no_emission_outside,lamp_type"]
-    for i, (row, values) in enumerate(zip(records.itertuples(), spectra)):
+    for i, (row, values) in enumerate(zip(records.itertuples(), spectra, strict=True)):
         name = f"s{i:05d}.csv"
-        body = "\n".join(f"{w:.0f},{v:.6g}" for w, v in zip(GRID_NM, values))
+        body = "\n".join(f"{w:.0f},{v:.6g}" for w, v in zip(GRID_NM, values, strict=True))
         (folder / name).write_text("# invented benchmark spectrum\nwavelength_nm,value\n" + body + "\n")
         lines.append(f"{row.id},{name},{row.distance_mm:.1f},{row.source_diameter_mm:.2f},true,{row.lamp_type}")
     manifest = folder / "manifest.csv"
@@ -131,9 +131,12 @@ def main() -> None:
     if args.part == "files":
         print(json.dumps(part_end_to_end(args.files, args.pdfs)))
         return
-    run = lambda part: json.loads(subprocess.run(  # noqa: E731
-        [sys.executable, __file__, "--part", part, "--spectra", str(args.spectra), "--files", str(args.files),
-         "--pdfs", str(args.pdfs)], check=True, capture_output=True, text=True).stdout)
+
+    def run(part):
+        return json.loads(subprocess.run(
+            [sys.executable, __file__, "--part", part, "--spectra", str(args.spectra), "--files", str(args.files),
+             "--pdfs", str(args.pdfs)], check=True, capture_output=True, text=True).stdout)
+
     mem, e2e = run("memory"), run("files")
     ratio = mem["shared_s"] / mem["floor_s"]
     ratio_own = mem["own_s"] / mem["floor_s"]
@@ -158,7 +161,7 @@ def main() -> None:
     ]
     widths = [max(len(r[i]) for r in rows) for i in range(4)]
     for row in rows:
-        print("  ".join(c.ljust(w) for c, w in zip(row, widths)).rstrip())
+        print("  ".join(c.ljust(w) for c, w in zip(row, widths, strict=True)).rstrip())
 
 
 if __name__ == "__main__":

@@ -37,7 +37,7 @@ from pathlib import Path
 REPO = Path(__file__).resolve().parents[1]
 sys.path.insert(0, str(REPO / "tests"))
 
-from mutations import exercise, mutate, mutate_workbook  # noqa: E402
+from mutations import exercise, mutate, mutate_workbook  # noqa: E402 - importable only once tests/ is on the path
 
 DATA = REPO / "tests" / "data"
 LINEUP = REPO / "examples" / "lineup"

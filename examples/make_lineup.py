@@ -327,7 +327,7 @@ def write_csv(product: Product, model: Callable[..., Product], folder: Path) -> 
                f"Measurement distance: {product.distance_mm:g} mm",
                "Quantity: spectral irradiance, unit W/m2/nm"]
     values = np.where(product.irradiance >= FLOOR * product.irradiance.max(), product.irradiance, 0.0)
-    rows = [f"{w:.1f},{v:.6g}" for w, v in zip(product.wavelength_nm, values)]
+    rows = [f"{w:.1f},{v:.6g}" for w, v in zip(product.wavelength_nm, values, strict=True)]
     path = folder / f"{product.stem}.csv"
     path.write_text("".join(f"# {line}\n" for line in header) + "wavelength_nm,irradiance_W_m2_nm\n"
                     + "\n".join(rows) + "\n", encoding="utf-8")

@@ -18,5 +18,14 @@ from hazard.inputs.record import ProductRecord
 from hazard.result import Assessment, HazardResult
 from hazard.standards import IEC_62471_2006
 
-__all__ = ["__version__", "assess", "assess_many", "load_product", "ProductRecord", "Assessment", "HazardResult",
-           "InputError", "IEC_62471_2006"]
+__all__ = [
+           "IEC_62471_2006",
+           "Assessment",
+           "HazardResult",
+           "InputError",
+           "ProductRecord",
+           "__version__",
+           "assess",
+           "assess_many",
+           "load_product",
+]

@@ -86,7 +86,7 @@ class _Group(click.Group):
         except OSError as exc:  # mostly writing the outputs: a full disk, a read-only folder
             click.echo(f"hazard: error: {_os_error_text(exc)}", err=True)
             ctx.exit(EXIT_INPUT)
-        except Exception as exc:  # noqa: BLE001 - the last line of defence, reported as internal
+        except Exception as exc:  # the last line of defence, reported as internal
             if ctx.obj and ctx.obj.get("debug"):
                 traceback.print_exc()
             else:
@@ -200,9 +200,11 @@ def _write_report(assessment, pdf_path: Path) -> None:
               help="PDF file to write.")
 @click.option("--id", "product_id", help="With a results.jsonl of 'hazard batch': the product to render.")
 def report(result: Path, output: Path, product_id: str | None) -> None:
-    """Render the PDF report of a saved result (from `hazard assess --format json`, or one product of a
-    batch's results.jsonl with --id), without recomputing it. The result is checked first: unchanged since it
-    was made, and its groups must follow from its own values and limits."""
+    """Render the PDF report of a saved result, without recomputing it.
+
+    The result comes from `hazard assess --format json`, or is one product of a batch's results.jsonl with --id. It is
+    checked first: unchanged since it was made, and its groups must follow from its own values and limits.
+    """
     from hazard.assessment.verify import check_result
 
     _refuse_overwriting_inputs([output], [result])
@@ -212,8 +214,10 @@ def report(result: Path, output: Path, product_id: str | None) -> None:
 
 
 def _result_line(path: Path, product_id: str, fix: str) -> tuple[bytes, int]:
-    """The line of a JSON-lines file whose id is ``product_id``, read one line at a time (a batch's results can
-    be large)."""
+    """The line of a JSON-lines file whose id is ``product_id``.
+
+    Read one line at a time (a batch's results can be large).
+    """
     from hazard.errors import InputError
     from hazard.inputs.userfiles import regular_file_size
 
@@ -321,8 +325,10 @@ def _lineup_folder() -> Path:
 @click.option("--jobs", type=click.IntRange(min=1), default=1, show_default=True,
               help="Worker processes for rendering PDFs.")
 def demo(output: Path, jobs: int) -> None:
-    """Assess the bundled line-up of invented products (Corvel Lightworks, a made-up company): one PDF and
-    one JSON per product, a summary CSV and summary.pdf."""
+    """Assess the bundled line-up of invented products (Corvel Lightworks, a made-up company).
+
+    One PDF and one JSON per product, a summary CSV and summary.pdf.
+    """
     from hazard.assessment.batch import run_batch
 
     lineup = _lineup_folder()
@@ -347,8 +353,9 @@ def demo(output: Path, jobs: int) -> None:
 @_ALLOW_OUTSIDE
 def check(source: Path, output_format: str, cct_tolerance_k: float, cct_tolerance_pct: float,
           illuminance_tolerance_pct: float, t_max_tolerance_pct: float, allow_outside: bool) -> None:
-    """Check vendor claims (claimed_risk_group, claimed_cct_k, claimed_illuminance_lx, claimed_t_max_s_*)
-    of a RECORD.toml, a CSV/.xlsx manifest or a folder of records.
+    """Check vendor claims of a RECORD.toml, a CSV/.xlsx manifest or a folder of records.
+
+    The claims are claimed_risk_group, claimed_cct_k, claimed_illuminance_lx and claimed_t_max_s_*.
 
     Exit code 4 when any claim is contradicted (so a pipeline can gate on it), 3 when a product could not be
     assessed, 2 for unusable input, 1 when the tool failed on a product, else 0.
@@ -372,7 +379,7 @@ def check(source: Path, output_format: str, cct_tolerance_k: float, cct_toleranc
     for row, run in items:
         try:
             assessment = run()
-        except Exception as exc:  # noqa: BLE001 - the boundary of one product: nothing it does stops the others
+        except Exception as exc:  # the boundary of one product: nothing it does stops the others
             reason, defect = failure_reason(row, exc)
             failed, internal = True, internal or defect
             click.echo(f"{one_line(row.product_id if row.fields else Path(row.origin).stem, 80)}: error: {reason}",

@@ -11,13 +11,15 @@ EXCERPT_CHARS = 40
 
 
 def one_line(text: str, limit: int) -> str:
-    """``text`` as one printable line of at most ``limit`` characters: control characters (line breaks, tabs,
-    NUL, escape sequences) shown as escapes, the middle cut with an ellipsis when it is too long.
+    r"""``text`` as one printable line of at most ``limit`` characters.
+
+    Control characters (line breaks, tabs, NUL, escape sequences) are shown as escapes; the middle is cut with an
+    ellipsis when it is too long.
 
     Examples
     --------
-    >>> one_line("a\\nb\\x1b[2J", 20)
-    'a\\\\nb\\\\x1b[2J'
+    >>> one_line("a\nb\x1b[2J", 20)
+    'a\\nb\\x1b[2J'
     >>> one_line("x" * 30, 11)
     'xxxxx…xxxxx'
     """

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-__all__ = ["EXIT_OK", "EXIT_INTERNAL", "EXIT_INPUT", "EXIT_SOME_FAILED", "EXIT_CONTRADICTED"]
+__all__ = ["EXIT_CONTRADICTED", "EXIT_INPUT", "EXIT_INTERNAL", "EXIT_OK", "EXIT_SOME_FAILED"]
 
 EXIT_OK = 0
 """Done."""

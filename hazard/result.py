@@ -11,10 +11,26 @@ from typing import Literal
 
 from pydantic import BaseModel, ConfigDict, Field
 
-__all__ = ["HazardResult", "SpectrumSummary", "BlueLightTransfer", "ClaimCheck", "Scaling", "BoundaryDistance",
-           "DistanceStudy", "HazardBounds", "UncertaintyStudy", "Remedy", "BandContribution", "Remedies", "Provenance",
-           "Photometry",
-           "Geometry", "LimitSetInfo", "Assessment", "RiskGroup"]
+__all__ = [
+    "Assessment",
+    "BandContribution",
+    "BlueLightTransfer",
+    "BoundaryDistance",
+    "ClaimCheck",
+    "DistanceStudy",
+    "Geometry",
+    "HazardBounds",
+    "HazardResult",
+    "LimitSetInfo",
+    "Photometry",
+    "Provenance",
+    "Remedies",
+    "Remedy",
+    "RiskGroup",
+    "Scaling",
+    "SpectrumSummary",
+    "UncertaintyStudy",
+]
 
 RiskGroup = Literal["Exempt", "RG1", "RG2", "RG3"]
 Basis = Literal["standard", "what-if"]
@@ -102,8 +118,10 @@ class SpectrumSummary(_Frozen):
 
 
 class BlueLightTransfer(_Frozen):
-    """Blue-light transfer quantities of IEC TR 62778:2014 (the report since replaced by IEC 62471-7:2023,
-    whose details this tool does not implement)."""
+    """Blue-light transfer quantities of IEC TR 62778:2014.
+
+    The report has since been replaced by IEC 62471-7:2023, whose details this tool does not implement.
+    """
 
     k_bv_w_per_lm: float = Field(description="Blue-light hazard efficacy of luminous radiation K_B,v: blue-light "
                                              "weighted over luminous radiance (or irradiance over illuminance) "
@@ -298,13 +316,16 @@ class Assessment(_Frozen):
         blank = self.model_copy(update={"provenance": self.provenance.model_copy(update={"result_sha256": ""})})
         return hashlib.sha256(blank.model_dump_json().encode("utf-8")).hexdigest()
 
-    def sealed(self) -> "Assessment":
-        """This result with its :meth:`content_sha256` recorded in the provenance."""
+    def sealed(self) -> Assessment:
+        """A copy of the result with its :meth:`content_sha256` recorded in the provenance."""
         return self.model_copy(update={"provenance": self.provenance.model_copy(
             update={"result_sha256": self.content_sha256()})})
 
     @property
     def classification_group(self) -> RiskGroup | None:
-        """The group the standard's distance gives: ``risk_group`` of a standard result, ``standard_risk_group``
-        of a what-if. Summaries, rankings and claims use this one."""
+        """The group the standard's distance gives.
+
+        ``risk_group`` of a standard result, ``standard_risk_group`` of a what-if. Summaries, rankings and claims use
+        this one.
+        """
         return self.standard_risk_group if self.basis == "what-if" else self.risk_group

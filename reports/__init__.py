@@ -15,4 +15,4 @@ from hazard.reports.ranking import rank_assessments
 from hazard.reports.summary_pdf import render_summary_pdf
 from hazard.reports.timestamp import report_time
 
-__all__ = ["render_assessment_pdf", "render_summary_pdf", "rank_assessments", "report_time"]
+__all__ = ["rank_assessments", "render_assessment_pdf", "render_summary_pdf", "report_time"]

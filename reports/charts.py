@@ -16,6 +16,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Callable
+from itertools import pairwise
 
 import numpy as np
 from reportlab.graphics.shapes import Drawing, Group, Line, Polygon, PolyLine, Rect, String
@@ -23,12 +24,12 @@ from reportlab.lib import colors
 from reportlab.pdfbase.pdfmetrics import stringWidth
 
 from hazard.output.formatting import format_margin
-from hazard.result import Assessment, HazardResult
 from hazard.reports.fonts import FontSet
 from hazard.reports.style import INK, MUTED, PANEL, RULE, SPECTRUM_EDGE, SPECTRUM_FILL, group_fill, group_ink
+from hazard.result import Assessment, HazardResult
 from hazard.weighting_tables import load_table
 
-__all__ = ["ACTION_SPECTRA", "FAMILY_LINES", "spectrum_chart", "margin_chart", "distance_chart"]
+__all__ = ["ACTION_SPECTRA", "FAMILY_LINES", "distance_chart", "margin_chart", "spectrum_chart"]
 
 ACTION_SPECTRA = (("s_uv", "S_UV(λ) actinic UV", None, 1.1),
                   ("blue_light", "B(λ) blue light", (4, 2.2), 1.1),
@@ -62,7 +63,7 @@ def _segments(points: list[tuple[float, float]], keep: list[bool]) -> list[list[
     """Runs of consecutive points whose ``keep`` flag is set."""
     runs: list[list[tuple[float, float]]] = []
     current: list[tuple[float, float]] = []
-    for point, flag in zip(points, keep):
+    for point, flag in zip(points, keep, strict=True):
         if flag:
             current.append(point)
         elif current:
@@ -74,7 +75,7 @@ def _segments(points: list[tuple[float, float]], keep: list[bool]) -> list[list[
 
 
 def _wavelength_range(assessment: Assessment) -> tuple[float, float, float]:
-    """x range of the spectrum chart and its grid step: the measured range and the action spectra's bands."""
+    """The x range of the spectrum chart and its grid step: the measured range and the action spectra's bands."""
     s = assessment.spectrum
     lo = min(200.0, math.floor(s.min_nm / 100) * 100)
     hi = max(1400.0, math.ceil(s.max_nm / 100) * 100)
@@ -126,7 +127,7 @@ def spectrum_chart(assessment: Assessment, width: float, height: float, fonts: F
     floor = 10.0 ** y0
     peak = max(s.preview_value_si, default=0.0)
     if peak > 0:
-        outline = [(px(nm), py(max(v / peak, floor))) for nm, v in zip(s.preview_nm, s.preview_value_si)]
+        outline = [(px(nm), py(max(v / peak, floor))) for nm, v in zip(s.preview_nm, s.preview_value_si, strict=True)]
         area = [(outline[0][0], bottom), *outline, (outline[-1][0], bottom)]
         d.add(Polygon([c for point in area for c in point], fillColor=SPECTRUM_FILL, strokeColor=None))
         d.add(PolyLine([c for point in outline for c in point], strokeColor=SPECTRUM_EDGE, strokeWidth=0.6))
@@ -134,7 +135,7 @@ def spectrum_chart(assessment: Assessment, width: float, height: float, fonts: F
         table = load_table(name)
         grid = np.arange(table.range_nm[0], table.range_nm[1] + 0.5, 1.0)
         weights = table.at(grid)
-        points = [(px(nm), py(max(w, floor))) for nm, w in zip(grid, weights)]
+        points = [(px(nm), py(max(w, floor))) for nm, w in zip(grid, weights, strict=True)]
         for run in _segments(points, list(weights >= floor)):
             d.add(PolyLine([c for point in run for c in point], strokeColor=INK, strokeWidth=line_width,
                            strokeDashArray=dash, strokeLineCap=1 if dash and dash[0] < 1 else 0))
@@ -236,7 +237,7 @@ def _row(hazard: HazardResult, groups: list[str], left: float, y: float, pw: flo
         return g
     value = margins[boundaries[0]]
     edges = [px(10.0 ** _X_DECADES[0]), *(px(value / margins[b]) for b in boundaries), px(10.0 ** _X_DECADES[1])]
-    for group, start, end in zip(groups, edges, edges[1:]):
+    for group, (start, end) in zip(groups, pairwise(edges), strict=True):
         if end - start <= 0:
             continue
         g.add(Rect(start, y, end - start, row_h, fillColor=group_fill(group), strokeColor=None))
@@ -429,8 +430,11 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
 
 def _strip(study, px: Callable[[float], float], y: float, h: float, fonts: FontSet,
            taken: list[tuple[float, float]]) -> Group:
-    """The overall group at each distance as filled runs, each labelled in text: inside where it has room,
-    else just above the strip, clear of the spans in ``taken`` (x from, x to) already labelled there."""
+    """The overall group at each distance as filled runs, each labelled in text.
+
+    A label goes inside where it has room, else just above the strip, clear of the spans in ``taken`` (x from, x to)
+    already labelled there.
+    """
     g = Group()
     runs = _group_runs(study.distance_mm, study.group, study.minimum_distance_mm)
     for group, start, end in runs:
@@ -460,13 +464,13 @@ def _strip(study, px: Callable[[float], float], y: float, h: float, fonts: FontS
 def _curves(study, px: Callable[[float], float], py: Callable[[float], float],
             box: tuple[float, float, float, float], fonts: FontSet) -> tuple[Group, Group]:
     """Each family's t_max curve (gaps where it is None or off the axis), and its name at the curve's end."""
-    left, bottom, pw, ph = box
+    _, bottom, _, ph = box
     g, labels = Group(), Group()
     placed: list[tuple[float, float, float, float]] = []
     for family, ts in study.t_max_s.items():
         dash, line_width = _line_of(study, family)
         points, keep = [], []
-        for mm, t in zip(study.distance_mm, ts):
+        for mm, t in zip(study.distance_mm, ts, strict=True):
             ok = t is not None and t > 0 and bottom - 0.01 <= py(t) <= bottom + ph + 0.01
             points.append((px(mm), py(t) if ok else 0.0))
             keep.append(ok)

@@ -20,7 +20,7 @@ from hazard.reports.style import INK, MUTED, RULE, Styles
 from hazard.reports.timestamp import report_time
 from hazard.reports.wording import FOOTER
 
-__all__ = ["PAGE_WIDTH", "PAGE_HEIGHT", "MARGIN", "FRAME_WIDTH", "FRAME_HEIGHT", "build_pdf"]
+__all__ = ["FRAME_HEIGHT", "FRAME_WIDTH", "MARGIN", "PAGE_HEIGHT", "PAGE_WIDTH", "build_pdf"]
 
 PAGE_WIDTH, PAGE_HEIGHT = A4
 MARGIN = 14 * mm
@@ -41,7 +41,7 @@ class _FramedCanvas(Canvas):
         self._header = fonts.clean(header)
         self._pages: list[dict] = []
 
-    def showPage(self) -> None:  # noqa: N802 - reportlab's name
+    def showPage(self) -> None:  # reportlab's name, overridden
         self._pages.append(dict(self.__dict__))
         self._startPage()
 
@@ -101,7 +101,9 @@ def build_pdf(flowables: list[Flowable], fonts: FontSet, title: str, header: str
 
 
 def start_report(rendered_at: datetime.datetime | None) -> tuple[datetime.datetime, FontSet, Styles]:
-    """What every report begins with: the time to print (``rendered_at``, else :func:`report_time`), the
-    fonts and the paragraph styles in them."""
+    """What every report begins with.
+
+    The time to print (``rendered_at``, else :func:`report_time`), the fonts and the paragraph styles in them.
+    """
     fonts = report_fonts()
     return rendered_at or report_time(), fonts, Styles(fonts)

@@ -1,6 +1,7 @@
-"""The PDF report of one product: page 1 at a glance, page 2 input and method; then, when the result holds
-any of them, a page 3 on distance, uncertainty and remedies (:mod:`hazard.reports.studies`); the cautions in full end
-the report.
+"""The PDF report of one product.
+
+Page 1 at a glance, page 2 input and method; then, when the result holds any of them, a page 3 on distance, uncertainty
+and remedies (:mod:`hazard.reports.studies`); the cautions in full end the report.
 
 Everything printed comes from the :class:`~hazard.result.Assessment`; numbers are formatted by
 :mod:`hazard.output.formatting`, exactly as the text output prints them.
@@ -14,8 +15,14 @@ from collections.abc import Callable
 from reportlab.pdfbase.pdfmetrics import stringWidth
 from reportlab.platypus import CondPageBreak, Flowable, KeepInFrame, KeepTogether, PageBreak, Spacer, Table
 
-from hazard.output.formatting import UNIT_DISPLAY, format_duration_s, format_limit, format_margin, format_value, group_words
-from hazard.result import Assessment, HazardResult
+from hazard.output.formatting import (
+    UNIT_DISPLAY,
+    format_duration_s,
+    format_limit,
+    format_margin,
+    format_value,
+    group_words,
+)
 from hazard.reports.charts import margin_chart, spectrum_chart
 from hazard.reports.layout import FRAME_HEIGHT, FRAME_WIDTH, build_pdf, start_report
 from hazard.reports.ranking import tightest_margin
@@ -31,6 +38,7 @@ from hazard.reports.wording import (
     NOT_DETERMINED_NAME,
     WHAT_IF_MEANING,
 )
+from hazard.result import Assessment, HazardResult
 
 __all__ = ["render_assessment_pdf"]
 
@@ -44,8 +52,11 @@ def _unit(unit: str) -> str:
 
 
 def _spectral_quantity(a: Assessment) -> str:
-    """Irradiance or radiance: what the spectrum's SI values are (a relative spectrum once anchored, as the
-    record's ``effective_quantity`` defines it: a luminance anchor makes it a radiance)."""
+    """Irradiance or radiance: what the spectrum's SI values are.
+
+    A relative spectrum once anchored, as the record's ``effective_quantity`` defines it: a luminance anchor makes it a
+    radiance.
+    """
     if a.spectrum.quantity != "relative":
         return a.spectrum.quantity
     return "radiance" if a.scaling is not None and a.scaling.anchor == "luminance_cd_m2" else "irradiance"
@@ -189,17 +200,17 @@ def _hazard_table(a: Assessment, st: Styles) -> Flowable:
             extra.append(("SPAN", (2, i), (9, i)))
             continue
         cells = _hazard_row(h, a.limit_set.boundaries)
-        fitted.append(cells[:9] + [max(cells[9].split("; "), key=len)])
+        fitted.append([*cells[:9], max(cells[9].split("; "), key=len)])
         styles = [st.cell_bold if c in (0, 2) else st.cell for c in range(len(cells))]
         styles[8] = st.cell_bold.clone("group", textColor=group_ink(h.risk_group))
-        row = [st.p(text, style) for text, style in zip(cells[:9], styles)]
+        row = [st.p(text, style) for text, style in zip(cells[:9], styles, strict=False)]
         if h.compared and any(v != h.value for v in h.compared.values()):  # field averages: show what was compared
             for k, b in enumerate(a.limit_set.boundaries):
                 row[4 + k] = st.p("", st.cell, markup=f"{st.text(cells[4 + k])}<br/><font size=6>"
                                                       f"{st.text('(' + format_value(h.compared[b]) + ')')}</font>")
-        rows.append(row + [st.p("", st.cell, markup="<br/>".join(st.text(part) for part in cells[9].split("; ")))])
+        rows.append([*row, st.p("", st.cell, markup="<br/>".join(st.text(part) for part in cells[9].split("; ")))])
         extra.append(("BACKGROUND", (8, i), (8, i), group_fill(h.risk_group)))
-    header = [top if top != "Limits as applied" and top else below for top, below in zip(head, sub)]
+    header = [top if top != "Limits as applied" and top else below for top, below in zip(head, sub, strict=True)]
     widths = fit_widths(header, fitted, st.fonts, FRAME_WIDTH, flexible=1, size=st.cell.fontSize, bold={0, 2, 8})
     table = Table(rows, colWidths=widths, repeatRows=2)
     table.setStyle(table_style(header_rows=2, extra=extra))
@@ -310,7 +321,7 @@ def _record_table(a: Assessment, st: Styles) -> Flowable:
         items.append(("", ""))
     half = len(items) // 2
     rows = [[st.p(k1, st.cell_bold), st.p(v1, st.cell), st.p(k2, st.cell_bold), st.p(v2, st.cell)]
-            for (k1, v1), (k2, v2) in zip(items[:half], items[half:])]
+            for (k1, v1), (k2, v2) in zip(items[:half], items[half:], strict=True)]
     table = Table(rows, colWidths=[w * FRAME_WIDTH for w in (0.2, 0.3, 0.2, 0.3)])
     table.setStyle(table_style(header_rows=0))
     return table
@@ -431,8 +442,9 @@ def _method(a: Assessment, st: Styles) -> list[Flowable]:
 
 
 def render_assessment_pdf(assessment: Assessment, rendered_at: datetime.datetime | None = None) -> bytes:
-    """One product's pre-screen report as a PDF (A4: two pages, three when the result holds a distance,
-    uncertainty or remedies study).
+    """One product's pre-screen report as a PDF.
+
+    A4: two pages, three when the result holds a distance, uncertainty or remedies study.
 
     Parameters
     ----------
@@ -474,8 +486,10 @@ _LEAST_SCALE = 0.88
 
 
 def _fit_page(content: list[Flowable], least_scale: float = 0.0) -> list[Flowable]:
-    """``content`` on one page, shrunk when it runs long, unless that needs a scale below ``least_scale``
-    (then as it is, to flow on)."""
+    """``content`` on one page, shrunk when it runs long.
+
+    Unless that needs a scale below ``least_scale``: then as it is, to flow on.
+    """
     if least_scale:  # measuring lays the content out once more: only when it may run on
         height = sum(f.wrap(FRAME_WIDTH, FRAME_HEIGHT)[1] + f.getSpaceBefore() + f.getSpaceAfter() for f in content)
         if height * least_scale > FRAME_HEIGHT:
@@ -485,8 +499,11 @@ def _fit_page(content: list[Flowable], least_scale: float = 0.0) -> list[Flowabl
 
 def _story(a: Assessment, st: Styles, moment: datetime.datetime, studies_page: int, marks: dict[str, int]
            ) -> list[Flowable]:
-    """The report's flowables. Page 1 is shrunk to fit its page when its content runs long; pages 2 and 3 (the
-    studies, then the cautions) only slightly, beyond that they run on."""
+    """The report's flowables.
+
+    Page 1 is shrunk to fit its page when its content runs long; pages 2 and 3 (the studies, then the cautions) only
+    slightly, beyond that they run on.
+    """
     first_page = [
         _heading(a, st, moment), Spacer(1, 5), _verdict(a, st, studies_page), Spacer(1, 4), _cautions(a, st),
         st.p("Hazards at the assessment distance", st.h2), _hazard_table(a, st), Spacer(1, 2),

@@ -18,7 +18,7 @@ from typing import NamedTuple
 from hazard.output.formatting import margin_to_next
 from hazard.result import Assessment
 
-__all__ = ["BORDERLINE_FACTOR", "Tightest", "tightest_margin", "is_borderline", "rank_assessments"]
+__all__ = ["BORDERLINE_FACTOR", "Tightest", "is_borderline", "rank_assessments", "tightest_margin"]
 
 BORDERLINE_FACTOR = 1.25
 """A value within this factor of a group boundary, on either side, is flagged borderline."""
@@ -83,8 +83,9 @@ def is_borderline(assessment: Assessment) -> bool:
 
 
 def rank_assessments(assessments: list[Assessment]) -> list[Assessment]:
-    """The batch in summary order: highest group first, borderline products first within a group, then least
-    headroom to the next boundary.
+    """The batch in summary order.
+
+    Highest group first, borderline products first within a group, then least headroom to the next boundary.
 
     Parameters
     ----------

@@ -1,5 +1,6 @@
-"""The product report's section on distance, uncertainty and remedies, and the short texts page 1 and the
-batch summary print from the same studies.
+"""The product report's section on distance, uncertainty and remedies.
+
+Also the short texts page 1 and the batch summary print from the same studies.
 
 Everything comes from the result's ``distances``, ``uncertainty`` and ``remedies``; this module only words and
 formats them (and picks which family member's unit to print). Numbers follow the text output
@@ -11,13 +12,22 @@ from __future__ import annotations
 from reportlab.platypus import Flowable, Spacer, Table
 
 from hazard.output.formatting import UNIT_DISPLAY, dimming_percent, distance_beyond_mm, format_value, round_up
-from hazard.result import Assessment, DistanceStudy, Remedy
 from hazard.reports.charts import distance_chart
 from hazard.reports.layout import FRAME_WIDTH
 from hazard.reports.style import INK, Styles, group_fill, group_ink, table_style
+from hazard.result import Assessment, DistanceStudy, Remedy
 
-__all__ = ["SECTION_TITLE", "has_studies", "beyond", "minimum_text", "study_summary", "uncertainty_summary",
-           "dimming_text", "area_text", "studies_section"]
+__all__ = [
+    "SECTION_TITLE",
+    "area_text",
+    "beyond",
+    "dimming_text",
+    "has_studies",
+    "minimum_text",
+    "studies_section",
+    "study_summary",
+    "uncertainty_summary",
+]
 
 SECTION_TITLE = "Distance, uncertainty and remedies"
 
@@ -56,8 +66,10 @@ def beyond(distance_mm: float | None, study: DistanceStudy, metres: bool = True)
 
 
 def minimum_text(study: DistanceStudy, group: str, metres: bool = True) -> str:
-    """The product's minimum distance for ``group`` as printed (:func:`beyond`); "not assessed" when no
-    hazard family could be assessed against that boundary (the study then gives 0)."""
+    """The product's minimum distance for ``group`` as printed (:func:`beyond`).
+
+    "not assessed" when no hazard family could be assessed against that boundary (the study then gives 0).
+    """
     if all(b.note == "not assessed" for b in study.boundaries if b.group == group):
         return "not assessed"
     return beyond(study.minimum_distance_mm.get(group), study, metres)
@@ -77,8 +89,9 @@ def dimming_text(factor: float | None) -> str:
 
 
 def area_text(factor: float | None) -> str:
-    """An area factor as an instruction, three significant digits: ``'enlarge emitting area ×836'``; an em
-    dash when there is none.
+    """An area factor as an instruction, three significant digits: ``'enlarge emitting area ×836'``.
+
+    An em dash when there is none.
 
     Examples
     --------
@@ -111,8 +124,10 @@ def _group_range(low: str | None, high: str | None) -> str:
 
 
 def study_summary(a: Assessment, page: int) -> str | None:
-    """One line for page 1: the product's minimum distance per group and the dimming that makes it Exempt;
-    ``page`` is where the section starts. None when the result has neither."""
+    """One line for page 1: the product's minimum distance per group and the dimming that makes it Exempt.
+
+    ``page`` is where the section starts. None when the result has neither.
+    """
     parts = []
     s = a.distances
     if s is not None:
@@ -136,8 +151,10 @@ def study_summary(a: Assessment, page: int) -> str | None:
 
 
 def uncertainty_summary(a: Assessment, page: int) -> tuple[str, str]:
-    """Lead-in and text for page 1: the verdict in capitals and the study's note; ``page`` is where the
-    section starts."""
+    """Lead-in and text for page 1: the verdict in capitals and the study's note.
+
+    ``page`` is where the section starts.
+    """
     u = a.uncertainty
     return "Uncertainty:", f"{u.verdict.upper()} — {u.note} (page {page})"
 
@@ -178,7 +195,7 @@ def _distance_table(a: Assessment, st: Styles) -> Flowable:
                 continue
             criterion = b.criterion if b.criterion and b.criterion != family else None
             cells.append(cell(b.distance_mm, criterion, None if b.distance_mm is not None else b.note, st.cell))
-        rows.append([st.p(family, st.cell_bold)] + cells)
+        rows.append([st.p(family, st.cell_bold), *cells])
     first = max(st.bold_width(label) for label in ["Whole product", *by_family])
     table = Table(rows, colWidths=[first] + [(FRAME_WIDTH - first) / 3] * 3, repeatRows=1)
     table.setStyle(table_style(extra=[("LINEBELOW", (0, 1), (-1, 1), 0.6, INK)]))
@@ -262,7 +279,7 @@ def _remedies_block(a: Assessment, st: Styles) -> list[Flowable]:
             top = ", ".join(f"{b.band_nm[0]:g}–{b.band_nm[1]:g} nm ({b.share:.0%})" for b in found[:3])
             bands.append(st.bold_lead(f"{symbol} comes mostly from", top + " (5 nm bands, share of the total)",
                                       st.small))
-    out += bands + [Spacer(1, 2)] if bands else []
+    out += [*bands, Spacer(1, 2)] if bands else []
     out.append(st.p(f"{r.note} A diffuser lowers the radiance hazards only (—: not applicable to this target, or "
                     f"not reachable).", st.caption))
     return out

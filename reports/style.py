@@ -18,9 +18,23 @@ from reportlab.platypus import Paragraph, TableStyle
 
 from hazard.reports.fonts import FontSet
 
-__all__ = ["INK", "MUTED", "RULE", "HAIRLINE", "PANEL", "NEUTRAL", "SPECTRUM_FILL", "SPECTRUM_EDGE", "GROUP_FILL",
-           "GROUP_INK",
-           "group_fill", "group_ink", "Styles", "table_style", "fit_widths"]
+__all__ = [
+    "GROUP_FILL",
+    "GROUP_INK",
+    "HAIRLINE",
+    "INK",
+    "MUTED",
+    "NEUTRAL",
+    "PANEL",
+    "RULE",
+    "SPECTRUM_EDGE",
+    "SPECTRUM_FILL",
+    "Styles",
+    "fit_widths",
+    "group_fill",
+    "group_ink",
+    "table_style",
+]
 
 INK = colors.HexColor("#1F2A36")
 """Text, axes and the action-spectrum lines."""

@@ -1,5 +1,7 @@
-"""The PDF summary of a batch: products ranked by group and headroom (flagging incomplete and borderline
-results and contradicted vendor claims), then the products that failed, then the cautions chosen.
+"""The PDF summary of a batch.
+
+Products ranked by group and headroom (flagging incomplete and borderline results and contradicted vendor claims), then
+the products that failed, then the cautions chosen.
 
 The order comes from :func:`hazard.reports.ranking.rank_assessments`; every number is formatted by
 :mod:`hazard.output.formatting`.
@@ -12,13 +14,13 @@ import datetime
 from reportlab.platypus import Flowable, Spacer, Table
 
 from hazard.output.formatting import format_margin, group_words
-from hazard.result import Assessment
-from hazard.standards import GROUPS
 from hazard.reports.layout import FRAME_WIDTH, build_pdf, start_report
 from hazard.reports.ranking import BORDERLINE_FACTOR, is_borderline, rank_assessments, tightest_margin
 from hazard.reports.studies import minimum_text
 from hazard.reports.style import INK, NEUTRAL, Styles, group_fill, group_ink, table_style
 from hazard.reports.timestamp import format_report_time
+from hazard.result import Assessment
+from hazard.standards import GROUPS
 
 __all__ = ["render_summary_pdf"]
 
@@ -57,8 +59,7 @@ def _counts(assessments: list[Assessment], st: Styles) -> Flowable:
         cells.append(st.p(f"what-if: {what_if}", st.cell_bold))
     cells.append(st.p(f"borderline: {sum(is_borderline(a) for a in assessments)}", st.cell_bold))
     table = Table([cells], colWidths=[FRAME_WIDTH / len(cells)] * len(cells))
-    table.setStyle(style + [("BOX", (0, 0), (-1, -1), 0.8, INK), ("INNERGRID", (0, 0), (-1, -1), 0.8, INK),
-                            ("TOPPADDING", (0, 0), (-1, -1), 3), ("BOTTOMPADDING", (0, 0), (-1, -1), 4)])
+    table.setStyle([*style, ("BOX", (0, 0), (-1, -1), 0.8, INK), ("INNERGRID", (0, 0), (-1, -1), 0.8, INK), ("TOPPADDING", (0, 0), (-1, -1), 3), ("BOTTOMPADDING", (0, 0), (-1, -1), 4)])
     return table
 
 

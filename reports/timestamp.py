@@ -5,7 +5,7 @@ from __future__ import annotations
 import datetime
 import os
 
-__all__ = ["report_time", "format_report_time"]
+__all__ = ["format_report_time", "report_time"]
 
 
 def report_time() -> datetime.datetime:
@@ -24,13 +24,13 @@ def report_time() -> datetime.datetime:
     """
     epoch = os.environ.get("SOURCE_DATE_EPOCH")
     if epoch is None:
-        return datetime.datetime.now(datetime.timezone.utc)
+        return datetime.datetime.now(datetime.UTC)
     try:
         seconds = int(epoch)
     except ValueError:
         raise ValueError(f"SOURCE_DATE_EPOCH must be a whole number of seconds since 1970-01-01 UTC, "
                          f"got {epoch!r}") from None
-    return datetime.datetime.fromtimestamp(seconds, datetime.timezone.utc)
+    return datetime.datetime.fromtimestamp(seconds, datetime.UTC)
 
 
 def format_report_time(moment: datetime.datetime) -> str:
@@ -53,4 +53,4 @@ def format_report_time(moment: datetime.datetime) -> str:
     """
     if moment.tzinfo is None or moment.utcoffset() is None:
         raise ValueError("rendered_at must be timezone-aware, e.g. datetime.datetime.now(datetime.timezone.utc)")
-    return moment.astimezone(datetime.timezone.utc).strftime("%Y-%m-%d %H:%M UTC")
+    return moment.astimezone(datetime.UTC).strftime("%Y-%m-%d %H:%M UTC")

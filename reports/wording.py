@@ -6,8 +6,16 @@ The sentences describe the groups plainly; they do not replace the cautions chos
 
 from __future__ import annotations
 
-__all__ = ["GROUP_NAME", "GROUP_MEANING", "FOOTER", "LOWER_BOUND", "LOWER_BOUND_MEANING", "NOT_DETERMINED_NAME",
-           "NOT_DETERMINED_MEANING", "WHAT_IF_MEANING"]
+__all__ = [
+           "FOOTER",
+           "GROUP_MEANING",
+           "GROUP_NAME",
+           "LOWER_BOUND",
+           "LOWER_BOUND_MEANING",
+           "NOT_DETERMINED_MEANING",
+           "NOT_DETERMINED_NAME",
+           "WHAT_IF_MEANING",
+]
 
 GROUP_NAME = {"Exempt": "Exempt group", "RG1": "Risk Group 1 (low risk)",
               "RG2": "Risk Group 2 (moderate risk)", "RG3": "Risk Group 3 (high risk)"}

@@ -14,7 +14,7 @@ def colour():
 
 def write_spectrum(path, wavelength_nm, values, header="wavelength_nm,value"):
     """Write a two-column CSV spectrum and return its path."""
-    lines = [header] + [f"{w!r},{v!r}" for w, v in zip(map(float, wavelength_nm), map(float, values))]
+    lines = [header] + [f"{w!r},{v!r}" for w, v in zip(map(float, wavelength_nm), map(float, values), strict=True)]
     path.write_text("\n".join(lines) + "\n", encoding="utf-8")
     return path
 

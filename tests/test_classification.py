@@ -314,7 +314,7 @@ def test_file_metadata_is_kept_and_a_contradicting_distance_is_named(tmp_path):
 
     path = tmp_path / "lamp.csv"
     path.write_text("Instrument: a spectroradiometer\nDistance: 500 mm\nwavelength_nm,value\n"
-                    + "".join(f"{w},{v}\n" for w, v in zip(VISIBLE, _lamp(VISIBLE))))
+                    + "".join(f"{w},{v}\n" for w, v in zip(VISIBLE, _lamp(VISIBLE), strict=True)))
     a = hazard.assess(path, {"distance_mm": 200.0, "source_diameter_mm": 5.0, "no_emission_outside": True})
     assert a.spectrum.file_metadata == {"Instrument": "a spectroradiometer", "Distance": "500 mm"}
     assert any("states 500 mm" in w and "distance_mm is 200 mm" in w for w in a.warnings)

@@ -9,11 +9,11 @@ import doctest
 import importlib
 import pkgutil
 
-import hazard.reports
-import hazard.weighting_tables
 import pytest
 
 import hazard
+import hazard.reports
+import hazard.weighting_tables
 
 ROOTS = (hazard, hazard.reports, hazard.weighting_tables)  # the last two may live outside hazard/ (editable install)
 MODULES = sorted({root.__name__ for root in ROOTS}

@@ -11,7 +11,7 @@ from hazard.errors import InputError
 
 WL = np.arange(380.0, 781.0, 1.0)
 VALUES = 1e-3 * np.exp(-0.5 * ((WL - 450.0) / 10.0) ** 2)
-BODY = "".join(f"{w},{v}\n" for w, v in zip(WL, VALUES))
+BODY = "".join(f"{w},{v}\n" for w, v in zip(WL, VALUES, strict=True))
 FIELDS = {"distance_mm": 200.0, "source_diameter_mm": 5.0, "no_emission_outside": True}
 
 
@@ -37,7 +37,7 @@ def test_statements_that_disagree_are_refused(tmp_path):
 
 
 @pytest.mark.parametrize("document", [
-    [{"wavelength_nm": w, "value": v, "unit": "W/cm2/nm"} for w, v in zip(WL.tolist(), VALUES.tolist())],
+    [{"wavelength_nm": w, "value": v, "unit": "W/cm2/nm"} for w, v in zip(WL.tolist(), VALUES.tolist(), strict=True)],
     {"wavelength_nm": WL.tolist(), "value": VALUES.tolist(), "value_unit": "W/cm2/nm"},
 ])
 def test_a_unit_stated_in_json_is_used(tmp_path, document):
@@ -51,7 +51,7 @@ def test_a_unit_stated_in_json_is_used(tmp_path, document):
 def test_wavelength_units_in_the_header(tmp_path, header, scale):
     # 1 Å = 0.1 nm, 1 µm = 1000 nm (SI)
     path = tmp_path / "lamp.csv"
-    path.write_text(f"{header},value\n" + "".join(f"{w / scale!r},{v!r}\n" for w, v in zip(WL, VALUES)))
+    path.write_text(f"{header},value\n" + "".join(f"{w / scale!r},{v!r}\n" for w, v in zip(WL, VALUES, strict=True)))
     np.testing.assert_allclose(hazard.assess(path, FIELDS).spectrum.min_nm, 380.0, rtol=1e-12)
 
 
@@ -68,6 +68,6 @@ def test_a_spectrum_wholly_outside_the_hazard_bands_is_refused(tmp_path):
     # every band of IEC 62471:2006 lies within 200-3000 nm (Table 4.1, 4.2, 4.3): a spectrum wholly beyond it
     # is on another scale, not a source that is safe everywhere
     path = tmp_path / "lamp.csv"
-    path.write_text("wavelength,value\n" + "".join(f"{w * 10},{v}\n" for w, v in zip(WL, VALUES)))
+    path.write_text("wavelength,value\n" + "".join(f"{w * 10},{v}\n" for w, v in zip(WL, VALUES, strict=True)))
     with pytest.raises(InputError, match="wholly outside 200–3000 nm"):
         hazard.assess(path, FIELDS)

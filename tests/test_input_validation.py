@@ -402,7 +402,7 @@ def test_decimal_comma_with_semicolons_equals_decimal_point(tmp_path):
     (tmp_path / "comma").mkdir(), (tmp_path / "point").mkdir()
     comma = tmp_path / "comma" / "lamp.csv"
     comma.write_text("wavelength_nm;value\n" + "".join(f"{w!r};{v!r}\n".replace(".", ",") for w, v in
-                                                         zip(map(float, wl), map(float, values))))
+                                                         zip(map(float, wl), map(float, values), strict=True)))
     point = write_spectrum(tmp_path / "point" / "lamp.csv", wl, values)
     assert _same_result(hazard.assess(comma, SIZE), hazard.assess(point, SIZE))
 
@@ -413,7 +413,7 @@ def _columns_file(tmp_path):
     a, b = _lamp(wl), 3.0 * _lamp(wl)[::-1]
     path = tmp_path / "columns.csv"
     path.write_text("wavelength_nm,a,b\n" + "".join(f"{w!r},{x!r},{y!r}\n" for w, x, y in
-                                                       zip(*(map(float, c) for c in (wl, a, b)))))
+                                                       zip(*(map(float, c) for c in (wl, a, b)), strict=True)))
     (tmp_path / "single").mkdir()
     single = write_spectrum(tmp_path / "single" / "columns.csv", wl, b)
     return path, single
@@ -431,7 +431,7 @@ def test_value_column_by_name_or_number(tmp_path, column):
 
 @pytest.mark.parametrize("column", ["b", "2"])
 def test_value_column_on_the_command_line(tmp_path, monkeypatch, column):
-    path, single = _columns_file(tmp_path)
+    _, single = _columns_file(tmp_path)
     monkeypatch.chdir(tmp_path)
     chosen = CliRunner().invoke(main, ["assess", "columns.csv", *SIZE_OPTIONS, "--column", column, "--format",
                                        "json"])

@@ -46,7 +46,7 @@ def test_table_6_1_limits_follow_from_exposure_limits(symbol, formula):
     # IEC 62471:2006 Table 6.1 prints the limits to two significant digits: 30/30000 s = 0.001 W/m2,
     # 50000·10^-0.25 ≈ 28000, 18000·100^-0.75 ≈ 570; the rounding is at most 1.5 % (10^4/300 = 33.3 → 33).
     hazard = IEC_62471_2006[symbol]
-    for limit, t in zip(hazard.limits, hazard.time_bases_s):
+    for limit, t in zip(hazard.limits, hazard.time_bases_s, strict=True):
         assert limit == pytest.approx(formula(t), rel=0.015)
 
 
@@ -197,7 +197,7 @@ def test_radiance_input_gives_irradiance_by_source_solid_angle(tmp_path):
 
     path = tmp_path / "rad.csv"
     path.write_text("wavelength_nm,value\n" + "".join(f"{w},{v}\n" for w, v in
-                                                     zip(GRID, triangle_line(GRID, 1500.0, 1000.0))))
+                                                     zip(GRID, triangle_line(GRID, 1500.0, 1000.0), strict=True)))
     a = hazard.assess(path, {"quantity": "radiance", "unit": "W/m2/sr/nm", "source_diameter_mm": 20.0,
                              "no_emission_outside": True, "measurement_fov_mrad": 5.0})
     omega_s = 2 * math.pi * (1 - math.cos(math.atan(20 / 400)))

@@ -64,7 +64,10 @@ def test_irregular_grid_integrates_on_its_own_grid(tmp_path):
     irregular = np.cumsum(rng.uniform(0.2, 0.4, 8000)) + 300.0
     irregular = irregular[irregular <= 1100]
     regular = np.arange(300.0, 1100.0, 0.1)
-    shape = lambda w: 0.05 * np.exp(-0.5 * ((w - 460) / 20) ** 2) + 0.1 * np.exp(-0.5 * ((w - 800) / 90) ** 2)  # noqa
+
+    def shape(w):
+        return 0.05 * np.exp(-0.5 * ((w - 460) / 20) ** 2) + 0.1 * np.exp(-0.5 * ((w - 800) / 90) ** 2)
+
     a = hazard.assess(write_spectrum(tmp_path / "i.csv", irregular, shape(irregular)),
                       {**SIZE, "no_emission_outside": True})
     b = hazard.assess(write_spectrum(tmp_path / "r.csv", regular, shape(regular)),
@@ -154,8 +157,10 @@ def test_claims_verdicts(tmp_path):
 def test_check_exit_codes(tmp_path):
     bad = _claim_record(tmp_path, "cl-spot-65", claimed_risk_group="Exempt")
     good = _claim_record(tmp_path, "cl-desk-30", claimed_risk_group="Exempt")
-    run = lambda p: subprocess.run([sys.executable, "-m", "hazard.cli", "check", str(p)],  # noqa: E731
-                                   capture_output=True, text=True)
+
+    def run(p):
+        return subprocess.run([sys.executable, "-m", "hazard.cli", "check", str(p)], capture_output=True, text=True)
+
     contradicted, consistent = run(bad), run(good)
     assert contradicted.returncode == 4 and "CONTRADICTED" in contradicted.stdout  # project contract: exit 4
     assert consistent.returncode == 0 and "consistent" in consistent.stdout

@@ -15,7 +15,7 @@ def test_illuminance_of_scaled_illuminant_a_matches_colour_science(colour, tmp_p
     # Illuminant A (CIE 15) read as spectral irradiance in W/m2/nm at 200 mm, scaled by 1e-3.
     wl, values = _illuminant(colour, "A")
     scaled = values * 1e-3
-    reference = colour.luminous_flux(colour.SpectralDistribution(dict(zip(wl, scaled))))
+    reference = colour.luminous_flux(colour.SpectralDistribution(dict(zip(wl, scaled, strict=True))))
     a = assess_arrays(tmp_path, wl, scaled, no_emission_outside=True)
     assert a.illuminance_lx == pytest.approx(reference, rel=1e-3)  # integration rules differ slightly
 

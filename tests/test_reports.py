@@ -7,26 +7,27 @@ import doctest
 import io
 import math
 import re
+from itertools import pairwise
 from pathlib import Path
 
+import pytest
+from pypdf import PdfReader
+
+import hazard
 import hazard.reports.fonts
 import hazard.reports.layout
 import hazard.reports.product_pdf
 import hazard.reports.studies
 import hazard.reports.timestamp
-import pytest
+from hazard.errors import InputError
+from hazard.output.formatting import UNIT_DISPLAY, format_value
 from hazard.reports import rank_assessments, render_assessment_pdf, render_summary_pdf, report_time
 from hazard.reports.fonts import register_fonts
 from hazard.reports.ranking import is_borderline, tightest_margin
-from pypdf import PdfReader
-
-import hazard
-from hazard.errors import InputError
-from hazard.output.formatting import UNIT_DISPLAY, format_value
 from hazard.result import Assessment, UncertaintyStudy
 
 LINEUP = Path(__file__).parents[1] / "examples" / "lineup"
-RENDERED_AT = datetime.datetime(2024, 6, 1, 12, 0, tzinfo=datetime.timezone.utc)
+RENDERED_AT = datetime.datetime(2024, 6, 1, 12, 0, tzinfo=datetime.UTC)
 
 # examples/README.md: "the line-up spans the groups: Exempt (desk lamp, indicator), RG1 (spotlight, IR
 # illuminator), RG2 (far-UV-C lamp, horticulture spotlight), RG3 (curing lamp, germicidal lamp, heater)"
@@ -215,14 +216,14 @@ def test_naive_rendered_at_is_refused(lineup):
 def test_report_time_reads_source_date_epoch(monkeypatch):
     # reproducible-builds.org SOURCE_DATE_EPOCH specification: whole seconds since 1970-01-01 00:00 UTC
     monkeypatch.setenv("SOURCE_DATE_EPOCH", "1700000000")
-    assert report_time() == datetime.datetime(2023, 11, 14, 22, 13, 20, tzinfo=datetime.timezone.utc)
+    assert report_time() == datetime.datetime(2023, 11, 14, 22, 13, 20, tzinfo=datetime.UTC)
     monkeypatch.setenv("SOURCE_DATE_EPOCH", "yesterday")
     with pytest.raises(ValueError, match="SOURCE_DATE_EPOCH"):
         report_time()
     monkeypatch.delenv("SOURCE_DATE_EPOCH")
-    before = datetime.datetime.now(datetime.timezone.utc)
+    before = datetime.datetime.now(datetime.UTC)
     now = report_time()
-    assert now.tzinfo == datetime.timezone.utc and before <= now <= datetime.datetime.now(datetime.timezone.utc)
+    assert now.tzinfo == datetime.UTC and before <= now <= datetime.datetime.now(datetime.UTC)
 
 
 def test_without_dejavu_greek_is_spelled_out(tmp_path, monkeypatch, lineup):
@@ -269,7 +270,7 @@ def test_rank_of_the_lineup(lineup):
                                                      key=["RG3", "RG2", "RG1", "Exempt"].index)
     assert not any(is_borderline(a) for a in ranked)  # by the values in each result (see the summary test)
     ratios = [(a.risk_group, tightest_margin(a).ratio) for a in ranked]
-    assert all(r1 >= r2 for (g1, r1), (g2, r2) in zip(ratios, ratios[1:]) if g1 == g2)
+    assert all(r1 >= r2 for (g1, r1), (g2, r2) in pairwise(ratios) if g1 == g2)
     assert ranked[0].id == "CL-GERM-254"
 
 

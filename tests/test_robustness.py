@@ -405,7 +405,6 @@ def test_a_failure_after_loading_is_that_products_error(tmp_path, monkeypatch, r
 
 def test_a_report_that_fails_to_render_does_not_stop_the_others(tmp_path, monkeypatch):
     import hazard.reports
-
     from hazard.assessment.batch import run_batch
 
     real = hazard.reports.render_assessment_pdf

@@ -5,6 +5,7 @@ from importlib import resources
 
 import numpy as np
 import pytest
+
 from hazard.weighting_tables import TABLE_NAMES, TableError, load_table
 
 

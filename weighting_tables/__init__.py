@@ -18,7 +18,7 @@ from importlib import resources
 
 import numpy as np
 
-__all__ = ["TABLE_NAMES", "WeightingTable", "TableError", "load_table"]
+__all__ = ["TABLE_NAMES", "TableError", "WeightingTable", "load_table"]
 
 TABLE_NAMES = ("s_uv", "blue_light", "retinal_thermal", "v_photopic")
 _INTERPOLATIONS = ("linear", "log-linear")

@@ -45,22 +45,20 @@ B_TABULATED = [
 
 def blue_light_points() -> list[tuple[float, float]]:
     """B(λ): 0.01 over 300-380 nm, table 380-495 nm, 10^((450-λ)/50) over 500-600 nm, 0.001 to 700 nm."""
-    return [(300, 0.01)] + B_TABULATED + [(500, 10 ** ((450 - 500) / 50)), (600, 10 ** ((450 - 600) / 50)),
-                                          (700, 0.001)]
+    return [(300, 0.01), *B_TABULATED, (500, 10 ** ((450 - 500) / 50)), (600, 10 ** ((450 - 600) / 50)), (700, 0.001)]
 
 
 def retinal_thermal_points() -> list[tuple[float, float]]:
-    """R(λ): 10·B(λ) over 380-500 nm, 1.0 to 700 nm, 10^((700-λ)/500) to 1050 nm, 0.2 to 1150 nm,
+    """R(λ), the retinal thermal hazard function.
+
+    10·B(λ) over 380-500 nm, 1.0 to 700 nm, 10^((700-λ)/500) to 1050 nm, 0.2 to 1150 nm,
     0.2·10^(0.02·(1150-λ)) to 1200 nm, 0.02 to 1400 nm.
 
     The published function steps from 10^(-0.7) = 0.1995 to 0.2 at 1050 nm; the row at 1049 nm keeps
     the exponential exact up to 1049 nm and confines the step to the last nanometre.
     """
     blue = [(w, round(10 * v, 6)) for w, v in B_TABULATED]
-    return blue + [
-        (500, 1.0), (700, 1.0), (1049, 10 ** ((700 - 1049) / 500)), (1050, 0.2), (1150, 0.2),
-        (1200, 0.2 * 10 ** (0.02 * (1150 - 1200))), (1400, 0.02),
-    ]
+    return [*blue, (500, 1.0), (700, 1.0), (1049, 10 ** ((700 - 1049) / 500)), (1050, 0.2), (1150, 0.2), (1200, 0.2 * 10 ** (0.02 * (1150 - 1200))), (1400, 0.02)]
 
 
 def photopic_points() -> list[tuple[float, float]]:
@@ -68,7 +66,7 @@ def photopic_points() -> list[tuple[float, float]]:
     import colour
 
     sd = colour.colorimetry.SDS_LEFS_PHOTOPIC["CIE 1924 Photopic Standard Observer"]
-    return [(float(w), float(v)) for w, v in zip(sd.wavelengths, sd.values)]
+    return [(float(w), float(v)) for w, v in zip(sd.wavelengths, sd.values, strict=True)]
 
 
 TABLES = {

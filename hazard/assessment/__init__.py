@@ -1,2 +1,4 @@
-"""From records and spectra to results: the pipeline, claims, cautions, checks of saved results, many products
-at once and batch runs."""
+"""From records and spectra to results.
+
+The pipeline, claims, cautions, checks of saved results, many products at once and batch runs.
+"""

@@ -52,8 +52,16 @@ from hazard.output.formatting import NOT_DETERMINED
 from hazard.result import Assessment
 from hazard.standards import DEFAULT_LIMIT_SET, LimitSet
 
-__all__ = ["BatchOutcome", "run_batch", "load_row", "failure_reason", "summary_columns", "summary_row",
-           "SUMMARY_NAME", "RESULTS_NAME"]
+__all__ = [
+    "RESULTS_NAME",
+    "SUMMARY_NAME",
+    "BatchOutcome",
+    "failure_reason",
+    "load_row",
+    "run_batch",
+    "summary_columns",
+    "summary_row",
+]
 
 RESULTS_NAME = "results.jsonl"
 SUMMARY_NAME = "summary.csv"
@@ -67,8 +75,10 @@ INTERNAL_FIX = "please report it; 'hazard --debug assess' on this product shows 
 
 
 class LazyAssessments(Mapping):
-    """id → :class:`~hazard.result.Assessment`, each read from ``results.jsonl`` when asked for, so that a
-    batch of any size holds only the position of each line."""
+    """Product id → :class:`~hazard.result.Assessment`, each read from ``results.jsonl`` when asked for.
+
+    So a batch of any size holds only the position of each line.
+    """
 
     def __init__(self, path: Path, positions: dict[str, tuple[int, int]]):
         self.path, self.positions = path, positions
@@ -122,8 +132,11 @@ class BatchOutcome:
 
     @property
     def exit_code(self) -> int:
-        """0 when every product was assessed, 3 when some failed on their input, 1 when the tool failed on
-        one or on its report (after writing every other output)."""
+        """The batch's exit code.
+
+        0 when every product was assessed, 3 when some failed on their input, 1 when the tool failed on one or on its
+        report (after writing every other output).
+        """
         if self.internal or self.report_failures:
             return EXIT_INTERNAL
         return EXIT_SOME_FAILED if self.errors else EXIT_OK
@@ -159,8 +172,9 @@ class _Product:
 
 
 def load_row(row: ManifestRow, allow_outside: bool = False) -> LoadedProduct:
-    """Validate one manifest row and read its spectrum (inside the manifest's folder tree unless
-    ``allow_outside``).
+    """Validate one manifest row and read its spectrum.
+
+    The spectrum must lie inside the manifest's folder tree unless ``allow_outside``.
 
     Raises
     ------
@@ -192,8 +206,10 @@ def _digest(inputs: dict) -> str:
 
 
 def _current_inputs(row: ManifestRow, allow_outside: bool) -> str | None:
-    """Digest of the input hashes a fresh assessment of ``row`` would record, or None when they cannot be
-    known (the product is then assessed again, which names the problem)."""
+    """Digest of the input hashes a fresh assessment of ``row`` would record.
+
+    None when they cannot be known (the product is then assessed again, which names the problem).
+    """
     spectrum = row.fields.get("spectrum")
     if row.problem is not None or not isinstance(spectrum, str) or not spectrum:
         return None
@@ -218,8 +234,10 @@ def _complete_lines(path: Path) -> Iterator[tuple[int, bytes]]:
 
 
 def _previous_results(folder: Path) -> dict[str, _Earlier]:
-    """id → where an earlier run's final or partial result is (the partial file wins); lines that do not
-    read as a result (torn, damaged, not UTF-8) are skipped and recomputed."""
+    """Product id → where an earlier run's final or partial result is (the partial file wins).
+
+    Lines that do not read as a result (torn, damaged, not UTF-8) are skipped and recomputed.
+    """
     found: dict[str, _Earlier] = {}
     for path in (folder / RESULTS_NAME, folder / (RESULTS_NAME + PARTIAL_SUFFIX)):
         if not path.is_file():
@@ -261,8 +279,11 @@ def summary_columns(limit_set: LimitSet = DEFAULT_LIMIT_SET) -> list[str]:
 
 def summary_row(product_id: str, stem: str, assessment: Assessment | None, error: str | None,
                 limit_set: LimitSet = DEFAULT_LIMIT_SET) -> dict:
-    """One product's row of ``summary.csv``: the risk group is the standard's classification (a what-if has its
-    own columns), "not determined" when there is none."""
+    """One product's row of ``summary.csv``.
+
+    The risk group is the standard's classification (a what-if has its own columns), "not determined" when there is
+    none.
+    """
     row = dict.fromkeys(summary_columns(limit_set), "")
     row.update(id=product_id, status="ok", file_stem=stem)
     if error is not None or assessment is None:
@@ -339,7 +360,7 @@ def _assess(job: _Job, k: int, loaded: LoadedProduct, batch, position: int) -> _
             batch, position = evaluate_loaded([loaded], job.limit_set), 0
         assessment = build_assessment(loaded, batch, position, studies=job.studies)
         return _finished(job, k, assessment, assessment.model_dump_json().encode("utf-8"), reused=False)
-    except Exception as exc:  # noqa: BLE001 - the boundary of one product: nothing it does stops the others
+    except Exception as exc:  # the boundary of one product: nothing it does stops the others
         return _failed(job, k, exc)
 
 
@@ -356,13 +377,13 @@ def _run_job(job: _Job) -> list[_Product]:
             continue
         try:
             loaded[k] = load_row(row, job.allow_outside)
-        except Exception as exc:  # noqa: BLE001 - the boundary of one product
+        except Exception as exc:  # the boundary of one product
             out[k] = _failed(job, k, exc)
     batch = None
     if loaded:
         try:
             batch = evaluate_loaded(list(loaded.values()), job.limit_set)
-        except Exception:  # noqa: BLE001 - one product broke the shared evaluation: evaluate each on its own
+        except Exception:  # one product broke the shared evaluation: evaluate each on its own
             batch = None
     for position, (k, product) in enumerate(loaded.items()):
         out[k] = _assess(job, k, product, batch, position)
@@ -370,8 +391,10 @@ def _run_job(job: _Job) -> list[_Product]:
 
 
 def _in_order(pool: Executor | None, work, jobs: Iterable, ahead: int) -> Iterator:
-    """``work`` applied to each of ``jobs``, results in order, with at most ``ahead`` queued at a time (so a
-    batch of any size holds only a few chunks in memory)."""
+    """``work`` applied to each of ``jobs``, results in order.
+
+    At most ``ahead`` are queued at a time, so a batch of any size holds only a few chunks in memory.
+    """
     if pool is None:
         yield from map(work, jobs)
         return
@@ -399,8 +422,10 @@ def _input_files(source: Path, rows: list[ManifestRow]) -> Iterator[Path]:
 
 
 def _render_one(job: tuple[str, int, int, str]) -> str | None:
-    """Worker: render one saved result to a PDF file (top level, so a process pool can call it); None when
-    written, else why not (one product's report never stops the others')."""
+    """Worker: render one saved result to a PDF file (top level, so a process pool can call it).
+
+    None when written, else why not (one product's report never stops the others').
+    """
     from hazard.reports import render_assessment_pdf, report_time
 
     path, offset, length, target = job
@@ -411,7 +436,7 @@ def _render_one(job: tuple[str, int, int, str]) -> str | None:
         write_atomic(Path(target), render_assessment_pdf(Assessment.model_validate_json(line), report_time()))
     except OSError:
         raise  # a full disk or a read-only folder stops the run with its one line
-    except Exception as exc:  # noqa: BLE001 - the boundary of one report
+    except Exception as exc:  # the boundary of one report
         return f"{Path(target).name}: internal error while rendering ({type(exc).__name__}: {exc})"
     return None
 
@@ -429,7 +454,7 @@ def _write_pdfs(folder: Path, outcome: BatchOutcome, jobs: int) -> None:
         report_fonts()  # register the fonts once here; the workers inherit them
         pool = ProcessPoolExecutor(max_workers=jobs)
     try:
-        for product_id, failure in zip(ids, _in_order(pool, _render_one, work, 4 * jobs)):
+        for product_id, failure in zip(ids, _in_order(pool, _render_one, work, 4 * jobs), strict=True):
             if failure is not None:
                 outcome.report_failures[product_id] = failure
             progress.advance()

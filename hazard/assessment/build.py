@@ -1,5 +1,8 @@
-"""``assess`` and ``build_assessment``: one product's frozen :class:`~hazard.result.Assessment` from the arrays
-of an evaluation, with its hazards, studies, claims, cautions and provenance, sealed with its own SHA-256."""
+"""``assess`` and ``build_assessment``: one product's frozen :class:`~hazard.result.Assessment`.
+
+It is built from the arrays of an evaluation, with its hazards, studies, claims, cautions and provenance, and sealed
+with its own SHA-256.
+"""
 
 from __future__ import annotations
 
@@ -39,7 +42,7 @@ from hazard.studies.remedies import remedies_study
 from hazard.studies.uncertainty import uncertainty_study
 from hazard.weighting_tables import TABLE_NAMES, load_table
 
-__all__ = ["METHOD_TEXT", "build_assessment", "limit_set_info", "assess"]
+__all__ = ["METHOD_TEXT", "assess", "build_assessment", "limit_set_info"]
 
 
 METHOD_TEXT = ("The spectrum is taken as linear between its samples; each weighted integral is the exact integral "
@@ -108,17 +111,20 @@ def _hazard_results(ev: Evaluation, i: int, spectrum_range: tuple[float, float],
             risk_group=GROUPS[h.group_index[i]] if (h.assessed[i] and grouped) else None,
             assessed=bool(h.assessed[i]), limits=limits, compared=compared if h.assessed[i] else {},
             margins={g: compared[g] / limits[g] for g in limits} if h.assessed[i] else {},
-            fov_rad=dict(zip(boundaries, spec.fov_rad)) if spec.fov_rad else {},
+            fov_rad=dict(zip(boundaries, spec.fov_rad, strict=True)) if spec.fov_rad else {},
             alpha_rad={g: float(h.alpha_bounded[i, k]) for k, g in enumerate(boundaries)}
             if spec.limits_over_alpha else {},
-            time_bases_s={g: float(t) for g, t in zip(boundaries, spec.time_bases_s)} if grouped else {},
+            time_bases_s={g: float(t) for g, t in zip(boundaries, spec.time_bases_s, strict=True)} if grouped else {},
             exposure_limit=spec.exposure_limit.text, note=note)
     return results
 
 
 def _studies(loaded: LoadedProduct, batch: BatchEvaluation, i: int, distances_and_remedies: bool) -> dict:
-    """Uncertainty (when the record states one), hazard distances and remedies of product ``i``; none when no
-    risk group could be determined (a study of hazards that were not assessed would say nothing true)."""
+    """Uncertainty (when the record states one), hazard distances and remedies of product ``i``.
+
+    None of them when no risk group could be determined (a study of hazards that were not assessed would say nothing
+    true).
+    """
     record, limit_set, ev = loaded.record, batch.limit_set, batch.evaluation
     arrays = product_arrays([record], batch.integrated.raw[i], batch.integrated.covered[i])
     out = {}
@@ -154,9 +160,11 @@ def _shares(raw: np.ndarray, keys: dict[str, int], limit_set: LimitSet) -> dict[
 
 def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int,
                      tolerances: ClaimTolerances = DEFAULT_TOLERANCES, studies: bool = True) -> Assessment:
-    """The result of product ``i`` of an evaluation; vendor claims checked with ``tolerances``. With
-    ``studies``, hazard distances and remedies too (the uncertainty study runs whenever the record states
-    an uncertainty)."""
+    """The result of product ``i`` of an evaluation, vendor claims checked with ``tolerances``.
+
+    With ``studies``, hazard distances and remedies too (the uncertainty study runs whenever the record states an
+    uncertainty).
+    """
     record, spectrum, limit_set = loaded.record, loaded.spectrum, batch.limit_set
     ev, covered, raw = batch.evaluation, batch.integrated.covered[i], batch.integrated.raw[i]
     keys = integral_index(limit_set)

@@ -7,7 +7,7 @@ from __future__ import annotations
 
 from hazard.standards import LimitSet
 
-__all__ = ["PRE_SCREEN", "CAUTIONS", "select_cautions"]
+__all__ = ["CAUTIONS", "PRE_SCREEN", "select_cautions"]
 
 PRE_SCREEN = ("Pre-screen only, not a certification: the risk group here is computed from the data supplied. "
               "Only an accredited laboratory, measuring under the applicable standard and local regulations, "

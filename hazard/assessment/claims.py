@@ -15,7 +15,7 @@ from hazard.output.formatting import format_duration_s
 from hazard.result import ClaimCheck, HazardResult
 from hazard.standards import GROUPS
 
-__all__ = ["ClaimTolerances", "DEFAULT_TOLERANCES", "check_claims"]
+__all__ = ["DEFAULT_TOLERANCES", "ClaimTolerances", "check_claims"]
 
 
 @dataclass(frozen=True)

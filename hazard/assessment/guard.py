@@ -1,8 +1,8 @@
 """The last line of defence where a result is built: every number in it is finite, or the product is refused.
 
 JSON has no infinity: a value that overflowed would be written as ``null`` and the result would no longer
-read back. Record and spectrum bounds (:mod:`hazard.inputs.record`, :mod:`hazard.inputs.spectrum`) keep the method within
-the floating-point range; this check names what overflowed should anything still do so.
+read back. Record and spectrum bounds (:mod:`hazard.inputs.record`, :mod:`hazard.inputs.spectrum`) keep the method
+within the floating-point range; this check names what overflowed should anything still do so.
 """
 
 from __future__ import annotations
@@ -15,7 +15,7 @@ import pydantic_core
 from hazard.errors import InputError
 from hazard.result import Assessment
 
-__all__ = ["require_finite", "first_non_finite"]
+__all__ = ["first_non_finite", "require_finite"]
 
 _BARE_CONSTANT = re.compile(rb"[:,\[]\s*-?(?:Infinity|NaN)")
 

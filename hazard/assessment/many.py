@@ -185,12 +185,12 @@ def assess_many(records, wavelength_nm: np.ndarray | None = None, spectra: np.nd
     _check_grid(wavelength_nm, spectra)
     is_record = [isinstance(r, ProductRecord) for r in validated]
     factors = np.array([parse_spectral_unit(r.unit_text).factor_to_si if ok else 1.0
-                        for r, ok in zip(validated, is_record)])[index]
-    flags = np.array([ok and r.no_emission_outside for r, ok in zip(validated, is_record)])[index]
+                        for r, ok in zip(validated, is_record, strict=True)])[index]
+    flags = np.array([ok and r.no_emission_outside for r, ok in zip(validated, is_record, strict=True)])[index]
     integrated, peak, lowest = integrate_matrix(np.asarray(wavelength_nm, dtype=float), spectra, flags, limit_set,
                                                 factors)
     visual = integrated.raw[:, integral_index(limit_set)["V"]]
-    quantity = np.array([r.quantity if ok else "relative" for r, ok in zip(validated, is_record)])[index]
+    quantity = np.array([r.quantity if ok else "relative" for r, ok in zip(validated, is_record, strict=True)])[index]
     relative = quantity == "relative"
     with np.errstate(over="ignore", invalid="ignore"):
         broken = value_rule_broken(peak, lowest, peak * factors, quantity)

@@ -1,5 +1,8 @@
-"""What a result says beside its numbers: warnings (what the method tolerates but doubts) and assumptions
-(what the result rests on), each a sentence a reader can act on."""
+"""What a result says beside its numbers: warnings and assumptions.
+
+Warnings say what the method tolerates but doubts, assumptions what the result rests on; each is a sentence a reader can
+act on.
+"""
 
 from __future__ import annotations
 
@@ -15,7 +18,7 @@ from hazard.method.weighting import coarse_steps_in
 from hazard.output.formatting import UNIT_DISPLAY
 from hazard.standards import LimitSet
 
-__all__ = ["STEEP_REGIONS_NM", "MAX_STEEP_STEP_NM", "PLAUSIBLE_MAX_ILLUMINANCE_LX", "PLAUSIBLE_PEAK_IRRADIANCE", "SWITCH_NEIGHBOURHOOD", "switch_warnings", "warnings_for", "assumptions_for", "anchor_text", "distance_rule"]
+__all__ = ["MAX_STEEP_STEP_NM", "PLAUSIBLE_MAX_ILLUMINANCE_LX", "PLAUSIBLE_PEAK_IRRADIANCE", "STEEP_REGIONS_NM", "SWITCH_NEIGHBOURHOOD", "anchor_text", "assumptions_for", "distance_rule", "switch_warnings", "warnings_for"]
 
 
 STEEP_REGIONS_NM = ((200.0, 400.0), (380.0, 500.0))
@@ -40,8 +43,11 @@ what the other member would give, when that is worse (our rule, no published sou
 
 
 def switch_warnings(ev: Evaluation, i: int, limit_set: LimitSet) -> list[str]:
-    """Where the source sits near a switch between members of a family and the other member reads a higher
-    group: a small change of size, distance or light would change the group (the standard's own step)."""
+    """Warnings for a source near a switch between the members of a family.
+
+    One is given where the other member reads a higher group: a small change of size, distance or light would change the
+    group (the standard's own step).
+    """
     out = []
     for family, members in limit_set.grouped_families:
         applied = [m for m in members if ev.hazards[m].applicable[i] and ev.hazards[m].assessed[i]]
@@ -67,6 +73,11 @@ def switch_warnings(ev: Evaluation, i: int, limit_set: LimitSet) -> list[str]:
 
 
 def warnings_for(loaded: LoadedProduct, ev: Evaluation, i: int, v_covered: bool) -> list[str]:
+    """Warnings on product ``i``: what-if distance, coarse sampling, inverse-square scaling near the source.
+
+    Also a spectrum that does not cover V(λ) (``v_covered`` false), implausible illuminance or peak irradiance, and
+    a radiance measured over too wide a field. The spectrum's own warnings come first.
+    """
     record, spectrum = loaded.record, loaded.spectrum
     warnings = list(spectrum.warnings)
     lo, hi = spectrum.range_nm
@@ -116,6 +127,12 @@ def warnings_for(loaded: LoadedProduct, ev: Evaluation, i: int, v_covered: bool)
 
 
 def assumptions_for(loaded: LoadedProduct, ev: Evaluation, i: int) -> list[str]:
+    """What the result of product ``i`` rests on, one sentence each.
+
+    No emission outside the measured range, a source given by its angular subtense, the anchor of a relative
+    spectrum, the 500 lx distance of a GLS lamp, a peak-to-mean radiance, and how irradiance and radiance were
+    derived from each other.
+    """
     record, (lo, hi) = loaded.record, loaded.spectrum.range_nm
     assumptions = []
     if record.no_emission_outside:
@@ -165,6 +182,7 @@ def anchor_text(record: ProductRecord, scale: float) -> str:
 
 
 def distance_rule(record: ProductRecord, d_a_mm: float) -> str:
+    """Which rule set the assessment distance ``d_a_mm`` [mm]: a what-if, 200 mm, or the GLS lamps' 500 lx."""
     if record.at_distance_mm is not None:
         return (f"{record.at_distance_mm:g} mm as the record asks (at_distance_mm): a what-if study, not the "
                 f"standard's classification distance")

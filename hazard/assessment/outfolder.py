@@ -25,7 +25,7 @@ from pathlib import Path
 from hazard.errors import InputError, excerpt
 from hazard.output.atomic import remove_stale_temporaries
 
-__all__ = ["OutputFolder", "file_stems", "LOCK_NAME", "RESERVED_STEMS"]
+__all__ = ["LOCK_NAME", "RESERVED_STEMS", "OutputFolder", "file_stems"]
 
 LOCK_NAME = ".hazard-batch.lock"
 RESERVED_STEMS = ("summary", "results")
@@ -134,7 +134,7 @@ class OutputFolder:
             raise InputError("the output folder already holds files that hazard did not write",
                              "name a new or empty folder for the outputs", str(self.folder))
 
-    def __enter__(self) -> "OutputFolder":
+    def __enter__(self) -> OutputFolder:
         if self.folder.exists() and not self.folder.is_dir():
             raise InputError("the output path is a file, not a folder", "name a folder for the outputs",
                              str(self.folder))
@@ -154,7 +154,7 @@ class OutputFolder:
             raise
         self._handle = handle
         holder = {"pid": os.getpid(), "host": socket.gethostname(),
-                  "started": datetime.datetime.now(datetime.timezone.utc).isoformat(timespec="seconds"),
+                  "started": datetime.datetime.now(datetime.UTC).isoformat(timespec="seconds"),
                   "source": os.path.realpath(self.source)}
         handle.seek(0)
         handle.truncate()

@@ -1,5 +1,7 @@
-"""The method applied to many products at once: records and integrals stacked into arrays, evaluated at the
-assessment distance (and at the standard's, for what-if records), with chromaticity and CCT.
+"""The method applied to many products at once.
+
+Records and integrals are stacked into arrays and evaluated at the assessment distance (and at the standard's, for
+what-if records), with chromaticity and CCT.
 
 Data flows one way: record and spectrum (:mod:`hazard.inputs.loading`) → weighted integrals on the spectrum's own
 grid (:mod:`hazard.method.integrals`) → values, limits and groups (:mod:`hazard.method.evaluate`) → results
@@ -21,7 +23,7 @@ from hazard.method.integrals import Integrated, integrate_spectra
 from hazard.method.photometry import cct_from_xyz
 from hazard.standards import DEFAULT_LIMIT_SET, LimitSet
 
-__all__ = ["source_shape", "product_arrays", "anchor_photometric", "BatchEvaluation", "evaluate_products", "evaluate_loaded"]
+__all__ = ["BatchEvaluation", "anchor_photometric", "evaluate_loaded", "evaluate_products", "product_arrays", "source_shape"]
 
 
 def source_shape(records: list[ProductRecord]) -> SourceShape:
@@ -55,8 +57,10 @@ def product_arrays(records: list[ProductRecord], raw: np.ndarray, covered: np.nd
 
 
 def anchor_photometric(record: ProductRecord) -> float:
-    """The photometric value a relative spectrum must reproduce at its reference distance [lx or cd/m2]; NaN for
-    an absolute spectrum."""
+    """The photometric value a relative spectrum must reproduce at its reference distance [lx or cd/m2].
+
+    NaN for an absolute spectrum.
+    """
     anchor = record.anchor
     if record.quantity != "relative" or anchor is None:
         return np.nan
@@ -67,9 +71,11 @@ def anchor_photometric(record: ProductRecord) -> float:
 
 @dataclass(frozen=True)
 class BatchEvaluation:
-    """Everything computed for n products: integrals, the method's arrays, and colour. ``standard`` is the
-    evaluation at the standard's distance (the same object as ``evaluation`` unless a record asks for a
-    what-if distance); ``what_if`` marks the products assessed at a distance of the record's choosing."""
+    """Everything computed for n products: integrals, the method's arrays, and colour.
+
+    ``standard`` is the evaluation at the standard's distance (the same object as ``evaluation`` unless a record asks
+    for a what-if distance); ``what_if`` marks the products assessed at a distance of the record's choosing.
+    """
 
     limit_set: LimitSet
     integrated: Integrated
@@ -84,8 +90,11 @@ class BatchEvaluation:
 
 def evaluate_products(records: list[ProductRecord], integrated: Integrated,
                       limit_set: LimitSet = DEFAULT_LIMIT_SET, index: np.ndarray | None = None) -> BatchEvaluation:
-    """Apply the method to n products whose integrals are known; colour only where V(λ) is covered and
-    there is light. ``index`` maps products to ``records`` as in :func:`product_arrays`."""
+    """Apply the method to n products whose integrals are known.
+
+    Colour only where V(λ) is covered and there is light. ``index`` maps products to ``records`` as in
+    :func:`product_arrays`.
+    """
     arrays = product_arrays(records, integrated.raw, integrated.covered, index)
     ev = evaluate(arrays, limit_set)
     standard = ev

@@ -1,5 +1,7 @@
-"""The parts of a result that summarise the input and the light: spectrum preview, photometry and colour,
-blue-light transfer values, the scaling of a relative spectrum."""
+"""The parts of a result that summarise the input and the light.
+
+Spectrum preview, photometry and colour, blue-light transfer values, the scaling of a relative spectrum.
+"""
 
 from __future__ import annotations
 
@@ -19,15 +21,17 @@ from hazard.result import (
 )
 from hazard.standards import LimitSet
 
-__all__ = ["optional_float", "photometry_summary", "scaling_summary", "PREVIEW_BINS", "spectrum_summary", "transfer_summary", "cct_reason", "illuminance_at_record_distance_lx"]
+__all__ = ["PREVIEW_BINS", "cct_reason", "illuminance_at_record_distance_lx", "optional_float", "photometry_summary", "scaling_summary", "spectrum_summary", "transfer_summary"]
 
 
 def optional_float(x) -> float | None:
+    """``x`` as a float, None for NaN."""
     x = float(x)
     return None if np.isnan(x) else x
 
 
-def photometry_summary(batch: "BatchEvaluation", i: int, covered: bool) -> Photometry:
+def photometry_summary(batch: BatchEvaluation, i: int, covered: bool) -> Photometry:
+    """Illuminance, luminance, CCT, Duv and chromaticity of product ``i``; ``covered`` when V(λ) is covered."""
     x, y = batch.chromaticity_x[i], batch.chromaticity_y[i]
     return Photometry(illuminance_lx=float(batch.evaluation.illuminance_lx[i]),
                       luminance_cd_m2=float(batch.evaluation.luminance_cd_m2[i]),
@@ -36,6 +40,7 @@ def photometry_summary(batch: "BatchEvaluation", i: int, covered: bool) -> Photo
 
 
 def scaling_summary(record: ProductRecord, scale: float) -> Scaling | None:
+    """How a relative spectrum was scaled by its anchor (``scale`` per unit); None for an absolute spectrum."""
     anchor = record.anchor
     if record.quantity != "relative" or anchor is None:
         return None
@@ -58,8 +63,10 @@ def _four_digits(values: np.ndarray) -> np.ndarray:
 
 
 def spectrum_summary(loaded: LoadedProduct, scale: float) -> SpectrumSummary:
-    """Summary and a max-per-bin preview (keeps narrow lines visible) of the input spectrum, in SI units
-    (a relative spectrum multiplied by its anchor's ``scale``)."""
+    """Summary and a max-per-bin preview (keeps narrow lines visible) of the input spectrum.
+
+    In SI units (a relative spectrum multiplied by its anchor's ``scale``).
+    """
     spectrum = loaded.spectrum
     wl, value = spectrum.wavelength_nm, spectrum.value * scale
     edges = np.linspace(wl[0], wl[-1], PREVIEW_BINS + 1)
@@ -80,9 +87,12 @@ def spectrum_summary(loaded: LoadedProduct, scale: float) -> SpectrumSummary:
 
 def transfer_summary(ev: Evaluation, i: int, covered: np.ndarray, keys: dict[str, int], record: ProductRecord,
               limit_set: LimitSet) -> BlueLightTransfer | None:
-    """IEC TR 62778 transfer quantities, where the spectrum covers both the blue-light band and V(λ), the
-    source is mainly visible (the report's quantities are made for white-light sources) and they are finite (a
-    source with next to no blue light has no threshold worth printing)."""
+    """IEC TR 62778 transfer quantities, where they apply.
+
+    They are given where the spectrum covers both the blue-light band and V(λ), the source is mainly visible (the
+    report's quantities are made for white-light sources) and they are finite (a source with next to no blue light has
+    no threshold worth printing).
+    """
     blue = limit_set.transfer_quantity()
     finite = all(np.isfinite(x[i]) for x in (ev.blue_light_efficacy_w_per_lm, ev.threshold_illuminance_lx,
                                              ev.luminous_intensity_cd, ev.threshold_distance_m))

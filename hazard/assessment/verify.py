@@ -1,5 +1,6 @@
-"""Check a saved result before it is rendered: unchanged since it was made, and groups that follow from its own
-numbers and its limit set.
+"""Check a saved result before it is rendered.
+
+It must be unchanged since it was made, and its groups must follow from its own numbers and its limit set.
 
 A result file can be edited by hand or damaged; rendering it as it stands could print "Exempt" beside values
 far above a limit. :func:`check_result` first compares the result with the SHA-256 it was sealed with, then
@@ -44,7 +45,7 @@ def _hazard_group(symbol: str, h, limit_set: LimitSet, path: str) -> str | None:
         raise _refuse(f"hazard {symbol} lacks its {missing} boundary", path) from None
     if not (np.all(np.isfinite(compared)) and np.all(np.isfinite(limits))):
         raise _refuse(f"hazard {symbol} holds a value that is not a finite number", path)
-    for b, c, lim in zip(limit_set.boundaries, compared[0], limits[0]):
+    for b, c, lim in zip(limit_set.boundaries, compared[0], limits[0], strict=True):
         margin = h.margins.get(b)
         if margin is None or not math.isclose(margin, c / lim, rel_tol=1e-9):
             raise _refuse(f"hazard {symbol}: margin at {b} is {margin!r} but compared/limit is {c / lim:.6g}", path)
@@ -100,8 +101,10 @@ def check_result(assessment: Assessment, path: str) -> None:
 
 
 def _check_against_set(a: Assessment, limit_set: LimitSet, path: str) -> None:
-    """Hazards, units, limits, time bases and fields of view as the limit set has them; every family present;
-    what the spectrum covers assessed."""
+    """Check hazards, units, limits, time bases and fields of view against the limit set.
+
+    Every family must be present, and what the spectrum covers must have been assessed.
+    """
     lo, hi = a.spectrum.min_nm, a.spectrum.max_nm
     no_emission_outside = bool(a.record.get("no_emission_outside", False))
     for name, members in limit_set.families:
@@ -129,8 +132,8 @@ def _check_against_set(a: Assessment, limit_set: LimitSet, path: str) -> None:
                     raise _refuse(f"hazard {symbol}: α at {b} is outside {low:g}–{high:g} rad", path)
                 coefficient = coefficient / alpha
             expected[b] = coefficient
-        bases = dict(zip(limit_set.boundaries, spec.time_bases_s))
-        fovs = dict(zip(limit_set.boundaries, spec.fov_rad)) if spec.fov_rad else {}
+        bases = dict(zip(limit_set.boundaries, spec.time_bases_s, strict=True))
+        fovs = dict(zip(limit_set.boundaries, spec.fov_rad, strict=True)) if spec.fov_rad else {}
         if (any(not math.isclose(h.limits.get(b, math.nan), v, rel_tol=1e-9) for b, v in expected.items())
                 or h.time_bases_s != bases or h.fov_rad != fovs):
             raise _refuse(f"hazard {symbol}: limits, time bases or fields of view differ from {limit_set.name}",

@@ -1,2 +1,4 @@
-"""From what the user gives to validated records and spectra: readers, units, spectrum rules, records,
-manifests, file statements and the loading that joins them."""
+"""From what the user gives to validated records and spectra.
+
+Readers, units, spectrum rules, records, manifests, file statements and the loading that joins them.
+"""

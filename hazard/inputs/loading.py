@@ -18,7 +18,7 @@ from hazard.method.weighting import quadrature_weights
 from hazard.standards import LIMIT_SETS
 from hazard.weighting_tables import load_table
 
-__all__ = ["LoadedProduct", "load_product", "product_from_record", "spectrum_path", "ALLOW_OUTSIDE_OPTION"]
+__all__ = ["ALLOW_OUTSIDE_OPTION", "LoadedProduct", "load_product", "product_from_record", "spectrum_path"]
 
 ALLOW_OUTSIDE_OPTION = "--allow-outside"
 """The option that lets a record name a spectrum outside its own folder tree."""
@@ -56,8 +56,11 @@ def _check_anchorable(spectrum: Spectrum, origin: str) -> None:
 
 
 def _check_overlaps_bands(spectrum: Spectrum, origin: str) -> None:
-    """A spectrum that lies wholly outside every hazard band holds nothing to assess: refused (it is most
-    likely on another wavelength scale), rather than read as zero everywhere."""
+    """Refuse a spectrum that lies wholly outside every hazard band.
+
+    It holds nothing to assess and is most likely on another wavelength scale; it is refused rather than read as zero
+    everywhere.
+    """
     bands = [h.band_nm for s in LIMIT_SETS.values() for h in s.hazards]
     low, high = min(b[0] for b in bands), max(b[1] for b in bands)
     lo, hi = spectrum.range_nm
@@ -68,9 +71,10 @@ def _check_overlaps_bands(spectrum: Spectrum, origin: str) -> None:
 
 
 def spectrum_path(record: ProductRecord, base_dir: Path, origin: str, root: Path | None) -> Path:
-    """The spectrum file a record names, relative to ``base_dir``; with ``root``, it must lie inside that
-    folder tree (symbolic links resolved), so a record from elsewhere cannot make the tool read, or tell
-    about, files outside it.
+    """The spectrum file a record names, relative to ``base_dir``.
+
+    With ``root``, it must lie inside that folder tree (symbolic links resolved), so a record from elsewhere cannot make
+    the tool read, or tell about, files outside it.
 
     Raises
     ------

@@ -29,7 +29,7 @@ from hazard.inputs.readers.workbook import workbook_rows
 from hazard.inputs.record import ProductRecord, read_record_file
 from hazard.inputs.userfiles import read_user_file
 
-__all__ = ["ManifestRow", "read_manifest", "MAX_MANIFEST_BYTES", "MAX_MANIFEST_ROWS"]
+__all__ = ["MAX_MANIFEST_BYTES", "MAX_MANIFEST_ROWS", "ManifestRow", "read_manifest"]
 
 MAX_MANIFEST_BYTES = 256 * 1024 * 1024
 """Largest CSV manifest read (10⁶ rows of a few fields) [bytes]."""
@@ -114,7 +114,7 @@ def _table_rows(header: list, rows, path: Path) -> list[ManifestRow]:
     manifest, folder = path.name, path.parent
     result = []
     for number, cells in rows:
-        fields = {h: value for h, c in zip(header, cells)
+        fields = {h: value for h, c in zip(header, cells, strict=False)
                   if h and (value := _cell(c)) is not None and value != ""}
         if not fields:
             continue

@@ -29,8 +29,17 @@ from hazard.inputs.units import IRRADIANCE_SI, RADIANCE_SI, parse_spectral_unit
 from hazard.inputs.userfiles import read_user_file
 from hazard.standards import GROUPS, LIMIT_SETS
 
-__all__ = ["ProductRecord", "Anchor", "SourceSize", "load_record", "read_record_file", "record_from_fields",
-           "MAGNITUDE_BOUNDS", "CLAIMABLE", "claim_field"]
+__all__ = [
+    "CLAIMABLE",
+    "MAGNITUDE_BOUNDS",
+    "Anchor",
+    "ProductRecord",
+    "SourceSize",
+    "claim_field",
+    "load_record",
+    "read_record_file",
+    "record_from_fields",
+]
 
 _DEFAULT_UNIT = {"irradiance": IRRADIANCE_SI, "radiance": RADIANCE_SI}
 CLAIMABLE = tuple(dict.fromkeys(symbol for limit_set in LIMIT_SETS.values() for symbol in limit_set.claimable))
@@ -228,7 +237,7 @@ class ProductRecord(BaseModel):
         return unit
 
     @model_validator(mode="after")
-    def _consistent(self) -> "ProductRecord":
+    def _consistent(self) -> ProductRecord:
         rect = (self.source_width_mm, self.source_height_mm)
         forms = [self.source_diameter_mm is not None, any(v is not None for v in rect),
                  self.source_alpha_mrad is not None]
@@ -274,16 +283,21 @@ class ProductRecord(BaseModel):
 
     @property
     def effective_quantity(self) -> Literal["irradiance", "radiance"]:
-        """What the spectrum is after anchoring: a relative spectrum with a luminance anchor is a radiance,
-        with an illuminance or intensity anchor an irradiance."""
+        """What the spectrum is after anchoring.
+
+        A relative spectrum with a luminance anchor is a radiance, with an illuminance or intensity anchor an
+        irradiance.
+        """
         if self.quantity == "relative":
             return "radiance" if self.anchor is not None and self.anchor.is_radiance else "irradiance"
         return self.quantity
 
     @property
     def reference_distance_mm(self) -> float | None:
-        """Distance the irradiance refers to: distance_mm, or 1000 mm for a luminous-intensity anchor
-        without one (E_v = I/d²) [mm]."""
+        """Distance the irradiance refers to [mm].
+
+        distance_mm, or 1000 mm for a luminous-intensity anchor without one (E_v = I/d²).
+        """
         if self.distance_mm is None and self.quantity == "relative" and self.luminous_intensity_cd is not None:
             return 1000.0
         return self.distance_mm

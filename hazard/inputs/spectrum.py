@@ -14,7 +14,7 @@ import numpy as np
 
 from hazard.errors import InputError
 
-__all__ = ["Spectrum", "validate_spectrum", "value_rule_broken", "VALUE_RULES", "NEGATIVE_TOLERANCE"]
+__all__ = ["NEGATIVE_TOLERANCE", "VALUE_RULES", "Spectrum", "validate_spectrum", "value_rule_broken"]
 
 NEGATIVE_TOLERANCE = 0.01
 """Negatives down to this fraction of the peak are dark noise (method §5) [1]."""

@@ -1,5 +1,6 @@
-"""What a spectrum file says about itself, checked against the record: the unit is never guessed, and a
-distance the file states that the record contradicts is named in a warning.
+"""What a spectrum file says about itself, checked against the record.
+
+The unit is never guessed, and a distance the file states that the record contradicts is named in a warning.
 
 A file states its unit in the value column's header cell (``Irradiance [mW/m²/nm]``), in a line before the
 table or a comment whose key names a unit (``Unit: uW/cm2/nm``, ``# Y units = W/cm2/nm``), in a JSON key that
@@ -13,6 +14,7 @@ from __future__ import annotations
 
 import math
 import re
+from itertools import pairwise
 
 from hazard.errors import InputError
 from hazard.inputs.readers import RawSpectrum
@@ -20,7 +22,7 @@ from hazard.inputs.readers.headers import HeaderStatement, header_statement
 from hazard.inputs.record import ProductRecord
 from hazard.inputs.units import SpectralUnit, parse_spectral_unit
 
-__all__ = ["resolve_unit", "file_metadata", "metadata_warnings", "MAX_METADATA_ITEMS", "MAX_METADATA_TEXT"]
+__all__ = ["MAX_METADATA_ITEMS", "MAX_METADATA_TEXT", "file_metadata", "metadata_warnings", "resolve_unit"]
 
 MAX_METADATA_ITEMS = 40
 """Metadata lines of a file kept in the result (the first ones) [1]."""
@@ -37,8 +39,10 @@ _TO_MM = {"mm": 1.0, "cm": 10.0, "m": 1000.0}
 
 
 def _declared(text: str) -> HeaderStatement:
-    """A text that is declared to be the values' unit (it follows a key naming a unit): anything but a spectral
-    unit this tool reads is a problem."""
+    """A text that is declared to be the values' unit (it follows a key naming a unit).
+
+    Anything but a spectral unit this tool reads is a problem.
+    """
     statement = header_statement(text)
     if statement.unit is not None or statement.problem is not None:
         return statement
@@ -98,7 +102,7 @@ def resolve_unit(record: ProductRecord, raw: RawSpectrum, metadata: dict, origin
             continue
         if statement.unit is not None:
             units.append((parse_spectral_unit(statement.unit), statement.unit, line, where))
-    for (first, text, _, where), (other, other_text, line, other_where) in zip(units, units[1:]):
+    for (first, text, _, where), (other, other_text, line, other_where) in pairwise(units):
         if not _same(first, other):
             raise InputError(f"the {where} says {text!r} but the {other_where} says {other_text!r}",
                              "correct the file so it states one unit", raw.path, line)
@@ -122,8 +126,11 @@ def _same(a: SpectralUnit, b: SpectralUnit) -> bool:
 
 
 def file_metadata(metadata: dict) -> dict[str, str]:
-    """The file's metadata lines as text, bounded: the first :data:`MAX_METADATA_ITEMS`, each key and value cut
-    to :data:`MAX_METADATA_TEXT` characters of printable text."""
+    """The file's metadata lines as text, bounded.
+
+    The first :data:`MAX_METADATA_ITEMS`, each key and value cut to :data:`MAX_METADATA_TEXT` characters of printable
+    text.
+    """
     def clean(text: object) -> str:
         printable = "".join(c if c.isprintable() else " " for c in str(text))
         return printable[:MAX_METADATA_TEXT].strip()

@@ -11,7 +11,7 @@ import re
 from dataclasses import dataclass
 from functools import lru_cache
 
-__all__ = ["SpectralUnit", "parse_spectral_unit", "IRRADIANCE_SI", "RADIANCE_SI"]
+__all__ = ["IRRADIANCE_SI", "RADIANCE_SI", "SpectralUnit", "parse_spectral_unit"]
 
 IRRADIANCE_SI = "W/m2/nm"
 RADIANCE_SI = "W/m2/sr/nm"

@@ -16,7 +16,7 @@ from pathlib import Path
 
 from hazard.errors import InputError
 
-__all__ = ["read_user_file", "regular_file_size", "DEFAULT_MAX_BYTES"]
+__all__ = ["DEFAULT_MAX_BYTES", "read_user_file", "regular_file_size"]
 
 DEFAULT_MAX_BYTES = 50 * 1024 * 1024
 """Largest input file read by default [bytes] (``HAZARD_MAX_FILE_MB`` changes it for spectra)."""

@@ -18,7 +18,7 @@ from __future__ import annotations
 
 import numpy as np
 
-__all__ = ["top_down_groups", "groups_from_t_max", "hazard_groups"]
+__all__ = ["groups_from_t_max", "hazard_groups", "top_down_groups"]
 
 
 def top_down_groups(compared: np.ndarray, limits: np.ndarray) -> np.ndarray:
@@ -46,8 +46,10 @@ def top_down_groups(compared: np.ndarray, limits: np.ndarray) -> np.ndarray:
 
 
 def groups_from_t_max(t_max_s: np.ndarray, time_bases_s: tuple[float, float, float], tolerance: float) -> np.ndarray:
-    """Group index that a t_max implies: RG3 below the RG2 time base, RG2 below the RG1 base, RG1 below the
-    Exempt base, else Exempt (NaN: never reached); each base lowered by ``tolerance`` (the table's rounding).
+    """Group index that a t_max implies.
+
+    RG3 below the RG2 time base, RG2 below the RG1 base, RG1 below the Exempt base, else Exempt (NaN: never reached);
+    each base lowered by ``tolerance`` (the table's rounding).
 
     Examples
     --------

@@ -32,8 +32,19 @@ MAINLY_VISIBLE_SHARE = 0.5
 radiation; only then do the blue-light transfer values of IEC TR 62778 (made for white-light sources) apply
 (our rule, no published source) [1]."""
 
-__all__ = ["VISIBLE_RADIATION_NM", "OPTICAL_RANGE_NM", "MAINLY_VISIBLE_SHARE", "IntegralSpec", "integral_specs",
-           "share_key", "integral_index", "ProductArrays", "HazardArrays", "Evaluation", "evaluate"]
+__all__ = [
+    "MAINLY_VISIBLE_SHARE",
+    "OPTICAL_RANGE_NM",
+    "VISIBLE_RADIATION_NM",
+    "Evaluation",
+    "HazardArrays",
+    "IntegralSpec",
+    "ProductArrays",
+    "evaluate",
+    "integral_index",
+    "integral_specs",
+    "share_key",
+]
 
 
 @dataclass(frozen=True)
@@ -51,14 +62,16 @@ def share_key(symbol: str, share: str) -> str:
 
 
 def integral_specs(limit_set: LimitSet) -> list[IntegralSpec]:
-    """The integrals of a limit set: one per hazard, ``V`` for photometry, one per sub-band share of a hazard
-    (weighted as the hazard, for cautions), ``VIS`` and ``ALL`` (unweighted 380-780 nm and 200-3000 nm, for the
-    share of visible radiation)."""
+    """The integrals of a limit set.
+
+    One per hazard, ``V`` for photometry, one per sub-band share of a hazard (weighted as the hazard, for cautions),
+    ``VIS`` and ``ALL`` (unweighted 380-780 nm and 200-3000 nm, for the share of visible radiation).
+    """
     specs = [IntegralSpec(h.symbol, h.band_nm, h.table) for h in limit_set.hazards]
     specs.append(IntegralSpec("V", VISIBLE_BAND_NM, "v_photopic"))
     specs += [IntegralSpec(share_key(h.symbol, share.name), share.band_nm, h.table)
               for h in limit_set.hazards for share in h.shares if share.step_nm is None]
-    return specs + [IntegralSpec("VIS", VISIBLE_RADIATION_NM, None), IntegralSpec("ALL", OPTICAL_RANGE_NM, None)]
+    return [*specs, IntegralSpec("VIS", VISIBLE_RADIATION_NM, None), IntegralSpec("ALL", OPTICAL_RANGE_NM, None)]
 
 
 def integral_index(limit_set: LimitSet) -> dict[str, int]:
@@ -108,7 +121,7 @@ class ProductArrays:
     peak_to_mean: np.ndarray | None = None
     forced_distance_m: np.ndarray | None = None
 
-    def rows(self, index: np.ndarray) -> "ProductArrays":
+    def rows(self, index: np.ndarray) -> ProductArrays:
         """The products at ``index`` (repeats allowed), e.g. one product many times for a what-if sweep."""
         def pick(a):
             return None if a is None else a[index]
@@ -214,8 +227,9 @@ class _Viewed:
 
     def field_radiance(self, symbol: str, fov_rad: np.ndarray | float, rows: np.ndarray | None = None
                        ) -> np.ndarray:
-        """Radiance averaged over a field of view γ centred on the source [W m⁻² sr⁻¹] (method §4), for all
-        products or those at ``rows``.
+        """Radiance averaged over a field of view γ centred on the source [W m⁻² sr⁻¹] (method §4).
+
+        For all products or those at ``rows``.
 
         L·f for a uniform source, f the fraction of the field the source fills; with a peak-to-mean ratio p
         the field may see p·L over what it covers, but never more than all of the source's power:
@@ -310,9 +324,11 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
 
 def _blue_light_transfer(arrays: ProductArrays, blue: np.ndarray, visual: np.ndarray, d_m: np.ndarray,
                          threshold_w_m2: float) -> dict:
-    """IEC TR 62778:2014 transfer quantities: K_B,v = E_B/E_v [W lm⁻¹], the illuminance E_thr = E_B,thr/K_B,v
-    at which the blue-light irradiance reaches the limit set's threshold [lx], and the distance at which that
-    illuminance falls, d_thr = √(I_v/E_thr) [m]. NaN where the set has no transfer quantity.
+    """IEC TR 62778:2014 transfer quantities.
+
+    K_B,v = E_B/E_v [W lm⁻¹], the illuminance E_thr = E_B,thr/K_B,v at which the blue-light irradiance reaches the limit
+    set's threshold [lx], and the distance at which that illuminance falls, d_thr = √(I_v/E_thr) [m]. NaN where the set
+    has no transfer quantity.
 
     I_v is the record's luminous intensity when given; otherwise E_v·d² at the measurement distance
     (inverse-square estimate) for irradiance, or L_v times the source's projected area for radiance.

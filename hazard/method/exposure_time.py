@@ -31,8 +31,10 @@ AlphaIn = Callable[[tuple[float, float]], np.ndarray]
 
 
 def _cuts(hazard: Hazard) -> list[tuple[float, float, LimitPiece, FieldOfView | None, tuple | None]]:
-    """(after, up_to, piece, field of view, α bounds) for every stretch of duration with one formula and one
-    viewing rule; a growing field is cut where it reaches its cap, beyond which it is fixed."""
+    """(after, up_to, piece, field of view, α bounds) for every stretch of duration with one formula.
+
+    Each stretch also has one viewing rule; a growing field is cut where it reaches its cap, beyond which it is fixed.
+    """
     cuts = []
     for piece in hazard.exposure_limit.pieces:
         if not hazard.viewing:
@@ -57,8 +59,10 @@ def _cuts(hazard: Hazard) -> list[tuple[float, float, LimitPiece, FieldOfView | 
 
 
 def _closed_form(value: np.ndarray, coefficient: np.ndarray, exponent: float, a: float, b: float) -> np.ndarray:
-    """Earliest t in (a, b] with value > coefficient·t^exponent (reached exactly at the time the two are equal);
-    NaN where not within the cut."""
+    """Earliest t in (a, b] with value > coefficient·t^exponent.
+
+    Reached exactly at the time the two are equal; NaN where not within the cut.
+    """
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         if exponent == 0:
             return np.where(value > coefficient, a, np.nan)
@@ -68,8 +72,10 @@ def _closed_form(value: np.ndarray, coefficient: np.ndarray, exponent: float, a:
 
 
 def _growing(exceeded: Callable[[np.ndarray, np.ndarray], np.ndarray], n: int, a: float, b: float) -> np.ndarray:
-    """Earliest t in [a, b] where the monotonic ``exceeded(t, rows)`` holds (t and rows flat, one each); NaN
-    where it does not hold at b."""
+    """Earliest t in [a, b] where the monotonic ``exceeded(t, rows)`` holds (t and rows flat, one each).
+
+    NaN where it does not hold at b.
+    """
     every = np.arange(n)
     at_end = exceeded(np.full(n, b), every)
     at_start = exceeded(np.full(n, a), every)

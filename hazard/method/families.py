@@ -12,7 +12,7 @@ import numpy as np
 from hazard.method.evaluate import Evaluation, ProductArrays, evaluate
 from hazard.standards import LimitSet
 
-__all__ = ["family_groups", "family_t_max", "family_values", "family_member", "evaluate_rows"]
+__all__ = ["evaluate_rows", "family_groups", "family_member", "family_t_max", "family_values"]
 
 
 def _members(ev: Evaluation, members: tuple[str, ...]):

@@ -10,8 +10,16 @@ from dataclasses import dataclass
 
 import numpy as np
 
-__all__ = ["SourceShape", "FieldGeometry", "cone_solid_angle_sr", "inverse_square_factor", "cone_rectangle_solid_angle",
-           "GLS_ILLUMINANCE_LX", "MIN_ASSESSMENT_DISTANCE_M", "FIVE_TIMES_RULE"]
+__all__ = [
+    "FIVE_TIMES_RULE",
+    "GLS_ILLUMINANCE_LX",
+    "MIN_ASSESSMENT_DISTANCE_M",
+    "FieldGeometry",
+    "SourceShape",
+    "cone_rectangle_solid_angle",
+    "cone_solid_angle_sr",
+    "inverse_square_factor",
+]
 
 GLS_ILLUMINANCE_LX = 500.0
 """GLS lamps are assessed where they give this illuminance (IEC 62471:2006, 5.1.2) [lx]."""
@@ -23,8 +31,9 @@ source beyond photometric habit) [1]."""
 
 
 def cone_solid_angle_sr(full_angle_rad: np.ndarray | float) -> np.ndarray:
-    """Solid angle of a cone of full plane angle γ: Ω = 2π(1 − cos(γ/2)) = 4π·sin²(γ/4) [sr] (the second form
-    keeps its precision for the smallest angles).
+    """Solid angle of a cone of full plane angle γ [sr].
+
+    Ω = 2π(1 − cos(γ/2)) = 4π·sin²(γ/4); the second form keeps its precision for the smallest angles.
 
     Examples
     --------
@@ -35,15 +44,16 @@ def cone_solid_angle_sr(full_angle_rad: np.ndarray | float) -> np.ndarray:
 
 
 def _edge(a: np.ndarray, half: np.ndarray) -> np.ndarray:
-    """a − asin(sin a/√(1 + half²)) without cancellation: atan2 of sin and cos of the difference [rad]."""
+    """The difference a − asin(sin a/√(1 + half²)) without cancellation: atan2 of its sine and cosine [rad]."""
     root = np.sqrt(np.cos(a) ** 2 + half ** 2)
     return np.arctan2(np.sin(a) * half ** 2 / (root + np.cos(a)), np.cos(a) * root + np.sin(a) ** 2)
 
 
 def cone_rectangle_solid_angle(cone_half_angle_rad: np.ndarray, half_width: np.ndarray, half_height: np.ndarray
                                ) -> np.ndarray:
-    """Solid angle of a flat rectangle seen on axis, clipped by a cone about the same axis [sr]; the rectangle's
-    half-sides are given relative to its distance (p/d, q/d) [1].
+    """Solid angle of a flat rectangle seen on axis, clipped by a cone about the same axis [sr].
+
+    The rectangle's half-sides are given relative to its distance (p/d, q/d) [1].
 
     Exact on the sphere: in polar angle φ about the axis the region reaches out to the nearer of the cone
     (tan θ at unit distance) and the rectangle's edge, and ∫₀^R r dr/(1 + r²)^{3/2} = 1 − 1/√(1 + R²). Along the
@@ -93,7 +103,7 @@ class SourceShape:
     width_m: np.ndarray
     height_m: np.ndarray
 
-    def take(self, index: np.ndarray) -> "SourceShape":
+    def take(self, index: np.ndarray) -> SourceShape:
         """The shapes at ``index`` (positions or a boolean mask)."""
         return SourceShape(self.width_m[index], self.height_m[index])
 
@@ -140,7 +150,7 @@ class SourceShape:
         b = np.arctan(np.where(self.is_disc, self.width_m, self.height_m) / (2 * d))
         return np.where(self.is_disc, disc, 4 * np.arcsin(np.sin(a) * np.sin(b)))
 
-    def seen_from(self, distance_m: np.ndarray | float) -> "FieldGeometry":
+    def seen_from(self, distance_m: np.ndarray | float) -> FieldGeometry:
         """The sources as seen from ``distance_m``, ready for field-of-view fractions (:class:`FieldGeometry`)."""
         d = np.asarray(distance_m, dtype=float)
         omega_s = self.solid_angle_sr(d)
@@ -199,14 +209,16 @@ class FieldGeometry:
     half_height: np.ndarray
     is_disc: np.ndarray
 
-    def take(self, index: np.ndarray) -> "FieldGeometry":
+    def take(self, index: np.ndarray) -> FieldGeometry:
         """The sources at ``index``."""
         return FieldGeometry(self.omega_s[index], self.half_width[index], self.half_height[index],
                              self.is_disc[index])
 
     def fraction(self, fov_rad: np.ndarray | float) -> np.ndarray:
-        """Fraction of a field of view γ (a cone, Ω_γ = 2π(1 − cos(γ/2))) that the source fills, the cone
-        centred on the source (where it catches most of a centrally symmetric source) [1].
+        """Fraction of a field of view γ that the source fills [1].
+
+        The field is a cone, Ω_γ = 2π(1 − cos(γ/2)), centred on the source (where it catches most of a centrally
+        symmetric source).
 
         Ω(cone ∩ source)/Ω_γ, exact on the sphere (method §4; :func:`cone_rectangle_solid_angle`): Ω_s/Ω_γ when
         the cone holds the whole source and 1 when the source fills the cone, so a uniform source's field

@@ -24,7 +24,7 @@ from hazard.method.weighting import quadrature_matrix
 from hazard.standards import LimitSet
 from hazard.weighting_tables import load_table
 
-__all__ = ["Integrated", "integral_matrix", "coverage", "integrate_matrix", "integrate_spectra", "CHUNK_ROWS"]
+__all__ = ["CHUNK_ROWS", "Integrated", "coverage", "integral_matrix", "integrate_matrix", "integrate_spectra"]
 
 CHUNK_ROWS = 512
 """Spectra handled at once: small enough to stay in cache between the check and the product, and to bound
@@ -58,8 +58,10 @@ def integral_matrix(grid_nm: np.ndarray, limit_set: LimitSet) -> np.ndarray:
 
 
 def coverage(range_nm: tuple[float, float], no_emission_outside: bool, limit_set: LimitSet) -> np.ndarray:
-    """Which integrals the spectrum can be trusted for: it spans the band, or the record rules out emission
-    outside the measured range (method §5)."""
+    """Which integrals the spectrum can be trusted for.
+
+    It spans the band, or the record rules out emission outside the measured range (method §5).
+    """
     lo, hi = range_nm
     return np.array([no_emission_outside or (lo <= s.band_nm[0] and hi >= s.band_nm[1])
                      for s in integral_specs(limit_set)])
@@ -136,7 +138,7 @@ def integrate_spectra(grids: list[np.ndarray], values: list[np.ndarray], no_emis
     """
     matrices: dict[bytes, np.ndarray] = {}
     out = _empty(len(grids), limit_set)
-    for i, (grid, value) in enumerate(zip(grids, values)):
+    for i, (grid, value) in enumerate(zip(grids, values, strict=True)):
         key = np.ascontiguousarray(grid).tobytes()
         if key not in matrices:
             matrices[key] = integral_matrix(grid, limit_set)

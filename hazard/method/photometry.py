@@ -17,7 +17,7 @@ import numpy as np
 from hazard.method.weighting import quadrature_matrix
 from hazard.weighting_tables import WeightingTable
 
-__all__ = ["import_colour", "K_M_LM_PER_W", "VISIBLE_BAND_NM", "CCT_DUV_LIMIT", "cmf_quadrature", "cct_from_xyz"]
+__all__ = ["CCT_DUV_LIMIT", "K_M_LM_PER_W", "VISIBLE_BAND_NM", "cct_from_xyz", "cmf_quadrature", "import_colour"]
 
 K_M_LM_PER_W = 683.0
 """Maximum luminous efficacy for photopic vision (CIE S 010:2004) [lm W⁻¹]."""

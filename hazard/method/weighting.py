@@ -23,20 +23,24 @@ from typing import Protocol
 
 import numpy as np
 
-__all__ = ["Weighting", "quadrature_weights", "quadrature_matrix", "coarse_steps_in"]
+__all__ = ["Weighting", "coarse_steps_in", "quadrature_matrix", "quadrature_weights"]
 
 _SERIES_BELOW = 1e-3  # |u| under which E0 and E1 come from their Taylor series (no cancellation)
 
 
 class Weighting(Protocol):
-    """A tabulated weighting function: points, values and an interpolation rule (``linear`` or
-    ``log-linear``), zero outside its range. :class:`hazard.weighting_tables.WeightingTable` is one."""
+    """A tabulated weighting function.
+
+    Points, values and an interpolation rule (``linear`` or ``log-linear``), zero outside its range.
+    :class:`hazard.weighting_tables.WeightingTable` is one.
+    """
 
     wavelength_nm: np.ndarray
     value: np.ndarray
     interpolation: str
 
-    def at(self, wavelength_nm: np.ndarray) -> np.ndarray: ...
+    def at(self, wavelength_nm: np.ndarray) -> np.ndarray:
+        """Weight at the given wavelengths [nm] by the interpolation rule, zero outside the range [1]."""
 
 
 def _interval_coefficients(h: np.ndarray, wa: np.ndarray, wb: np.ndarray, log_linear: bool

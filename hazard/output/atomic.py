@@ -15,7 +15,7 @@ from contextlib import contextmanager
 from pathlib import Path
 from typing import BinaryIO
 
-__all__ = ["write_atomic", "atomic_file", "remove_stale_temporaries"]
+__all__ = ["atomic_file", "remove_stale_temporaries", "write_atomic"]
 
 _SUFFIX = ".hazard.tmp"
 _TEMPORARY = re.compile(r"^\..*\.(\d+)-[a-z0-9_]+" + re.escape(_SUFFIX) + "$")
@@ -29,8 +29,10 @@ def _umask() -> int:
 
 @contextmanager
 def atomic_file(path: str | Path) -> Iterator[BinaryIO]:
-    """A binary file to write ``path`` through: on a normal exit it is flushed to disk and replaces ``path``
-    (by ``os.replace``); on an exception it is removed and ``path`` is untouched.
+    """A binary file to write ``path`` through.
+
+    On a normal exit it is flushed to disk and replaces ``path`` (by ``os.replace``); on an exception it is removed and
+    ``path`` is untouched.
 
     The file gets the permissions a plain ``open`` would give (0666 less the umask).
 
@@ -77,8 +79,9 @@ def _alive(pid: int) -> bool:
 
 
 def remove_stale_temporaries(folder: str | Path, name: str | None = None) -> int:
-    """Remove the temporary files a killed run left in ``folder`` (only for target ``name`` when given);
-    files of processes still running are kept.
+    """Remove the temporary files a killed run left in ``folder`` (only for target ``name`` when given).
+
+    Files of processes still running are kept.
 
     Returns
     -------

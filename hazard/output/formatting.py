@@ -4,8 +4,17 @@ from __future__ import annotations
 
 import math
 
-__all__ = ["format_limit", "format_value", "format_duration_s", "format_percent", "margin_to_next", "format_margin",
-           "group_words", "UNIT_DISPLAY", "NOT_DETERMINED"]
+__all__ = [
+    "NOT_DETERMINED",
+    "UNIT_DISPLAY",
+    "format_duration_s",
+    "format_limit",
+    "format_margin",
+    "format_percent",
+    "format_value",
+    "group_words",
+    "margin_to_next",
+]
 
 UNIT_DISPLAY = {"W/m2": "W/m²", "W/m2/sr": "W/(m²·sr)", "W/m2/nm": "W/(m²·nm)", "W/m2/sr/nm": "W/(m²·sr·nm)"}
 """How each SI unit code of the results is written for people (one spelling in every output)."""
@@ -50,8 +59,9 @@ def plain(value: float) -> str:
 
 
 def round_up(value: float, digits: int = 3) -> str:
-    """``value`` rounded up at ``digits`` significant digits: the safe way to print how far a limit is exceeded
-    or a distance to keep.
+    """``value`` rounded up at ``digits`` significant digits.
+
+    The safe way to print how far a limit is exceeded or a distance to keep.
 
     Examples
     --------
@@ -73,8 +83,9 @@ def round_down(value: float, digits: int = 3) -> str:
 
 
 def distance_beyond_mm(distance_mm: float) -> str:
-    """A distance beyond which something holds, rounded up: whole millimetres from 10 mm, else two significant
-    digits (a product is never said to be safe nearer than it is).
+    """A distance beyond which something holds, rounded up.
+
+    Whole millimetres from 10 mm, else two significant digits (a product is never said to be safe nearer than it is).
 
     Examples
     --------
@@ -85,8 +96,9 @@ def distance_beyond_mm(distance_mm: float) -> str:
 
 
 def dimming_percent(factor: float) -> str:
-    """A dimming factor as a percentage of today's output, rounded down at three significant digits (dimming to
-    the printed figure always reaches the group).
+    """A dimming factor as a percentage of today's output, rounded down at three significant digits.
+
+    Dimming to the printed figure always reaches the group.
 
     Examples
     --------
@@ -108,8 +120,9 @@ def format_limit(value: float | None) -> str:
 
 
 def format_duration_s(seconds: float | None) -> str:
-    """A duration in the largest sensible unit (µs, ms, s, min, h), rounded down at two significant digits
-    (a time to a limit is never printed longer than it is).
+    """A duration in the largest sensible unit (µs, ms, s, min, h).
+
+    Rounded down at two significant digits (a time to a limit is never printed longer than it is).
 
     Examples
     --------
@@ -188,8 +201,9 @@ def format_margin(risk_group: str | None, margins: dict[str, float]) -> str:
 
 def group_words(risk_group: str | None, complete: bool = True, basis: str = "standard",
                 distance_mm: float | None = None) -> str:
-    """The overall group as words for a heading: ``'RG2'``, ``'RG1 (lower bound)'``, ``'not determined'``,
-    ``'what-if at 500 mm: Exempt'``.
+    """The overall group as words for a heading.
+
+    ``'RG2'``, ``'RG1 (lower bound)'``, ``'not determined'``, ``'what-if at 500 mm: Exempt'``.
 
     Examples
     --------

@@ -15,15 +15,17 @@ from hazard.output.formatting import (
 )
 from hazard.result import Assessment
 
-__all__ = ["render_text", "overall_lines", "render_claims", "render_batch_table"]
+__all__ = ["overall_lines", "render_batch_table", "render_claims", "render_text"]
 
 def _columns(boundaries: list[str]) -> tuple[str, ...]:
     return ("Hazard", "Quantity", "Value", "Unit", "Compared", *boundaries, "t_max", "Group", "Margin")
 
 
 def _compared(h, boundaries: list[str]) -> str:
-    """The values compared with the Exempt / RG1 / RG2 limits: field-of-view averages for radiance; one value
-    when all three are the same."""
+    """The values compared with the Exempt / RG1 / RG2 limits.
+
+    Field-of-view averages for radiance; one value when all three are the same.
+    """
     if not h.compared:
         return "—"
     values = [h.compared[g] for g in boundaries]
@@ -45,7 +47,10 @@ def _rows(assessment: Assessment) -> list[tuple[str, ...]]:
 
 def _table(columns: tuple[str, ...], rows: list[tuple[str, ...]]) -> list[str]:
     widths = [max(len(r[i]) for r in [columns, *rows]) for i in range(len(columns))]
-    line = lambda r: "  ".join(c.ljust(w) for c, w in zip(r, widths)).rstrip()  # noqa: E731
+
+    def line(r: tuple[str, ...]) -> str:
+        return "  ".join(c.ljust(w) for c, w in zip(r, widths, strict=True)).rstrip()
+
     return [line(columns), line(tuple("-" * w for w in widths)), *(line(r) for r in rows)]
 
 
@@ -99,8 +104,10 @@ def render_text(assessment: Assessment) -> str:
 
 
 def overall_lines(a: Assessment) -> list[str]:
-    """The overall group in words, what it means and what decides it; a what-if names the standard's group
-    beside it; an undetermined group names the fix."""
+    """The overall group in words, what it means and what decides it.
+
+    A what-if names the standard's group beside it; an undetermined group names the fix.
+    """
     if a.risk_group is None:
         head = [f"Overall risk group: {NOT_DETERMINED.upper()} — no hazard with risk groups could be assessed "
                 f"(not assessed: {', '.join(a.not_assessed) or 'none'}); measure the missing wavelength range, or "
@@ -156,13 +163,18 @@ def render_claims(assessment: Assessment) -> list[str]:
     rows = [(c.claim, c.claimed, c.computed or "—", c.tolerance or "—", c.verdict.upper() if c.verdict ==
              "contradicted" else c.verdict, c.reason) for c in assessment.claims]
     widths = [max(len(r[i]) for r in [header, *rows]) for i in range(5)]
-    line = lambda r: "  ".join([*(c.ljust(w) for c, w in zip(r[:5], widths)), r[5]]).rstrip()  # noqa: E731
+
+    def line(r: tuple[str, ...]) -> str:
+        return "  ".join([*(c.ljust(w) for c, w in zip(r[:5], widths, strict=True)), r[5]]).rstrip()
+
     return ["Vendor claims:", line(header), *(line(r) for r in rows)]
 
 
 def render_batch_table(ids: list[str], assessments: dict[str, Assessment], errors: dict[str, str]) -> str:
-    """One line per product: id, overall group, completeness, the deciding hazards and margin, flags
-    (borderline within the stated uncertainty, contradicted vendor claims), or the error.
+    """One line per product: id, overall group, completeness, the deciding hazards and margin, flags.
+
+    The flags mark results borderline within the stated uncertainty and contradicted vendor claims; a product that
+    failed shows its error.
 
     Parameters
     ----------
@@ -199,6 +211,9 @@ def render_batch_table(ids: list[str], assessments: dict[str, Assessment], error
                      deciding, margin, "; ".join(flags)))
     header = ("Product", "Group", "Assessment", "Set by", "Margin", "Flags / error")
     widths = [max(len(r[i]) for r in [header, *rows]) for i in range(5)]
-    line = lambda r: "  ".join([*(c.ljust(w) for c, w in zip(r[:5], widths)), r[5]]).rstrip()  # noqa: E731
-    return "\n".join([line(header), line(tuple("-" * w for w in widths) + ("-" * 13,)),
+
+    def line(r: tuple[str, ...]) -> str:
+        return "  ".join([*(c.ljust(w) for c, w in zip(r[:5], widths, strict=True)), r[5]]).rstrip()
+
+    return "\n".join([line(header), line((*("-" * w for w in widths), "-" * 13)),
                       *(line(r) for r in rows)]) + "\n"

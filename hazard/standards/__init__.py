@@ -16,8 +16,21 @@ from hazard.standards.model import (
     Viewing,
 )
 
-__all__ = ["GROUPS", "BandShare", "CautionTrigger", "ExposureLimit", "FieldOfView", "Hazard", "LimitPiece", "LimitSet",
-           "Viewing", "IEC_62471_2006", "DEFAULT_LIMIT_SET", "LIMIT_SETS", "limit_set_named"]
+__all__ = [
+    "DEFAULT_LIMIT_SET",
+    "GROUPS",
+    "IEC_62471_2006",
+    "LIMIT_SETS",
+    "BandShare",
+    "CautionTrigger",
+    "ExposureLimit",
+    "FieldOfView",
+    "Hazard",
+    "LimitPiece",
+    "LimitSet",
+    "Viewing",
+    "limit_set_named",
+]
 
 DEFAULT_LIMIT_SET = IEC_62471_2006
 LIMIT_SETS = {s.name: s for s in (IEC_62471_2006,)}

@@ -1,5 +1,7 @@
-"""IEC 62471:2006 (identical to CIE S 009:2002): the continuous-wave exposure limits of clause 4.3 and the risk
-groups of Table 6.1, which follow the ICNIRP 1997 (visible/IR) and 2004 (UV) limits.
+"""IEC 62471:2006 (identical to CIE S 009:2002): continuous-wave exposure limits and risk groups.
+
+The exposure limits of clause 4.3 and the risk groups of Table 6.1, which follow the ICNIRP 1997 (visible/IR) and 2004
+(UV) limits.
 
 Numbers, symbols and formulas only; the wording is ours. This record is never edited to make another set: a
 later set (e.g. the ICNIRP 2013 visible/IR limits) is a record of its own.

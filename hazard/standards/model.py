@@ -13,8 +13,18 @@ from typing import Literal
 
 import numpy as np
 
-__all__ = ["GROUPS", "Applies", "FieldOfView", "Viewing", "LimitPiece", "ExposureLimit", "BandShare", "CautionTrigger",
-           "Hazard", "LimitSet"]
+__all__ = [
+    "GROUPS",
+    "Applies",
+    "BandShare",
+    "CautionTrigger",
+    "ExposureLimit",
+    "FieldOfView",
+    "Hazard",
+    "LimitPiece",
+    "LimitSet",
+    "Viewing",
+]
 
 GROUPS = ("Exempt", "RG1", "RG2", "RG3")
 """Risk groups in rising order, the same in every limit set of the IEC 62471 family."""
@@ -24,8 +34,9 @@ Applies = Literal["always", "large_source", "small_source", "visual_stimulus", "
 
 @dataclass(frozen=True, kw_only=True)
 class FieldOfView:
-    """Averaging field of view γ (full cone angle) for an exposure duration: fixed, or ``growth·√t`` bounded to
-    ``cap_rad``.
+    """Averaging field of view γ (full cone angle) for an exposure duration.
+
+    Fixed, or ``growth·√t`` bounded to ``cap_rad``.
 
     Attributes
     ----------
@@ -56,8 +67,9 @@ class FieldOfView:
 
 @dataclass(frozen=True, kw_only=True)
 class Viewing:
-    """How a radiance hazard is viewed for exposures up to ``up_to_s``: the averaging field of view and the
-    bounds on α in limits written as c/α.
+    """How a radiance hazard is viewed for exposures up to ``up_to_s``.
+
+    The averaging field of view and the bounds on α in limits written as c/α.
 
     Attributes
     ----------
@@ -75,8 +87,9 @@ class Viewing:
 
 @dataclass(frozen=True, kw_only=True)
 class LimitPiece:
-    """One piece of an exposure limit: value ≤ coefficient·t^exponent for ``after_s`` < t ≤ ``up_to_s`` (a dose
-    limit D is ``coefficient = D, exponent = −1``), divided by the bounded α when ``over_alpha``.
+    """One piece of an exposure limit: value ≤ coefficient·t^exponent for ``after_s`` < t ≤ ``up_to_s``.
+
+    A dose limit D is ``coefficient = D, exponent = −1``; the limit is divided by the bounded α when ``over_alpha``.
 
     Attributes
     ----------
@@ -122,8 +135,10 @@ class ExposureLimit:
 
 @dataclass(frozen=True, kw_only=True)
 class BandShare:
-    """How a hazard's value is split for the reader: the share of a sub-band (e.g. UV-C within the actinic
-    band, for a caution) or contributions by bands of a fixed width (to say what to filter).
+    """How a hazard's value is split for the reader.
+
+    The share of a sub-band (e.g. UV-C within the actinic band, for a caution) or contributions by bands of a fixed
+    width (to say what to filter).
 
     Attributes
     ----------

@@ -15,7 +15,7 @@ from hazard.method.search import log_search
 from hazard.result import BoundaryDistance, DistanceStudy
 from hazard.standards import LimitSet
 
-__all__ = ["distance_study", "SEARCH_RANGE_M", "CURVE_POINTS"]
+__all__ = ["CURVE_POINTS", "SEARCH_RANGE_M", "distance_study"]
 
 SEARCH_RANGE_M = (0.01, 100.0)
 """Distances searched, 10 mm to 100 m [m]."""
@@ -24,10 +24,12 @@ CURVE_POINTS = 121
 
 def _crossings(arrays: ProductArrays, limit_set: LimitSet, grid: np.ndarray, groups: dict[str, np.ndarray]
                ) -> dict[tuple[str, int], tuple[float | None, str]]:
-    """Distance beyond which each family stays in group ``k`` or lower, for k = Exempt, RG1, RG2 [m]: bracketed
-    on the grid, then all brackets narrowed together by :func:`hazard.method.search.log_search`. The
-    group is the top-down one (:mod:`hazard.method.classify`), so a boundary distance is where the product's group
-    really changes, whichever boundary's field of view decides it."""
+    """Distance beyond which each family stays in group ``k`` or lower, for k = Exempt, RG1, RG2 [m].
+
+    Bracketed on the grid, then all brackets narrowed together by :func:`hazard.method.search.log_search`. The group is
+    the top-down one (:mod:`hazard.method.classify`), so a boundary distance is where the product's group really
+    changes, whichever boundary's field of view decides it.
+    """
     families = dict(limit_set.families)
     result, open_jobs = {}, []
     for name, g in groups.items():

@@ -1,12 +1,16 @@
-"""What it would take: the dimming factor (or neutral filter transmission) and, for radiance hazards, the
-larger emitting area that bring each hazard family and the product into each lower group; and which 5 nm
-bands dominate the UV quantities, so the engineer knows what to filter.
+"""What it would take: dimming, a larger emitting area, and what to filter.
+
+The dimming factor (or neutral filter transmission) and, for radiance hazards, the larger emitting area that bring each
+hazard family and the product into each lower group; and which 5 nm bands dominate the UV quantities, so the engineer
+knows what to filter.
 
 Dimming and enlarging are found by :func:`hazard.method.search.log_search` on full re-assessments (a GLS lamp's 500 lx
 distance moves with its output, so dimming is not simply 1/margin), to a relative precision of 1e-12.
 """
 
 from __future__ import annotations
+
+from itertools import pairwise
 
 import numpy as np
 
@@ -37,8 +41,10 @@ def _radiance_families(limit_set: LimitSet) -> set[str]:
 
 
 def _reaches(arrays, limit_set, jobs: list[tuple[str, int]], variant: str):
-    """A test for :func:`hazard.method.search.log_search`: at factor x, is each job's target in its group or lower?
-    ``variant`` is ``raw_scale`` (dimming) or ``size_scale`` (a diffuser)."""
+    """A :func:`hazard.method.search.log_search` test: whether each job's target is in its group or lower at factor x.
+
+    ``variant`` is ``raw_scale`` (dimming) or ``size_scale`` (a diffuser).
+    """
     def test(x: np.ndarray, index: np.ndarray) -> np.ndarray:
         ev = evaluate_rows(arrays, x.size, limit_set, **{variant: x.ravel()})
         targets = np.repeat(np.asarray(index), x.shape[1])
@@ -52,9 +58,11 @@ def _reaches(arrays, limit_set, jobs: list[tuple[str, int]], variant: str):
 
 
 def _largest_dimming(arrays, limit_set, jobs: list[tuple[str, int]]) -> list[float | None]:
-    """For each (target, group index): the largest factor f ≤ 1 with the target's group ≤ that index, to a
-    relative 1e-12; None where even f = 1e-30 does not reach it. Dimming never raises a group, so the test is
-    monotonic (searched in 1/f, which grows towards the answer)."""
+    """For each (target, group index): the largest factor f ≤ 1 with the target's group ≤ that index.
+
+    To a relative 1e-12; None where even f = 1e-30 does not reach it. Dimming never raises a group, so the test is
+    monotonic (searched in 1/f, which grows towards the answer).
+    """
     reaches = _reaches(arrays, limit_set, jobs, "raw_scale")
     ok_at_least = reaches(np.full((len(jobs), 1), _LEAST_DIMMING), np.arange(len(jobs)))[:, 0]
     _, inverse = log_search(lambda y, index: reaches(1 / y, index), np.ones(len(jobs)),
@@ -63,8 +71,10 @@ def _largest_dimming(arrays, limit_set, jobs: list[tuple[str, int]]) -> list[flo
 
 
 def _smallest_area(arrays, limit_set, jobs: list[tuple[str, int]]) -> list[float | None]:
-    """For each (radiance family, group index): the least area factor s² ≥ 1 reaching that group; None beyond
-    :data:`_MAX_AREA_FACTOR`."""
+    """For each (radiance family, group index): the least area factor s² ≥ 1 reaching that group.
+
+    None beyond :data:`_MAX_AREA_FACTOR`.
+    """
     reaches = _reaches(arrays, limit_set, jobs, "size_scale")
     largest = np.sqrt(_MAX_AREA_FACTOR)
     ok_at_largest = reaches(np.full((len(jobs), 1), largest), np.arange(len(jobs)))[:, 0]
@@ -74,15 +84,17 @@ def _smallest_area(arrays, limit_set, jobs: list[tuple[str, int]]) -> list[float
 
 def _band_shares(spectrum: Spectrum, to_assessment: float, limit_set: LimitSet, assessed: set[str]
                  ) -> dict[str, list[BandContribution]]:
-    """Each assessed hazard's value by bands of a fixed width (its stepped :class:`~hazard.standards.BandShare`),
-    largest first, bands of at least 0.1 % of the total."""
+    """Each assessed hazard's value by bands of a fixed width (its stepped :class:`~hazard.standards.BandShare`).
+
+    Largest first, bands of at least 0.1 % of the total.
+    """
     out = {}
     for hazard in limit_set.hazards:
         for share in hazard.shares:
             if share.step_nm is None or hazard.symbol not in assessed:
                 continue
             edges = np.arange(share.band_nm[0], share.band_nm[1] + share.step_nm / 2, share.step_nm)
-            bands = [(float(a), float(b)) for a, b in zip(edges[:-1], edges[1:])]
+            bands = [(float(a), float(b)) for a, b in pairwise(edges)]
             weight = None if hazard.table is None else load_table(hazard.table)
             values = spectrum.value @ quadrature_matrix(spectrum.wavelength_nm, [(band, weight) for band in bands])
             values = values * to_assessment
@@ -133,10 +145,10 @@ def remedies_study(arrays: ProductArrays, spectrum: Spectrum, to_assessment: flo
     dimming = _largest_dimming(arrays, limit_set, jobs) if jobs else []
     radiance = _radiance_families(limit_set)
     area_jobs = [(t, g) for t, g in jobs if t in radiance]
-    areas = dict(zip(area_jobs, _smallest_area(arrays, limit_set, area_jobs))) if area_jobs else {}
+    areas = dict(zip(area_jobs, _smallest_area(arrays, limit_set, area_jobs), strict=True)) if area_jobs else {}
     remedies = [Remedy(target=t, group=limit_set.groups[g], dimming_factor=f, area_factor=areas.get((t, g)),
                        note=_why_none(t, f, areas.get((t, g)), radiance))
-                for (t, g), f in zip(jobs, dimming)]
+                for (t, g), f in zip(jobs, dimming, strict=True)]
     return Remedies(remedies=remedies, uv_bands=_band_shares(spectrum, to_assessment, limit_set, assessed),
                     note="Dimming factors are the largest emission multipliers (or neutral filter transmissions) "
                          "that reach the group; area factors enlarge the emitting area at the same power (a "

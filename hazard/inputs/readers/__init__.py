@@ -14,7 +14,7 @@ from hazard.inputs.readers.delimited import read_delimited
 from hazard.inputs.readers.jsonfile import read_json
 from hazard.inputs.readers.xlsx import read_xlsx
 
-__all__ = ["read_spectrum", "RawSpectrum", "Limits", "current_limits"]
+__all__ = ["Limits", "RawSpectrum", "current_limits", "read_spectrum"]
 
 _BY_SUFFIX = {".xlsx": read_xlsx, ".json": read_json}
 

@@ -12,7 +12,7 @@ import numpy as np
 from hazard.errors import InputError, excerpt
 from hazard.inputs.userfiles import DEFAULT_MAX_BYTES, read_user_file
 
-__all__ = ["RawSpectrum", "Limits", "current_limits", "read_bytes", "decode_text", "to_nm", "MAX_FILE_MB_VARIABLE"]
+__all__ = ["MAX_FILE_MB_VARIABLE", "Limits", "RawSpectrum", "current_limits", "decode_text", "read_bytes", "to_nm"]
 
 MAX_FILE_MB_VARIABLE = "HAZARD_MAX_FILE_MB"
 """Environment variable that sets the size limit of a spectrum file [MB]."""
@@ -127,7 +127,9 @@ def decode_text(raw: bytes, display_path: str) -> str:
 
 
 def to_nm(wavelength: np.ndarray, scale: float) -> np.ndarray:
-    """Wavelengths times the header's unit factor [nm]; one beyond the float range becomes infinity, which
-    validation refuses with its line (no warning on the way)."""
+    """Wavelengths times the header's unit factor [nm].
+
+    One beyond the float range becomes infinity, which validation refuses with its line (no warning on the way).
+    """
     with np.errstate(over="ignore"):
         return wavelength * scale

@@ -64,7 +64,7 @@ def _careful(rows: list[str], numbers: np.ndarray, delimiter: str | None, decima
              path: str, limits: Limits) -> np.ndarray:
     """Parse row by row, raising for the first bad line; the table (n, width)."""
     table = []
-    for number, line in zip(numbers.tolist(), rows):
+    for number, line in zip(numbers.tolist(), rows, strict=True):
         cells = _cells(line.strip(), delimiter, decimal_comma)
         if len(cells) != width:
             raise InputError(f"{len(cells)} cells where the table has {width}", "give every row the same columns",
@@ -109,7 +109,7 @@ def _data_rows(body: str, first_line: int) -> tuple[list[str], np.ndarray]:
 
 
 def _fast(rows: list[str], delimiter: str | None, decimal_comma: bool, width: int) -> np.ndarray | None:
-    """numpy's C parser over rows; None when it fails (the careful pass then names the bad line)."""
+    """The rows through numpy's C parser; None when it fails (the careful pass then names the bad line)."""
     body = "\n".join(rows)
     if decimal_comma:
         body = body.replace(",", ".")
@@ -123,8 +123,11 @@ def _fast(rows: list[str], delimiter: str | None, decimal_comma: bool, width: in
 
 def _parse(rows: list[str], numbers: np.ndarray, delimiter: str | None, decimal_comma: bool, width: int, path: str,
            limits: Limits) -> np.ndarray:
-    """The table of ``rows``: numpy's C parser a chunk at a time, the careful pass only on a chunk it refuses,
-    so that naming a bad last line costs no more than reading the file."""
+    """The table of ``rows``, a chunk at a time.
+
+    numpy's C parser reads each chunk, the careful pass only a chunk it refuses, so that naming a bad last line costs no
+    more than reading the file.
+    """
     tables = [np.empty((0, width))]
     for k in range(0, len(rows), PARSE_CHUNK_ROWS):
         chunk = rows[k:k + PARSE_CHUNK_ROWS]

@@ -1,5 +1,7 @@
-"""The one place that maps header names: which column is the wavelength, which unit a header cell states,
-and which value column a record's ``column`` names."""
+"""The one place that maps header names.
+
+Which column is the wavelength, which unit a header cell states, and which value column a record's ``column`` names.
+"""
 
 from __future__ import annotations
 
@@ -9,16 +11,17 @@ from dataclasses import dataclass
 from hazard.errors import InputError
 from hazard.inputs.units import parse_spectral_unit
 
-__all__ = ["HeaderStatement", "header_statement", "wavelength_scale", "choose_value_column", "WAVELENGTH_NAMES"]
+__all__ = ["WAVELENGTH_NAMES", "HeaderStatement", "choose_value_column", "header_statement", "wavelength_scale"]
 
 WAVELENGTH_NAMES = ("wavelength", "wavelength_nm", "wl", "lambda", "λ", "nm", "wave")
 _OPEN, _CLOSE = "[(", "])"
 
 
 def _bracketed(cell: str) -> tuple[int, str] | None:
-    """Where a cell's final bracketed part starts, and its text: ``[unit]`` or ``(unit)`` at the end of the
-    cell, which may hold parenthesised groups one level deep (``(µW/(cm²·nm))``). One backward pass, so any
-    cell costs linear time.
+    """Where a cell's final bracketed part starts, and its text.
+
+    ``[unit]`` or ``(unit)`` at the end of the cell, which may hold parenthesised groups one level deep
+    (``(µW/(cm²·nm))``). One backward pass, so any cell costs linear time.
 
     Examples
     --------
@@ -81,8 +84,9 @@ class HeaderStatement:
 
 
 def header_statement(cell: str) -> HeaderStatement:
-    """Read what a header cell states: a spectral unit, nothing (a plain name), or something the values cannot
-    be trusted as (units are never guessed).
+    """Read what a header cell states.
+
+    A spectral unit, nothing (a plain name), or something the values cannot be trusted as (units are never guessed).
 
     Examples
     --------

@@ -1,5 +1,7 @@
-"""Spectra as JSON: ``{"wavelength_nm": [...], "value": [...], "unit": "..."}``, ``[[w, v], ...]`` or
-``[{"wavelength_nm": w, "value": v}, ...]``.
+"""Spectra as JSON, in one of three shapes.
+
+``{"wavelength_nm": [...], "value": [...], "unit": "..."}``, ``[[w, v], ...]`` or ``[{"wavelength_nm": w, "value": v},
+...]``.
 
 The size limit applies before decoding; integers are read as floats (so a 5000-digit integer is an
 overflow the validation names, not a decoder failure); nesting too deep for the decoder is refused.
@@ -81,8 +83,10 @@ def _columns(data, column: str | int | None, path: str) -> tuple[list, list, dic
 
 
 def _entry_statements(entries: list[dict], value_key: str, path: str) -> dict:
-    """Text every entry of a list of objects states besides its numbers (e.g. a ``unit`` per entry): one value
-    per key, or an error when entries disagree."""
+    """Text every entry of a list of objects states besides its numbers (e.g. a ``unit`` per entry).
+
+    One value per key, or an error when entries disagree.
+    """
     found: dict[str, set] = {}
     for entry in entries:
         for k, v in entry.items():
@@ -98,8 +102,10 @@ def _entry_statements(entries: list[dict], value_key: str, path: str) -> dict:
 
 def read_json(path: str, *, display_path: str, column: str | int | None = None,
               limits: Limits | None = None) -> tuple[RawSpectrum, dict]:
-    """Read a JSON spectrum; see :func:`hazard.inputs.readers.delimited.read_delimited`. Entry numbers stand in
-    for line numbers in messages."""
+    """Read a JSON spectrum; see :func:`hazard.inputs.readers.delimited.read_delimited`.
+
+    Entry numbers stand in for line numbers in messages.
+    """
     limits = limits or current_limits()
     raw, digest = read_bytes(path, display_path, limits)
     text = decode_text(raw, display_path)
@@ -116,7 +122,7 @@ def read_json(path: str, *, display_path: str, column: str | int | None = None,
         raise InputError(f"{len(wavelength):,} entries, above the {limits.max_rows:,} limit", "resample the "
                          "spectrum", display_path)
     numbers = np.arange(1, len(wavelength) + 1)
-    for i, (w, v) in enumerate(zip(wavelength, value)):
+    for i, (w, v) in enumerate(zip(wavelength, value, strict=True)):
         for item in (w, v):
             if isinstance(item, bool) or not isinstance(item, (int, float)):
                 raise InputError(f"entry {i + 1}: {_describe(item)} is not a number",

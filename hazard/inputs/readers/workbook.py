@@ -19,8 +19,11 @@ __all__ = ["workbook_rows"]
 
 
 def _check_parts(raw: bytes, display: str, max_unpacked_bytes: int) -> None:
-    """Refuse a file that is not a zip, or whose parts unpack beyond the limit (sizes from its directory;
-    Python's zip reader stops at the stated size, so a false statement cannot unpack more)."""
+    """Refuse a file that is not a zip, or whose parts unpack beyond the limit.
+
+    Sizes come from its directory; Python's zip reader stops at the stated size, so a false statement cannot unpack
+    more.
+    """
     try:
         with zipfile.ZipFile(io.BytesIO(raw)) as archive:
             total = sum(part.file_size for part in archive.infolist())
@@ -68,7 +71,7 @@ def _rows(raw: bytes, display: str, max_rows: int, max_columns: int, what: str) 
 
     try:
         book = openpyxl.load_workbook(io.BytesIO(raw), read_only=True, data_only=True)
-    except Exception as exc:  # noqa: BLE001 - a damaged workbook raises many kinds of error
+    except Exception as exc:  # a damaged workbook raises many kinds of error
         raise InputError(f"cannot read the workbook ({type(exc).__name__})", "save it again as .xlsx, or export "
                          "CSV", display) from None
     number, rows = 0, []
@@ -91,7 +94,7 @@ def _rows(raw: bytes, display: str, max_rows: int, max_columns: int, what: str) 
                 rows.append((number, cells))
     except InputError:
         raise
-    except Exception as exc:  # noqa: BLE001 - damaged XML surfaces lazily, as any of many errors
+    except Exception as exc:  # damaged XML surfaces lazily, as any of many errors
         raise InputError(f"cannot read the workbook: damaged content after row {number} ({type(exc).__name__})",
                          "save it again as .xlsx, or export CSV", display) from None
     finally:

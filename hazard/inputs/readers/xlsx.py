@@ -1,6 +1,8 @@
-"""Spectra in an .xlsx workbook: the first sheet, same layout rules as text: metadata rows, an optional
-header row, then numeric rows. The sheet is streamed (:mod:`hazard.inputs.readers.workbook`) with the limits applied
-as it is read."""
+"""Spectra in an .xlsx workbook.
+
+The first sheet, same layout rules as text: metadata rows, an optional header row, then numeric rows. The sheet is
+streamed (:mod:`hazard.inputs.readers.workbook`) with the limits applied as it is read.
+"""
 
 from __future__ import annotations
 
