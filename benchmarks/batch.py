@@ -43,11 +43,24 @@ def _records(n: int, seed: int = 11, shared: bool = False):
     rng = np.random.default_rng(seed)
     ids = [f"P{i:06d}" for i in range(n)]
     if shared:
-        return pd.DataFrame({"id": ids, "distance_mm": 200.0, "source_diameter_mm": 5.0,
-                             "no_emission_outside": True, "lamp_type": "other"})
-    return pd.DataFrame({"id": ids, "distance_mm": rng.uniform(100, 1000, n).round(1),
-                         "source_diameter_mm": rng.uniform(0.5, 60, n).round(2), "no_emission_outside": True,
-                         "lamp_type": np.where(rng.random(n) < 0.2, "gls", "other")})
+        return pd.DataFrame(
+            {
+                "id": ids,
+                "distance_mm": 200.0,
+                "source_diameter_mm": 5.0,
+                "no_emission_outside": True,
+                "lamp_type": "other",
+            }
+        )
+    return pd.DataFrame(
+        {
+            "id": ids,
+            "distance_mm": rng.uniform(100, 1000, n).round(1),
+            "source_diameter_mm": rng.uniform(0.5, 60, n).round(2),
+            "no_emission_outside": True,
+            "lamp_type": np.where(rng.random(n) < 0.2, "gls", "other"),
+        }
+    )
 
 
 def _peak_rss_mib() -> float:
@@ -79,8 +92,15 @@ def part_memory(n: int) -> dict:
         if not (frame["status"] == "ok").all():
             raise RuntimeError(frame.loc[frame["status"] != "ok", "error"].iloc[0])
         timings[label] = min(runs)
-    return {"n": n, "floor_s": min(floor), "shared_s": timings["shared"], "own_s": timings["own"],
-            "input_mib": spectra.nbytes / 2**20, "rss_before_mib": before, "peak_rss_mib": _peak_rss_mib()}
+    return {
+        "n": n,
+        "floor_s": min(floor),
+        "shared_s": timings["shared"],
+        "own_s": timings["own"],
+        "input_mib": spectra.nbytes / 2**20,
+        "rss_before_mib": before,
+        "peak_rss_mib": _peak_rss_mib(),
+    }
 
 
 def _write_corpus(folder: Path, m: int) -> Path:
@@ -110,12 +130,11 @@ def part_end_to_end(m: int, pdf_count: int) -> dict:
         plain = _run_cli("batch", str(manifest), "--output", str(folder / "out"))
         parallel = _run_cli("batch", str(manifest), "--output", str(folder / "out2"), "--jobs", "2")
         small = folder / "small.csv"
-        small.write_text("\n".join(manifest.read_text().splitlines()[:pdf_count + 1]) + "\n")
+        small.write_text("\n".join(manifest.read_text().splitlines()[: pdf_count + 1]) + "\n")
         no_pdf = _run_cli("batch", str(small), "--output", str(folder / "small0"))
         with_pdf = _run_cli("batch", str(small), "--output", str(folder / "small1"), "--pdf", "--jobs", "2")
         pdfs = len(list((folder / "small1").glob("P*.pdf")))
-    return {"m": m, "batch_s": plain, "batch_jobs2_s": parallel, "pdf_count": pdfs,
-            "pdf_phase_s": with_pdf - no_pdf}
+    return {"m": m, "batch_s": plain, "batch_jobs2_s": parallel, "pdf_count": pdfs, "pdf_phase_s": with_pdf - no_pdf}
 
 
 def main() -> None:
@@ -133,9 +152,25 @@ def main() -> None:
         return
 
     def run(part):
-        return json.loads(subprocess.run(
-            [sys.executable, __file__, "--part", part, "--spectra", str(args.spectra), "--files", str(args.files),
-             "--pdfs", str(args.pdfs)], check=True, capture_output=True, text=True).stdout)
+        return json.loads(
+            subprocess.run(
+                [
+                    sys.executable,
+                    __file__,
+                    "--part",
+                    part,
+                    "--spectra",
+                    str(args.spectra),
+                    "--files",
+                    str(args.files),
+                    "--pdfs",
+                    str(args.pdfs),
+                ],
+                check=True,
+                capture_output=True,
+                text=True,
+            ).stdout
+        )
 
     mem, e2e = run("memory"), run("files")
     ratio = mem["shared_s"] / mem["floor_s"]
@@ -145,19 +180,37 @@ def main() -> None:
     pdf_rate = e2e["pdf_count"] / e2e["pdf_phase_s"] if e2e["pdf_phase_s"] > 0 else float("nan")
     rows = [
         ("1. floor: spectra @ weights (float32)", f"{mem['floor_s']:.3f} s", f"{mem['n']} spectra", ""),
-        ("1. assess_many, one set-up for all", f"{mem['shared_s']:.3f} s", f"{ratio:.2f}× floor",
-         "target ≤ 3×: " + ("met" if ratio <= 3 else "missed")),
-        ("1. assess_many, own geometry each", f"{mem['own_s']:.3f} s", f"{ratio_own:.2f}× floor",
-         "each record validated"),
-        ("1. peak memory (whole process)", f"{mem['peak_rss_mib']:.0f} MiB",
-         f"input {mem['input_mib']:.0f} MiB", "target < 2048 MiB: " + ("met" if mem["peak_rss_mib"] < 2048
-                                                                         else "missed")),
-        ("2. hazard batch, CSV files, no PDF", f"{e2e['batch_s']:.2f} s", f"{rate:.0f} products/s",
-         "one process"),
-        ("2. hazard batch --jobs 2", f"{e2e['batch_jobs2_s']:.2f} s", f"{rate2:.0f} products/s",
-         "target ≥ 300/s: " + ("met" if rate2 >= 300 else "missed")),
-        ("3. PDF reports, --jobs 2", f"{e2e['pdf_phase_s']:.2f} s", f"{pdf_rate:.1f} reports/s",
-         "target ≥ 20/s: " + ("met" if pdf_rate >= 20 else "missed")),
+        (
+            "1. assess_many, one set-up for all",
+            f"{mem['shared_s']:.3f} s",
+            f"{ratio:.2f}× floor",
+            "target ≤ 3×: " + ("met" if ratio <= 3 else "missed"),
+        ),
+        (
+            "1. assess_many, own geometry each",
+            f"{mem['own_s']:.3f} s",
+            f"{ratio_own:.2f}× floor",
+            "each record validated",
+        ),
+        (
+            "1. peak memory (whole process)",
+            f"{mem['peak_rss_mib']:.0f} MiB",
+            f"input {mem['input_mib']:.0f} MiB",
+            "target < 2048 MiB: " + ("met" if mem["peak_rss_mib"] < 2048 else "missed"),
+        ),
+        ("2. hazard batch, CSV files, no PDF", f"{e2e['batch_s']:.2f} s", f"{rate:.0f} products/s", "one process"),
+        (
+            "2. hazard batch --jobs 2",
+            f"{e2e['batch_jobs2_s']:.2f} s",
+            f"{rate2:.0f} products/s",
+            "target ≥ 300/s: " + ("met" if rate2 >= 300 else "missed"),
+        ),
+        (
+            "3. PDF reports, --jobs 2",
+            f"{e2e['pdf_phase_s']:.2f} s",
+            f"{pdf_rate:.1f} reports/s",
+            "target ≥ 20/s: " + ("met" if pdf_rate >= 20 else "missed"),
+        ),
     ]
     widths = [max(len(r[i]) for r in rows) for i in range(4)]
     for row in rows:

@@ -42,8 +42,12 @@ from mutations import exercise, mutate, mutate_workbook  # noqa: E402 - importab
 DATA = REPO / "tests" / "data"
 LINEUP = REPO / "examples" / "lineup"
 SEEDS = {
-    "csv": [DATA / "comma.csv", DATA / "semicolon_decimal_comma.csv", DATA / "several_columns.csv",
-            DATA / "micrometre_header_descending.csv"],
+    "csv": [
+        DATA / "comma.csv",
+        DATA / "semicolon_decimal_comma.csv",
+        DATA / "several_columns.csv",
+        DATA / "micrometre_header_descending.csv",
+    ],
     "tsv": [DATA / "tab_latin1.tsv"],
     "txt": [DATA / "whitespace.txt", DATA / "reference.txt"],
     "json": [DATA / "pairs.json", DATA / "arrays.json"],
@@ -55,11 +59,12 @@ SEEDS = {
 STUDIES_SHARE = 0.2
 """Share of fuzz cases that also run hazard distances and remedies (where overflows once happened)."""
 KIND = {"record": "record", "manifest-csv": "manifest", "manifest-xlsx": "manifest"}
-MANIFEST_ROWS = [["id", "spectrum", "distance_mm", "source_diameter_mm", "lamp_type", "no_emission_outside",
-                  "column", "unit"],
-                 ["A", "cl-desk-30.csv", "500", "30", "gls", "true", "", "W/m2/nm"],
-                 ["B", "cl-spot-65.csv", "200", "5", "other", "false", "1", ""],
-                 ["C", "cl-cure-365.csv", "1000", "60", "other", "true", "", ""]]
+MANIFEST_ROWS = [
+    ["id", "spectrum", "distance_mm", "source_diameter_mm", "lamp_type", "no_emission_outside", "column", "unit"],
+    ["A", "cl-desk-30.csv", "500", "30", "gls", "true", "", "W/m2/nm"],
+    ["B", "cl-spot-65.csv", "200", "5", "other", "false", "1", ""],
+    ["C", "cl-cure-365.csv", "1000", "60", "other", "true", "", ""],
+]
 
 
 def _workspace(folder: Path) -> None:
@@ -112,8 +117,9 @@ def part_fuzz(per_reader: int, hang_s: float, seed: int) -> dict:
             started = time.perf_counter()
             while index < per_reader:
                 parent, child = multiprocessing.Pipe()
-                worker = multiprocessing.Process(target=_fuzz_worker, args=(child, str(root), target, index,
-                                                                            per_reader, seed))
+                worker = multiprocessing.Process(
+                    target=_fuzz_worker, args=(child, str(root), target, index, per_reader, seed)
+                )
                 worker.start()
                 current = None
                 while True:
@@ -145,8 +151,13 @@ def part_fuzz(per_reader: int, hang_s: float, seed: int) -> dict:
                         break
                 worker.kill()
                 worker.join()
-            report[target] = {**counts, "cases": sum(counts.values()), "slowest_s": slowest,
-                              "seconds": time.perf_counter() - started, "failures": failures[:5]}
+            report[target] = {
+                **counts,
+                "cases": sum(counts.values()),
+                "slowest_s": slowest,
+                "seconds": time.perf_counter() - started,
+                "failures": failures[:5],
+            }
     return report
 
 
@@ -154,9 +165,17 @@ def _hazard(*args: str, cwd: Path, timeout: float = 120, limit_bytes: int | None
     def cap():
         if limit_bytes is not None:
             resource.setrlimit(resource.RLIMIT_AS, (limit_bytes, limit_bytes))
+
     env = {**os.environ, "PYTHONPATH": str(REPO), "OPENBLAS_NUM_THREADS": "1"}
-    return subprocess.run([sys.executable, "-m", "hazard.cli", *args], cwd=cwd, capture_output=True, text=True,
-                          timeout=timeout, env=env, preexec_fn=cap)
+    return subprocess.run(
+        [sys.executable, "-m", "hazard.cli", *args],
+        cwd=cwd,
+        capture_output=True,
+        text=True,
+        timeout=timeout,
+        env=env,
+        preexec_fn=cap,
+    )
 
 
 def part_cli(runs: int, seed: int) -> dict:
@@ -176,8 +195,15 @@ def part_cli(runs: int, seed: int) -> dict:
             elif target == "record":
                 command = rng.choice([["assess", path.name], ["check", path.name]])
             else:
-                command = ["assess", path.name, "--distance-mm", "500", "--source-diameter-mm", "30",
-                           "--no-emission-outside"]
+                command = [
+                    "assess",
+                    path.name,
+                    "--distance-mm",
+                    "500",
+                    "--source-diameter-mm",
+                    "30",
+                    "--no-emission-outside",
+                ]
             try:
                 result = _hazard(*command, cwd=root, timeout=60)
             except subprocess.TimeoutExpired:
@@ -201,8 +227,10 @@ def _manifest(folder: Path, products: int) -> Path:
     with open(path, "w") as out:
         out.write("id,spectrum,distance_mm,source_diameter_mm,lamp_type,no_emission_outside\n")
         for i in range(products):
-            out.write(f"P{i:06d},{spectra[i % len(spectra)]},{300 + i % 97},{2 + i % 11},"
-                      f"{'gls' if i % 5 == 0 else 'other'},true\n")
+            out.write(
+                f"P{i:06d},{spectra[i % len(spectra)]},{300 + i % 97},{2 + i % 11},"
+                f"{'gls' if i % 5 == 0 else 'other'},true\n"
+            )
     return path
 
 
@@ -212,8 +240,14 @@ def _leftovers(folder: Path) -> list[str]:
 
 def _kill_at(args: list[str], cwd: Path, after_s: float) -> int:
     env = {**os.environ, "PYTHONPATH": str(REPO)}
-    process = subprocess.Popen([sys.executable, "-m", "hazard.cli", *args], cwd=cwd, env=env,
-                               stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL, start_new_session=True)
+    process = subprocess.Popen(
+        [sys.executable, "-m", "hazard.cli", *args],
+        cwd=cwd,
+        env=env,
+        stdout=subprocess.DEVNULL,
+        stderr=subprocess.DEVNULL,
+        start_new_session=True,
+    )
     try:
         process.wait(timeout=after_s)
     except subprocess.TimeoutExpired:
@@ -237,13 +271,19 @@ def part_kills(kills: int, products: int, seed: int) -> dict:
         for k in range(kills):
             out = f"cut{k}"
             jobs = rng.choice(["1", "2"])
-            code = _kill_at(["batch", manifest.name, "--output", out, "--jobs", jobs], root,  # one job: ~1.6× longer
-                            rng.uniform(0.3, duration * (0.95 if jobs == "2" else 1.5)))
+            code = _kill_at(
+                ["batch", manifest.name, "--output", out, "--jobs", jobs],
+                root,  # one job: ~1.6× longer
+                rng.uniform(0.3, duration * (0.95 if jobs == "2" else 1.5)),
+            )
             results["finished_before_kill"] += code == 0
-            resumed = _hazard("batch", manifest.name, "--output", out, "--resume", "--jobs", jobs, cwd=root,
-                              timeout=3600)
-            got = [(root / out / name).read_bytes() if (root / out / name).exists() else b""
-                   for name in ("results.jsonl", "summary.csv")]
+            resumed = _hazard(
+                "batch", manifest.name, "--output", out, "--resume", "--jobs", jobs, cwd=root, timeout=3600
+            )
+            got = [
+                (root / out / name).read_bytes() if (root / out / name).exists() else b""
+                for name in ("results.jsonl", "summary.csv")
+            ]
             results["identical" if resumed.returncode == 0 and got == expected else "different"] += 1
             results["leftovers"] += bool(_leftovers(root / out))
         results["full_disk"] = _full_disk(root, manifest, expected)
@@ -256,22 +296,30 @@ def _full_disk(root: Path, manifest: Path, expected: list[bytes]) -> str:
     mount = root / "small-disk"
     mount.mkdir()
     size = max(1, sum(len(e) for e in expected) // 2 // 2**20)
-    if subprocess.run(["mount", "-t", "tmpfs", "-o", f"size={size}m", "tmpfs", str(mount)],
-                      capture_output=True).returncode != 0:
+    if (
+        subprocess.run(
+            ["mount", "-t", "tmpfs", "-o", f"size={size}m", "tmpfs", str(mount)], capture_output=True
+        ).returncode
+        != 0
+    ):
         return "skipped (cannot mount a tmpfs here)"
     try:
         full = _hazard("batch", str(manifest), "--output", str(mount / "out"), cwd=root, timeout=3600)
         one_line = full.returncode == 2 and len(full.stderr.splitlines()) == 1 and "No space" in full.stderr
         subprocess.run(["mount", "-o", f"remount,size={size * 16}m", str(mount)], check=True)
         resumed = _hazard("batch", str(manifest), "--output", str(mount / "out"), "--resume", cwd=root, timeout=3600)
-        same = resumed.returncode == 0 and [(mount / "out" / n).read_bytes() for n in
-                                            ("results.jsonl", "summary.csv")] == expected
+        same = (
+            resumed.returncode == 0
+            and [(mount / "out" / n).read_bytes() for n in ("results.jsonl", "summary.csv")] == expected
+        )
         subprocess.run(["mount", "-o", "remount,ro", str(mount)], check=True)
         frozen = _hazard("batch", str(manifest), "--output", str(mount / "new"), cwd=root, timeout=600)
         read_only = frozen.returncode == 2 and len(frozen.stderr.splitlines()) == 1
-        return (f"{'one line, exit 2' if one_line else 'FAILED: ' + full.stderr[-200:]}; resumed "
-                f"{'identical' if same else 'DIFFERENT'}; leftovers {_leftovers(mount / 'out') or 'none'}; "
-                f"read-only file system: {'one line, exit 2' if read_only else 'FAILED: ' + frozen.stderr[-200:]}")
+        return (
+            f"{'one line, exit 2' if one_line else 'FAILED: ' + full.stderr[-200:]}; resumed "
+            f"{'identical' if same else 'DIFFERENT'}; leftovers {_leftovers(mount / 'out') or 'none'}; "
+            f"read-only file system: {'one line, exit 2' if read_only else 'FAILED: ' + frozen.stderr[-200:]}"
+        )
     finally:
         subprocess.run(["umount", str(mount)], capture_output=True)
 
@@ -284,21 +332,43 @@ def part_memory(products: int, cap_mib: int, seed: int) -> dict:
         manifest = _manifest(root, products)
         before = resource.getrusage(resource.RUSAGE_CHILDREN).ru_maxrss
         began = time.perf_counter()
-        whole = _hazard("batch", manifest.name, "--output", "whole", "--jobs", "2", cwd=root, timeout=7200,
-                        limit_bytes=limit)
+        whole = _hazard(
+            "batch", manifest.name, "--output", "whole", "--jobs", "2", cwd=root, timeout=7200, limit_bytes=limit
+        )
         seconds = time.perf_counter() - began
         peak = resource.getrusage(resource.RUSAGE_CHILDREN).ru_maxrss
         lines = sum(1 for _ in open(root / "whole" / "results.jsonl", "rb")) if whole.returncode == 0 else 0
         _kill_at(["batch", manifest.name, "--output", "half", "--jobs", "2"], root, seconds / 2)
         began = time.perf_counter()
-        resumed = _hazard("batch", manifest.name, "--output", "half", "--jobs", "2", "--resume", cwd=root,
-                          timeout=7200, limit_bytes=limit)
+        resumed = _hazard(
+            "batch",
+            manifest.name,
+            "--output",
+            "half",
+            "--jobs",
+            "2",
+            "--resume",
+            cwd=root,
+            timeout=7200,
+            limit_bytes=limit,
+        )
         resume_s = time.perf_counter() - began
-        same = resumed.returncode == 0 and all((root / "whole" / n).read_bytes() == (root / "half" / n).read_bytes()
-                                               for n in ("results.jsonl", "summary.csv"))
-    return {"products": products, "cap_mib": cap_mib, "exit": whole.returncode, "seconds": seconds,
-            "results": lines, "peak_rss_mib": max(peak, before) / 1024, "resume_exit": resumed.returncode,
-            "resume_s": resume_s, "resume_identical": same, "stderr": whole.stderr[-300:] + resumed.stderr[-300:]}
+        same = resumed.returncode == 0 and all(
+            (root / "whole" / n).read_bytes() == (root / "half" / n).read_bytes()
+            for n in ("results.jsonl", "summary.csv")
+        )
+    return {
+        "products": products,
+        "cap_mib": cap_mib,
+        "exit": whole.returncode,
+        "seconds": seconds,
+        "results": lines,
+        "peak_rss_mib": max(peak, before) / 1024,
+        "resume_exit": resumed.returncode,
+        "resume_s": resume_s,
+        "resume_identical": same,
+        "stderr": whole.stderr[-300:] + resumed.stderr[-300:],
+    }
 
 
 def main() -> None:
@@ -317,9 +387,11 @@ def main() -> None:
     if "fuzz" in parts:
         print("1. fuzz: cases per target; outcomes; slowest case")
         for target, r in part_fuzz(args.per_reader, args.hang_s, args.seed).items():
-            print(f"   {target:<14} {r['cases']:>6} cases  ok {r['ok']:>6}  input error {r['input error']:>6}  "
-                  f"crash {r['crash']}  not one line {r['not one line']}  warning {r['warning']}  hang {r['hang']}  "
-                  f"slowest {r['slowest_s']:.2f} s  ({r['seconds']:.0f} s)")
+            print(
+                f"   {target:<14} {r['cases']:>6} cases  ok {r['ok']:>6}  input error {r['input error']:>6}  "
+                f"crash {r['crash']}  not one line {r['not one line']}  warning {r['warning']}  hang {r['hang']}  "
+                f"slowest {r['slowest_s']:.2f} s  ({r['seconds']:.0f} s)"
+            )
             for failure in r["failures"]:
                 print(f"      {failure}")
     if "cli" in parts:
@@ -329,17 +401,21 @@ def main() -> None:
             print(f"      {failure}")
     if "kills" in parts:
         r = part_kills(args.kills, args.kill_products, args.seed)
-        print(f"3. kills: {r['kills']} killed runs of {args.kill_products} products, resumed: identical "
-              f"{r['identical']}, different {r['different']}, with leftovers {r['leftovers']} "
-              f"(finished before the kill: {r['finished_before_kill']})")
+        print(
+            f"3. kills: {r['kills']} killed runs of {args.kill_products} products, resumed: identical "
+            f"{r['identical']}, different {r['different']}, with leftovers {r['leftovers']} "
+            f"(finished before the kill: {r['finished_before_kill']})"
+        )
         print(f"   full disk: {r['full_disk']}")
     if "memory" in parts:
         r = part_memory(args.products, args.cap_mib, args.seed)
-        print(f"4. memory: {r['products']} products under a {r['cap_mib']} MiB address-space cap, --jobs 2: "
-              f"exit {r['exit']}, {r['results']} results in {r['seconds']:.0f} s "
-              f"({r['products'] / r['seconds']:.0f}/s), peak RSS of the largest process {r['peak_rss_mib']:.0f} MiB;"
-              f" killed half-way and resumed under the cap: exit {r['resume_exit']} in {r['resume_s']:.0f} s, "
-              f"outputs {'identical' if r['resume_identical'] else 'DIFFERENT'}")
+        print(
+            f"4. memory: {r['products']} products under a {r['cap_mib']} MiB address-space cap, --jobs 2: "
+            f"exit {r['exit']}, {r['results']} results in {r['seconds']:.0f} s "
+            f"({r['products'] / r['seconds']:.0f}/s), peak RSS of the largest process {r['peak_rss_mib']:.0f} MiB;"
+            f" killed half-way and resumed under the cap: exit {r['resume_exit']} in {r['resume_s']:.0f} s, "
+            f"outputs {'identical' if r['resume_identical'] else 'DIFFERENT'}"
+        )
         if r["exit"] or r["resume_exit"]:
             print(f"      {r['stderr']}")
 

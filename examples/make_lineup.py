@@ -74,6 +74,7 @@ class Product:
 
 # --- building blocks -------------------------------------------------------------------------------------
 
+
 def grid(start_nm: float, stop_nm: float, step_nm: float) -> np.ndarray:
     """Evenly spaced wavelengths from ``start_nm`` to ``stop_nm`` inclusive [nm]."""
     count = round((stop_nm - start_nm) / step_nm) + 1
@@ -105,15 +106,17 @@ def planck_radiance(wl_nm: np.ndarray, temperature_k: float) -> np.ndarray:
     return per_metre * 1e-9
 
 
-def photon_irradiance_umol(wl_nm: np.ndarray, irradiance: np.ndarray, lo_nm: float = 400.0,
-                           hi_nm: float = 700.0) -> float:
+def photon_irradiance_umol(
+    wl_nm: np.ndarray, irradiance: np.ndarray, lo_nm: float = 400.0, hi_nm: float = 700.0
+) -> float:
     """Photon irradiance over [lo_nm, hi_nm] [µmol m⁻² s⁻¹]; over 400-700 nm this is the PPFD."""
     photons_per_joule = wl_nm * 1e-9 / (PLANCK_J_S * LIGHT_SPEED_M_S)
     return band_integral(wl_nm, irradiance * photons_per_joule, lo_nm, hi_nm) / AVOGADRO_PER_MOL * 1e6
 
 
-def white_led_shape(wl_nm: np.ndarray, pump_share: float, green_share: float, red_share: float,
-                    green_nm: float) -> np.ndarray:
+def white_led_shape(
+    wl_nm: np.ndarray, pump_share: float, green_share: float, red_share: float, green_nm: float
+) -> np.ndarray:
     """Relative phosphor-converted white LED spectrum of unit area [nm⁻¹].
 
     Blue InGaN pump: Gaussian at 450 nm, FWHM 20 nm. Garnet phosphor: Gaussian at green_nm [nm], FWHM
@@ -122,11 +125,15 @@ def white_led_shape(wl_nm: np.ndarray, pump_share: float, green_share: float, re
     """
     if not math.isclose(pump_share + green_share + red_share, 1.0):
         raise ValueError("the power shares must add to 1")
-    return (pump_share * gaussian(wl_nm, 450.0, 20.0) + green_share * gaussian(wl_nm, green_nm, 110.0)
-            + red_share * gaussian(wl_nm, 625.0, 90.0))
+    return (
+        pump_share * gaussian(wl_nm, 450.0, 20.0)
+        + green_share * gaussian(wl_nm, green_nm, 110.0)
+        + red_share * gaussian(wl_nm, 625.0, 90.0)
+    )
 
 
 # --- the products ----------------------------------------------------------------------------------------
+
 
 def desk_lamp(irradiance_w_m2: float = 2.1, distance_mm: float = 500.0) -> Product:
     """Warm-white LED desk lamp, Corvel Lumen Desk 30 (general lighting service lamp).
@@ -140,9 +147,16 @@ def desk_lamp(irradiance_w_m2: float = 2.1, distance_mm: float = 500.0) -> Produ
     """
     wl = grid(380.0, 780.0, 1.0)
     shape = white_led_shape(wl, pump_share=0.085, green_share=0.435, red_share=0.48, green_nm=555.0)
-    return Product("CL-DESK-30", "Corvel Lumen Desk 30 warm-white LED desk lamp", distance_mm,
-                   {"source_diameter_mm": 30.0}, "opal diffuser, 30 mm across", "gls", wl,
-                   scaled_to(wl, shape, 380.0, 780.0, irradiance_w_m2))
+    return Product(
+        "CL-DESK-30",
+        "Corvel Lumen Desk 30 warm-white LED desk lamp",
+        distance_mm,
+        {"source_diameter_mm": 30.0},
+        "opal diffuser, 30 mm across",
+        "gls",
+        wl,
+        scaled_to(wl, shape, 380.0, 780.0, irradiance_w_m2),
+    )
 
 
 def cool_spotlight(irradiance_w_m2: float = 23.0, distance_mm: float = 1000.0) -> Product:
@@ -158,13 +172,21 @@ def cool_spotlight(irradiance_w_m2: float = 23.0, distance_mm: float = 1000.0) -
     """
     wl = grid(380.0, 780.0, 1.0)
     shape = white_led_shape(wl, pump_share=0.25, green_share=0.59, red_share=0.16, green_nm=550.0)
-    return Product("CL-SPOT-65", "Corvel Beamline 65 cool-white COB spotlight", distance_mm,
-                   {"source_diameter_mm": 60.0}, "reflector aperture, 60 mm, fully lit on axis", "other", wl,
-                   scaled_to(wl, shape, 380.0, 780.0, irradiance_w_m2))
+    return Product(
+        "CL-SPOT-65",
+        "Corvel Beamline 65 cool-white COB spotlight",
+        distance_mm,
+        {"source_diameter_mm": 60.0},
+        "reflector aperture, 60 mm, fully lit on axis",
+        "other",
+        wl,
+        scaled_to(wl, shape, 380.0, 780.0, irradiance_w_m2),
+    )
 
 
-def uva_curing_lamp(peak_nm: float = 365.0, fwhm_nm: float = 10.0, irradiance_w_m2: float = 90.0,
-                    distance_mm: float = 300.0) -> Product:
+def uva_curing_lamp(
+    peak_nm: float = 365.0, fwhm_nm: float = 10.0, irradiance_w_m2: float = 90.0, distance_mm: float = 300.0
+) -> Product:
     """365 nm UV-A LED curing lamp, Corvel Setfast 365 (adhesive and coating curing).
 
     Physical model: four UV-A LEDs under a 25 mm glass lens, 30 degree beam, about 1.5 W optical output.
@@ -173,13 +195,24 @@ def uva_curing_lamp(peak_nm: float = 365.0, fwhm_nm: float = 10.0, irradiance_w_
     Grid 300-450 nm, 1 nm step; no emission outside it.
     """
     wl = grid(300.0, 450.0, 1.0)
-    return Product("CL-CURE-365", "Corvel Setfast 365 UV-A LED curing lamp", distance_mm,
-                   {"source_diameter_mm": 25.0}, "exit lens, 25 mm", "other", wl,
-                   scaled_to(wl, gaussian(wl, peak_nm, fwhm_nm), 300.0, 450.0, irradiance_w_m2))
+    return Product(
+        "CL-CURE-365",
+        "Corvel Setfast 365 UV-A LED curing lamp",
+        distance_mm,
+        {"source_diameter_mm": 25.0},
+        "exit lens, 25 mm",
+        "other",
+        wl,
+        scaled_to(wl, gaussian(wl, peak_nm, fwhm_nm), 300.0, 450.0, irradiance_w_m2),
+    )
 
 
-def germicidal_lamp(line_irradiance_w_m2: float = 0.36, slit_fwhm_nm: float = 1.0,
-                    continuum_fraction: float = 0.01, distance_mm: float = 500.0) -> Product:
+def germicidal_lamp(
+    line_irradiance_w_m2: float = 0.36,
+    slit_fwhm_nm: float = 1.0,
+    continuum_fraction: float = 0.01,
+    distance_mm: float = 500.0,
+) -> Product:
     """254 nm low-pressure mercury germicidal lamp, Corvel Sterna 254 (4 W, T5 tube, ozone-free glass).
 
     Physical model: mercury emission lines (positions as commonly tabulated, e.g. NIST ASD) with these
@@ -191,15 +224,32 @@ def germicidal_lamp(line_irradiance_w_m2: float = 0.36, slit_fwhm_nm: float = 1.
     (about 0.9 W of UV-C from a 100 mm arc; 500 mm is five arc lengths, so the far-field law holds).
     Grid 200-800 nm, 0.5 nm step; no emission outside it.
     """
-    lines = {253.7: 100.0, 296.7: 0.4, 312.6: 0.6, 313.2: 0.9, 365.0: 1.5, 404.7: 1.8, 435.8: 3.5,
-             546.1: 3.0, 577.0: 0.6, 579.1: 0.7}
+    lines = {
+        253.7: 100.0,
+        296.7: 0.4,
+        312.6: 0.6,
+        313.2: 0.9,
+        365.0: 1.5,
+        404.7: 1.8,
+        435.8: 3.5,
+        546.1: 3.0,
+        577.0: 0.6,
+        579.1: 0.7,
+    }
     wl = grid(200.0, 800.0, 0.5)
     unit = line_irradiance_w_m2 / lines[253.7]
     spectrum = sum(unit * strength * gaussian(wl, centre, slit_fwhm_nm) for centre, strength in lines.items())
     spectrum = spectrum + continuum_fraction * line_irradiance_w_m2 / (800.0 - 200.0)
-    return Product("CL-GERM-254", "Corvel Sterna 254 low-pressure mercury germicidal lamp", distance_mm,
-                   {"source_width_mm": 16.0, "source_height_mm": 100.0}, "T5 tube, 16 mm wide, 100 mm arc",
-                   "other", wl, spectrum)
+    return Product(
+        "CL-GERM-254",
+        "Corvel Sterna 254 low-pressure mercury germicidal lamp",
+        distance_mm,
+        {"source_width_mm": 16.0, "source_height_mm": 100.0},
+        "T5 tube, 16 mm wide, 100 mm arc",
+        "other",
+        wl,
+        spectrum,
+    )
 
 
 def far_uvc_lamp(irradiance_w_m2: float = 0.02, distance_mm: float = 500.0) -> Product:
@@ -218,13 +268,21 @@ def far_uvc_lamp(irradiance_w_m2: float = 0.02, distance_mm: float = 500.0) -> P
         return gaussian(wl, centre_nm, fwhm_nm) / gaussian(np.array(centre_nm), centre_nm, fwhm_nm)
 
     shape = height_one(222.0, 4.0) + 0.01 * height_one(235.0, 10.0) + 0.005 * height_one(255.0, 12.0)
-    return Product("CL-FAR-222", "Corvel Farline 222 KrCl excimer far-UV-C lamp", distance_mm,
-                   {"source_width_mm": 60.0, "source_height_mm": 40.0}, "emitting window, 60 mm x 40 mm",
-                   "other", wl, scaled_to(wl, shape, 200.0, 400.0, irradiance_w_m2))
+    return Product(
+        "CL-FAR-222",
+        "Corvel Farline 222 KrCl excimer far-UV-C lamp",
+        distance_mm,
+        {"source_width_mm": 60.0, "source_height_mm": 40.0},
+        "emitting window, 60 mm x 40 mm",
+        "other",
+        wl,
+        scaled_to(wl, shape, 200.0, 400.0, irradiance_w_m2),
+    )
 
 
-def ir_illuminator(peak_nm: float = 940.0, fwhm_nm: float = 40.0, irradiance_w_m2: float = 12.0,
-                   distance_mm: float = 1000.0) -> Product:
+def ir_illuminator(
+    peak_nm: float = 940.0, fwhm_nm: float = 40.0, irradiance_w_m2: float = 12.0, distance_mm: float = 1000.0
+) -> Product:
     """940 nm infrared illuminator, Corvel Noctis 940 (for night-vision cameras).
 
     Physical model: an array of seven high-power 940 nm LEDs on a 30 mm circle behind a clear window,
@@ -234,16 +292,29 @@ def ir_illuminator(peak_nm: float = 940.0, fwhm_nm: float = 40.0, irradiance_w_m
     Grid 700-1200 nm, 1 nm step; no emission outside it.
     """
     wl = grid(700.0, 1200.0, 1.0)
-    return Product("CL-IR-940", "Corvel Noctis 940 infrared illuminator", distance_mm,
-                   {"source_diameter_mm": 30.0}, "LED array behind its window, 30 mm across", "other", wl,
-                   scaled_to(wl, gaussian(wl, peak_nm, fwhm_nm), 700.0, 1200.0, irradiance_w_m2))
+    return Product(
+        "CL-IR-940",
+        "Corvel Noctis 940 infrared illuminator",
+        distance_mm,
+        {"source_diameter_mm": 30.0},
+        "LED array behind its window, 30 mm across",
+        "other",
+        wl,
+        scaled_to(wl, gaussian(wl, peak_nm, fwhm_nm), 700.0, 1200.0, irradiance_w_m2),
+    )
 
 
-def radiant_heater(temperature_k: float = 2900.0, emissivity: float = 0.35,
-                   envelope_transmittance: float = 0.92, uv_edge_nm: float = 370.0,
-                   uv_edge_width_nm: float = 8.0, filament_width_mm: float = 1.6,
-                   filament_length_mm: float = 250.0, reflector_gain: float = 2.0,
-                   distance_mm: float = 1250.0) -> Product:
+def radiant_heater(
+    temperature_k: float = 2900.0,
+    emissivity: float = 0.35,
+    envelope_transmittance: float = 0.92,
+    uv_edge_nm: float = 370.0,
+    uv_edge_width_nm: float = 8.0,
+    filament_width_mm: float = 1.6,
+    filament_length_mm: float = 250.0,
+    reflector_gain: float = 2.0,
+    distance_mm: float = 1250.0,
+) -> Product:
     """Halogen radiant heater, Corvel Calora 2000 (2 kW quartz tungsten-halogen tube with reflector).
 
     Physical model: grey-body tungsten coil, spectral radiance emissivity x Planck(temperature_k), with
@@ -264,9 +335,16 @@ def radiant_heater(temperature_k: float = 2900.0, emissivity: float = 0.35,
     radiance = emissivity * transmittance * planck_radiance(wl, temperature_k)
     area_m2 = filament_width_mm * filament_length_mm * 1e-6
     irradiance = radiance * area_m2 * reflector_gain / (distance_mm * 1e-3) ** 2
-    return Product("CL-HEAT-2K", "Corvel Calora 2000 halogen radiant heater", distance_mm,
-                   {"source_width_mm": filament_width_mm, "source_height_mm": filament_length_mm},
-                   "glowing tungsten coil, 1.6 mm x 250 mm", "other", wl, irradiance)
+    return Product(
+        "CL-HEAT-2K",
+        "Corvel Calora 2000 halogen radiant heater",
+        distance_mm,
+        {"source_width_mm": filament_width_mm, "source_height_mm": filament_length_mm},
+        "glowing tungsten coil, 1.6 mm x 250 mm",
+        "other",
+        wl,
+        irradiance,
+    )
 
 
 def grow_spotlight(ppfd_umol: float = 1400.0, distance_mm: float = 300.0) -> Product:
@@ -283,13 +361,21 @@ def grow_spotlight(ppfd_umol: float = 1400.0, distance_mm: float = 300.0) -> Pro
     wl = grid(380.0, 780.0, 1.0)
     white = white_led_shape(wl, pump_share=0.085, green_share=0.435, red_share=0.48, green_nm=555.0)
     shape = 0.28 * gaussian(wl, 450.0, 20.0) + 0.62 * gaussian(wl, 660.0, 20.0) + 0.10 * white
-    return Product("CL-GROW-30", "Corvel Verdara 30 horticulture LED spotlight", distance_mm,
-                   {"source_diameter_mm": 22.0}, "collimating optic aperture, 22 mm", "other", wl,
-                   shape * (ppfd_umol / photon_irradiance_umol(wl, shape)))
+    return Product(
+        "CL-GROW-30",
+        "Corvel Verdara 30 horticulture LED spotlight",
+        distance_mm,
+        {"source_diameter_mm": 22.0},
+        "collimating optic aperture, 22 mm",
+        "other",
+        wl,
+        shape * (ppfd_umol / photon_irradiance_umol(wl, shape)),
+    )
 
 
-def indicator_led(peak_nm: float = 470.0, fwhm_nm: float = 25.0, irradiance_w_m2: float = 0.08,
-                  distance_mm: float = 100.0) -> Product:
+def indicator_led(
+    peak_nm: float = 470.0, fwhm_nm: float = 25.0, irradiance_w_m2: float = 0.08, distance_mm: float = 100.0
+) -> Product:
     """Blue status indicator, Corvel Pip 470 (one InGaN LED die, about 50 mcd, in a panel window).
 
     Physical model: one Gaussian band at peak_nm [nm] with full width at half maximum fwhm_nm [nm]; the
@@ -298,17 +384,33 @@ def indicator_led(peak_nm: float = 470.0, fwhm_nm: float = 25.0, irradiance_w_m2
     Grid 380-600 nm, 1 nm step; no emission outside it.
     """
     wl = grid(380.0, 600.0, 1.0)
-    return Product("CL-PIP-470", "Corvel Pip 470 blue indicator LED", distance_mm,
-                   {"source_alpha_mrad": 20.0}, "lit die, 2 mm (20 mrad at 100 mm)", "other", wl,
-                   scaled_to(wl, gaussian(wl, peak_nm, fwhm_nm), 380.0, 600.0, irradiance_w_m2))
+    return Product(
+        "CL-PIP-470",
+        "Corvel Pip 470 blue indicator LED",
+        distance_mm,
+        {"source_alpha_mrad": 20.0},
+        "lit die, 2 mm (20 mrad at 100 mm)",
+        "other",
+        wl,
+        scaled_to(wl, gaussian(wl, peak_nm, fwhm_nm), 380.0, 600.0, irradiance_w_m2),
+    )
 
 
-MODELS: tuple[Callable[..., Product], ...] = (desk_lamp, cool_spotlight, uva_curing_lamp, germicidal_lamp,
-                                             far_uvc_lamp, ir_illuminator, radiant_heater, grow_spotlight,
-                                             indicator_led)
+MODELS: tuple[Callable[..., Product], ...] = (
+    desk_lamp,
+    cool_spotlight,
+    uva_curing_lamp,
+    germicidal_lamp,
+    far_uvc_lamp,
+    ir_illuminator,
+    radiant_heater,
+    grow_spotlight,
+    indicator_led,
+)
 
 
 # --- writing ---------------------------------------------------------------------------------------------
+
 
 def parameters_text(model: Callable[..., Product]) -> str:
     """The model function's parameter values as ``name = value`` pairs."""
@@ -323,14 +425,18 @@ def write_csv(product: Product, model: Callable[..., Product], folder: Path) -> 
     """
     header = [NOTICE, f"Company: {COMPANY} (fictional). Product: {product.id}, {product.name}."]
     header += [line for line in inspect.getdoc(model).splitlines() if line.strip()]
-    header += [f"Parameters: {parameters_text(model)}",
-               f"Measurement distance: {product.distance_mm:g} mm",
-               "Quantity: spectral irradiance, unit W/m2/nm"]
+    header += [
+        f"Parameters: {parameters_text(model)}",
+        f"Measurement distance: {product.distance_mm:g} mm",
+        "Quantity: spectral irradiance, unit W/m2/nm",
+    ]
     values = np.where(product.irradiance >= FLOOR * product.irradiance.max(), product.irradiance, 0.0)
     rows = [f"{w:.1f},{v:.6g}" for w, v in zip(product.wavelength_nm, values, strict=True)]
     path = folder / f"{product.stem}.csv"
-    path.write_text("".join(f"# {line}\n" for line in header) + "wavelength_nm,irradiance_W_m2_nm\n"
-                    + "\n".join(rows) + "\n", encoding="utf-8")
+    path.write_text(
+        "".join(f"# {line}\n" for line in header) + "wavelength_nm,irradiance_W_m2_nm\n" + "\n".join(rows) + "\n",
+        encoding="utf-8",
+    )
     return path
 
 
@@ -353,23 +459,25 @@ def write_record(product: Product, folder: Path) -> Path:
     """Write the TOML product record (flat fields)."""
     size = "\n".join(f"{key} = {value:.1f}" for key, value in product.size.items())
     claims = "".join(f"{key} = {_toml_value(value)}\n" for key, value in CLAIMS.get(product.id, {}).items())
-    text = (f"# {NOTICE}\n"
-            f"# Vendor: {COMPANY} (fictional). Source size: {product.size_note}.\n"
-            f"# Spectrum {product.wavelength_nm[0]:g}-{product.wavelength_nm[-1]:g} nm; the model emits "
-            "nothing else inside the 200-3000 nm hazard bands.\n"
-            f'id = "{product.id}"\n'
-            f'name = "{product.name}"\n'
-            f'spectrum = "{product.stem}.csv"\n'
-            'quantity = "irradiance"\n'
-            'unit = "W/m2/nm"\n'
-            f"distance_mm = {product.distance_mm:.1f}\n"
-            f"{size}\n"
-            f'lamp_type = "{product.lamp_type}"\n'
-            "no_emission_outside = true\n"
-            f'vendor = "{COMPANY}"\n'
-            f"uncertainty_pct = {UNCERTAINTY_PCT:.1f}\n"
-            f"wavelength_uncertainty_nm = {WAVELENGTH_UNCERTAINTY_NM:.1f}\n"
-            + (f"# Datasheet claims (invented):\n{claims}" if claims else ""))
+    text = (
+        f"# {NOTICE}\n"
+        f"# Vendor: {COMPANY} (fictional). Source size: {product.size_note}.\n"
+        f"# Spectrum {product.wavelength_nm[0]:g}-{product.wavelength_nm[-1]:g} nm; the model emits "
+        "nothing else inside the 200-3000 nm hazard bands.\n"
+        f'id = "{product.id}"\n'
+        f'name = "{product.name}"\n'
+        f'spectrum = "{product.stem}.csv"\n'
+        'quantity = "irradiance"\n'
+        'unit = "W/m2/nm"\n'
+        f"distance_mm = {product.distance_mm:.1f}\n"
+        f"{size}\n"
+        f'lamp_type = "{product.lamp_type}"\n'
+        "no_emission_outside = true\n"
+        f'vendor = "{COMPANY}"\n'
+        f"uncertainty_pct = {UNCERTAINTY_PCT:.1f}\n"
+        f"wavelength_uncertainty_nm = {WAVELENGTH_UNCERTAINTY_NM:.1f}\n"
+        + (f"# Datasheet claims (invented):\n{claims}" if claims else "")
+    )
     path = folder / f"{product.stem}.toml"
     path.write_text(text, encoding="utf-8")
     return path

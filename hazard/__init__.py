@@ -19,13 +19,13 @@ from hazard.result import Assessment, HazardResult
 from hazard.standards import IEC_62471_2006
 
 __all__ = [
-           "IEC_62471_2006",
-           "Assessment",
-           "HazardResult",
-           "InputError",
-           "ProductRecord",
-           "__version__",
-           "assess",
-           "assess_many",
-           "load_product",
+    "IEC_62471_2006",
+    "Assessment",
+    "HazardResult",
+    "InputError",
+    "ProductRecord",
+    "__version__",
+    "assess",
+    "assess_many",
+    "load_product",
 ]

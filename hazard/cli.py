@@ -26,9 +26,11 @@ MAX_RESULT_BYTES = 64 * 1024 * 1024
 """Largest saved result read by ``hazard report`` [bytes]."""
 
 _ALLOW_OUTSIDE = click.option(
-    "--allow-outside", is_flag=True,
+    "--allow-outside",
+    is_flag=True,
     help="Let records and manifests name spectra outside their own folder (absolute paths, '..'): only for "
-         "files you trust.")
+    "files you trust.",
+)
 
 _RECORD_OPTIONS = [
     click.option("--id", "id_", help="Product id (default: the spectrum file's stem)."),
@@ -41,10 +43,14 @@ _RECORD_OPTIONS = [
     click.option("--source-width-mm", type=float, help="Width of a rectangular source [mm]."),
     click.option("--source-height-mm", type=float, help="Height of a rectangular source [mm]."),
     click.option("--source-alpha-mrad", type=float, help="Angular subtense at --distance-mm [mrad]."),
-    click.option("--lamp-type", type=click.Choice(["gls", "other"]),
-                 help="gls: general lighting service (500 lx rule); other: 200 mm."),
-    click.option("--no-emission-outside", is_flag=True, default=None,
-                 help="The source emits nothing outside the measured range."),
+    click.option(
+        "--lamp-type",
+        type=click.Choice(["gls", "other"]),
+        help="gls: general lighting service (500 lx rule); other: 200 mm.",
+    ),
+    click.option(
+        "--no-emission-outside", is_flag=True, default=None, help="The source emits nothing outside the measured range."
+    ),
     click.option("--measurement-fov-mrad", type=float, help="Field of view of a radiance measurement [mrad]."),
 ]
 
@@ -90,8 +96,11 @@ class _Group(click.Group):
             if ctx.obj and ctx.obj.get("debug"):
                 traceback.print_exc()
             else:
-                click.echo(f"hazard: internal error: {type(exc).__name__}: {exc} (rerun with --debug for "
-                           f"the traceback, and please report it)", err=True)
+                click.echo(
+                    f"hazard: internal error: {type(exc).__name__}: {exc} (rerun with --debug for "
+                    f"the traceback, and please report it)",
+                    err=True,
+                )
             ctx.exit(EXIT_INTERNAL)
 
 
@@ -99,10 +108,12 @@ def _os_error_text(exc: OSError) -> str:
     """An operating-system error (mostly while writing the outputs) as one line with the fix."""
     from hazard.errors import InputError
 
-    writing = {errno.ENOSPC: "free disk space and run again (a batch continues with --resume)",
-               errno.EDQUOT: "free space within your quota and run again (a batch continues with --resume)",
-               errno.EFBIG: "write to a file system that takes larger files",
-               errno.EROFS: "write to a folder on a writable file system"}
+    writing = {
+        errno.ENOSPC: "free disk space and run again (a batch continues with --resume)",
+        errno.EDQUOT: "free space within your quota and run again (a batch continues with --resume)",
+        errno.EFBIG: "write to a file system that takes larger files",
+        errno.EROFS: "write to a folder on a writable file system",
+    }
     if exc.errno in writing:
         problem, fix = f"cannot write: {exc.strerror}", writing[exc.errno]
     elif exc.errno in (errno.EACCES, errno.EPERM):
@@ -146,15 +157,29 @@ def main(ctx: click.Context, debug: bool) -> None:
 @main.command()
 @click.argument("product", type=click.Path(dir_okay=False, path_type=Path))
 @_record_options
-@click.option("--format", "output_format", type=click.Choice(["text", "json"]), default="text",
-              show_default=True, help="Output format.")
-@click.option("--output", type=click.Path(dir_okay=False, path_type=Path),
-              help="Write the output to this file (atomically) instead of the terminal.")
-@click.option("--pdf", "pdf_path", type=click.Path(dir_okay=False, path_type=Path),
-              help="Also render the PDF report to this file.")
+@click.option(
+    "--format",
+    "output_format",
+    type=click.Choice(["text", "json"]),
+    default="text",
+    show_default=True,
+    help="Output format.",
+)
+@click.option(
+    "--output",
+    type=click.Path(dir_okay=False, path_type=Path),
+    help="Write the output to this file (atomically) instead of the terminal.",
+)
+@click.option(
+    "--pdf",
+    "pdf_path",
+    type=click.Path(dir_okay=False, path_type=Path),
+    help="Also render the PDF report to this file.",
+)
 @_ALLOW_OUTSIDE
-def assess(product: Path, output_format: str, output: Path | None, pdf_path: Path | None, allow_outside: bool,
-           **options) -> None:
+def assess(
+    product: Path, output_format: str, output: Path | None, pdf_path: Path | None, allow_outside: bool, **options
+) -> None:
     """Assess one product: RECORD.toml, or a spectrum file with record options.
 
     Example: hazard assess lamp.csv --distance-mm 200 --source-diameter-mm 5
@@ -196,8 +221,7 @@ def _write_report(assessment, pdf_path: Path) -> None:
 
 @main.command()
 @click.argument("result", type=click.Path(dir_okay=False, path_type=Path))
-@click.option("--output", type=click.Path(dir_okay=False, path_type=Path), required=True,
-              help="PDF file to write.")
+@click.option("--output", type=click.Path(dir_okay=False, path_type=Path), required=True, help="PDF file to write.")
 @click.option("--id", "product_id", help="With a results.jsonl of 'hazard batch': the product to render.")
 def report(result: Path, output: Path, product_id: str | None) -> None:
     """Render the PDF report of a saved result, without recomputing it.
@@ -244,8 +268,13 @@ def _load_result(path: Path, product_id: str | None):
     fix = "give a JSON file written by 'hazard assess --format json', or a results.jsonl with --id"
     line_number = None
     if product_id is None:
-        raw = read_user_file(path, what="result file", max_bytes=MAX_RESULT_BYTES, fix_missing=fix,
-                             fix_large="give one result written by 'hazard assess --format json', or --id")
+        raw = read_user_file(
+            path,
+            what="result file",
+            max_bytes=MAX_RESULT_BYTES,
+            fix_missing=fix,
+            fix_large="give one result written by 'hazard assess --format json', or --id",
+        )
     else:
         raw, line_number = _result_line(path, product_id, fix)
     try:
@@ -253,8 +282,9 @@ def _load_result(path: Path, product_id: str | None):
     except ValidationError as exc:
         first = exc.errors()[0]
         where = ".".join(map(str, first["loc"])) or "the top level"
-        raise InputError(f"not an assessment result of this tool version ({first['msg']} at {where})", fix,
-                         str(path), line_number) from None
+        raise InputError(
+            f"not an assessment result of this tool version ({first['msg']} at {where})", fix, str(path), line_number
+        ) from None
     found = first_non_finite(assessment.model_dump())
     if found is not None:
         raise InputError(f"not an assessment result: {found[0]} is {found[1]}", fix, str(path), line_number)
@@ -265,16 +295,26 @@ def _finish_batch(outcome, output: Path, pdf: bool) -> None:
     from hazard.output.text import render_batch_table
 
     shown = outcome.ids[:SCREEN_PRODUCTS]
-    click.echo(render_batch_table(shown, {i: outcome.assessments[i] for i in shown if i in outcome.assessments},
-                                  {i: outcome.errors[i] for i in shown if i in outcome.errors}), nl=False)
+    click.echo(
+        render_batch_table(
+            shown,
+            {i: outcome.assessments[i] for i in shown if i in outcome.assessments},
+            {i: outcome.errors[i] for i in shown if i in outcome.errors},
+        ),
+        nl=False,
+    )
     if len(outcome.ids) > len(shown):
         click.echo(f"… and {len(outcome.ids) - len(shown)} more products: every one is in summary.csv")
     written = "results.jsonl, summary.csv" + (", one PDF per product and summary.pdf" if pdf else "")
-    click.echo(f"\n{len(outcome.assessments)} assessed ({outcome.reused} reused), {len(outcome.errors)} failed; "
-               f"wrote {written} in {output}")
+    click.echo(
+        f"\n{len(outcome.assessments)} assessed ({outcome.reused} reused), {len(outcome.errors)} failed; "
+        f"wrote {written} in {output}"
+    )
     if outcome.internal:
-        click.echo(f"hazard: internal error on {len(outcome.internal)} product(s), recorded in summary.csv; please "
-                   f"report it", err=True)
+        click.echo(
+            f"hazard: internal error on {len(outcome.internal)} product(s), recorded in summary.csv; please report it",
+            err=True,
+        )
     for failure in outcome.report_failures.values():
         click.echo(f"hazard: {failure}; please report it", err=True)
     from hazard.assessment.cautions import PRE_SCREEN
@@ -284,18 +324,28 @@ def _finish_batch(outcome, output: Path, pdf: bool) -> None:
 
 @main.command()
 @click.argument("manifest", type=click.Path(path_type=Path))
-@click.option("--output", type=click.Path(file_okay=False, path_type=Path), required=True,
-              help="Folder for results.jsonl, summary.csv and the PDFs.")
+@click.option(
+    "--output",
+    type=click.Path(file_okay=False, path_type=Path),
+    required=True,
+    help="Folder for results.jsonl, summary.csv and the PDFs.",
+)
 @click.option("--pdf", is_flag=True, help="Also write one PDF per product and summary.pdf.")
-@click.option("--jobs", type=click.IntRange(min=1), default=1, show_default=True,
-              help="Worker processes for reading spectra and rendering PDFs.")
-@click.option("--resume", is_flag=True, help="Continue an interrupted run: skip products whose inputs are "
-                                             "unchanged since they were assessed.")
-@click.option("--studies", is_flag=True, help="Also compute hazard distances and remedies (about 0.1 s per "
-                                              "product).")
+@click.option(
+    "--jobs",
+    type=click.IntRange(min=1),
+    default=1,
+    show_default=True,
+    help="Worker processes for reading spectra and rendering PDFs.",
+)
+@click.option(
+    "--resume",
+    is_flag=True,
+    help="Continue an interrupted run: skip products whose inputs are unchanged since they were assessed.",
+)
+@click.option("--studies", is_flag=True, help="Also compute hazard distances and remedies (about 0.1 s per product).")
 @_ALLOW_OUTSIDE
-def batch(manifest: Path, output: Path, pdf: bool, jobs: int, resume: bool, studies: bool,
-          allow_outside: bool) -> None:
+def batch(manifest: Path, output: Path, pdf: bool, jobs: int, resume: bool, studies: bool, allow_outside: bool) -> None:
     """Assess every product of a CSV/.xlsx manifest or a folder of TOML records.
 
     The output folder must be new, empty, or written by an earlier run of the same manifest; it may not hold
@@ -306,8 +356,9 @@ def batch(manifest: Path, output: Path, pdf: bool, jobs: int, resume: bool, stud
     """
     from hazard.assessment.batch import run_batch
 
-    outcome = run_batch(manifest, output, pdf=pdf, jobs=jobs, resume=resume, studies=studies,
-                        allow_outside=allow_outside)
+    outcome = run_batch(
+        manifest, output, pdf=pdf, jobs=jobs, resume=resume, studies=studies, allow_outside=allow_outside
+    )
     _finish_batch(outcome, output, pdf)
     sys.exit(outcome.exit_code)
 
@@ -320,10 +371,16 @@ def _lineup_folder() -> Path:
 
 
 @main.command()
-@click.option("--output", type=click.Path(file_okay=False, path_type=Path), default=Path("hazard-demo"),
-              show_default=True, help="Folder for the demo's reports.")
-@click.option("--jobs", type=click.IntRange(min=1), default=1, show_default=True,
-              help="Worker processes for rendering PDFs.")
+@click.option(
+    "--output",
+    type=click.Path(file_okay=False, path_type=Path),
+    default=Path("hazard-demo"),
+    show_default=True,
+    help="Folder for the demo's reports.",
+)
+@click.option(
+    "--jobs", type=click.IntRange(min=1), default=1, show_default=True, help="Worker processes for rendering PDFs."
+)
 def demo(output: Path, jobs: int) -> None:
     """Assess the bundled line-up of invented products (Corvel Lightworks, a made-up company).
 
@@ -332,8 +389,7 @@ def demo(output: Path, jobs: int) -> None:
     from hazard.assessment.batch import run_batch
 
     lineup = _lineup_folder()
-    click.echo("Demo: invented products of Corvel Lightworks, a made-up company; no real product or "
-               "measurement.\n")
+    click.echo("Demo: invented products of Corvel Lightworks, a made-up company; no real product or measurement.\n")
     outcome = run_batch(lineup, output, pdf=True, jobs=jobs, per_product_json=True, studies=True)
     _finish_batch(outcome, output, pdf=True)
     sys.exit(outcome.exit_code)
@@ -341,18 +397,42 @@ def demo(output: Path, jobs: int) -> None:
 
 @main.command()
 @click.argument("source", type=click.Path(path_type=Path))
-@click.option("--format", "output_format", type=click.Choice(["text", "json"]), default="text",
-              show_default=True, help="Output format (json: one assessment per line).")
+@click.option(
+    "--format",
+    "output_format",
+    type=click.Choice(["text", "json"]),
+    default="text",
+    show_default=True,
+    help="Output format (json: one assessment per line).",
+)
 @click.option("--cct-tolerance-k", type=float, default=150.0, show_default=True, help="CCT tolerance [K].")
-@click.option("--cct-tolerance-pct", type=float, default=5.0, show_default=True,
-              help="CCT tolerance [% of the claim]; the larger of the two applies.")
-@click.option("--illuminance-tolerance-pct", type=float, default=10.0, show_default=True,
-              help="Illuminance tolerance [%].")
-@click.option("--t-max-tolerance-pct", type=float, default=10.0, show_default=True,
-              help="A claimed t_max longer than computed by more than this is contradicted [%].")
+@click.option(
+    "--cct-tolerance-pct",
+    type=float,
+    default=5.0,
+    show_default=True,
+    help="CCT tolerance [% of the claim]; the larger of the two applies.",
+)
+@click.option(
+    "--illuminance-tolerance-pct", type=float, default=10.0, show_default=True, help="Illuminance tolerance [%]."
+)
+@click.option(
+    "--t-max-tolerance-pct",
+    type=float,
+    default=10.0,
+    show_default=True,
+    help="A claimed t_max longer than computed by more than this is contradicted [%].",
+)
 @_ALLOW_OUTSIDE
-def check(source: Path, output_format: str, cct_tolerance_k: float, cct_tolerance_pct: float,
-          illuminance_tolerance_pct: float, t_max_tolerance_pct: float, allow_outside: bool) -> None:
+def check(
+    source: Path,
+    output_format: str,
+    cct_tolerance_k: float,
+    cct_tolerance_pct: float,
+    illuminance_tolerance_pct: float,
+    t_max_tolerance_pct: float,
+    allow_outside: bool,
+) -> None:
     """Check vendor claims of a RECORD.toml, a CSV/.xlsx manifest or a folder of records.
 
     The claims are claimed_risk_group, claimed_cct_k, claimed_illuminance_lx and claimed_t_max_s_*.
@@ -370,11 +450,17 @@ def check(source: Path, output_format: str, cct_tolerance_k: float, cct_toleranc
 
     tolerances = ClaimTolerances(cct_tolerance_k, cct_tolerance_pct, illuminance_tolerance_pct, t_max_tolerance_pct)
     if source.suffix.lower() == ".toml":
-        items = [(ManifestRow(str(source), {}, source.parent, {}),
-                  lambda: run_assessment(load_product(source, allow_outside=allow_outside), tolerances=tolerances))]
+        items = [
+            (
+                ManifestRow(str(source), {}, source.parent, {}),
+                lambda: run_assessment(load_product(source, allow_outside=allow_outside), tolerances=tolerances),
+            )
+        ]
     else:
-        items = [(row, (lambda row=row: run_assessment(load_row(row, allow_outside), tolerances=tolerances)))
-                 for row in read_manifest(source)]
+        items = [
+            (row, (lambda row=row: run_assessment(load_row(row, allow_outside), tolerances=tolerances)))
+            for row in read_manifest(source)
+        ]
     contradicted = failed = internal = False
     for row, run in items:
         try:
@@ -382,8 +468,9 @@ def check(source: Path, output_format: str, cct_tolerance_k: float, cct_toleranc
         except Exception as exc:  # the boundary of one product: nothing it does stops the others
             reason, defect = failure_reason(row, exc)
             failed, internal = True, internal or defect
-            click.echo(f"{one_line(row.product_id if row.fields else Path(row.origin).stem, 80)}: error: {reason}",
-                       err=True)
+            click.echo(
+                f"{one_line(row.product_id if row.fields else Path(row.origin).stem, 80)}: error: {reason}", err=True
+            )
             continue
         contradicted |= any(c.verdict == "contradicted" for c in assessment.claims)
         if output_format == "json":
@@ -391,19 +478,25 @@ def check(source: Path, output_format: str, cct_tolerance_k: float, cct_toleranc
             continue
         from hazard.output.formatting import group_words
 
-        what_if = (f"; the record's what-if at {assessment.assessment_distance_mm:.0f} mm gives "
-                   f"{group_words(assessment.risk_group, assessment.complete)}, not used for claims"
-                   if assessment.basis == "what-if" else "")
-        click.echo(f"{assessment.id}: computed {group_words(assessment.classification_group, assessment.complete)} "
-                   f"at the standard's distance{what_if}")
+        what_if = (
+            f"; the record's what-if at {assessment.assessment_distance_mm:.0f} mm gives "
+            f"{group_words(assessment.risk_group, assessment.complete)}, not used for claims"
+            if assessment.basis == "what-if"
+            else ""
+        )
+        click.echo(
+            f"{assessment.id}: computed {group_words(assessment.classification_group, assessment.complete)} "
+            f"at the standard's distance{what_if}"
+        )
         click.echo("\n".join(render_claims(assessment)) if assessment.claims else "  no claims in the record")
         click.echo("")
     if output_format == "text":
         from hazard.assessment.cautions import PRE_SCREEN
 
         click.echo(f"Caution: {PRE_SCREEN}")
-    sys.exit(EXIT_INTERNAL if internal else EXIT_CONTRADICTED if contradicted else
-             (EXIT_SOME_FAILED if failed else EXIT_OK))
+    sys.exit(
+        EXIT_INTERNAL if internal else EXIT_CONTRADICTED if contradicted else (EXIT_SOME_FAILED if failed else EXIT_OK)
+    )
 
 
 @main.command()
@@ -414,8 +507,10 @@ def tables() -> None:
     for name in TABLE_NAMES:
         t = load_table(name)
         lo, hi = t.range_nm
-        click.echo(f"{t.symbol:<5} {name:<16} {lo:g}–{hi:g} nm, {t.wavelength_nm.size} rows, "
-                   f"{t.interpolation} interpolation, zero outside")
+        click.echo(
+            f"{t.symbol:<5} {name:<16} {lo:g}–{hi:g} nm, {t.wavelength_nm.size} rows, "
+            f"{t.interpolation} interpolation, zero outside"
+        )
         click.echo(f"      source: {t.metadata['source']}")
         click.echo(f"      sha256: {t.sha256}")
 

@@ -24,12 +24,12 @@ def one_line(text: str, limit: int) -> str:
     'xxxxx…xxxxx'
     """
     if len(text) > 4 * limit:  # only the ends can be shown: escape those, not the whole text
-        text = text[:2 * limit] + text[-2 * limit:]
+        text = text[: 2 * limit] + text[-2 * limit :]
     printable = "".join(c if c.isprintable() else c.encode("unicode_escape").decode("ascii") for c in text)
     if len(printable) <= limit:
         return printable
     keep = (limit - 1) // 2
-    return f"{printable[:keep]}…{printable[len(printable) - keep:]}"
+    return f"{printable[:keep]}…{printable[len(printable) - keep :]}"
 
 
 def excerpt(value: object, limit: int = EXCERPT_CHARS) -> str:

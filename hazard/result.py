@@ -47,18 +47,24 @@ class HazardResult(_Frozen):
     title: str = Field(description="What the hazard is.")
     band_nm: tuple[float, float] = Field(description="Integration band [nm].")
     weighting: str | None = Field(description="Weighting function symbol, or null for an unweighted band.")
-    value: float | None = Field(description="Value at the assessment distance; for radiance quantities the "
-                                            "source's own radiance E/Ω_s [unit].")
+    value: float | None = Field(
+        description="Value at the assessment distance; for radiance quantities the source's own radiance E/Ω_s [unit]."
+    )
     unit: str = Field(description="Unit of value and limits.")
-    t_max_s: float | None = Field(description="Exposure time at which the exposure limit is reached [s]; null "
-                                              "when not reached within the limit's time range.")
-    risk_group: RiskGroup | None = Field(description="Group of this hazard; null when not assessed or when "
-                                                     "the hazard has no risk groups.")
+    t_max_s: float | None = Field(
+        description="Exposure time at which the exposure limit is reached [s]; null "
+        "when not reached within the limit's time range."
+    )
+    risk_group: RiskGroup | None = Field(
+        description="Group of this hazard; null when not assessed or when the hazard has no risk groups."
+    )
     assessed: bool = Field(description="False when the spectrum does not cover the band.")
     limits: dict[str, float] = Field(description="Group limits as applied (after α bounds) [unit].")
-    compared: dict[str, float] = Field(description="Value compared with each limit: the field-of-view "
-                                                   "average for radiance quantities [unit]; empty when not "
-                                                   "assessed.")
+    compared: dict[str, float] = Field(
+        description="Value compared with each limit: the field-of-view "
+        "average for radiance quantities [unit]; empty when not "
+        "assessed."
+    )
     margins: dict[str, float] = Field(description="compared / limit per group boundary [1]; ≤ 1 is within.")
     fov_rad: dict[str, float] = Field(description="Averaging field of view per group (radiance) [rad].")
     alpha_rad: dict[str, float] = Field(description="Bounded α used in each group limit (thermal) [rad].")
@@ -75,33 +81,37 @@ class Photometry(_Frozen):
     cct_k: float | None = Field(description="Correlated colour temperature (CIE 1931 2°, Robertson 1968) [K].")
     duv: float | None = Field(description="Distance from the Planckian locus in CIE 1960 uv [1].")
     chromaticity_xy: tuple[float, float] | None = Field(description="CIE 1931 x, y [1].")
-    covered: bool = Field(description="The spectrum covers V(λ)'s 360–830 nm band (or the record says the "
-                                      "source emits nothing outside it).")
+    covered: bool = Field(
+        description="The spectrum covers V(λ)'s 360–830 nm band (or the record says the "
+        "source emits nothing outside it)."
+    )
 
 
 class Geometry(_Frozen):
     """Distances and source geometry."""
 
-    measurement_distance_mm: float | None = Field(description="Distance at which the spectrum was measured "
-                                                              "[mm].")
+    measurement_distance_mm: float | None = Field(description="Distance at which the spectrum was measured [mm].")
     assessment_distance_mm: float = Field(description="Distance at which the hazards are assessed [mm].")
     distance_rule: str = Field(description="Why this assessment distance.")
     alpha_rad: float = Field(description="Angular subtense of the source at the assessment distance [rad].")
-    source_solid_angle_sr: float = Field(description="Solid angle of the source at the assessment distance "
-                                                     "[sr].")
+    source_solid_angle_sr: float = Field(description="Solid angle of the source at the assessment distance [sr].")
     largest_dimension_mm: float = Field(description="Largest linear dimension of the source [mm].")
-    small_source: bool = Field(description="α below the limit set's small-source bound: the small-source "
-                                             "members of the families apply.")
-    weak_visual_stimulus: bool = Field(description="Luminance below the limit set's weak-stimulus bound: the "
-                                                   "weak-stimulus members of the families apply.")
+    small_source: bool = Field(
+        description="α below the limit set's small-source bound: the small-source members of the families apply."
+    )
+    weak_visual_stimulus: bool = Field(
+        description="Luminance below the limit set's weak-stimulus bound: the "
+        "weak-stimulus members of the families apply."
+    )
 
 
 class SpectrumSummary(_Frozen):
     """The input spectrum in brief, with a preview for charts (not for computation)."""
 
     path: str = Field(description="Spectrum file as named in the record.")
-    quantity: str = Field(description="What the values are: irradiance or radiance (a relative spectrum after "
-                                      "its anchor's scaling).")
+    quantity: str = Field(
+        description="What the values are: irradiance or radiance (a relative spectrum after its anchor's scaling)."
+    )
     quantity_given: str = Field(description="What the record said: irradiance, radiance or relative.")
     unit_given: str = Field(description="Unit of the file's values.")
     points: int = Field(description="Number of samples.")
@@ -110,11 +120,13 @@ class SpectrumSummary(_Frozen):
     peak_nm: float = Field(description="Wavelength of the highest sample [nm].")
     peak_value_si: float = Field(description="Highest sample [W/m2/nm or W/m2/sr/nm].")
     preview_nm: list[float] = Field(description="Bin centres of the chart preview [nm].")
-    preview_value_si: list[float] = Field(description="Highest sample in each preview bin, 4 significant "
-                                                      "digits, for charts only [SI].")
-    file_metadata: dict[str, str] = Field(default_factory=dict, description="Metadata lines of the spectrum file "
-                                                                            "(key → value, the first 40, cut to "
-                                                                            "120 characters).")
+    preview_value_si: list[float] = Field(
+        description="Highest sample in each preview bin, 4 significant digits, for charts only [SI]."
+    )
+    file_metadata: dict[str, str] = Field(
+        default_factory=dict,
+        description="Metadata lines of the spectrum file (key → value, the first 40, cut to 120 characters).",
+    )
 
 
 class BlueLightTransfer(_Frozen):
@@ -123,16 +135,21 @@ class BlueLightTransfer(_Frozen):
     The report has since been replaced by IEC 62471-7:2023, whose details this tool does not implement.
     """
 
-    k_bv_w_per_lm: float = Field(description="Blue-light hazard efficacy of luminous radiation K_B,v: blue-light "
-                                             "weighted over luminous radiance (or irradiance over illuminance) "
-                                             "[W/lm].")
-    threshold_illuminance_lx: float = Field(description="E_thr: illuminance at which the blue-light weighted "
-                                                        "irradiance reaches the limit set's transfer threshold "
-                                                        "[lx].")
+    k_bv_w_per_lm: float = Field(
+        description="Blue-light hazard efficacy of luminous radiation K_B,v: blue-light "
+        "weighted over luminous radiance (or irradiance over illuminance) "
+        "[W/lm]."
+    )
+    threshold_illuminance_lx: float = Field(
+        description="E_thr: illuminance at which the blue-light weighted "
+        "irradiance reaches the limit set's transfer threshold "
+        "[lx]."
+    )
     luminous_intensity_cd: float = Field(description="Luminous intensity used for d_thr [cd].")
     intensity_source: str = Field(description="Where the luminous intensity comes from.")
-    threshold_distance_mm: float = Field(description="d_thr = √(I_v/E_thr): nearer than this the threshold is "
-                                                     "exceeded [mm].")
+    threshold_distance_mm: float = Field(
+        description="d_thr = √(I_v/E_thr): nearer than this the threshold is exceeded [mm]."
+    )
 
 
 class Scaling(_Frozen):
@@ -173,16 +190,20 @@ class DistanceStudy(_Frozen):
     distance_mm: list[float] = Field(description="Distances of the curves [mm].")
     group: list[str | None] = Field(description="Overall group at each distance.")
     family_group: dict[str, list[str | None]] = Field(description="Group of each hazard family at each distance.")
-    t_max_s: dict[str, list[float | None]] = Field(description="t_max of each family at each distance "
-                                                               "[s]; null where the limit is not reached.")
+    t_max_s: dict[str, list[float | None]] = Field(
+        description="t_max of each family at each distance [s]; null where the limit is not reached."
+    )
     boundaries: list[BoundaryDistance]
-    minimum_distance_mm: dict[str, float | None] = Field(description="Least distance beyond which the product is "
-                                                                     "in each group or lower [mm]; 0 when it is "
-                                                                     "at every distance from 10 mm; null when not "
-                                                                     "reached within 100 m; absent when no hazard "
-                                                                     "family was assessed.")
-    near_field_below_mm: float = Field(description="Five source sizes: nearer, inverse-square values are "
-                                                   "approximate [mm].")
+    minimum_distance_mm: dict[str, float | None] = Field(
+        description="Least distance beyond which the product is "
+        "in each group or lower [mm]; 0 when it is "
+        "at every distance from 10 mm; null when not "
+        "reached within 100 m; absent when no hazard "
+        "family was assessed."
+    )
+    near_field_below_mm: float = Field(
+        description="Five source sizes: nearer, inverse-square values are approximate [mm]."
+    )
 
 
 class HazardBounds(_Frozen):
@@ -205,11 +226,13 @@ class UncertaintyStudy(_Frozen):
     uncertainty_pct: float = Field(description="Expanded (k = 2) scale uncertainty applied [%].")
     wavelength_uncertainty_nm: float = Field(description="Wavelength shift applied, ± [nm].")
     hazards: list[HazardBounds]
-    risk_group_low: str | None = Field(description="Lowest overall group over the variants; null when none is "
-                                                   "determined.")
+    risk_group_low: str | None = Field(
+        description="Lowest overall group over the variants; null when none is determined."
+    )
     risk_group_high: str | None
-    verdict: Literal["robust", "borderline"] = Field(description="borderline when the overall group can change "
-                                                                 "within the uncertainty.")
+    verdict: Literal["robust", "borderline"] = Field(
+        description="borderline when the overall group can change within the uncertainty."
+    )
     note: str
 
 
@@ -218,11 +241,14 @@ class Remedy(_Frozen):
 
     target: str = Field(description="Hazard family, or 'product'.")
     group: str = Field(description="The lower group aimed at.")
-    dimming_factor: float | None = Field(description="Multiply the emission (or use a neutral filter of this "
-                                                     "transmission) [1]; null when not reachable.")
-    area_factor: float | None = Field(description="Radiance hazards: enlarge the emitting area by this factor "
-                                                  "(a diffuser, same power) [1]; null when not applicable or not "
-                                                  "reachable (see note).")
+    dimming_factor: float | None = Field(
+        description="Multiply the emission (or use a neutral filter of this transmission) [1]; null when not reachable."
+    )
+    area_factor: float | None = Field(
+        description="Radiance hazards: enlarge the emitting area by this factor "
+        "(a diffuser, same power) [1]; null when not applicable or not "
+        "reachable (see note)."
+    )
     note: str = Field("", description="Why a factor is null, when it is.")
 
 
@@ -238,9 +264,11 @@ class Remedies(_Frozen):
     """What it would take to reach lower groups."""
 
     remedies: list[Remedy]
-    uv_bands: dict[str, list[BandContribution]] = Field(description="Hazards split by fixed-width bands (the UV "
-                                                                    "hazards by 5 nm), largest first "
-                                                                    "(bands with a share of at least 0.1 %).")
+    uv_bands: dict[str, list[BandContribution]] = Field(
+        description="Hazards split by fixed-width bands (the UV "
+        "hazards by 5 nm), largest first "
+        "(bands with a share of at least 0.1 %)."
+    )
     note: str
 
 
@@ -253,8 +281,9 @@ class LimitSetInfo(_Frozen):
     families: dict[str, list[str]] = Field(description="Hazard family → its member symbols.")
     grouped_families: list[str] = Field(description="Families with risk groups.")
     small_source_alpha_rad: float = Field(description="Below this α the small-source members apply [rad].")
-    weak_stimulus_luminance_cd_m2: float = Field(description="Below this luminance the weak-stimulus members "
-                                                             "apply [cd/m²].")
+    weak_stimulus_luminance_cd_m2: float = Field(
+        description="Below this luminance the weak-stimulus members apply [cd/m²]."
+    )
 
 
 class Provenance(_Frozen):
@@ -265,8 +294,11 @@ class Provenance(_Frozen):
     tables: dict[str, dict[str, str]] = Field(description="Table name → source, edition, sha256.")
     inputs: dict[str, str] = Field(description="Input file (as named in the record) → SHA-256.")
     method: str = Field(description="Integration and interpolation rule.")
-    result_sha256: str = Field("", description="SHA-256 of this result's JSON with this field empty: a result "
-                                               "changed after it was made no longer matches it.")
+    result_sha256: str = Field(
+        "",
+        description="SHA-256 of this result's JSON with this field empty: a result "
+        "changed after it was made no longer matches it.",
+    )
 
 
 class Assessment(_Frozen):
@@ -274,35 +306,45 @@ class Assessment(_Frozen):
 
     id: str
     name: str | None
-    risk_group: RiskGroup | None = Field(description="Highest group over the assessed hazards with risk groups; a "
-                                                     "lower bound when complete is false; null when no such hazard "
-                                                     "could be assessed (no group determined).")
+    risk_group: RiskGroup | None = Field(
+        description="Highest group over the assessed hazards with risk groups; a "
+        "lower bound when complete is false; null when no such hazard "
+        "could be assessed (no group determined)."
+    )
     complete: bool = Field(description="Every applicable hazard was assessed.")
-    basis: Basis = Field("standard", description="'standard': assessed at the standard's distance, a "
-                                                 "classification; 'what-if': at a distance the record asks for "
-                                                 "(at_distance_mm), not a classification.")
-    standard_risk_group: RiskGroup | None = Field(None, description="For a what-if result: the group at the "
-                                                                    "standard's assessment distance.")
-    standard_assessment_distance_mm: float | None = Field(None, description="For a what-if result: the "
-                                                                            "standard's assessment distance [mm].")
+    basis: Basis = Field(
+        "standard",
+        description="'standard': assessed at the standard's distance, a "
+        "classification; 'what-if': at a distance the record asks for "
+        "(at_distance_mm), not a classification.",
+    )
+    standard_risk_group: RiskGroup | None = Field(
+        None, description="For a what-if result: the group at the standard's assessment distance."
+    )
+    standard_assessment_distance_mm: float | None = Field(
+        None, description="For a what-if result: the standard's assessment distance [mm]."
+    )
     assessment_distance_mm: float
     alpha_rad: float
     illuminance_lx: float | None
     hazards: dict[str, HazardResult]
     not_assessed: list[str] = Field(description="Applicable hazards whose band the spectrum does not cover.")
-    deciding_hazards: list[str] = Field(description="Hazards that set the overall group (empty when none is "
-                                                    "determined).")
+    deciding_hazards: list[str] = Field(
+        description="Hazards that set the overall group (empty when none is determined)."
+    )
     geometry: Geometry
     photometry: Photometry
     spectrum: SpectrumSummary
-    blue_light_transfer: BlueLightTransfer | None = Field(None, description="IEC TR 62778 transfer quantities, where "
-                                                                      "B(λ) and V(λ) are covered.")
+    blue_light_transfer: BlueLightTransfer | None = Field(
+        None, description="IEC TR 62778 transfer quantities, where B(λ) and V(λ) are covered."
+    )
     claims: list[ClaimCheck] = Field(default_factory=list, description="Vendor claims in the record, checked.")
     distances: DistanceStudy | None = Field(None, description="Hazard distances and t_max against distance.")
     uncertainty: UncertaintyStudy | None = Field(None, description="Groups within the stated uncertainty.")
     remedies: Remedies | None = Field(None, description="Dimming, diffuser and UV-band findings.")
-    scaling: Scaling | None = Field(None, description="Photometric scaling of a relative spectrum; null for an "
-                                                "absolute one.")
+    scaling: Scaling | None = Field(
+        None, description="Photometric scaling of a relative spectrum; null for an absolute one."
+    )
     record: dict = Field(description="The product record as used.")
     warnings: list[str]
     assumptions: list[str]
@@ -318,8 +360,9 @@ class Assessment(_Frozen):
 
     def sealed(self) -> Assessment:
         """A copy of the result with its :meth:`content_sha256` recorded in the provenance."""
-        return self.model_copy(update={"provenance": self.provenance.model_copy(
-            update={"result_sha256": self.content_sha256()})})
+        return self.model_copy(
+            update={"provenance": self.provenance.model_copy(update={"result_sha256": self.content_sha256()})}
+        )
 
     @property
     def classification_group(self) -> RiskGroup | None:

@@ -31,15 +31,17 @@ from hazard.weighting_tables import load_table
 
 __all__ = ["ACTION_SPECTRA", "FAMILY_LINES", "distance_chart", "margin_chart", "spectrum_chart"]
 
-ACTION_SPECTRA = (("s_uv", "S_UV(λ) actinic UV", None, 1.1),
-                  ("blue_light", "B(λ) blue light", (4, 2.2), 1.1),
-                  ("retinal_thermal", "R(λ) retinal thermal", (0.9, 1.8), 1.4))
+ACTION_SPECTRA = (
+    ("s_uv", "S_UV(λ) actinic UV", None, 1.1),
+    ("blue_light", "B(λ) blue light", (4, 2.2), 1.1),
+    ("retinal_thermal", "R(λ) retinal thermal", (0.9, 1.8), 1.4),
+)
 """Weighting table, legend text, dash pattern (None: solid) and line width of each overlaid action spectrum."""
 
-_Y_DECADES = (-4, 1)          # spectrum chart: 1e-4 … 10 (R peaks at 10)
-_X_DECADES = (-4, 6)          # margin chart: value ÷ Exempt limit from 1e-4 to 1e6
-_TICK = 6.5                   # tick label size [pt]
-_ZONE_LABEL = 5.8             # group name inside a zone of the margin chart [pt]
+_Y_DECADES = (-4, 1)  # spectrum chart: 1e-4 … 10 (R peaks at 10)
+_X_DECADES = (-4, 6)  # margin chart: value ÷ Exempt limit from 1e-4 to 1e6
+_TICK = 6.5  # tick label size [pt]
+_ZONE_LABEL = 5.8  # group name inside a zone of the margin chart [pt]
 
 
 def _power_of_ten(x: float, y: float, exponent: int, fonts: FontSet, anchor: str = "middle") -> Group:
@@ -48,15 +50,31 @@ def _power_of_ten(x: float, y: float, exponent: int, fonts: FontSet, anchor: str
     w_base = stringWidth(base, fonts.regular, _TICK)
     w_sup = stringWidth(sup, fonts.regular, _TICK - 1.5)
     left = x - (w_base + w_sup) / 2 if anchor == "middle" else x - w_base - w_sup
-    return Group(String(left, y, base, fontName=fonts.regular, fontSize=_TICK, fillColor=MUTED),
-                 String(left + w_base + 0.3, y + 2.6, sup, fontName=fonts.regular, fontSize=_TICK - 1.5,
-                        fillColor=MUTED))
+    return Group(
+        String(left, y, base, fontName=fonts.regular, fontSize=_TICK, fillColor=MUTED),
+        String(left + w_base + 0.3, y + 2.6, sup, fontName=fonts.regular, fontSize=_TICK - 1.5, fillColor=MUTED),
+    )
 
 
-def _text(x: float, y: float, text: str, fonts: FontSet, size: float = 7, bold: bool = False,
-          color: colors.Color = INK, anchor: str = "start") -> String:
-    return String(x, y, fonts.clean(text), fontName=fonts.bold if bold else fonts.regular, fontSize=size,
-                  fillColor=color, textAnchor=anchor)
+def _text(
+    x: float,
+    y: float,
+    text: str,
+    fonts: FontSet,
+    size: float = 7,
+    bold: bool = False,
+    color: colors.Color = INK,
+    anchor: str = "start",
+) -> String:
+    return String(
+        x,
+        y,
+        fonts.clean(text),
+        fontName=fonts.bold if bold else fonts.regular,
+        fontSize=size,
+        fillColor=color,
+        textAnchor=anchor,
+    )
 
 
 def _segments(points: list[tuple[float, float]], keep: list[bool]) -> list[list[tuple[float, float]]]:
@@ -118,13 +136,21 @@ def spectrum_chart(assessment: Assessment, width: float, height: float, fonts: F
             if px(end) - px(start) > 40:
                 d.add(_text(px(start) + 4, bottom + 3, "not measured", fonts, 6, color=MUTED))
     for decade in range(y0, y1 + 1):
-        d.add(Line(left, py(10.0 ** decade), left + pw, py(10.0 ** decade), strokeColor=RULE,
-                   strokeWidth=0.3 if decade else 0.7))
-        d.add(_power_of_ten(left - 3, py(10.0 ** decade) - 2.2, decade, fonts, anchor="end"))
+        d.add(
+            Line(
+                left,
+                py(10.0**decade),
+                left + pw,
+                py(10.0**decade),
+                strokeColor=RULE,
+                strokeWidth=0.3 if decade else 0.7,
+            )
+        )
+        d.add(_power_of_ten(left - 3, py(10.0**decade) - 2.2, decade, fonts, anchor="end"))
     for nm in np.arange(lo, hi + 0.5, step):
         d.add(Line(px(nm), bottom, px(nm), bottom - 2.5, strokeColor=INK, strokeWidth=0.5))
         d.add(_text(px(nm), bottom - 10, f"{nm:.0f}", fonts, _TICK, color=MUTED, anchor="middle"))
-    floor = 10.0 ** y0
+    floor = 10.0**y0
     peak = max(s.preview_value_si, default=0.0)
     if peak > 0:
         outline = [(px(nm), py(max(v / peak, floor))) for nm, v in zip(s.preview_nm, s.preview_value_si, strict=True)]
@@ -137,12 +163,23 @@ def spectrum_chart(assessment: Assessment, width: float, height: float, fonts: F
         weights = table.at(grid)
         points = [(px(nm), py(max(w, floor))) for nm, w in zip(grid, weights, strict=True)]
         for run in _segments(points, list(weights >= floor)):
-            d.add(PolyLine([c for point in run for c in point], strokeColor=INK, strokeWidth=line_width,
-                           strokeDashArray=dash, strokeLineCap=1 if dash and dash[0] < 1 else 0))
+            d.add(
+                PolyLine(
+                    [c for point in run for c in point],
+                    strokeColor=INK,
+                    strokeWidth=line_width,
+                    strokeDashArray=dash,
+                    strokeLineCap=1 if dash and dash[0] < 1 else 0,
+                )
+            )
     d.add(Rect(left, bottom, pw, ph, fillColor=None, strokeColor=INK, strokeWidth=0.6))
     d.add(_text(left + pw / 2, 2, "wavelength λ [nm]", fonts, 7, color=MUTED, anchor="middle"))
-    d.add(Group(_text(0, 0, "relative (log)", fonts, 6.5, color=MUTED, anchor="middle"),
-                transform=(0, 1, -1, 0, 6, bottom + ph / 2)))
+    d.add(
+        Group(
+            _text(0, 0, "relative (log)", fonts, 6.5, color=MUTED, anchor="middle"),
+            transform=(0, 1, -1, 0, 6, bottom + ph / 2),
+        )
+    )
     d.add(_legend(left, height - 9, pw, fonts))
     return d
 
@@ -153,12 +190,24 @@ def _legend(x: float, y: float, width: float, fonts: FontSet) -> Group:
     texts = [label] + [text for _, text, _, _ in ACTION_SPECTRA]
     natural = sum(stringWidth(fonts.clean(t), fonts.regular, 7) for t in texts) + len(texts) * 38
     size = 7 * min(1.0, width / natural)
-    g = Group(Rect(x, y - 1, 14, 6, fillColor=SPECTRUM_FILL, strokeColor=SPECTRUM_EDGE, strokeWidth=0.6),
-              _text(x + 18, y, label, fonts, size))
+    g = Group(
+        Rect(x, y - 1, 14, 6, fillColor=SPECTRUM_FILL, strokeColor=SPECTRUM_EDGE, strokeWidth=0.6),
+        _text(x + 18, y, label, fonts, size),
+    )
     cursor = x + 18 + stringWidth(fonts.clean(label), fonts.regular, size) + 14
     for _, text, dash, line_width in ACTION_SPECTRA:
-        g.add(Line(cursor, y + 2.5, cursor + 20, y + 2.5, strokeColor=INK, strokeWidth=line_width,
-                   strokeDashArray=dash, strokeLineCap=1 if dash and dash[0] < 1 else 0))
+        g.add(
+            Line(
+                cursor,
+                y + 2.5,
+                cursor + 20,
+                y + 2.5,
+                strokeColor=INK,
+                strokeWidth=line_width,
+                strokeDashArray=dash,
+                strokeLineCap=1 if dash and dash[0] < 1 else 0,
+            )
+        )
         g.add(_text(cursor + 24, y, text, fonts, size))
         cursor += 24 + stringWidth(fonts.clean(text), fonts.regular, size) + 14
     return g
@@ -191,8 +240,7 @@ def margin_chart(assessment: Assessment, width: float, fonts: FontSet) -> Drawin
     rows = _chart_rows(assessment)
     if not rows:
         d = Drawing(width, 14)
-        d.add(_text(0, 3, "No hazard with risk groups could be assessed, so there is nothing to draw.", fonts,
-                    7.5))
+        d.add(_text(0, 3, "No hazard with risk groups could be assessed, so there is nothing to draw.", fonts, 7.5))
         return d
     row_h, gap, label_w, result_w, bottom, top = 13.5, 1.5, 112.0, 126.0, 22.0, 10.0
     height = bottom + top + len(rows) * (row_h + gap)
@@ -204,7 +252,7 @@ def margin_chart(assessment: Assessment, width: float, fonts: FontSet) -> Drawin
         return left + (min(max(math.log10(ratio), x0), x1) - x0) / (x1 - x0) * pw
 
     for decade in range(x0, x1 + 1):
-        x = px(10.0 ** decade)
+        x = px(10.0**decade)
         d.add(Line(x, bottom, x, height - top, strokeColor=RULE, strokeWidth=0.3))
         d.add(_power_of_ten(x, bottom - 10, decade, fonts))
     one = px(1.0)
@@ -219,21 +267,37 @@ def margin_chart(assessment: Assessment, width: float, fonts: FontSet) -> Drawin
         d.add(_result(hazard, left + pw + 8, y, row_h, fonts))
     lowest = assessment.limit_set.boundaries[0]
     d.add(_text(one, height - top + 4, f"{lowest} limit", fonts, 6.5, bold=True, anchor="middle"))
-    d.add(_text(left + pw / 2, 2, f"value ÷ {lowest} limit (log scale); zones end where the value reaches "
-                "each group's limit", fonts, 7, color=MUTED, anchor="middle"))
+    d.add(
+        _text(
+            left + pw / 2,
+            2,
+            f"value ÷ {lowest} limit (log scale); zones end where the value reaches each group's limit",
+            fonts,
+            7,
+            color=MUTED,
+            anchor="middle",
+        )
+    )
     return d
 
 
-def _row(hazard: HazardResult, groups: list[str], left: float, y: float, pw: float, row_h: float,
-         px: Callable[[float], float], fonts: FontSet) -> Group:
+def _row(
+    hazard: HazardResult,
+    groups: list[str],
+    left: float,
+    y: float,
+    pw: float,
+    row_h: float,
+    px: Callable[[float], float],
+    fonts: FontSet,
+) -> Group:
     """One hazard's band: group zones, boundary lines and the value marker (or why there is none)."""
     g = Group()
     margins = hazard.margins
     boundaries = list(margins)  # rising; the zone beyond the last is the next group
     if margins[boundaries[0]] <= 0:
         g.add(Rect(left, y, pw, row_h, fillColor=colors.white, strokeColor=RULE, strokeWidth=0.5))
-        g.add(_text(left + 6, y + row_h / 2 - 2.5, "value 0: nothing emitted in this band", fonts, 7,
-                    color=MUTED))
+        g.add(_text(left + 6, y + row_h / 2 - 2.5, "value 0: nothing emitted in this band", fonts, 7, color=MUTED))
         return g
     value = margins[boundaries[0]]
     edges = [px(10.0 ** _X_DECADES[0]), *(px(value / margins[b]) for b in boundaries), px(10.0 ** _X_DECADES[1])]
@@ -242,8 +306,7 @@ def _row(hazard: HazardResult, groups: list[str], left: float, y: float, pw: flo
             continue
         g.add(Rect(start, y, end - start, row_h, fillColor=group_fill(group), strokeColor=None))
         if end - start >= stringWidth(group, fonts.bold, _ZONE_LABEL) + 5:
-            g.add(_text(start + 2.5, y + row_h - 5.6, group, fonts, _ZONE_LABEL, bold=True,
-                        color=group_ink(group)))
+            g.add(_text(start + 2.5, y + row_h - 5.6, group, fonts, _ZONE_LABEL, bold=True, color=group_ink(group)))
     for edge in edges[1:-1]:
         g.add(Line(edge, y, edge, y + row_h, strokeColor=INK, strokeWidth=0.7))
     g.add(Rect(left, y, pw, row_h, fillColor=None, strokeColor=INK, strokeWidth=0.5))
@@ -269,15 +332,20 @@ def _result(hazard: HazardResult, x: float, y: float, row_h: float, fonts: FontS
     g = Group()
     group = hazard.risk_group
     g.add(Rect(x, y + 2, 38, row_h - 4, fillColor=group_fill(group), strokeColor=INK, strokeWidth=0.5))
-    g.add(_text(x + 19, y + row_h / 2 - 2.5, group, fonts, 7, bold=True, color=group_ink(group),
-                anchor="middle"))
+    g.add(_text(x + 19, y + row_h / 2 - 2.5, group, fonts, 7, bold=True, color=group_ink(group), anchor="middle"))
     margin = format_margin(group, hazard.margins)
     g.add(_text(x + 42, y + row_h / 2 - 2.5, margin, fonts, 6.8))
     return g
 
 
-FAMILY_LINES = (((), 1.3), ((4.5, 2.0), 1.1), ((0.9, 1.9), 1.5), ((6.0, 1.8, 1.2, 1.8), 1.0), ((10.0, 2.5), 1.6),
-                ((2.0, 1.2, 2.0, 1.2, 0.6, 3.0), 0.7))
+FAMILY_LINES = (
+    ((), 1.3),
+    ((4.5, 2.0), 1.1),
+    ((0.9, 1.9), 1.5),
+    ((6.0, 1.8, 1.2, 1.8), 1.0),
+    ((10.0, 2.5), 1.6),
+    ((2.0, 1.2, 2.0, 1.2, 0.6, 3.0), 0.7),
+)
 """Dash pattern (empty: solid) and line width of the t_max curve of each family, in the limit set's order, in
 :func:`distance_chart`."""
 _FALLBACK_LINE = ((1.5, 1.5), 0.8)
@@ -287,7 +355,9 @@ def _line_of(study, family: str) -> tuple[tuple[float, ...], float]:
     order = list(study.t_max_s)
     index = order.index(family)
     return FAMILY_LINES[index] if index < len(FAMILY_LINES) else _FALLBACK_LINE
-_MAX_T_DECADES = 12           # distance chart: at most this many decades of t_max
+
+
+_MAX_T_DECADES = 12  # distance chart: at most this many decades of t_max
 
 
 def _dash(pattern: tuple[float, ...]) -> dict:
@@ -297,8 +367,9 @@ def _dash(pattern: tuple[float, ...]) -> dict:
     return {"strokeDashArray": list(pattern), "strokeLineCap": 1 if pattern[0] < 1 else 0}
 
 
-def _group_runs(distance_mm: list[float], group: list[str | None], exact: dict[str, float | None]
-                ) -> list[tuple[str | None, float, float]]:
+def _group_runs(
+    distance_mm: list[float], group: list[str | None], exact: dict[str, float | None]
+) -> list[tuple[str | None, float, float]]:
     """Runs of equal overall group along the grid as (group, start, end) [mm].
 
     A run ends halfway (on the log axis) between the last grid point of one group and the first of the next,
@@ -373,23 +444,35 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
         d.add(Rect(px(dmin), bottom, px(near) - px(dmin), ph, fillColor=PANEL, strokeColor=None))
     step = 1 if t1 - t0 <= 8 else 2
     for decade in range(t0, t1 + 1):
-        y = py(10.0 ** decade)
+        y = py(10.0**decade)
         d.add(Line(left, y, left + pw, y, strokeColor=RULE, strokeWidth=0.3))
         if (decade - t0) % step == 0:
             d.add(_power_of_ten(left - 3, y - 2.2, decade, fonts, anchor="end"))
     for decade in range(math.ceil(x0), math.floor(x1) + 1):
-        x = px(10.0 ** decade)
+        x = px(10.0**decade)
         d.add(Line(x, bottom, x, plot_top, strokeColor=RULE, strokeWidth=0.3))
         d.add(Line(x, bottom, x, bottom - 2.5, strokeColor=INK, strokeWidth=0.5))
         d.add(_power_of_ten(x, bottom - 10, decade, fonts))
     if near > dmin:
-        d.add(Line(px(near), bottom, px(near), plot_top + near_row - 2, strokeColor=MUTED, strokeWidth=0.6,
-                   strokeDashArray=[2, 1.5]))
+        d.add(
+            Line(
+                px(near),
+                bottom,
+                px(near),
+                plot_top + near_row - 2,
+                strokeColor=MUTED,
+                strokeWidth=0.6,
+                strokeDashArray=[2, 1.5],
+            )
+        )
     curves, labels = _curves(study, px, py, (left, bottom, pw, ph), fonts)
     d.add(curves)
     if not labels.contents:
-        empty = ("No hazard could be assessed at any distance." if all(g is None for g in study.group) else
-                 "No exposure limit is reached at any distance studied (within each limit's time range).")
+        empty = (
+            "No hazard could be assessed at any distance."
+            if all(g is None for g in study.group)
+            else "No exposure limit is reached at any distance studied (within each limit's time range)."
+        )
         d.add(_text(left + pw / 2, bottom + ph / 2 - 3, empty, fonts, 7.5, color=MUTED, anchor="middle"))
     d.add(Rect(left, bottom, pw, ph, fillColor=None, strokeColor=INK, strokeWidth=0.6))
     at = assessment.assessment_distance_mm
@@ -401,13 +484,21 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
     if shown:
         x = px(at)
         d.add(Line(x, bottom, x, strip_top + 1, strokeColor=INK, strokeWidth=1.0))
-        d.add(Polygon([x - 3.2, bottom - 0.5, x + 3.2, bottom - 0.5, x, bottom + 4.5], fillColor=INK,
-                      strokeColor=None))
+        d.add(Polygon([x - 3.2, bottom - 0.5, x + 3.2, bottom - 0.5, x, bottom + 4.5], fillColor=INK, strokeColor=None))
         d.add(_text(tx, strip_top + 2.5, text, fonts, 6.5, bold=True))
     d.add(_text(left - 3, strip_bottom + strip_h / 2 - 2.2, "group", fonts, 6.5, bold=True, anchor="end"))
     if near > dmin:  # over the assessment line, which passes behind it
-        d.add(Rect(px(dmin), plot_top + 1.5, px(near) - px(dmin), near_row - 3.5, fillColor=PANEL,
-                   strokeColor=MUTED, strokeWidth=0.4))
+        d.add(
+            Rect(
+                px(dmin),
+                plot_top + 1.5,
+                px(near) - px(dmin),
+                near_row - 3.5,
+                fillColor=PANEL,
+                strokeColor=MUTED,
+                strokeWidth=0.4,
+            )
+        )
         text = fonts.clean(f"near field, under {near:.0f} mm: approximate")
         size = 6.2
         y = plot_top + 2.8
@@ -415,21 +506,43 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
             d.add(_text((px(dmin) + px(near)) / 2, y, text, fonts, size, color=INK, anchor="middle"))
         else:
             tip = px(near) + 2.5  # a small triangle pointing at the band (a glyph the fonts lack)
-            d.add(Rect(tip, y - 1.8, stringWidth(text, fonts.regular, size) + 8, size + 2, fillColor=colors.white,
-                       strokeColor=None))  # over the assessment line where it crosses
+            d.add(
+                Rect(
+                    tip,
+                    y - 1.8,
+                    stringWidth(text, fonts.regular, size) + 8,
+                    size + 2,
+                    fillColor=colors.white,
+                    strokeColor=None,
+                )
+            )  # over the assessment line where it crosses
             d.add(Polygon([tip, y + 2.2, tip + 4, y + 4.4, tip + 4, y], fillColor=INK, strokeColor=None))
             d.add(_text(tip + 6.5, y, text, fonts, size, color=INK))
     d.add(labels)
-    d.add(_text(left + pw / 2, bottom - 19, "distance from the source [mm] (log scale; 10³ mm = 1 m)", fonts, 7,
-                color=MUTED, anchor="middle"))
-    d.add(Group(_text(0, 0, "t_max [s] (log)", fonts, 6.5, color=MUTED, anchor="middle"),
-                transform=(0, 1, -1, 0, 7, bottom + ph / 2)))
+    d.add(
+        _text(
+            left + pw / 2,
+            bottom - 19,
+            "distance from the source [mm] (log scale; 10³ mm = 1 m)",
+            fonts,
+            7,
+            color=MUTED,
+            anchor="middle",
+        )
+    )
+    d.add(
+        Group(
+            _text(0, 0, "t_max [s] (log)", fonts, 6.5, color=MUTED, anchor="middle"),
+            transform=(0, 1, -1, 0, 7, bottom + ph / 2),
+        )
+    )
     d.add(_family_legend(study, left, 2, pw, fonts))
     return d
 
 
-def _strip(study, px: Callable[[float], float], y: float, h: float, fonts: FontSet,
-           taken: list[tuple[float, float]]) -> Group:
+def _strip(
+    study, px: Callable[[float], float], y: float, h: float, fonts: FontSet, taken: list[tuple[float, float]]
+) -> Group:
     """The overall group at each distance as filled runs, each labelled in text.
 
     A label goes inside where it has room, else just above the strip, clear of the spans in ``taken`` (x from, x to)
@@ -443,8 +556,11 @@ def _strip(study, px: Callable[[float], float], y: float, h: float, fonts: FontS
         label = group or "not assessed"
         size = 7 if group else 6
         if w >= stringWidth(label, fonts.bold, size) + 4:
-            g.add(_text(x + w / 2, y + h / 2 - 2.5, label, fonts, size, bold=True, color=group_ink(group),
-                        anchor="middle"))
+            g.add(
+                _text(
+                    x + w / 2, y + h / 2 - 2.5, label, fonts, size, bold=True, color=group_ink(group), anchor="middle"
+                )
+            )
             continue
         width = stringWidth(label, fonts.bold, 6)
         lx = x + w / 2 - width / 2
@@ -456,13 +572,27 @@ def _strip(study, px: Callable[[float], float], y: float, h: float, fonts: FontS
         g.add(Line(x + w / 2, y + h, x + w / 2, y + h + 2, strokeColor=INK, strokeWidth=0.5))
     for _, start, _ in runs[1:]:
         g.add(Line(px(start), y, px(start), y + h, strokeColor=INK, strokeWidth=0.7))
-    g.add(Rect(px(study.distance_mm[0]), y, px(study.distance_mm[-1]) - px(study.distance_mm[0]), h,
-               fillColor=None, strokeColor=INK, strokeWidth=0.6))
+    g.add(
+        Rect(
+            px(study.distance_mm[0]),
+            y,
+            px(study.distance_mm[-1]) - px(study.distance_mm[0]),
+            h,
+            fillColor=None,
+            strokeColor=INK,
+            strokeWidth=0.6,
+        )
+    )
     return g
 
 
-def _curves(study, px: Callable[[float], float], py: Callable[[float], float],
-            box: tuple[float, float, float, float], fonts: FontSet) -> tuple[Group, Group]:
+def _curves(
+    study,
+    px: Callable[[float], float],
+    py: Callable[[float], float],
+    box: tuple[float, float, float, float],
+    fonts: FontSet,
+) -> tuple[Group, Group]:
     """Each family's t_max curve (gaps where it is None or off the axis), and its name at the curve's end."""
     _, bottom, _, ph = box
     g, labels = Group(), Group()
@@ -476,15 +606,19 @@ def _curves(study, px: Callable[[float], float], py: Callable[[float], float],
             keep.append(ok)
         runs = _segments(points, keep)
         for run in runs:
-            g.add(PolyLine([c for point in run for c in point], strokeColor=INK, strokeWidth=line_width,
-                           **_dash(dash)))
+            g.add(PolyLine([c for point in run for c in point], strokeColor=INK, strokeWidth=line_width, **_dash(dash)))
         if runs:
             labels.add(_end_label(family, runs[-1][-1], box, placed, fonts))
     return g, labels
 
 
-def _end_label(family: str, end: tuple[float, float], box: tuple[float, float, float, float],
-               placed: list[tuple[float, float, float, float]], fonts: FontSet) -> Group:
+def _end_label(
+    family: str,
+    end: tuple[float, float],
+    box: tuple[float, float, float, float],
+    placed: list[tuple[float, float, float, float]],
+    fonts: FontSet,
+) -> Group:
     """The family's name beside its curve's last point, moved down past labels already placed."""
     left, bottom, pw, ph = box
     size = 6.3
@@ -497,14 +631,19 @@ def _end_label(family: str, end: tuple[float, float], box: tuple[float, float, f
             break
         y = y - size - 1 if y - size - 1 >= bottom + 2 else y + 2 * (size + 1)
     placed.append((x, y, x + w, y + size))
-    return Group(Rect(x - 1, y - 1.6, w + 2, size + 1.6, fillColor=colors.white, strokeColor=None),
-                 String(x, y, text, fontName=fonts.bold, fontSize=size, fillColor=INK))
+    return Group(
+        Rect(x - 1, y - 1.6, w + 2, size + 1.6, fillColor=colors.white, strokeColor=None),
+        String(x, y, text, fontName=fonts.bold, fontSize=size, fillColor=INK),
+    )
 
 
 def _family_legend(study, x: float, y: float, width: float, fonts: FontSet) -> Group:
     """One sample line and name per family drawn (those whose limit is reached somewhere)."""
-    entries = [(family, fonts.clean(family + ("" if family in study.family_group else " (no groups)")))
-               for family, ts in study.t_max_s.items() if any(t is not None for t in ts)]
+    entries = [
+        (family, fonts.clean(family + ("" if family in study.family_group else " (no groups)")))
+        for family, ts in study.t_max_s.items()
+        if any(t is not None for t in ts)
+    ]
     natural = sum(stringWidth(t, fonts.regular, 7) for _, t in entries) + len(entries) * 36
     size = 7 * min(1.0, width / max(natural, 1.0))
     g = Group()

@@ -55,8 +55,7 @@ def _register(regular: tuple[str, str], bold: tuple[str, str], greek: bool) -> F
         if name not in pdfmetrics.getRegisteredFontNames():
             pdfmetrics.registerFont(TTFont(name, path))
     family = regular[0]
-    for is_bold, is_italic, face in ((0, 0, regular[0]), (1, 0, bold[0]), (0, 1, regular[0]),
-                                     (1, 1, bold[0])):
+    for is_bold, is_italic, face in ((0, 0, regular[0]), (1, 0, bold[0]), (0, 1, regular[0]), (1, 1, bold[0])):
         addMapping(family, is_bold, is_italic, face)
     return FontSet(regular=regular[0], bold=bold[0], greek=greek)
 

@@ -93,9 +93,19 @@ def build_pdf(flowables: list[Flowable], fonts: FontSet, title: str, header: str
         The PDF; identical for identical input (reportlab's invariant mode fixes dates and ids).
     """
     buffer = io.BytesIO()
-    doc = SimpleDocTemplate(buffer, pagesize=A4, leftMargin=MARGIN, rightMargin=MARGIN, topMargin=_TOP_MARGIN,
-                            bottomMargin=_BOTTOM_MARGIN, title=title, author=author, creator=author,
-                            subject="Photobiological safety pre-screen", invariant=1)
+    doc = SimpleDocTemplate(
+        buffer,
+        pagesize=A4,
+        leftMargin=MARGIN,
+        rightMargin=MARGIN,
+        topMargin=_TOP_MARGIN,
+        bottomMargin=_BOTTOM_MARGIN,
+        title=title,
+        author=author,
+        creator=author,
+        subject="Photobiological safety pre-screen",
+        invariant=1,
+    )
     doc.build(flowables, canvasmaker=partial(_FramedCanvas, fonts=fonts, header=header))
     return buffer.getvalue()
 

@@ -42,8 +42,11 @@ from hazard.result import Assessment, HazardResult
 
 __all__ = ["render_assessment_pdf"]
 
-_ANCHOR = {"illuminance_lx": ("illuminance", "lx"), "luminous_intensity_cd": ("luminous intensity", "cd"),
-           "luminance_cd_m2": ("luminance", "cd/m²")}
+_ANCHOR = {
+    "illuminance_lx": ("illuminance", "lx"),
+    "luminous_intensity_cd": ("luminous intensity", "cd"),
+    "luminance_cd_m2": ("luminance", "cd/m²"),
+}
 _SPECTRAL_UNIT = {"irradiance": "W/(m²·nm)", "radiance": "W/(m²·sr·nm)"}
 
 
@@ -82,17 +85,26 @@ def _heading(a: Assessment, st: Styles, moment: datetime.datetime) -> Flowable:
     left = [st.p(f"PHOTOBIOLOGICAL SAFETY PRE-SCREEN · {p.limit_set} method", st.kicker), st.p(a.id, st.title)]
     if a.name:
         left.append(st.p(a.name, st.subtitle))
-    maker = [f"{label} {a.record[key]}" for key, label in (("vendor", "Vendor:"), ("model", "Model:"))
-             if a.record.get(key)]
+    maker = [
+        f"{label} {a.record[key]}" for key, label in (("vendor", "Vendor:"), ("model", "Model:")) if a.record.get(key)
+    ]
     if maker:
         left.append(st.p(" · ".join(maker), st.small))
-    right = [st.bold_lead("Report date", format_report_time(moment), st.small),
-             st.bold_lead("Tool", f"hazard {p.tool_version}", st.small),
-             st.bold_lead("Limit set", p.limit_set, st.small)]
+    right = [
+        st.bold_lead("Report date", format_report_time(moment), st.small),
+        st.bold_lead("Tool", f"hazard {p.tool_version}", st.small),
+        st.bold_lead("Limit set", p.limit_set, st.small),
+    ]
     table = Table([[left, right]], colWidths=[FRAME_WIDTH - 150, 150])
-    table.setStyle([("VALIGN", (0, 0), (-1, -1), "TOP"), ("LEFTPADDING", (0, 0), (-1, -1), 0),
-                    ("RIGHTPADDING", (0, 0), (-1, -1), 0), ("LINEBELOW", (0, 0), (-1, 0), 1.2, INK),
-                    ("BOTTOMPADDING", (0, 0), (-1, -1), 5)])
+    table.setStyle(
+        [
+            ("VALIGN", (0, 0), (-1, -1), "TOP"),
+            ("LEFTPADDING", (0, 0), (-1, -1), 0),
+            ("RIGHTPADDING", (0, 0), (-1, -1), 0),
+            ("LINEBELOW", (0, 0), (-1, 0), 1.2, INK),
+            ("BOTTOMPADDING", (0, 0), (-1, -1), 5),
+        ]
+    )
     return table
 
 
@@ -103,8 +115,11 @@ def _deciding(a: Assessment) -> tuple[str, str]:
     if a.risk_group == "Exempt":
         closest = tightest_margin(a)
         h = a.hazards[closest.symbol]
-        return ("Closest to a boundary:", f"{closest.symbol} ({h.title}, {format_margin(h.risk_group, h.margins)}); "
-                                          f"every assessed hazard is within its Exempt limit")
+        return (
+            "Closest to a boundary:",
+            f"{closest.symbol} ({h.title}, {format_margin(h.risk_group, h.margins)}); "
+            f"every assessed hazard is within its Exempt limit",
+        )
     parts = []
     for symbol in a.deciding_hazards:
         h = a.hazards[symbol]
@@ -133,15 +148,19 @@ def _verdict(a: Assessment, st: Styles, studies_page: int) -> Flowable:
     size = min(st.verdict.fontSize, 80 / stringWidth(group or "n/d", st.fonts.bold, 1))
     label_style = st.verdict.clone("verdict_group", textColor=group_ink(group), fontSize=size, leading=size * 1.15)
     small_label = st.head.clone("tile_note", alignment=1, textColor=group_ink(group))
-    label = [st.p(group or "n/d", label_style)] if group else [st.p("not determined", small_label.clone(
-        "nd", fontSize=11, leading=13))]
+    label = (
+        [st.p(group or "n/d", label_style)]
+        if group
+        else [st.p("not determined", small_label.clone("nd", fontSize=11, leading=13))]
+    )
     if group is None:
         text = [st.p(f"Overall risk group: {shown}", st.verdict_head), st.p(NOT_DETERMINED_MEANING)]
     else:
-        lead = (f"What-if group at {a.assessment_distance_mm:.0f} mm" if a.basis == "what-if"
-                else "Overall risk group")
-        text = [st.p(f"{lead}: {group} — {GROUP_NAME[group]}", st.verdict_head),
-                st.p(GROUP_MEANING[group] + ("" if a.complete else " " + LOWER_BOUND_MEANING))]
+        lead = f"What-if group at {a.assessment_distance_mm:.0f} mm" if a.basis == "what-if" else "Overall risk group"
+        text = [
+            st.p(f"{lead}: {group} — {GROUP_NAME[group]}", st.verdict_head),
+            st.p(GROUP_MEANING[group] + ("" if a.complete else " " + LOWER_BOUND_MEANING)),
+        ]
     text.append(st.bold_lead(*_deciding(a), st.small))
     if group is not None and not a.complete:
         label.append(st.p("lower bound", small_label))
@@ -149,42 +168,79 @@ def _verdict(a: Assessment, st: Styles, studies_page: int) -> Flowable:
     if a.basis == "what-if":
         label.insert(0, st.p(f"what-if at {a.assessment_distance_mm:.0f} mm", small_label))
         standard = a.standard_risk_group or "not determined"
-        text.insert(0, st.p(f"WHAT-IF at {a.assessment_distance_mm:.0f} mm — the standard's distance "
-                            f"({a.standard_assessment_distance_mm:.0f} mm) gives {standard}"
-                            f"{'' if a.complete or a.standard_risk_group is None else ' (lower bound)'}", st.banner))
+        text.insert(
+            0,
+            st.p(
+                f"WHAT-IF at {a.assessment_distance_mm:.0f} mm — the standard's distance "
+                f"({a.standard_assessment_distance_mm:.0f} mm) gives {standard}"
+                f"{'' if a.complete or a.standard_risk_group is None else ' (lower bound)'}",
+                st.banner,
+            ),
+        )
         text.insert(1, st.p(WHAT_IF_MEANING, st.small))
     if a.uncertainty is not None:
         if a.uncertainty.verdict == "borderline":
             label.append(st.p("BORDERLINE", small_label))
         text.append(st.bold_lead(*uncertainty_summary(a, studies_page), st.small))
     table = Table([[label, text]], colWidths=[96, FRAME_WIDTH - 96])
-    table.setStyle([("BACKGROUND", (0, 0), (0, 0), fill), ("BOX", (0, 0), (0, 0), 1.2, INK),
-                    ("VALIGN", (0, 0), (0, 0), "MIDDLE"), ("VALIGN", (1, 0), (1, 0), "TOP"),
-                    ("LEFTPADDING", (1, 0), (1, 0), 10), ("TOPPADDING", (0, 0), (-1, -1), 4),
-                    ("BOTTOMPADDING", (0, 0), (-1, -1), 4)])
+    table.setStyle(
+        [
+            ("BACKGROUND", (0, 0), (0, 0), fill),
+            ("BOX", (0, 0), (0, 0), 1.2, INK),
+            ("VALIGN", (0, 0), (0, 0), "MIDDLE"),
+            ("VALIGN", (1, 0), (1, 0), "TOP"),
+            ("LEFTPADDING", (1, 0), (1, 0), 10),
+            ("TOPPADDING", (0, 0), (-1, -1), 4),
+            ("BOTTOMPADDING", (0, 0), (-1, -1), 4),
+        ]
+    )
     return table
 
 
 def _cautions(a: Assessment, st: Styles) -> Flowable:
     rows = [[st.p("Cautions", st.cell_bold)]] + [[st.p(f"• {c}", st.small)] for c in a.cautions]
     table = Table(rows, colWidths=[FRAME_WIDTH])
-    table.setStyle([("BACKGROUND", (0, 0), (-1, -1), PANEL), ("LINEBEFORE", (0, 0), (0, -1), 2.5, INK),
-                    ("LEFTPADDING", (0, 0), (-1, -1), 8), ("TOPPADDING", (0, 0), (-1, -1), 1.5),
-                    ("BOTTOMPADDING", (0, 0), (-1, -1), 1.5), ("TOPPADDING", (0, 0), (-1, 0), 4),
-                    ("BOTTOMPADDING", (0, -1), (-1, -1), 5)])
+    table.setStyle(
+        [
+            ("BACKGROUND", (0, 0), (-1, -1), PANEL),
+            ("LINEBEFORE", (0, 0), (0, -1), 2.5, INK),
+            ("LEFTPADDING", (0, 0), (-1, -1), 8),
+            ("TOPPADDING", (0, 0), (-1, -1), 1.5),
+            ("BOTTOMPADDING", (0, 0), (-1, -1), 1.5),
+            ("TOPPADDING", (0, 0), (-1, 0), 4),
+            ("BOTTOMPADDING", (0, -1), (-1, -1), 5),
+        ]
+    )
     return table
 
 
-_TYPICAL_ROW = ["X_XXX", "xxxxxxx, xxx (xxxx)", "7.50e-04", "W/(m²·sr)", "5.05e+05", "5.05e+05", "1.31e+06",
-                "4.4 min", "Exempt", "58.4 % of Exempt limit"]
+_TYPICAL_ROW = [
+    "X_XXX",
+    "xxxxxxx, xxx (xxxx)",
+    "7.50e-04",
+    "W/(m²·sr)",
+    "5.05e+05",
+    "5.05e+05",
+    "1.31e+06",
+    "4.4 min",
+    "Exempt",
+    "58.4 % of Exempt limit",
+]
 """Wide entries of each hazard-table column, so the columns stay the same from report to report."""
 
 
 def _hazard_row(h: HazardResult, boundaries: list[str]) -> list[str]:
     """The hazard-table cells of an assessed hazard, formatted as the text output formats them."""
-    return [h.symbol, h.title, format_value(h.value), _unit(h.unit),
-            *(format_limit(h.limits.get(b)) for b in boundaries), format_duration_s(h.t_max_s),
-            h.risk_group or "EL only", format_margin(h.risk_group, h.margins)]
+    return [
+        h.symbol,
+        h.title,
+        format_value(h.value),
+        _unit(h.unit),
+        *(format_limit(h.limits.get(b)) for b in boundaries),
+        format_duration_s(h.t_max_s),
+        h.risk_group or "EL only",
+        format_margin(h.risk_group, h.margins),
+    ]
 
 
 def _hazard_table(a: Assessment, st: Styles) -> Flowable:
@@ -195,8 +251,7 @@ def _hazard_table(a: Assessment, st: Styles) -> Flowable:
     fitted = [_TYPICAL_ROW]
     for i, h in enumerate(a.hazards.values(), start=2):
         if not h.assessed:
-            rows.append([st.p(h.symbol, st.cell_bold), st.p(h.title, st.cell), st.p(h.note, st.cell)]
-                        + [""] * 7)
+            rows.append([st.p(h.symbol, st.cell_bold), st.p(h.title, st.cell), st.p(h.note, st.cell)] + [""] * 7)
             extra.append(("SPAN", (2, i), (9, i)))
             continue
         cells = _hazard_row(h, a.limit_set.boundaries)
@@ -206,8 +261,12 @@ def _hazard_table(a: Assessment, st: Styles) -> Flowable:
         row = [st.p(text, style) for text, style in zip(cells[:9], styles, strict=False)]
         if h.compared and any(v != h.value for v in h.compared.values()):  # field averages: show what was compared
             for k, b in enumerate(a.limit_set.boundaries):
-                row[4 + k] = st.p("", st.cell, markup=f"{st.text(cells[4 + k])}<br/><font size=6>"
-                                                      f"{st.text('(' + format_value(h.compared[b]) + ')')}</font>")
+                row[4 + k] = st.p(
+                    "",
+                    st.cell,
+                    markup=f"{st.text(cells[4 + k])}<br/><font size=6>"
+                    f"{st.text('(' + format_value(h.compared[b]) + ')')}</font>",
+                )
         rows.append([*row, st.p("", st.cell, markup="<br/>".join(st.text(part) for part in cells[9].split("; ")))])
         extra.append(("BACKGROUND", (8, i), (8, i), group_fill(h.risk_group)))
     header = [top if top != "Limits as applied" and top else below for top, below in zip(head, sub, strict=True)]
@@ -218,51 +277,69 @@ def _hazard_table(a: Assessment, st: Styles) -> Flowable:
 
 
 def _hazard_caption(st: Styles) -> Flowable:
-    return st.p("Radiance hazards: the value is the source's own radiance; the field-of-view average compared with "
-                "each limit is in brackets under it. Limits over α after the α bounds. t_max: time to the exposure "
-                "limit (—: not within its range). Margin: value ÷ limit at the boundary below the hazard's group and "
-                "the one above it. EL only: no groups.", st.caption)
+    return st.p(
+        "Radiance hazards: the value is the source's own radiance; the field-of-view average compared with "
+        "each limit is in brackets under it. Limits over α after the α bounds. t_max: time to the exposure "
+        "limit (—: not within its range). Margin: value ÷ limit at the boundary below the hazard's group and "
+        "the one above it. EL only: no groups.",
+        st.caption,
+    )
 
 
-_KEY_VALUE_STYLE = [("VALIGN", (0, 0), (-1, -1), "TOP"), ("LEFTPADDING", (0, 0), (-1, -1), 0),
-                    ("RIGHTPADDING", (0, 0), (-1, -1), 6), ("TOPPADDING", (0, 0), (-1, -1), 1),
-                    ("BOTTOMPADDING", (0, 0), (-1, -1), 1.5),
-                    ("LINEBELOW", (0, 0), (-1, -1), 0.3, HAIRLINE)]
+_KEY_VALUE_STYLE = [
+    ("VALIGN", (0, 0), (-1, -1), "TOP"),
+    ("LEFTPADDING", (0, 0), (-1, -1), 0),
+    ("RIGHTPADDING", (0, 0), (-1, -1), 6),
+    ("TOPPADDING", (0, 0), (-1, -1), 1),
+    ("BOTTOMPADDING", (0, 0), (-1, -1), 1.5),
+    ("LINEBELOW", (0, 0), (-1, -1), 0.3, HAIRLINE),
+]
 
 
 def _key_values(rows: list[tuple[str, str]], st: Styles, key_width: float = 104) -> Table:
-    table = Table([[st.p(k, st.cell_bold), st.p(v, st.cell)] for k, v in rows],
-                  colWidths=[key_width, FRAME_WIDTH - key_width])
+    table = Table(
+        [[st.p(k, st.cell_bold), st.p(v, st.cell)] for k, v in rows], colWidths=[key_width, FRAME_WIDTH - key_width]
+    )
     table.setStyle(_KEY_VALUE_STYLE)
     return table
 
 
 def _geometry(a: Assessment, st: Styles, studies_page: int) -> Flowable:
     g, ph = a.geometry, a.photometry
-    source = (f"largest dimension {g.largest_dimension_mm:g} mm; α = {format_value(g.alpha_rad)} rad at the "
-              f"assessment distance; Ω_s = {format_value(g.source_solid_angle_sr)} sr")
+    source = (
+        f"largest dimension {g.largest_dimension_mm:g} mm; α = {format_value(g.alpha_rad)} rad at the "
+        f"assessment distance; Ω_s = {format_value(g.source_solid_angle_sr)} sr"
+    )
     if g.small_source:
-        source += (f"; small source (α < {a.limit_set.small_source_alpha_rad:g} rad): the small-source forms of "
-                   f"the hazards apply")
+        source += (
+            f"; small source (α < {a.limit_set.small_source_alpha_rad:g} rad): the small-source forms of "
+            f"the hazards apply"
+        )
     if g.weak_visual_stimulus:
-        source += (f"; weak visual stimulus (below {a.limit_set.weak_stimulus_luminance_cd_m2:g} cd/m²): the "
-                   f"weak-stimulus forms of the hazards apply")
+        source += (
+            f"; weak visual stimulus (below {a.limit_set.weak_stimulus_luminance_cd_m2:g} cd/m²): the "
+            f"weak-stimulus forms of the hazards apply"
+        )
     peak_to_mean = a.record.get("peak_to_mean_radiance", 1.0)
     if peak_to_mean > 1:
         source += f"; radiance values × {peak_to_mean:g}, the record's peak-to-mean radiance (hot spots)"
-    measured = ("" if g.measurement_distance_mm is None
-                else f" (spectrum measured at {g.measurement_distance_mm:g} mm)")
+    measured = "" if g.measurement_distance_mm is None else f" (spectrum measured at {g.measurement_distance_mm:g} mm)"
     if a.complete:
         completeness = "complete: every applicable hazard was assessed"
     else:
-        completeness = (f"INCOMPLETE — not assessed: {', '.join(a.not_assessed)} (why: see the table); "
-                        + ("no risk group could be determined" if a.risk_group is None else
-                           "the overall group is a lower bound"))
-    cells = [("Distance", f"{g.assessment_distance_mm:.0f} mm{measured} — {g.distance_rule}"),
-             ("Source", source),
-             ("Photometry", f"{format_value(ph.illuminance_lx)} lx at the assessment distance; luminance "
-                            f"{format_value(ph.luminance_cd_m2)} cd/m²"),
-             ("Completeness", completeness)]
+        completeness = f"INCOMPLETE — not assessed: {', '.join(a.not_assessed)} (why: see the table); " + (
+            "no risk group could be determined" if a.risk_group is None else "the overall group is a lower bound"
+        )
+    cells = [
+        ("Distance", f"{g.assessment_distance_mm:.0f} mm{measured} — {g.distance_rule}"),
+        ("Source", source),
+        (
+            "Photometry",
+            f"{format_value(ph.illuminance_lx)} lx at the assessment distance; luminance "
+            f"{format_value(ph.luminance_cd_m2)} cd/m²",
+        ),
+        ("Completeness", completeness),
+    ]
     if a.scaling is not None:
         cells.append(("Scaling", _scaling(a)))
     if a.claims:
@@ -278,8 +355,10 @@ def _scaling(a: Assessment) -> str:
     sc = a.scaling
     name, unit = _ANCHOR[sc.anchor]
     at = "" if sc.reference_distance_mm is None else f" at {sc.reference_distance_mm:g} mm"
-    return (f"relative spectrum made absolute by the stated {name}, {format_value(sc.anchor_value)} {unit}{at} "
-            f"(× {format_value(sc.scale_factor)} SI per unit); every value rests on that figure")
+    return (
+        f"relative spectrum made absolute by the stated {name}, {format_value(sc.anchor_value)} {unit}{at} "
+        f"(× {format_value(sc.scale_factor)} SI per unit); every value rests on that figure"
+    )
 
 
 def _claims_summary(a: Assessment) -> str:
@@ -301,18 +380,32 @@ def _charts(a: Assessment, st: Styles) -> list[Flowable]:
     s = a.spectrum
     quantity = _spectral_quantity(a)
     kind = f"spectral {quantity}" + (", scaled from a relative spectrum" if s.quantity == "relative" else "")
-    peak = (f"{kind[0].upper()}{kind[1:]}, {s.points} samples, {s.min_nm:g}–{s.max_nm:g} nm; its peak, "
-            f"{format_value(s.peak_value_si)} {_SPECTRAL_UNIT[quantity]} at {s.peak_nm:g} nm, is 1 on this axis. "
-            f"Weights as tabulated.")
+    peak = (
+        f"{kind[0].upper()}{kind[1:]}, {s.points} samples, {s.min_nm:g}–{s.max_nm:g} nm; its peak, "
+        f"{format_value(s.peak_value_si)} {_SPECTRAL_UNIT[quantity]} at {s.peak_nm:g} nm, is 1 on this axis. "
+        f"Weights as tabulated."
+    )
     missing = [symbol for symbol in a.not_assessed if a.hazards[symbol].limits]
     drawn = len(missing) < sum(1 for h in a.hazards.values() if h.limits)
-    chart_note = " ".join((["Diamond: the value (arrow: beyond the axis). Coinciding limits (e.g. Exempt and RG1 "
-                            "of L_R) leave no zone between them. E_H has no risk groups."] if drawn else [])
-                          + ([f"Not assessed, so not drawn: {', '.join(missing)}."] if missing else []))
-    return [st.p("Spectrum and action spectra", st.h2), spectrum_chart(a, FRAME_WIDTH, 106, fonts),
-            st.p(peak, st.caption),
-            st.p("Distance to the group boundaries", st.h2), margin_chart(a, FRAME_WIDTH, fonts),
-            st.p(chart_note, st.caption)]
+    chart_note = " ".join(
+        (
+            [
+                "Diamond: the value (arrow: beyond the axis). Coinciding limits (e.g. Exempt and RG1 "
+                "of L_R) leave no zone between them. E_H has no risk groups."
+            ]
+            if drawn
+            else []
+        )
+        + ([f"Not assessed, so not drawn: {', '.join(missing)}."] if missing else [])
+    )
+    return [
+        st.p("Spectrum and action spectra", st.h2),
+        spectrum_chart(a, FRAME_WIDTH, 106, fonts),
+        st.p(peak, st.caption),
+        st.p("Distance to the group boundaries", st.h2),
+        margin_chart(a, FRAME_WIDTH, fonts),
+        st.p(chart_note, st.caption),
+    ]
 
 
 def _record_table(a: Assessment, st: Styles) -> Flowable:
@@ -320,8 +413,10 @@ def _record_table(a: Assessment, st: Styles) -> Flowable:
     if len(items) % 2:
         items.append(("", ""))
     half = len(items) // 2
-    rows = [[st.p(k1, st.cell_bold), st.p(v1, st.cell), st.p(k2, st.cell_bold), st.p(v2, st.cell)]
-            for (k1, v1), (k2, v2) in zip(items[:half], items[half:], strict=True)]
+    rows = [
+        [st.p(k1, st.cell_bold), st.p(v1, st.cell), st.p(k2, st.cell_bold), st.p(v2, st.cell)]
+        for (k1, v1), (k2, v2) in zip(items[:half], items[half:], strict=True)
+    ]
     table = Table(rows, colWidths=[w * FRAME_WIDTH for w in (0.2, 0.3, 0.2, 0.3)])
     table.setStyle(table_style(header_rows=0))
     return table
@@ -339,15 +434,30 @@ def _compared(h: HazardResult) -> str:
 
 
 def _detail_table(a: Assessment, st: Styles) -> Flowable:
-    head = ["Symbol", "Band, weight", "Exposure limit", "Time bases [s]", "FOV γ [mrad]", "α in limit [mrad]",
-            "Compared with limit"]
+    head = [
+        "Symbol",
+        "Band, weight",
+        "Exposure limit",
+        "Time bases [s]",
+        "FOV γ [mrad]",
+        "α in limit [mrad]",
+        "Compared with limit",
+    ]
     cells = []
     for h in a.hazards.values():
         lo, hi = h.band_nm
         compared = _compared(h)
-        cells.append([h.symbol, f"{lo:g}–{hi:g} nm, {h.weighting or 'unweighted'}", h.exposure_limit or "—",
-                      _triple(h.time_bases_s, format_limit), _triple(h.fov_rad, format_limit, 1e3),
-                      _triple(h.alpha_rad, format_limit, 1e3), compared])
+        cells.append(
+            [
+                h.symbol,
+                f"{lo:g}–{hi:g} nm, {h.weighting or 'unweighted'}",
+                h.exposure_limit or "—",
+                _triple(h.time_bases_s, format_limit),
+                _triple(h.fov_rad, format_limit, 1e3),
+                _triple(h.alpha_rad, format_limit, 1e3),
+                compared,
+            ]
+        )
     rows = [[st.p(x, st.head) for x in head]]
     rows += [[st.p(x, st.cell_bold if c == 0 else st.cell) for c, x in enumerate(row)] for row in cells]
     one_line = [[*row[:1], "", "", *row[3:6], ""] for row in cells]  # band, limit and compared values wrap
@@ -365,16 +475,22 @@ def _bullets(items: list[str], st: Styles) -> list[Flowable]:
 
 def _notes(a: Assessment, st: Styles) -> list[Flowable]:
     """Warnings (what the method tolerates but doubts) first, then the assumptions made."""
-    notes = ([st.bold_lead("• Warning:", w, st.small) for w in a.warnings]
-             + [st.bold_lead("• Assumption:", x, st.small) for x in a.assumptions])
+    notes = [st.bold_lead("• Warning:", w, st.small) for w in a.warnings] + [
+        st.bold_lead("• Assumption:", x, st.small) for x in a.assumptions
+    ]
     return notes or [st.p("none", st.small)]
 
 
 def _hashes(rows: list[tuple[str, str, str]], head: tuple[str, str, str], st: Styles) -> Flowable:
     """A table of (name, description, SHA-256) rows, the digest kept on one line."""
     digest_width = max(stringWidth(digest, st.fonts.regular, st.digest.fontSize) for _, _, digest in rows) + 7
-    name_width = max(stringWidth(st.fonts.clean(name), st.fonts.regular, st.cell.fontSize)
-                     for name, _, _ in [(head[0], "", ""), *rows]) + 7
+    name_width = (
+        max(
+            stringWidth(st.fonts.clean(name), st.fonts.regular, st.cell.fontSize)
+            for name, _, _ in [(head[0], "", ""), *rows]
+        )
+        + 7
+    )
     body = [[st.p(x, st.head) for x in head]]
     body += [[st.p(name, st.cell), st.p(text, st.cell), st.p(digest, st.digest)] for name, text, digest in rows]
     table = Table(body, colWidths=[name_width, FRAME_WIDTH - name_width - digest_width, digest_width])
@@ -387,11 +503,20 @@ def _claims_table(a: Assessment, st: Styles) -> list[Flowable]:
         return []
     head = ["Claim", "Claimed", "Computed", "Tolerance", "Verdict", "Why"]
     rows = [[st.p(x, st.head) for x in head]]
-    rows += [[st.p(c.claim, st.cell_bold), st.p(c.claimed, st.cell), st.p(c.computed or "—", st.cell),
-              st.p(c.tolerance or "—", st.cell),
-              st.p(c.verdict.upper() if c.verdict == "contradicted" else c.verdict,
-                   st.cell_bold if c.verdict == "contradicted" else st.cell), st.p(c.reason, st.cell)]
-             for c in a.claims]
+    rows += [
+        [
+            st.p(c.claim, st.cell_bold),
+            st.p(c.claimed, st.cell),
+            st.p(c.computed or "—", st.cell),
+            st.p(c.tolerance or "—", st.cell),
+            st.p(
+                c.verdict.upper() if c.verdict == "contradicted" else c.verdict,
+                st.cell_bold if c.verdict == "contradicted" else st.cell,
+            ),
+            st.p(c.reason, st.cell),
+        ]
+        for c in a.claims
+    ]
     verdict_width = stringWidth("CONTRADICTED", st.fonts.bold, st.cell.fontSize) + 7
     widths = [62, 46, 52, 104, verdict_width, 0]
     widths[-1] = FRAME_WIDTH - sum(widths)
@@ -403,10 +528,12 @@ def _claims_table(a: Assessment, st: Styles) -> list[Flowable]:
 def _transfer(a: Assessment) -> str:
     """The IEC TR 62778 blue-light transfer values in one line."""
     t = a.blue_light_transfer
-    return (f"IEC TR 62778:2014: K_B,v = {format_value(t.k_bv_w_per_lm)} W/lm; "
-            f"E_thr = {format_value(t.threshold_illuminance_lx)} lx; "
-            f"I_v = {format_value(t.luminous_intensity_cd)} cd ({t.intensity_source}); "
-            f"d_thr = {format_value(t.threshold_distance_mm)} mm")
+    return (
+        f"IEC TR 62778:2014: K_B,v = {format_value(t.k_bv_w_per_lm)} W/lm; "
+        f"E_thr = {format_value(t.threshold_illuminance_lx)} lx; "
+        f"I_v = {format_value(t.luminous_intensity_cd)} cd ({t.intensity_source}); "
+        f"d_thr = {format_value(t.threshold_distance_mm)} mm"
+    )
 
 
 def _inputs(a: Assessment, st: Styles) -> list[Flowable]:
@@ -415,17 +542,28 @@ def _inputs(a: Assessment, st: Styles) -> list[Flowable]:
     colour = [] if ph.cct_k is None else [f"CCT {format_value(ph.cct_k)} K, Duv {format_value(ph.duv)}"]
     if ph.chromaticity_xy is not None:
         colour.append(f"CIE 1931 x, y = {ph.chromaticity_xy[0]:.4f}, {ph.chromaticity_xy[1]:.4f}")
-    files = [(path, spectrum if path == s.path else "product record" if path.endswith(".toml") else "input",
-              digest) for path, digest in a.provenance.inputs.items()]
-    return [st.p("Input: the product record as used", st.h2.clone("h2_first", spaceBefore=0)),
-            _record_table(a, st), Spacer(1, 4),
-            _hashes(files, ("Input file", "Content", "SHA-256"), st), Spacer(1, 3),
-            _key_values([("Colour", "; ".join(colour) or "—")]
-                        + ([("Blue-light transfer", _transfer(a))]
-                           if a.blue_light_transfer is not None else [])
-                        + ([("Scaling", _scaling(a))] if a.scaling is not None else [])
-                        + ([("File metadata", "; ".join(f"{k}: {v}" for k, v in s.file_metadata.items()))]
-                           if s.file_metadata else []), st)]
+    files = [
+        (path, spectrum if path == s.path else "product record" if path.endswith(".toml") else "input", digest)
+        for path, digest in a.provenance.inputs.items()
+    ]
+    return [
+        st.p("Input: the product record as used", st.h2.clone("h2_first", spaceBefore=0)),
+        _record_table(a, st),
+        Spacer(1, 4),
+        _hashes(files, ("Input file", "Content", "SHA-256"), st),
+        Spacer(1, 3),
+        _key_values(
+            [("Colour", "; ".join(colour) or "—")]
+            + ([("Blue-light transfer", _transfer(a))] if a.blue_light_transfer is not None else [])
+            + ([("Scaling", _scaling(a))] if a.scaling is not None else [])
+            + (
+                [("File metadata", "; ".join(f"{k}: {v}" for k, v in s.file_metadata.items()))]
+                if s.file_metadata
+                else []
+            ),
+            st,
+        ),
+    ]
 
 
 def _method(a: Assessment, st: Styles) -> list[Flowable]:
@@ -434,11 +572,19 @@ def _method(a: Assessment, st: Styles) -> list[Flowable]:
     for name, t in p.tables.items():
         source = t.get("source", "—")
         edition = t.get("edition", "")
-        tables.append((f"{t.get('symbol', name)} ({name})",
-                       source if edition in source else f"{source}; edition {edition}", t.get("sha256", "—")))
-    return [st.p("Method and provenance", st.h2),
-            _key_values([("Limit set", p.limit_set), ("Integration", p.method)], st), Spacer(1, 4),
-            _hashes(tables, ("Weighting table", "Source", "SHA-256"), st)]
+        tables.append(
+            (
+                f"{t.get('symbol', name)} ({name})",
+                source if edition in source else f"{source}; edition {edition}",
+                t.get("sha256", "—"),
+            )
+        )
+    return [
+        st.p("Method and provenance", st.h2),
+        _key_values([("Limit set", p.limit_set), ("Integration", p.method)], st),
+        Spacer(1, 4),
+        _hashes(tables, ("Weighting table", "Source", "SHA-256"), st),
+    ]
 
 
 def render_assessment_pdf(assessment: Assessment, rendered_at: datetime.datetime | None = None) -> bytes:
@@ -473,8 +619,13 @@ def render_assessment_pdf(assessment: Assessment, rendered_at: datetime.datetime
     studies_page = 3  # page 1 names the page the studies start on: a second pass when page 2 ran over
     for _ in range(2):
         marks: dict[str, int] = {}
-        pdf = build_pdf(_story(a, st, moment, studies_page, marks), fonts, title=title, header=header,
-                        author=f"hazard {a.provenance.tool_version}")
+        pdf = build_pdf(
+            _story(a, st, moment, studies_page, marks),
+            fonts,
+            title=title,
+            header=header,
+            author=f"hazard {a.provenance.tool_version}",
+        )
         if marks.get("studies", studies_page) == studies_page:
             break
         studies_page = marks["studies"]
@@ -497,33 +648,55 @@ def _fit_page(content: list[Flowable], least_scale: float = 0.0) -> list[Flowabl
     return [KeepInFrame(FRAME_WIDTH, FRAME_HEIGHT, content, mode="shrink")]
 
 
-def _story(a: Assessment, st: Styles, moment: datetime.datetime, studies_page: int, marks: dict[str, int]
-           ) -> list[Flowable]:
+def _story(
+    a: Assessment, st: Styles, moment: datetime.datetime, studies_page: int, marks: dict[str, int]
+) -> list[Flowable]:
     """The report's flowables.
 
     Page 1 is shrunk to fit its page when its content runs long; pages 2 and 3 (the studies, then the cautions) only
     slightly, beyond that they run on.
     """
     first_page = [
-        _heading(a, st, moment), Spacer(1, 5), _verdict(a, st, studies_page), Spacer(1, 4), _cautions(a, st),
-        st.p("Hazards at the assessment distance", st.h2), _hazard_table(a, st), Spacer(1, 2),
-        _hazard_caption(st), Spacer(1, 4), _geometry(a, st, studies_page), *_charts(a, st),
+        _heading(a, st, moment),
+        Spacer(1, 5),
+        _verdict(a, st, studies_page),
+        Spacer(1, 4),
+        _cautions(a, st),
+        st.p("Hazards at the assessment distance", st.h2),
+        _hazard_table(a, st),
+        Spacer(1, 2),
+        _hazard_caption(st),
+        Spacer(1, 4),
+        _geometry(a, st, studies_page),
+        *_charts(a, st),
     ]
     blocks = studies_section(a, st) if has_studies(a) else []
     second_page = [
-        *_inputs(a, st), *_claims_table(a, st),
-        st.p("Hazard details (each triple: Exempt / RG1 / RG2)", st.h2), _detail_table(a, st),
-        st.p("Warnings and assumptions", st.h2), *_notes(a, st),
+        *_inputs(a, st),
+        *_claims_table(a, st),
+        st.p("Hazard details (each triple: Exempt / RG1 / RG2)", st.h2),
+        _detail_table(a, st),
+        st.p("Warnings and assumptions", st.h2),
+        *_notes(a, st),
         *_method(a, st),
     ]
     cautions = [st.p("Cautions", st.h2), *_bullets(a.cautions, st)]
     if not blocks:
-        return [*_fit_page(first_page), PageBreak(),
-                *_fit_page([*second_page, CondPageBreak(60), *cautions], _LEAST_SCALE)]
+        return [
+            *_fit_page(first_page),
+            PageBreak(),
+            *_fit_page([*second_page, CondPageBreak(60), *cautions], _LEAST_SCALE),
+        ]
     third_page = [f for block in blocks for f in block] + cautions
     fitted = _fit_page(third_page, _LEAST_SCALE)
     if len(fitted) != 1:  # too long for one page: let it run on, each block kept together
         fitted = [KeepTogether(block) if len(block) > 1 else block[0] for block in blocks]
         fitted += [CondPageBreak(60), *cautions]
-    return [*_fit_page(first_page), PageBreak(), *_fit_page(second_page, _LEAST_SCALE), PageBreak(),
-            _PageMark(marks, "studies"), *fitted]
+    return [
+        *_fit_page(first_page),
+        PageBreak(),
+        *_fit_page(second_page, _LEAST_SCALE),
+        PageBreak(),
+        _PageMark(marks, "studies"),
+        *fitted,
+    ]

@@ -97,11 +97,11 @@ def rank_assessments(assessments: list[Assessment]) -> list[Assessment]:
         A new list; products whose group could not be determined first (nothing is known of them), products
         without a tightest margin last within their group, ties by id.
     """
+
     def key(assessment: Assessment) -> tuple[int, bool, float, str]:
         tightest = tightest_margin(assessment)
         groups, group = assessment.limit_set.groups, assessment.classification_group
         rank = len(groups) if group is None else groups.index(group)
-        return (-rank, not is_borderline(assessment),
-                -(tightest.ratio if tightest else -1.0), assessment.id)
+        return (-rank, not is_borderline(assessment), -(tightest.ratio if tightest else -1.0), assessment.id)
 
     return sorted(assessments, key=key)

@@ -169,8 +169,9 @@ def _distance_table(a: Assessment, st: Styles) -> Flowable:
     head = ["Beyond: in the group or lower", *a.limit_set.boundaries]
     rows = [[st.p(h, st.head) for h in head]]
 
-    def cell(distance: float | None, criterion: str | None, note: str | None, style,
-             group: str | None = None) -> Flowable:
+    def cell(
+        distance: float | None, criterion: str | None, note: str | None, style, group: str | None = None
+    ) -> Flowable:
         if distance is None and note is not None:
             return st.p(note, st.cell)
         text = beyond(distance, s) if group is None else minimum_text(s, group)
@@ -180,8 +181,10 @@ def _distance_table(a: Assessment, st: Styles) -> Flowable:
             text += " *"
         return st.p(text, style)
 
-    rows.append([st.p("Whole product", st.cell_bold)]
-                + [cell(s.minimum_distance_mm.get(g), None, None, st.cell_bold, g) for g in a.limit_set.boundaries])
+    rows.append(
+        [st.p("Whole product", st.cell_bold)]
+        + [cell(s.minimum_distance_mm.get(g), None, None, st.cell_bold, g) for g in a.limit_set.boundaries]
+    )
     by_family: dict[str, dict[str, object]] = {}
     for b in s.boundaries:
         if b.note != "not assessed":  # a family that was not assessed has nothing true to say about distance
@@ -212,23 +215,34 @@ def _uncertainty_block(a: Assessment, st: Styles) -> list[Flowable]:
         unit = a.hazards[member].unit if member else ""
         changes = h.group_low != h.group_high
         group_text = _group_range(h.group_low, h.group_high) + (" (changes)" if changes else "")
-        rows.append([st.p(_family_label(a, h.family), st.cell_bold),
-                     st.p(f"{format_value(h.value_low)} – {format_value(h.value_high)}", st.cell),
-                     st.p(f"{format_value(h.value_shift_minus)} / {format_value(h.value_shift_plus)}", st.cell),
-                     st.p(UNIT_DISPLAY.get(unit, unit) or "—", st.cell),
-                     st.p(group_text, st.cell_bold if changes else st.cell)])
+        rows.append(
+            [
+                st.p(_family_label(a, h.family), st.cell_bold),
+                st.p(f"{format_value(h.value_low)} – {format_value(h.value_high)}", st.cell),
+                st.p(f"{format_value(h.value_shift_minus)} / {format_value(h.value_shift_plus)}", st.cell),
+                st.p(UNIT_DISPLAY.get(unit, unit) or "—", st.cell),
+                st.p(group_text, st.cell_bold if changes else st.cell),
+            ]
+        )
     widths = [100, 100, 100, 56, 0]
     widths[-1] = FRAME_WIDTH - sum(widths)
     table = Table(rows, colWidths=widths, repeatRows=1)
     table.setStyle(table_style())
     overall = _group_range(u.risk_group_low, u.risk_group_high)
-    verdict = st.p(f" — overall group {overall}: {u.note}.", st.body,
-                   markup=f"<b>{u.verdict.upper()}</b>")
-    return [st.p(f"Within the measurement uncertainty (±{u.uncertainty_pct:g} % scale, k = 2; ±{shift} "
-                 f"wavelength)", st.h3), verdict, Spacer(1, 2), table, Spacer(1, 2),
-            st.p("Nine variants: the spectrum scaled by 1 ± the uncertainty, its wavelength scale shifted by ± the "
-                 "stated amount; λ columns: the shifts alone. Radiance: the source's own, as in the hazard table. "
-                 "BORDERLINE: the overall group differs between variants; ROBUST: it does not.", st.caption)]
+    verdict = st.p(f" — overall group {overall}: {u.note}.", st.body, markup=f"<b>{u.verdict.upper()}</b>")
+    return [
+        st.p(f"Within the measurement uncertainty (±{u.uncertainty_pct:g} % scale, k = 2; ±{shift} wavelength)", st.h3),
+        verdict,
+        Spacer(1, 2),
+        table,
+        Spacer(1, 2),
+        st.p(
+            "Nine variants: the spectrum scaled by 1 ± the uncertainty, its wavelength scale shifted by ± the "
+            "stated amount; λ columns: the shifts alone. Radiance: the source's own, as in the hazard table. "
+            "BORDERLINE: the overall group differs between variants; ROBUST: it does not.",
+            st.caption,
+        ),
+    ]
 
 
 def _remedies_block(a: Assessment, st: Styles) -> list[Flowable]:
@@ -257,14 +271,22 @@ def _remedies_block(a: Assessment, st: Styles) -> list[Flowable]:
             now = a.hazards[member].risk_group if member else None
         style = st.cell_bold if x.target == "product" else st.cell
         targets.append(target)
-        rows.append([st.p(target, style), st.p(now or "—", st.cell_bold.clone("now", textColor=group_ink(now))),
-                     st.p(x.group, st.cell_bold.clone("to", textColor=group_ink(x.group))),
-                     st.p(dimming_text(x.dimming_factor), style), st.p(area_text(x.area_factor), style)])
+        rows.append(
+            [
+                st.p(target, style),
+                st.p(now or "—", st.cell_bold.clone("now", textColor=group_ink(now))),
+                st.p(x.group, st.cell_bold.clone("to", textColor=group_ink(x.group))),
+                st.p(dimming_text(x.dimming_factor), style),
+                st.p(area_text(x.area_factor), style),
+            ]
+        )
         extra += [("BACKGROUND", (1, i), (1, i), group_fill(now)), ("BACKGROUND", (2, i), (2, i), group_fill(x.group))]
     if len(rows) == 1:
-        nothing = ("nothing to remedy: the product is already Exempt"
-                   + ("." if a.complete else " (for the assessed hazards).") if a.risk_group == "Exempt" else
-                   "no remedy in this result.")
+        nothing = (
+            "nothing to remedy: the product is already Exempt" + ("." if a.complete else " (for the assessed hazards).")
+            if a.risk_group == "Exempt"
+            else "no remedy in this result."
+        )
         return [st.p("What it would take", st.h3), st.p(nothing[0].upper() + nothing[1:], st.small)]
     group_w = st.bold_width("Exempt")
     target_w = max(st.bold_width(target) for target in targets)
@@ -277,11 +299,17 @@ def _remedies_block(a: Assessment, st: Styles) -> list[Flowable]:
     for symbol, found in r.uv_bands.items():
         if found:
             top = ", ".join(f"{b.band_nm[0]:g}–{b.band_nm[1]:g} nm ({b.share:.0%})" for b in found[:3])
-            bands.append(st.bold_lead(f"{symbol} comes mostly from", top + " (5 nm bands, share of the total)",
-                                      st.small))
+            bands.append(
+                st.bold_lead(f"{symbol} comes mostly from", top + " (5 nm bands, share of the total)", st.small)
+            )
     out += [*bands, Spacer(1, 2)] if bands else []
-    out.append(st.p(f"{r.note} A diffuser lowers the radiance hazards only (—: not applicable to this target, or "
-                    f"not reachable).", st.caption))
+    out.append(
+        st.p(
+            f"{r.note} A diffuser lowers the radiance hazards only (—: not applicable to this target, or "
+            f"not reachable).",
+            st.caption,
+        )
+    )
     return out
 
 
@@ -299,36 +327,65 @@ def studies_section(a: Assessment, st: Styles) -> list[list[Flowable]]:
     list of list of Flowable
         Blocks to keep together when the section runs over a page (the distance table may split).
     """
-    missing = [name for name, study in (("hazard distances", a.distances), ("measurement uncertainty",
-                                                                             a.uncertainty),
-                                        ("remedies", a.remedies)) if study is None]
-    intro = ("The product re-assessed by the tool (same spectrum and geometry) across distance, within the stated "
-             "uncertainty, and dimmed or diffused; this report only prints the results.")
+    missing = [
+        name
+        for name, study in (
+            ("hazard distances", a.distances),
+            ("measurement uncertainty", a.uncertainty),
+            ("remedies", a.remedies),
+        )
+        if study is None
+    ]
+    intro = (
+        "The product re-assessed by the tool (same spectrum and geometry) across distance, within the stated "
+        "uncertainty, and dimmed or diffused; this report only prints the results."
+    )
     if missing:
         intro += f" Not in this result: {', '.join(missing)}."
-    blocks: list[list[Flowable]] = [[st.p(SECTION_TITLE, st.h2.clone("h2_top", spaceBefore=0)),
-                                     st.p(intro, st.caption)]]
+    blocks: list[list[Flowable]] = [
+        [st.p(SECTION_TITLE, st.h2.clone("h2_top", spaceBefore=0)), st.p(intro, st.caption)]
+    ]
     if a.distances is not None:
         s = a.distances
         chart = distance_chart(a, FRAME_WIDTH, 190, st.fonts)
         never = [family for family, ts in s.t_max_s.items() if all(t is None for t in ts)]
         near = s.near_field_below_mm > s.distance_mm[0]
-        caption = ("Top strip: the overall group at each distance (text labels). Curves: t_max, the time to each "
-                   "exposure limit, per hazard family; a gap where the limit is not reached within its time "
-                   "range." + (f" No curve ({', '.join(never)}): not reached at any distance studied."
-                               if never else "")
-                   + " Vertical line and triangle: the assessment distance."
-                   + (f" Shaded: the near field, under {distance_beyond_mm(s.near_field_below_mm)} (five source "
-                      f"sizes), where inverse-square values are approximate." if near else ""))
-        blocks += [[st.p("Group and t_max against distance", st.h3), chart, st.p(caption, st.caption)],
-                   [Spacer(1, 4)], [_distance_table(a, st)],
-                   [Spacer(1, 2), st.p((f"* nearer than {distance_beyond_mm(s.near_field_below_mm)}: approximate (near "
-                                        f"field). " if near else "")
-                                       + ("" if a.complete else "Incomplete result: the whole-product distances "
-                                                                "cover the assessed hazards only. ")
-                                       + f"\"by L_B\": the family member that applies there. Studied from "
-                                       f"{s.distance_mm[0]:.0f} mm to {s.distance_mm[-1] / 1000:g} m.",
-                                       st.caption)]]
+        caption = (
+            "Top strip: the overall group at each distance (text labels). Curves: t_max, the time to each "
+            "exposure limit, per hazard family; a gap where the limit is not reached within its time "
+            "range."
+            + (f" No curve ({', '.join(never)}): not reached at any distance studied." if never else "")
+            + " Vertical line and triangle: the assessment distance."
+            + (
+                f" Shaded: the near field, under {distance_beyond_mm(s.near_field_below_mm)} (five source "
+                f"sizes), where inverse-square values are approximate."
+                if near
+                else ""
+            )
+        )
+        blocks += [
+            [st.p("Group and t_max against distance", st.h3), chart, st.p(caption, st.caption)],
+            [Spacer(1, 4)],
+            [_distance_table(a, st)],
+            [
+                Spacer(1, 2),
+                st.p(
+                    (
+                        f"* nearer than {distance_beyond_mm(s.near_field_below_mm)}: approximate (near field). "
+                        if near
+                        else ""
+                    )
+                    + (
+                        ""
+                        if a.complete
+                        else "Incomplete result: the whole-product distances cover the assessed hazards only. "
+                    )
+                    + f'"by L_B": the family member that applies there. Studied from '
+                    f"{s.distance_mm[0]:.0f} mm to {s.distance_mm[-1] / 1000:g} m.",
+                    st.caption,
+                ),
+            ],
+        ]
     if a.uncertainty is not None:
         blocks.append(_uncertainty_block(a, st))
     if a.remedies is not None:

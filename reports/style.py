@@ -85,8 +85,9 @@ class Styles:
 
     def __init__(self, fonts: FontSet) -> None:
         self.fonts = fonts
-        base = ParagraphStyle("body", fontName=fonts.regular, fontSize=8.5, leading=11, textColor=INK,
-                              alignment=TA_LEFT)
+        base = ParagraphStyle(
+            "body", fontName=fonts.regular, fontSize=8.5, leading=11, textColor=INK, alignment=TA_LEFT
+        )
         self.body = base
         self.small = ParagraphStyle("small", base, fontSize=7.5, leading=9.4)
         self.cell = ParagraphStyle("cell", base, fontSize=7.2, leading=8.8)
@@ -94,20 +95,31 @@ class Styles:
         self.head = ParagraphStyle("head", self.cell, fontName=fonts.bold, fontSize=7, textColor=INK)
         self.digest = ParagraphStyle("digest", base, fontSize=6.4, leading=8.8)
         self.caption = ParagraphStyle("caption", base, fontSize=7, leading=8.8, textColor=MUTED)
-        self.kicker = ParagraphStyle("kicker", base, fontName=fonts.bold, fontSize=7.5, leading=9.5,
-                                     textColor=MUTED)
+        self.kicker = ParagraphStyle("kicker", base, fontName=fonts.bold, fontSize=7.5, leading=9.5, textColor=MUTED)
         self.title = ParagraphStyle("title", base, fontName=fonts.bold, fontSize=19, leading=22)
         self.subtitle = ParagraphStyle("subtitle", base, fontSize=11, leading=14)
-        self.h2 = ParagraphStyle("h2", base, fontName=fonts.bold, fontSize=10.5, leading=13, spaceBefore=6,
-                                 spaceAfter=2)
-        self.h3 = ParagraphStyle("h3", base, fontName=fonts.bold, fontSize=9, leading=11.5, spaceBefore=5,
-                                 spaceAfter=1.5)
-        self.verdict = ParagraphStyle("verdict", base, fontName=fonts.bold, fontSize=30, leading=34,
-                                      alignment=1)
+        self.h2 = ParagraphStyle(
+            "h2", base, fontName=fonts.bold, fontSize=10.5, leading=13, spaceBefore=6, spaceAfter=2
+        )
+        self.h3 = ParagraphStyle(
+            "h3", base, fontName=fonts.bold, fontSize=9, leading=11.5, spaceBefore=5, spaceAfter=1.5
+        )
+        self.verdict = ParagraphStyle("verdict", base, fontName=fonts.bold, fontSize=30, leading=34, alignment=1)
         self.verdict_head = ParagraphStyle("verdict_head", base, fontName=fonts.bold, fontSize=11, leading=14)
-        self.banner = ParagraphStyle("banner", base, fontName=fonts.bold, fontSize=9.5, leading=12,
-                                     borderWidth=1.5, borderColor=INK, borderPadding=(2, 4, 3, 4), spaceAfter=7,
-                                     leftIndent=4, rightIndent=4, spaceBefore=2)
+        self.banner = ParagraphStyle(
+            "banner",
+            base,
+            fontName=fonts.bold,
+            fontSize=9.5,
+            leading=12,
+            borderWidth=1.5,
+            borderColor=INK,
+            borderPadding=(2, 4, 3, 4),
+            spaceAfter=7,
+            leftIndent=4,
+            rightIndent=4,
+            spaceBefore=2,
+        )
 
     def text(self, text: str) -> str:
         """``text`` escaped for a Paragraph and cleaned for the fonts."""
@@ -157,13 +169,24 @@ def table_style(header_rows: int = 1, extra: list[tuple] | None = None) -> Table
         ("LINEBELOW", (0, -1), (-1, -1), 0.8, INK),
     ]
     if header_rows:
-        commands += [("BACKGROUND", (0, 0), (-1, header_rows - 1), PANEL),
-                     ("LINEBELOW", (0, header_rows - 1), (-1, header_rows - 1), 0.6, INK)]
+        commands += [
+            ("BACKGROUND", (0, 0), (-1, header_rows - 1), PANEL),
+            ("LINEBELOW", (0, header_rows - 1), (-1, header_rows - 1), 0.6, INK),
+        ]
     return TableStyle(commands + (extra or []))
 
 
-def fit_widths(header: list[str], body: list[list[str]], fonts: FontSet, total: float, flexible: int,
-               size: float, bold: set[int], min_flexible: float = 90, padding: float = 7) -> list[float]:
+def fit_widths(
+    header: list[str],
+    body: list[list[str]],
+    fonts: FontSet,
+    total: float,
+    flexible: int,
+    size: float,
+    bold: set[int],
+    min_flexible: float = 90,
+    padding: float = 7,
+) -> list[float]:
     """Table column widths that keep each body cell on one line where the page allows.
 
     Parameters
@@ -191,12 +214,15 @@ def fit_widths(header: list[str], body: list[list[str]], fonts: FontSet, total: 
         Widths adding up to ``total``. When the other columns need more than ``total - min_flexible`` they
         shrink in proportion (and wrap), never below their longest heading word.
     """
+
     def width(text: str, face: str) -> float:
         return stringWidth(fonts.clean(text), face, size)
 
     floor = [max((width(word, fonts.bold) for word in head.split()), default=0.0) + padding for head in header]
-    natural = [max([floor[c]] + [width(row[c], fonts.bold if c in bold else fonts.regular) + padding
-                                 for row in body]) for c in range(len(header))]
+    natural = [
+        max([floor[c]] + [width(row[c], fonts.bold if c in bold else fonts.regular) + padding for row in body])
+        for c in range(len(header))
+    ]
     others = [c for c in range(len(header)) if c != flexible]
     room = total - max(min_flexible, total - sum(natural[c] for c in others))
     stretch = sum(natural[c] - floor[c] for c in others)

@@ -25,19 +25,30 @@ from hazard.standards import GROUPS
 __all__ = ["render_summary_pdf"]
 
 
-def _heading(assessments: list[Assessment], errors: list[tuple[str, str]], st: Styles,
-             moment: datetime.datetime) -> Flowable:
+def _heading(
+    assessments: list[Assessment], errors: list[tuple[str, str]], st: Styles, moment: datetime.datetime
+) -> Flowable:
     tools = ", ".join(f"hazard {v}" for v in sorted({a.provenance.tool_version for a in assessments})) or "—"
     limit_sets = ", ".join(sorted({a.provenance.limit_set for a in assessments})) or "—"
-    left = [st.p("PHOTOBIOLOGICAL SAFETY PRE-SCREEN · BATCH SUMMARY", st.kicker),
-            st.p(f"{len(assessments)} products assessed, {len(errors)} failed", st.title)]
-    right = [st.bold_lead("Report date", format_report_time(moment), st.small),
-             st.bold_lead("Tool", tools, st.small),
-             st.bold_lead("Limit set", limit_sets, st.small)]
+    left = [
+        st.p("PHOTOBIOLOGICAL SAFETY PRE-SCREEN · BATCH SUMMARY", st.kicker),
+        st.p(f"{len(assessments)} products assessed, {len(errors)} failed", st.title),
+    ]
+    right = [
+        st.bold_lead("Report date", format_report_time(moment), st.small),
+        st.bold_lead("Tool", tools, st.small),
+        st.bold_lead("Limit set", limit_sets, st.small),
+    ]
     table = Table([[left, right]], colWidths=[FRAME_WIDTH - 150, 150])
-    table.setStyle([("VALIGN", (0, 0), (-1, -1), "TOP"), ("LEFTPADDING", (0, 0), (-1, -1), 0),
-                    ("RIGHTPADDING", (0, 0), (-1, -1), 0), ("LINEBELOW", (0, 0), (-1, 0), 1.2, INK),
-                    ("BOTTOMPADDING", (0, 0), (-1, -1), 5)])
+    table.setStyle(
+        [
+            ("VALIGN", (0, 0), (-1, -1), "TOP"),
+            ("LEFTPADDING", (0, 0), (-1, -1), 0),
+            ("RIGHTPADDING", (0, 0), (-1, -1), 0),
+            ("LINEBELOW", (0, 0), (-1, 0), 1.2, INK),
+            ("BOTTOMPADDING", (0, 0), (-1, -1), 5),
+        ]
+    )
     return table
 
 
@@ -46,8 +57,9 @@ def _counts(assessments: list[Assessment], st: Styles) -> Flowable:
     cells, style = [], []
     for i, group in enumerate(reversed(GROUPS)):
         count = sum(a.classification_group == group for a in assessments)
-        cells.append(st.p(f"{group}: {count}", st.cell_bold.clone(f"n{group}", textColor=group_ink(group),
-                                                                   alignment=1)))
+        cells.append(
+            st.p(f"{group}: {count}", st.cell_bold.clone(f"n{group}", textColor=group_ink(group), alignment=1))
+        )
         style.append(("BACKGROUND", (i, 0), (i, 0), group_fill(group)))
     undetermined = sum(a.classification_group is None for a in assessments)
     if undetermined:
@@ -59,20 +71,40 @@ def _counts(assessments: list[Assessment], st: Styles) -> Flowable:
         cells.append(st.p(f"what-if: {what_if}", st.cell_bold))
     cells.append(st.p(f"borderline: {sum(is_borderline(a) for a in assessments)}", st.cell_bold))
     table = Table([cells], colWidths=[FRAME_WIDTH / len(cells)] * len(cells))
-    table.setStyle([*style, ("BOX", (0, 0), (-1, -1), 0.8, INK), ("INNERGRID", (0, 0), (-1, -1), 0.8, INK), ("TOPPADDING", (0, 0), (-1, -1), 3), ("BOTTOMPADDING", (0, 0), (-1, -1), 4)])
+    table.setStyle(
+        [
+            *style,
+            ("BOX", (0, 0), (-1, -1), 0.8, INK),
+            ("INNERGRID", (0, 0), (-1, -1), 0.8, INK),
+            ("TOPPADDING", (0, 0), (-1, -1), 3),
+            ("BOTTOMPADDING", (0, 0), (-1, -1), 4),
+        ]
+    )
     return table
 
 
 def _flags(a: Assessment, st: Styles) -> Flowable:
     """BORDERLINE and contradicted vendor claims, in words; an em dash when there is neither."""
     contradicted = sum(c.verdict == "contradicted" for c in a.claims)
-    by_study = "" if a.uncertainty is None else (f" (within ±{a.uncertainty.uncertainty_pct:g} %, "
-                                                 f"±{a.uncertainty.wavelength_uncertainty_nm:g} nm)")
-    what_if = ([f"<b>WHAT-IF</b> at {a.assessment_distance_mm:.0f} mm gives "
-                f"{st.text(group_words(a.risk_group, a.complete))}"] if a.basis == "what-if" else [])
-    flags = what_if + ([f"<b>BORDERLINE</b>{by_study}"] if is_borderline(a) else []) + (
-        [f"<b>{contradicted}</b> vendor claim{'s' if contradicted > 1 else ''} <b>CONTRADICTED</b>"]
-        if contradicted else [])
+    by_study = (
+        ""
+        if a.uncertainty is None
+        else (f" (within ±{a.uncertainty.uncertainty_pct:g} %, ±{a.uncertainty.wavelength_uncertainty_nm:g} nm)")
+    )
+    what_if = (
+        [f"<b>WHAT-IF</b> at {a.assessment_distance_mm:.0f} mm gives {st.text(group_words(a.risk_group, a.complete))}"]
+        if a.basis == "what-if"
+        else []
+    )
+    flags = (
+        what_if
+        + ([f"<b>BORDERLINE</b>{by_study}"] if is_borderline(a) else [])
+        + (
+            [f"<b>{contradicted}</b> vendor claim{'s' if contradicted > 1 else ''} <b>CONTRADICTED</b>"]
+            if contradicted
+            else []
+        )
+    )
     return st.p("", st.cell, markup="<br/>".join(flags) or "—")
 
 
@@ -97,20 +129,39 @@ def _ranked_table(assessments: list[Assessment], st: Styles) -> Flowable:
         else:
             h = a.hazards[tightest.symbol]
             margin = f"{tightest.symbol}: {format_margin(h.risk_group, h.margins)}"
-        rows.append([st.p(str(rank), st.cell), st.p(a.id, st.cell_bold), st.p(a.name or "—", st.cell),
-                     st.p(group_words(a.classification_group, a.complete),
-                          st.cell_bold.clone("g", textColor=group_ink(a.classification_group))),
-                     st.p("yes", st.cell) if a.complete else
-                     st.bold_lead("INCOMPLETE", f"lower bound; not assessed: {', '.join(a.not_assessed)}", st.cell),
-                     st.p(", ".join(a.deciding_hazards) or "—", st.cell), st.p(margin, st.cell),
-                     *([st.p(_min_distance(a), st.cell)] if distances else []), _flags(a, st)])
+        rows.append(
+            [
+                st.p(str(rank), st.cell),
+                st.p(a.id, st.cell_bold),
+                st.p(a.name or "—", st.cell),
+                st.p(
+                    group_words(a.classification_group, a.complete),
+                    st.cell_bold.clone("g", textColor=group_ink(a.classification_group)),
+                ),
+                st.p("yes", st.cell)
+                if a.complete
+                else st.bold_lead("INCOMPLETE", f"lower bound; not assessed: {', '.join(a.not_assessed)}", st.cell),
+                st.p(", ".join(a.deciding_hazards) or "—", st.cell),
+                st.p(margin, st.cell),
+                *([st.p(_min_distance(a), st.cell)] if distances else []),
+                _flags(a, st),
+            ]
+        )
         group = a.classification_group
         extra.append(("BACKGROUND", (3, rank), (3, rank), group_fill(group) if group else NEUTRAL))
     if len(rows) == 1:
         rows.append([st.p("no products assessed", st.cell)] + [""] * (len(head) - 1))
         extra.append(("SPAN", (0, 1), (-1, 1)))
-    widths = [18, max(st.bold_width(text) for text in ["ID", *(a.id for a in assessments)]), 0,
-              st.bold_width("Exempt"), 66, 60, 84, st.bold_width("CONTRADICTED")]
+    widths = [
+        18,
+        max(st.bold_width(text) for text in ["ID", *(a.id for a in assessments)]),
+        0,
+        st.bold_width("Exempt"),
+        66,
+        60,
+        84,
+        st.bold_width("CONTRADICTED"),
+    ]
     if distances:  # room for the column: narrower completeness and margin columns, which may wrap
         widths[4], widths[6] = 50, 76
         widths.insert(7, 46)
@@ -125,8 +176,10 @@ def _failed_table(errors: list[tuple[str, str]], st: Styles) -> Flowable:
     if not errors:
         return st.p("None: every product was assessed.", st.small)
     rows = [[st.p("ID", st.head), st.p("Why it could not be assessed", st.head)]]
-    rows += [[st.p(product, st.cell_bold), st.p((reason.strip().splitlines() or ["—"])[0], st.cell)]
-             for product, reason in errors]
+    rows += [
+        [st.p(product, st.cell_bold), st.p((reason.strip().splitlines() or ["—"])[0], st.cell)]
+        for product, reason in errors
+    ]
     id_width = min(FRAME_WIDTH / 3, max(st.bold_width(product) for product, _ in [("ID", ""), *errors]))
     table = Table(rows, colWidths=[id_width, FRAME_WIDTH - id_width], repeatRows=1)
     table.setStyle(table_style())
@@ -139,13 +192,15 @@ def _cautions(assessments: list[Assessment], st: Styles) -> list[Flowable]:
     for a in rank_assessments(assessments):
         for caution in a.cautions:
             products.setdefault(caution, []).append(a.id)
-    return [st.bold_lead(f"• {'All products' if len(ids) == len(assessments) else ', '.join(ids)}:", caution,
-                         st.small) for caution, ids in products.items()] or [st.p("none: no product assessed",
-                                                                                  st.small)]
+    return [
+        st.bold_lead(f"• {'All products' if len(ids) == len(assessments) else ', '.join(ids)}:", caution, st.small)
+        for caution, ids in products.items()
+    ] or [st.p("none: no product assessed", st.small)]
 
 
-def render_summary_pdf(assessments: list[Assessment], errors: list[tuple[str, str]],
-                       rendered_at: datetime.datetime | None = None) -> bytes:
+def render_summary_pdf(
+    assessments: list[Assessment], errors: list[tuple[str, str]], rendered_at: datetime.datetime | None = None
+) -> bytes:
     """A batch overview as a PDF: ranked products, failed products, and the cautions chosen for them.
 
     Parameters
@@ -171,24 +226,40 @@ def render_summary_pdf(assessments: list[Assessment], errors: list[tuple[str, st
     versions = sorted({a.provenance.tool_version for a in assessments})
     low, high = 1 / BORDERLINE_FACTOR, BORDERLINE_FACTOR
     story = [
-        _heading(assessments, errors, st, moment), Spacer(1, 6), _counts(assessments, st),
-        st.p("Products, highest risk first", st.h2), _ranked_table(assessments, st), Spacer(1, 2),
-        st.p(f"Ranked by overall group (RG3 first); within a group BORDERLINE products first (the ones to send to "
-             f"the laboratory), then by the deciding hazard closest to its next boundary (largest value ÷ limit "
-             f"first), then by id. Tightest margin: that hazard's value ÷ limit at its group's upper boundary "
-             f"(RG3: multiple of the RG2 limit). BORDERLINE: with an uncertainty study (the record states its "
-             f"measurement uncertainty), the overall group changes within it; without one, the tightest hazard "
-             f"lies within a factor {high:g} of a group boundary on either side ({low:g}–{high:g} × the limit), so "
-             f"a modest measurement error could change its group. An INCOMPLETE product's group is a lower bound; "
-             f"'not determined': no hazard with risk groups could be assessed, nothing is known. WHAT-IF: assessed "
-             f"at a distance the record asks for, not a classification; the standard's group is named beside it. "
-             f"CONTRADICTED: a vendor claim in the record that the result does not bear out (see its report)."
-             + (" Min. distance to Exempt: beyond it the product is Exempt (its report's distance study; —: none "
-                "in the result)." if any(a.distances is not None for a in assessments) else ""),
-             st.caption),
-        st.p("Products that could not be assessed", st.h2), _failed_table(errors, st),
-        st.p("Cautions", st.h2), *_cautions(assessments, st),
+        _heading(assessments, errors, st, moment),
+        Spacer(1, 6),
+        _counts(assessments, st),
+        st.p("Products, highest risk first", st.h2),
+        _ranked_table(assessments, st),
+        Spacer(1, 2),
+        st.p(
+            f"Ranked by overall group (RG3 first); within a group BORDERLINE products first (the ones to send to "
+            f"the laboratory), then by the deciding hazard closest to its next boundary (largest value ÷ limit "
+            f"first), then by id. Tightest margin: that hazard's value ÷ limit at its group's upper boundary "
+            f"(RG3: multiple of the RG2 limit). BORDERLINE: with an uncertainty study (the record states its "
+            f"measurement uncertainty), the overall group changes within it; without one, the tightest hazard "
+            f"lies within a factor {high:g} of a group boundary on either side ({low:g}–{high:g} × the limit), so "
+            f"a modest measurement error could change its group. An INCOMPLETE product's group is a lower bound; "
+            f"'not determined': no hazard with risk groups could be assessed, nothing is known. WHAT-IF: assessed "
+            f"at a distance the record asks for, not a classification; the standard's group is named beside it. "
+            f"CONTRADICTED: a vendor claim in the record that the result does not bear out (see its report)."
+            + (
+                " Min. distance to Exempt: beyond it the product is Exempt (its report's distance study; —: none "
+                "in the result)."
+                if any(a.distances is not None for a in assessments)
+                else ""
+            ),
+            st.caption,
+        ),
+        st.p("Products that could not be assessed", st.h2),
+        _failed_table(errors, st),
+        st.p("Cautions", st.h2),
+        *_cautions(assessments, st),
     ]
-    return build_pdf(story, fonts, title="Photobiological safety pre-screen — batch summary",
-                     header="Photobiological safety pre-screen — batch summary",
-                     author=f"hazard {', '.join(versions) or '—'}")
+    return build_pdf(
+        story,
+        fonts,
+        title="Photobiological safety pre-screen — batch summary",
+        header="Photobiological safety pre-screen — batch summary",
+        author=f"hazard {', '.join(versions) or '—'}",
+    )

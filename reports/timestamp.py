@@ -28,8 +28,9 @@ def report_time() -> datetime.datetime:
     try:
         seconds = int(epoch)
     except ValueError:
-        raise ValueError(f"SOURCE_DATE_EPOCH must be a whole number of seconds since 1970-01-01 UTC, "
-                         f"got {epoch!r}") from None
+        raise ValueError(
+            f"SOURCE_DATE_EPOCH must be a whole number of seconds since 1970-01-01 UTC, got {epoch!r}"
+        ) from None
     return datetime.datetime.fromtimestamp(seconds, datetime.UTC)
 
 

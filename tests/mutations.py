@@ -22,22 +22,106 @@ import zipfile
 from pathlib import Path
 
 TOKENS = [
-    b"NaN", b"nan", b"inf", b"-inf", b"1e999", b"-1e-400", b"1e-320", b"5e-324", b"1e300", b"1e305", b"-0", b"0",
-    b"9" * 5000, b"1" * 30_000, b"\x00", b"\r", b"\r\n", b"\n", b"\n\n", b",", b";", b"\t", b'"', b"'", b"[", b"]",
-    b"(", b")", b"{", b"}", b":", b"=", b"#", b" " * 3000, b"(" + b" " * 3000 + b"x(", b"[" * 2000,
-    b"]" * 50, "²".encode(), "µ".encode(), "λ".encode(), b"\xff\xfe", b"\xe9", b"\xef\xbb\xbf", b"true", b"null",
-    b"..", b"../../", b"/etc/passwd", b"\\u0000", b"\x1b[2J", b"-1", b"1,5", b"2,5e3", b"0x10", b"1_000",
-    b"W/m2/nm", b"mW/m2/sr/nm", b"[W/m2/nm]", b"furlongs", b"column = 0\n", b'column = "\xc2\xb2"\n',
-    b"distance_mm = 1e-300\n", b"distance_mm = 1e300\n", b"source_diameter_mm = 5e-324\n",
-    b'spectrum = "../outside.csv"\n', b"quantity = \"relative\"\n", b"a = " + b"[" * 40 + b"]" * 40 + b"\n",
-    b"x = 1979-05-27\n", b"<v>NaN</v>", b"</row>", b'<row r="3000000">', b'<c t="s"><v>99</v></c>', b"&#0;", b"<!--",
+    b"NaN",
+    b"nan",
+    b"inf",
+    b"-inf",
+    b"1e999",
+    b"-1e-400",
+    b"1e-320",
+    b"5e-324",
+    b"1e300",
+    b"1e305",
+    b"-0",
+    b"0",
+    b"9" * 5000,
+    b"1" * 30_000,
+    b"\x00",
+    b"\r",
+    b"\r\n",
+    b"\n",
+    b"\n\n",
+    b",",
+    b";",
+    b"\t",
+    b'"',
+    b"'",
+    b"[",
+    b"]",
+    b"(",
+    b")",
+    b"{",
+    b"}",
+    b":",
+    b"=",
+    b"#",
+    b" " * 3000,
+    b"(" + b" " * 3000 + b"x(",
+    b"[" * 2000,
+    b"]" * 50,
+    "²".encode(),
+    "µ".encode(),
+    "λ".encode(),
+    b"\xff\xfe",
+    b"\xe9",
+    b"\xef\xbb\xbf",
+    b"true",
+    b"null",
+    b"..",
+    b"../../",
+    b"/etc/passwd",
+    b"\\u0000",
+    b"\x1b[2J",
+    b"-1",
+    b"1,5",
+    b"2,5e3",
+    b"0x10",
+    b"1_000",
+    b"W/m2/nm",
+    b"mW/m2/sr/nm",
+    b"[W/m2/nm]",
+    b"furlongs",
+    b"column = 0\n",
+    b'column = "\xc2\xb2"\n',
+    b"distance_mm = 1e-300\n",
+    b"distance_mm = 1e300\n",
+    b"source_diameter_mm = 5e-324\n",
+    b'spectrum = "../outside.csv"\n',
+    b'quantity = "relative"\n',
+    b"a = " + b"[" * 40 + b"]" * 40 + b"\n",
+    b"x = 1979-05-27\n",
+    b"<v>NaN</v>",
+    b"</row>",
+    b'<row r="3000000">',
+    b'<c t="s"><v>99</v></c>',
+    b"&#0;",
+    b"<!--",
     b"]]>",
 ]
 """Byte strings that have broken a parser before, or sit at the edge of what one accepts."""
 
 
-NUMBERS = [b"0", b"-0", b"1e308", b"1.7976931348623157e308", b"1e-308", b"5e-324", b"1e-320", b"1e999", b"-1e999",
-           b"1e300", b"1e-300", b"1e305", b"-1", b"-0.5", b"9" * 400, b"0.0000001", b"3000", b"1e6", b"1e7"]
+NUMBERS = [
+    b"0",
+    b"-0",
+    b"1e308",
+    b"1.7976931348623157e308",
+    b"1e-308",
+    b"5e-324",
+    b"1e-320",
+    b"1e999",
+    b"-1e999",
+    b"1e300",
+    b"1e-300",
+    b"1e305",
+    b"-1",
+    b"-0.5",
+    b"9" * 400,
+    b"0.0000001",
+    b"3000",
+    b"1e6",
+    b"1e7",
+]
 """Numbers at the edges of the float range and of the method's ranges, still valid in CSV, JSON and TOML."""
 _NUMBER = re.compile(rb"\d+(?:\.\d+)?(?:[eE][+-]?\d+)?")
 
@@ -47,7 +131,7 @@ def _swap_number(data: bytearray, rng: random.Random) -> None:
     found = list(_NUMBER.finditer(data))
     if found:
         match = rng.choice(found)
-        data[match.start():match.end()] = rng.choice(NUMBERS)
+        data[match.start() : match.end()] = rng.choice(NUMBERS)
 
 
 def mutate(data: bytes, rng: random.Random, edits: int | None = None) -> bytes:
@@ -67,9 +151,9 @@ def mutate(data: bytes, rng: random.Random, edits: int | None = None) -> bytes:
         elif kind < 0.64 and data:
             data[min(where, len(data) - 1)] = rng.randrange(256)
         elif kind < 0.72 and data:
-            del data[where:where + rng.randint(1, 200)]
+            del data[where : where + rng.randint(1, 200)]
         elif kind < 0.82 and data:
-            span = bytes(data[where:where + rng.randint(1, 400)])
+            span = bytes(data[where : where + rng.randint(1, 400)])
             data[where:where] = span * rng.randint(1, 50)
         elif kind < 0.9:
             del data[where:]

@@ -70,12 +70,19 @@ def test_manifest_with_good_and_bad_rows(tmp_path):
         "BROKEN,broken.csv,200,5,other,true\n"
         "NEGDIST,cl-desk-30.csv,-5,30,gls,true\n"
         "NOSIZE,cl-desk-30.csv,500,,gls,true\n"
-        "SPOT,cl-spot-65.csv,1000,60,other,true\n")
+        "SPOT,cl-spot-65.csv,1000,60,other,true\n"
+    )
     result = _cli("batch", str(manifest), "--output", str(tmp_path / "out"), "--studies")
     assert result.returncode == 3  # project contract: 3 when some products failed
     summary = (tmp_path / "out" / "summary.csv").read_text().splitlines()
-    assert [line.split(",")[0] for line in summary[1:]] == ["DESK", "MISSING", "BROKEN", "NEGDIST", "NOSIZE",
-                                                            "SPOT"]  # sorted as given
+    assert [line.split(",")[0] for line in summary[1:]] == [
+        "DESK",
+        "MISSING",
+        "BROKEN",
+        "NEGDIST",
+        "NOSIZE",
+        "SPOT",
+    ]  # sorted as given
     rows = {line.split(",")[0]: line for line in summary[1:]}
     assert ",ok," in rows["DESK"] and ",ok," in rows["SPOT"]
     assert "spectrum file not found" in rows["MISSING"]
@@ -84,8 +91,10 @@ def test_manifest_with_good_and_bad_rows(tmp_path):
     assert "missing source size" in rows["NOSIZE"]
     lines = [json.loads(x) for x in (tmp_path / "out" / "results.jsonl").read_text().splitlines()]
     assert [x["id"] for x in lines] == ["DESK", "SPOT"]
-    single = hazard.assess(folder / "cl-desk-30.csv", {"id": "DESK", "distance_mm": 500, "source_diameter_mm": 30,
-                                                       "lamp_type": "gls", "no_emission_outside": True})
+    single = hazard.assess(
+        folder / "cl-desk-30.csv",
+        {"id": "DESK", "distance_mm": 500, "source_diameter_mm": 30, "lamp_type": "gls", "no_emission_outside": True},
+    )
     expected = _without_record_input(json.loads(single.model_dump_json()))
     assert _without_record_input(lines[0]) == expected
     assert "Traceback" not in result.stderr
@@ -94,8 +103,10 @@ def test_manifest_with_good_and_bad_rows(tmp_path):
 def test_duplicate_ids_make_the_manifest_unusable(tmp_path):
     folder = _copy_lineup(tmp_path)
     manifest = folder / "m.csv"
-    manifest.write_text("id,spectrum,distance_mm,source_diameter_mm\nA,cl-desk-30.csv,500,30\n"
-                        "B,cl-desk-30.csv,500,30\nA,cl-spot-65.csv,1000,60\n")
+    manifest.write_text(
+        "id,spectrum,distance_mm,source_diameter_mm\nA,cl-desk-30.csv,500,30\n"
+        "B,cl-desk-30.csv,500,30\nA,cl-spot-65.csv,1000,60\n"
+    )
     with pytest.raises(InputError, match=r"m.csv:4: duplicate id 'A' \(also at .*m.csv:2\)"):
         run_batch(manifest, tmp_path / "out")
     result = _cli("batch", str(manifest), "--output", str(tmp_path / "out"))
@@ -125,8 +136,9 @@ def test_xlsx_manifest(tmp_path):
 
 def _manifest_for(folder: Path, rows: list[str]) -> Path:
     path = folder / "manifest.csv"
-    path.write_text("id,spectrum,distance_mm,source_diameter_mm,lamp_type,no_emission_outside\n"
-                    + "\n".join(rows) + "\n")
+    path.write_text(
+        "id,spectrum,distance_mm,source_diameter_mm,lamp_type,no_emission_outside\n" + "\n".join(rows) + "\n"
+    )
     return path
 
 
@@ -144,9 +156,12 @@ def test_resume_after_a_kill_gives_the_same_summary(tmp_path, how):
     assert _cli("batch", str(manifest), "--output", str(clean)).returncode == 0
     cut = tmp_path / "cut"
     # a shell without job control starts background jobs with SIGINT ignored; give the child the default
-    process = subprocess.Popen([sys.executable, "-m", "hazard.cli", "batch", str(manifest), "--output", str(cut)],
-                               stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL,
-                               preexec_fn=lambda: signal.signal(signal.SIGINT, signal.SIG_DFL))
+    process = subprocess.Popen(
+        [sys.executable, "-m", "hazard.cli", "batch", str(manifest), "--output", str(cut)],
+        stdout=subprocess.DEVNULL,
+        stderr=subprocess.DEVNULL,
+        preexec_fn=lambda: signal.signal(signal.SIGINT, signal.SIG_DFL),
+    )
     partial = cut / "results.jsonl.partial"
     deadline = time.monotonic() + 60
     while time.monotonic() < deadline and process.poll() is None:
@@ -183,12 +198,16 @@ GRID = np.arange(250.0, 1500.5, 2.5)
 @st.composite
 def products(draw):
     """A random smooth spectrum with lines, and random geometry."""
-    bands = draw(st.lists(st.tuples(st.floats(260, 1450), st.floats(5, 200), st.floats(1e-4, 5)), min_size=1,
-                          max_size=4))
+    bands = draw(
+        st.lists(st.tuples(st.floats(260, 1450), st.floats(5, 200), st.floats(1e-4, 5)), min_size=1, max_size=4)
+    )
     values = sum(a * np.exp(-0.5 * ((GRID - c) / w) ** 2) for c, w, a in bands)
-    fields = {"distance_mm": draw(st.floats(100, 2000)), "source_diameter_mm": draw(st.floats(0.3, 80)),
-              "lamp_type": draw(st.sampled_from(["gls", "other"])),
-              "no_emission_outside": draw(st.booleans())}
+    fields = {
+        "distance_mm": draw(st.floats(100, 2000)),
+        "source_diameter_mm": draw(st.floats(0.3, 80)),
+        "lamp_type": draw(st.sampled_from(["gls", "other"])),
+        "no_emission_outside": draw(st.booleans()),
+    }
     return values, fields
 
 
@@ -231,8 +250,9 @@ def test_assess_many_reports_bad_products_without_stopping(tmp_path):
 
     spectra = np.ones((3, GRID.size))
     spectra[1, 10] = np.nan
-    records = pd.DataFrame({"id": ["A", "B", "C"], "distance_mm": [200.0, 200.0, -1.0],
-                            "source_diameter_mm": [5.0, 5.0, 5.0]})
+    records = pd.DataFrame(
+        {"id": ["A", "B", "C"], "distance_mm": [200.0, 200.0, -1.0], "source_diameter_mm": [5.0, 5.0, 5.0]}
+    )
     frame = hazard.assess_many(records, GRID, spectra)
     assert frame["status"].tolist() == ["ok", "error", "error"]
     assert "not finite" in frame.loc[1, "error"] and "distance_mm" in frame.loc[2, "error"]

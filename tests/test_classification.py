@@ -33,10 +33,10 @@ ROUNDING = 0.03
 
 def _assess(values, **fields):
     """Assess an in-memory spectral irradiance on GRID (no studies)."""
-    record = ProductRecord(id="p", spectrum="mem.csv", **{"distance_mm": 200.0, "no_emission_outside": True,
-                                                         **fields})
-    spectrum = validate_spectrum(GRID, np.asarray(values, dtype=float), np.arange(GRID.size) + 2, "mem.csv", 1.0,
-                                 "irradiance")
+    record = ProductRecord(id="p", spectrum="mem.csv", **{"distance_mm": 200.0, "no_emission_outside": True, **fields})
+    spectrum = validate_spectrum(
+        GRID, np.asarray(values, dtype=float), np.arange(GRID.size) + 2, "mem.csv", 1.0, "irradiance"
+    )
     loaded = LoadedProduct(record=record, spectrum=spectrum, inputs={"mem.csv": "0" * 64}, metadata={})
     return build_assessment(loaded, evaluate_loaded([loaded]), 0, studies=False)
 
@@ -64,13 +64,20 @@ def _group_from_t_max(t_max_s, bases, tolerance):
     return "Exempt"
 
 
-LINES = st.lists(st.tuples(st.floats(250.0, 2500.0), st.floats(2.0, 200.0),
-                           st.floats(-6.0, 2.0).map(lambda x: 10.0 ** x)), min_size=1, max_size=4)
+LINES = st.lists(
+    st.tuples(st.floats(250.0, 2500.0), st.floats(2.0, 200.0), st.floats(-6.0, 2.0).map(lambda x: 10.0**x)),
+    min_size=1,
+    max_size=4,
+)
 """Gaussian lines (centre nm, width nm, peak W/(m²·nm)) over eight decades."""
 SHAPES = st.one_of(
-    st.builds(lambda d: {"source_diameter_mm": d}, st.floats(-1.3, 2.0).map(lambda x: 10.0 ** x)),
-    st.builds(lambda w, h: {"source_width_mm": w, "source_height_mm": h},
-              st.floats(-1.3, 2.0).map(lambda x: 10.0 ** x), st.floats(-1.3, 2.0).map(lambda x: 10.0 ** x)))
+    st.builds(lambda d: {"source_diameter_mm": d}, st.floats(-1.3, 2.0).map(lambda x: 10.0**x)),
+    st.builds(
+        lambda w, h: {"source_width_mm": w, "source_height_mm": h},
+        st.floats(-1.3, 2.0).map(lambda x: 10.0**x),
+        st.floats(-1.3, 2.0).map(lambda x: 10.0**x),
+    ),
+)
 """Discs and rectangles of 0.05-100 mm (the issue's range)."""
 
 
@@ -82,8 +89,12 @@ def _spectrum(lines):
 
 
 @SETTINGS
-@given(lines=LINES, shape=SHAPES, distance_mm=st.sampled_from([50.0, 200.0, 700.0, 2000.0]),
-       peak_to_mean=st.sampled_from([1.0, 1.0, 3.0]))
+@given(
+    lines=LINES,
+    shape=SHAPES,
+    distance_mm=st.sampled_from([50.0, 200.0, 700.0, 2000.0]),
+    peak_to_mean=st.sampled_from([1.0, 1.0, 3.0]),
+)
 def test_groups_agree_with_their_values_limits_and_t_max(lines, shape, distance_mm, peak_to_mean):
     a = _assess(_spectrum(lines), distance_mm=distance_mm, peak_to_mean_radiance=peak_to_mean, **shape)
     grouped = []
@@ -167,7 +178,7 @@ def test_thin_strip_fills_the_field_only_along_its_length():
     a = _assess(triangle_line(GRID, 437.5, e_b, 1.0), source_width_mm=0.1, source_height_mm=40.0)  # B = 1
     l_b = a.hazards["L_B"]
     radiance = l_b.value
-    chord = 2 * math.sqrt(0.0055 ** 2 - 0.00025 ** 2)
+    chord = 2 * math.sqrt(0.0055**2 - 0.00025**2)
     expected = radiance * 0.0005 * chord / cone_solid_angle_sr(0.011)
     assert l_b.compared["RG1"] == pytest.approx(expected, rel=0.01)
     assert radiance / l_b.compared["RG1"] > 15
@@ -182,10 +193,11 @@ def test_cone_rectangle_solid_angle_against_a_dense_sum():
         x = np.linspace(-min(p, reach), min(p, reach), 4001)
         y = np.linspace(-min(q, reach), min(q, reach), 4001)
         xx, yy = np.meshgrid(x, y)
-        kernel = (xx ** 2 + yy ** 2 <= reach ** 2) / (1 + xx ** 2 + yy ** 2) ** 1.5
+        kernel = (xx**2 + yy**2 <= reach**2) / (1 + xx**2 + yy**2) ** 1.5
         dense = np.trapezoid(np.trapezoid(kernel, y, axis=0), x)
         assert float(cone_rectangle_solid_angle(np.array(theta), np.array(p), np.array(q))) == pytest.approx(
-            dense, rel=5e-5)  # the grid's staircase edge of the circle limits the sum's own accuracy
+            dense, rel=5e-5
+        )  # the grid's staircase edge of the circle limits the sum's own accuracy
 
 
 def test_long_strip_field_fraction_on_the_sphere():
@@ -201,8 +213,7 @@ def test_disc_sources_keep_e_over_the_larger_solid_angle():
     shape = SourceShape(np.array([0.001, 0.01]), np.array([np.nan, np.nan]))
     for fov in (0.0017, 0.011, 0.1):
         omega_s, omega_g = shape.solid_angle_sr(0.2), cone_solid_angle_sr(fov)
-        np.testing.assert_allclose(shape.field_fraction(0.2, fov), np.minimum(omega_s, omega_g) / omega_g,
-                                   rtol=1e-12)
+        np.testing.assert_allclose(shape.field_fraction(0.2, fov), np.minimum(omega_s, omega_g) / omega_g, rtol=1e-12)
 
 
 def test_blue_light_just_over_11_mrad_does_not_read_exempt_beside_a_short_t_max():
@@ -247,18 +258,21 @@ def test_what_if_is_never_mistaken_for_a_classification(tmp_path, monkeypatch):
     write_spectrum(tmp_path / "uv.csv", GRID, triangle_line(GRID, 365.0, 50.0))  # E_UVA = 50 W/m² at 200 mm
     monkeypatch.chdir(tmp_path)
     options = ["--distance-mm", "200", "--source-diameter-mm", "5", "--no-emission-outside"]
-    far = json.loads(CliRunner().invoke(main, ["assess", "uv.csv", *options, "--format", "json"],
-                                        env={}).stdout)
+    far = json.loads(CliRunner().invoke(main, ["assess", "uv.csv", *options, "--format", "json"], env={}).stdout)
     assert far["basis"] == "standard" and far["standard_risk_group"] is None
-    (tmp_path / "uv.toml").write_text('id = "UV"\nspectrum = "uv.csv"\ndistance_mm = 200.0\nsource_diameter_mm = 5.0\n'
-                                      'no_emission_outside = true\nat_distance_mm = 5000.0\n')
+    (tmp_path / "uv.toml").write_text(
+        'id = "UV"\nspectrum = "uv.csv"\ndistance_mm = 200.0\nsource_diameter_mm = 5.0\n'
+        "no_emission_outside = true\nat_distance_mm = 5000.0\n"
+    )
     what_if = json.loads(CliRunner().invoke(main, ["assess", "uv.toml", "--format", "json"]).stdout)
     assert what_if["basis"] == "what-if" and what_if["standard_risk_group"] == far["risk_group"]
     assert what_if["risk_group"] != far["risk_group"]  # E_UVA falls by (200/5000)² at 5 m (inverse square)
     text = CliRunner().invoke(main, ["assess", "uv.toml"]).stdout
     assert text.startswith("UV\nWHAT-IF at 5000 mm, not a classification") and far["risk_group"] in text.splitlines()[1]
-    (tmp_path / "manifest.csv").write_text("id,spectrum,distance_mm,source_diameter_mm,no_emission_outside,"
-                                           "at_distance_mm\nA,uv.csv,200,5,true,5000\nB,uv.csv,200,5,true,\n")
+    (tmp_path / "manifest.csv").write_text(
+        "id,spectrum,distance_mm,source_diameter_mm,no_emission_outside,"
+        "at_distance_mm\nA,uv.csv,200,5,true,5000\nB,uv.csv,200,5,true,\n"
+    )
     batch = CliRunner().invoke(main, ["batch", "manifest.csv", "--output", "out"])
     row_a = next(line for line in batch.stdout.splitlines() if line.startswith("A "))
     assert row_a.split()[1] == far["risk_group"] and "WHAT-IF at 5000 mm gives Exempt" in row_a
@@ -275,9 +289,11 @@ def test_claims_and_cautions_follow_the_standard_distance_not_the_what_if(tmp_pa
     # A UV lamp that is RG2 at the standard's 200 mm and Exempt at 5 m: a claim of Exempt is contradicted (claims
     # are about the classification), and the UV caution stays (a what-if never lowers a caution)
     write_spectrum(tmp_path / "uv.csv", GRID, triangle_line(GRID, 365.0, 50.0))
-    (tmp_path / "uv.toml").write_text('id = "UV"\nspectrum = "uv.csv"\ndistance_mm = 200.0\nsource_diameter_mm = 5.0\n'
-                                      'no_emission_outside = true\nat_distance_mm = 5000.0\n'
-                                      'claimed_risk_group = "Exempt"\n')
+    (tmp_path / "uv.toml").write_text(
+        'id = "UV"\nspectrum = "uv.csv"\ndistance_mm = 200.0\nsource_diameter_mm = 5.0\n'
+        "no_emission_outside = true\nat_distance_mm = 5000.0\n"
+        'claimed_risk_group = "Exempt"\n'
+    )
     monkeypatch.chdir(tmp_path)
     check = CliRunner().invoke(main, ["check", "uv.toml"])
     assert check.exit_code == 4, check.stdout
@@ -287,12 +303,15 @@ def test_claims_and_cautions_follow_the_standard_distance_not_the_what_if(tmp_pa
     assert any(c.startswith("Ultraviolet emission") for c in result["cautions"])
 
 
-@pytest.mark.parametrize(("header", "problem"), [
-    ("E (furlongs/fortnight)", "a unit this tool does not read"),
-    ("Counts", "not a calibrated spectral irradiance or radiance"),
-    ("Irradiance (W/m2)", "a power per area without /nm"),
-    ("Signal [%]", "not a calibrated spectral irradiance or radiance"),
-])
+@pytest.mark.parametrize(
+    ("header", "problem"),
+    [
+        ("E (furlongs/fortnight)", "a unit this tool does not read"),
+        ("Counts", "not a calibrated spectral irradiance or radiance"),
+        ("Irradiance (W/m2)", "a power per area without /nm"),
+        ("Signal [%]", "not a calibrated spectral irradiance or radiance"),
+    ],
+)
 def test_units_are_never_guessed(tmp_path, monkeypatch, header, problem):
     # method §5: units are converted, never guessed; a header that says something else is refused (exit 2) with
     # the file, the line and the fix, unless the record states the unit itself
@@ -313,8 +332,10 @@ def test_file_metadata_is_kept_and_a_contradicting_distance_is_named(tmp_path):
     import hazard
 
     path = tmp_path / "lamp.csv"
-    path.write_text("Instrument: a spectroradiometer\nDistance: 500 mm\nwavelength_nm,value\n"
-                    + "".join(f"{w},{v}\n" for w, v in zip(VISIBLE, _lamp(VISIBLE), strict=True)))
+    path.write_text(
+        "Instrument: a spectroradiometer\nDistance: 500 mm\nwavelength_nm,value\n"
+        + "".join(f"{w},{v}\n" for w, v in zip(VISIBLE, _lamp(VISIBLE), strict=True))
+    )
     a = hazard.assess(path, {"distance_mm": 200.0, "source_diameter_mm": 5.0, "no_emission_outside": True})
     assert a.spectrum.file_metadata == {"Instrument": "a spectroradiometer", "Distance": "500 mm"}
     assert any("states 500 mm" in w and "distance_mm is 200 mm" in w for w in a.warnings)
@@ -346,11 +367,17 @@ def test_report_refuses_a_result_whose_groups_do_not_follow_from_its_numbers(tmp
     refused = CliRunner().invoke(main, ["report", "resealed.json", "--output", "resealed.pdf"])
     assert refused.exit_code == 2
     assert "hazard E_S says Exempt but the compared values and limits give RG2" in refused.stderr
-    for change in (lambda r: r["hazards"].pop("E_S"),                                  # a family left out
-                   lambda r: r["hazards"]["E_S"].update(limits={k: v * 1000 for k, v in  # limits not the set's
-                                                                r["hazards"]["E_S"]["limits"].items()}),
-                   lambda r: r.update(cautions=[]),                                     # cautions emptied
-                   lambda r: r.update(assessment_distance_mm=20000.0)):                 # not the standard's
+    for change in (
+        lambda r: r["hazards"].pop("E_S"),  # a family left out
+        lambda r: r["hazards"]["E_S"].update(
+            limits={
+                k: v * 1000
+                for k, v in r["hazards"]["E_S"]["limits"].items()  # limits not the set's
+            }
+        ),
+        lambda r: r.update(cautions=[]),  # cautions emptied
+        lambda r: r.update(assessment_distance_mm=20000.0),
+    ):  # not the standard's
         tampered = json.loads(json.dumps(result))
         change(tampered)
         for h in tampered["hazards"].values():  # keep the margins consistent with the changed limits
@@ -359,8 +386,9 @@ def test_report_refuses_a_result_whose_groups_do_not_follow_from_its_numbers(tmp
         refused = CliRunner().invoke(main, ["report", "t.json", "--output", "t.pdf"])
         assert refused.exit_code == 2 and refused.stderr.count("\n") == 1, refused.stderr
     # one line of a batch's results.jsonl, by id
-    (tmp_path / "results.jsonl").write_text(json.dumps(edited) + "\n" + Assessment.model_validate(
-        {**result, "id": "B"}).sealed().model_dump_json() + "\n")
+    (tmp_path / "results.jsonl").write_text(
+        json.dumps(edited) + "\n" + Assessment.model_validate({**result, "id": "B"}).sealed().model_dump_json() + "\n"
+    )
     assert CliRunner().invoke(main, ["report", "results.jsonl", "--id", "B", "--output", "b.pdf"]).exit_code == 0
     line = CliRunner().invoke(main, ["report", "results.jsonl", "--id", "uv", "--output", "c.pdf"])
     assert line.exit_code == 2 and "changed after it was made" in line.stderr

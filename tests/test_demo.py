@@ -12,8 +12,9 @@ def test_demo_writes_consistent_outputs(tmp_path):
     # project contract (issue: demo line-up): one PDF and one JSON per product, summary.csv, summary.pdf,
     # and a one-screen table; every risk group appears in the invented line-up (examples/README.md)
     out = tmp_path / "demo"
-    run = subprocess.run([sys.executable, "-m", "hazard.cli", "demo", "--output", str(out)], capture_output=True,
-                         text=True, cwd=tmp_path)
+    run = subprocess.run(
+        [sys.executable, "-m", "hazard.cli", "demo", "--output", str(out)], capture_output=True, text=True, cwd=tmp_path
+    )
     assert run.returncode == 0, run.stderr
     assert "invented" in run.stdout and "Pre-screen only" in run.stdout
     results = {p.stem: json.loads(p.read_text()) for p in out.glob("CL-*.json")}
@@ -27,7 +28,7 @@ def test_demo_writes_consistent_outputs(tmp_path):
         assert row["status"] == "ok" and row["risk_group"] == result["risk_group"]
         for symbol, hazard in result["hazards"].items():
             shown = row[f"{symbol}_value"]
-            assert (shown == "" if hazard["value"] is None else float(shown) == hazard["value"])
+            assert shown == "" if hazard["value"] is None else float(shown) == hazard["value"]
     assert len(PdfReader(out / "summary.pdf").pages) >= 1
     for product_id in results:
         assert product_id in run.stdout  # the on-screen table lists every product

@@ -16,8 +16,10 @@ import hazard.reports
 import hazard.weighting_tables
 
 ROOTS = (hazard, hazard.reports, hazard.weighting_tables)  # the last two may live outside hazard/ (editable install)
-MODULES = sorted({root.__name__ for root in ROOTS}
-                 | {name for root in ROOTS for _, name, _ in pkgutil.walk_packages(root.__path__, root.__name__ + ".")})
+MODULES = sorted(
+    {root.__name__ for root in ROOTS}
+    | {name for root in ROOTS for _, name, _ in pkgutil.walk_packages(root.__path__, root.__name__ + ".")}
+)
 
 
 @pytest.mark.parametrize("name", MODULES)

@@ -15,10 +15,16 @@ BODY = "".join(f"{w},{v}\n" for w, v in zip(WL, VALUES, strict=True))
 FIELDS = {"distance_mm": 200.0, "source_diameter_mm": 5.0, "no_emission_outside": True}
 
 
-@pytest.mark.parametrize("preamble", [
-    "# Unit: W/cm2/nm\n", "Y Unit: W/cm2/nm\n", "Irradiance unit: W/cm2/nm\n", "Data units = W/cm2/nm\n",
-    "nm,W/cm2/nm\n",  # a unit row above the column names
-])
+@pytest.mark.parametrize(
+    "preamble",
+    [
+        "# Unit: W/cm2/nm\n",
+        "Y Unit: W/cm2/nm\n",
+        "Irradiance unit: W/cm2/nm\n",
+        "Data units = W/cm2/nm\n",
+        "nm,W/cm2/nm\n",  # a unit row above the column names
+    ],
+)
 def test_a_unit_stated_before_the_table_is_used(tmp_path, preamble):
     # W/cm²/nm is 10⁴ W/m²/nm (SI prefixes); read as W/m²/nm the lamp would come out 10⁴ too low
     path = tmp_path / "lamp.csv"
@@ -31,23 +37,34 @@ def test_a_unit_stated_before_the_table_is_used(tmp_path, preamble):
 def test_statements_that_disagree_are_refused(tmp_path):
     path = tmp_path / "lamp.csv"
     path.write_text("Unit: W/cm2/nm\nwavelength_nm,value [W/m2/nm]\n" + BODY)
-    with pytest.raises(InputError, match="the header cell says 'W/m2/nm' but the metadata line 'Unit' says "
-                                         "'W/cm2/nm'; fix: correct the file so it states one unit"):
+    with pytest.raises(
+        InputError,
+        match="the header cell says 'W/m2/nm' but the metadata line 'Unit' says "
+        "'W/cm2/nm'; fix: correct the file so it states one unit",
+    ):
         hazard.assess(path, FIELDS)
 
 
-@pytest.mark.parametrize("document", [
-    [{"wavelength_nm": w, "value": v, "unit": "W/cm2/nm"} for w, v in zip(WL.tolist(), VALUES.tolist(), strict=True)],
-    {"wavelength_nm": WL.tolist(), "value": VALUES.tolist(), "value_unit": "W/cm2/nm"},
-])
+@pytest.mark.parametrize(
+    "document",
+    [
+        [
+            {"wavelength_nm": w, "value": v, "unit": "W/cm2/nm"}
+            for w, v in zip(WL.tolist(), VALUES.tolist(), strict=True)
+        ],
+        {"wavelength_nm": WL.tolist(), "value": VALUES.tolist(), "value_unit": "W/cm2/nm"},
+    ],
+)
 def test_a_unit_stated_in_json_is_used(tmp_path, document):
     path = tmp_path / "lamp.json"
     path.write_text(json.dumps(document))
     assert hazard.assess(path, FIELDS).spectrum.peak_value_si == pytest.approx(VALUES.max() * 1e4)
 
 
-@pytest.mark.parametrize(("header", "scale"), [("Wavelength [nm]", 1.0), ("Wavelength (Å)", 0.1),
-                                                ("Wavelength [A]", 0.1), ("Wavelength [µm]", 1000.0)])
+@pytest.mark.parametrize(
+    ("header", "scale"),
+    [("Wavelength [nm]", 1.0), ("Wavelength (Å)", 0.1), ("Wavelength [A]", 0.1), ("Wavelength [µm]", 1000.0)],
+)
 def test_wavelength_units_in_the_header(tmp_path, header, scale):
     # 1 Å = 0.1 nm, 1 µm = 1000 nm (SI)
     path = tmp_path / "lamp.csv"

@@ -23,13 +23,19 @@ TIME_BOUND_S = 20
 """A hang detector, not a speed target: the slowest legitimate example takes well under a second."""
 SPECTRUM_SEEDS = sorted(p.name for p in DATA.iterdir() if p.suffix in (".csv", ".tsv", ".txt", ".json", ".xlsx"))
 
-FUZZ = settings(max_examples=EXAMPLES, deadline=None, derandomize=True, database=None,
-                suppress_health_check=[HealthCheck.function_scoped_fixture, HealthCheck.too_slow])
+FUZZ = settings(
+    max_examples=EXAMPLES,
+    deadline=None,
+    derandomize=True,
+    database=None,
+    suppress_health_check=[HealthCheck.function_scoped_fixture, HealthCheck.too_slow],
+)
 
 
 def _bounded_exercise(path: Path, kind: str) -> tuple[str, str]:
     def expire(*_):
         raise TimeoutError(f"{path.name}: still running after {TIME_BOUND_S} s")
+
     previous = signal.signal(signal.SIGALRM, expire)
     signal.setitimer(signal.ITIMER_REAL, TIME_BOUND_S)
     try:
@@ -70,8 +76,10 @@ def test_mutated_records(workspace, rng):
     _check(_bounded_exercise(path, "record"))
 
 
-MANIFEST = (b"id,spectrum,distance_mm,source_diameter_mm,lamp_type,no_emission_outside,column,unit\n"
-            b"A,cl-desk-30.csv,500,30,gls,true,,W/m2/nm\nB,cl-desk-30.csv,200,5,other,false,1,\n")
+MANIFEST = (
+    b"id,spectrum,distance_mm,source_diameter_mm,lamp_type,no_emission_outside,column,unit\n"
+    b"A,cl-desk-30.csv,500,30,gls,true,,W/m2/nm\nB,cl-desk-30.csv,200,5,other,false,1,\n"
+)
 
 
 @FUZZ

@@ -46,21 +46,32 @@ def _write(path, content):
 
 def _hashes(folder):
     """SHA-256 of every file below ``folder``: shows a file changed, appeared or vanished."""
-    return {str(p.relative_to(folder)): hashlib.sha256(p.read_bytes()).hexdigest()
-            for p in sorted(folder.rglob("*")) if p.is_file()}
+    return {
+        str(p.relative_to(folder)): hashlib.sha256(p.read_bytes()).hexdigest()
+        for p in sorted(folder.rglob("*"))
+        if p.is_file()
+    }
 
 
 def _toml(path, **fields):
-    lines = [f"{k} = {v!r}" if isinstance(v, str) else f"{k} = {str(v).lower() if isinstance(v, bool) else v}"
-             for k, v in fields.items()]
+    lines = [
+        f"{k} = {v!r}" if isinstance(v, str) else f"{k} = {str(v).lower() if isinstance(v, bool) else v}"
+        for k, v in fields.items()
+    ]
     return _write(path, "\n".join(lines) + "\n")
 
 
 def _cli(args, cwd):
     """The real command in a fresh interpreter, as a user runs it."""
     env = {**os.environ, "PYTHONPATH": os.pathsep.join(filter(None, [str(REPO), os.environ.get("PYTHONPATH")]))}
-    return subprocess.run([sys.executable, "-m", "hazard.cli", "assess", *args], capture_output=True,
-                          text=True, cwd=cwd, env=env, timeout=120)
+    return subprocess.run(
+        [sys.executable, "-m", "hazard.cli", "assess", *args],
+        capture_output=True,
+        text=True,
+        cwd=cwd,
+        env=env,
+        timeout=120,
+    )
 
 
 def _assert_one_line_error(exit_code, stdout, stderr, *fragments):
@@ -84,32 +95,69 @@ SPECTRUM_CASES = [
     pytest.param("empty.csv", "", r"no data rows", None, id="empty file"),
     pytest.param("header_only.csv", HEADER, r"no data rows", None, id="only a header"),
     pytest.param("one_row.csv", HEADER + "500,0.1\n", r"only one data row", 2, id="one data row"),
-    pytest.param("text.csv", HEADER + "500,0.1\n501,0.2\n502,abc\n503,0.1\n", r"text 'abc' in a number column",
-                 4, id="text in a number column"),
+    pytest.param(
+        "text.csv",
+        HEADER + "500,0.1\n501,0.2\n502,abc\n503,0.1\n",
+        r"text 'abc' in a number column",
+        4,
+        id="text in a number column",
+    ),
     pytest.param("nan.csv", HEADER + "500,0.1\n501,NaN\n502,0.1\n", r"value is not a finite number", 3, id="NaN"),
-    pytest.param("inf.csv", HEADER + "500,0.1\n501,0.1\n502,1e400\n", r"value is not a finite number", 4,
-                 id="overflow to infinity"),
+    pytest.param(
+        "inf.csv",
+        HEADER + "500,0.1\n501,0.1\n502,1e400\n",
+        r"value is not a finite number",
+        4,
+        id="overflow to infinity",
+    ),
     # the message names both rows: the second in the FILE:LINE prefix, the first in the text
-    pytest.param("duplicate.csv", HEADER + "500,0.1\n501,0.2\n501,0.3\n502,0.1\n",
-                 r"duplicate wavelength 501 nm \(also on line 3\)", 4, id="duplicate wavelengths"),
-    pytest.param("unsorted.csv", HEADER + "500,0.1\n502,0.2\n501,0.3\n", r"501 nm breaks the order", 4,
-                 id="unsorted wavelengths"),
-    pytest.param("micrometre.csv", _MICROMETRE, r"0\.3 to 0\.8: this looks like µm, not nm.*multiply the "
-                 r"wavelength column by 1000", 2, id="wavelengths in um"),
-    pytest.param("negative.csv", HEADER + "500,1.0\n501,0.5\n502,-0.05\n503,0.2\n",
-                 r"value -0\.05 at 502 nm is negative beyond dark noise \(more than 1% of the peak 1\)", 4,
-                 id="negative beyond 1 % of the peak"),
-    pytest.param("just_beyond.csv", HEADER + "500,1.0\n501,-0.0101\n502,0.2\n", r"negative beyond dark noise", 3,
-                 id="negative just beyond 1 %"),
-    pytest.param("binary.csv", b"\x89PNG\r\n\x1a\n\x00\x00\x00\rIHDR\x00\x00\x01\x00", r"binary file", None,
-                 id="binary file"),
-    pytest.param("ragged.csv", HEADER + "500,0.1\n501,0.2,0.3\n502,0.1\n", r"3 cells where the table has 2", 3,
-                 id="ragged rows"),
+    pytest.param(
+        "duplicate.csv",
+        HEADER + "500,0.1\n501,0.2\n501,0.3\n502,0.1\n",
+        r"duplicate wavelength 501 nm \(also on line 3\)",
+        4,
+        id="duplicate wavelengths",
+    ),
+    pytest.param(
+        "unsorted.csv", HEADER + "500,0.1\n502,0.2\n501,0.3\n", r"501 nm breaks the order", 4, id="unsorted wavelengths"
+    ),
+    pytest.param(
+        "micrometre.csv",
+        _MICROMETRE,
+        r"0\.3 to 0\.8: this looks like µm, not nm.*multiply the "
+        r"wavelength column by 1000",
+        2,
+        id="wavelengths in um",
+    ),
+    pytest.param(
+        "negative.csv",
+        HEADER + "500,1.0\n501,0.5\n502,-0.05\n503,0.2\n",
+        r"value -0\.05 at 502 nm is negative beyond dark noise \(more than 1% of the peak 1\)",
+        4,
+        id="negative beyond 1 % of the peak",
+    ),
+    pytest.param(
+        "just_beyond.csv",
+        HEADER + "500,1.0\n501,-0.0101\n502,0.2\n",
+        r"negative beyond dark noise",
+        3,
+        id="negative just beyond 1 %",
+    ),
+    pytest.param(
+        "binary.csv", b"\x89PNG\r\n\x1a\n\x00\x00\x00\rIHDR\x00\x00\x01\x00", r"binary file", None, id="binary file"
+    ),
+    pytest.param(
+        "ragged.csv", HEADER + "500,0.1\n501,0.2,0.3\n502,0.1\n", r"3 cells where the table has 2", 3, id="ragged rows"
+    ),
     pytest.param("one_column.csv", "wavelength_nm\n500\n501\n", r"only one column", 2, id="one column"),
     pytest.param("zero.csv", HEADER + "500,0\n501,0\n", r"no positive value", None, id="all zero"),
-    pytest.param("columns.csv", "wavelength_nm,a,b\n500,0.1,0.2\n501,0.1,0.2\n",
-                 r"2 value columns; fix: name the one to use with 'column'", None,
-                 id="several value columns without column"),
+    pytest.param(
+        "columns.csv",
+        "wavelength_nm,a,b\n500,0.1,0.2\n501,0.1,0.2\n",
+        r"2 value columns; fix: name the one to use with 'column'",
+        None,
+        id="several value columns without column",
+    ),
 ]
 
 
@@ -155,8 +203,7 @@ def test_real_process_exit_code_and_one_line(tmp_path):
     _write(tmp_path / "text.csv", HEADER + "500,0.1\n501,0.2\n502,abc\n503,0.1\n")
     before = _hashes(tmp_path)
     result = _cli(["text.csv", *SIZE_OPTIONS], tmp_path)
-    _assert_one_line_error(result.returncode, result.stdout, result.stderr,
-                           "text.csv:4: text 'abc' in a number column")
+    _assert_one_line_error(result.returncode, result.stdout, result.stderr, "text.csv:4: text 'abc' in a number column")
     assert _hashes(tmp_path) == before
 
 
@@ -184,24 +231,44 @@ def test_spectrum_file_not_found(tmp_path):
 # --- bad record fields -------------------------------------------------------------------------------------
 # Each rule: method §4/§5 (project design) and hazard/record.py's field contract.
 RECORD_CASES = [
-    pytest.param({"distance_mm": 200.0}, r"missing source size: give source_diameter_mm, or source_width_mm and "
-                 r"source_height_mm, or source_alpha_mrad", id="missing source size"),
+    pytest.param(
+        {"distance_mm": 200.0},
+        r"missing source size: give source_diameter_mm, or source_width_mm and "
+        r"source_height_mm, or source_alpha_mrad",
+        id="missing source size",
+    ),
     pytest.param({**SIZE, "source_alpha_mrad": 25.0}, r"give exactly one source size", id="two source sizes"),
-    pytest.param({"distance_mm": 200.0, "source_width_mm": 5.0}, r"source_width_mm and source_height_mm go "
-                 r"together: give both", id="width without height"),
-    pytest.param({"source_diameter_mm": 5.0}, r"distance_mm is required for an irradiance spectrum",
-                 id="missing distance_mm for irradiance"),
-    pytest.param({**SIZE, "unit": "W/m2"}, r"unknown unit 'W/m2': expected power per area per wavelength",
-                 id="unit without per nm"),
+    pytest.param(
+        {"distance_mm": 200.0, "source_width_mm": 5.0},
+        r"source_width_mm and source_height_mm go "
+        r"together: give both",
+        id="width without height",
+    ),
+    pytest.param(
+        {"source_diameter_mm": 5.0},
+        r"distance_mm is required for an irradiance spectrum",
+        id="missing distance_mm for irradiance",
+    ),
+    pytest.param(
+        {**SIZE, "unit": "W/m2"},
+        r"unknown unit 'W/m2': expected power per area per wavelength",
+        id="unit without per nm",
+    ),
     pytest.param({**SIZE, "unit": "lux"}, r"unknown unit 'lux'", id="photometric unit"),
-    pytest.param({**SIZE, "unit": "W/m2/sr/nm"}, r"unit 'W/m2/sr/nm' does not fit quantity 'irradiance'",
-                 id="radiance unit with quantity irradiance"),
-    pytest.param({"source_diameter_mm": 5.0, "quantity": "radiance", "unit": "W/m2/nm"},
-                 r"unit 'W/m2/nm' does not fit quantity 'radiance'", id="irradiance unit with quantity radiance"),
-    pytest.param({**SIZE, "distance_mm": -200.0}, r"distance[_-]mm: Input should be greater than 0",
-                 id="negative distance"),
-    pytest.param({**SIZE, "quantity": "exitance"}, r"quantity: Input should be 'irradiance'",
-                 id="unknown quantity"),
+    pytest.param(
+        {**SIZE, "unit": "W/m2/sr/nm"},
+        r"unit 'W/m2/sr/nm' does not fit quantity 'irradiance'",
+        id="radiance unit with quantity irradiance",
+    ),
+    pytest.param(
+        {"source_diameter_mm": 5.0, "quantity": "radiance", "unit": "W/m2/nm"},
+        r"unit 'W/m2/nm' does not fit quantity 'radiance'",
+        id="irradiance unit with quantity radiance",
+    ),
+    pytest.param(
+        {**SIZE, "distance_mm": -200.0}, r"distance[_-]mm: Input should be greater than 0", id="negative distance"
+    ),
+    pytest.param({**SIZE, "quantity": "exitance"}, r"quantity: Input should be 'irradiance'", id="unknown quantity"),
 ]
 
 
@@ -240,11 +307,15 @@ def test_unknown_unit_on_the_command_line_names_the_option_value(tmp_path, monke
 
 def test_unknown_toml_field_suggests_the_close_name(tmp_path, monkeypatch):
     write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, _lamp(VISIBLE_NM))
-    record = _write(tmp_path / "record.toml",
-                    'id = "x"\nspectrum = "lamp.csv"\ndistance = 200\nsource_diameter_mm = 5\n')
+    record = _write(
+        tmp_path / "record.toml", 'id = "x"\nspectrum = "lamp.csv"\ndistance = 200\nsource_diameter_mm = 5\n'
+    )
     # record.py: extra fields are refused, with the closest field name (difflib) and the line of the key
-    with pytest.raises(InputError, match=r"record\.toml:3: unknown field 'distance'; fix: did you mean "
-                                         r"'distance_mm'\?"):
+    with pytest.raises(
+        InputError,
+        match=r"record\.toml:3: unknown field 'distance'; fix: did you mean "
+        r"'distance_mm'\?",
+    ):
         hazard.load_product(record)
     monkeypatch.chdir(tmp_path)
     result = CliRunner().invoke(main, ["assess", "record.toml"])
@@ -253,8 +324,9 @@ def test_unknown_toml_field_suggests_the_close_name(tmp_path, monkeypatch):
 
 def test_invalid_toml_names_the_line(tmp_path):
     write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, _lamp(VISIBLE_NM))
-    record = _write(tmp_path / "record.toml",
-                    'id = "x"\nspectrum = "lamp.csv"\n\ndistance_mm = 200 mm\nsource_diameter_mm = 5\n')
+    record = _write(
+        tmp_path / "record.toml", 'id = "x"\nspectrum = "lamp.csv"\n\ndistance_mm = 200 mm\nsource_diameter_mm = 5\n'
+    )
     with pytest.raises(InputError, match=r"record\.toml:4: not valid TOML") as caught:
         hazard.load_product(record)
     assert caught.value.line == 4
@@ -268,8 +340,10 @@ def test_record_without_spectrum(tmp_path):
 
 def test_unknown_unit_in_a_toml_record_names_its_line(tmp_path):
     write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, _lamp(VISIBLE_NM))
-    record = _write(tmp_path / "record.toml", 'id = "x"\nspectrum = "lamp.csv"\ndistance_mm = 200\n'
-                                              'source_diameter_mm = 5\nunit = "lux"\n')
+    record = _write(
+        tmp_path / "record.toml",
+        'id = "x"\nspectrum = "lamp.csv"\ndistance_mm = 200\nsource_diameter_mm = 5\nunit = "lux"\n',
+    )
     # errors.py: 'it names the file, the line and the fix'; the unit is on line 5
     with pytest.raises(InputError, match=r"record\.toml:5: .*unknown unit 'lux'"):
         hazard.load_product(record)
@@ -278,25 +352,37 @@ def test_unknown_unit_in_a_toml_record_names_its_line(tmp_path):
 @pytest.mark.parametrize("field", ["distance_mm", "source_diameter_mm"])
 def test_infinite_record_numbers_are_refused(tmp_path, field):
     write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, _lamp(VISIBLE_NM))
-    record = _write(tmp_path / "record.toml", f'id = "x"\nspectrum = "lamp.csv"\nno_emission_outside = true\n'
-                                              f'{"distance_mm = 200" if field != "distance_mm" else ""}\n'
-                                              f'{"source_diameter_mm = 5" if field != "source_diameter_mm" else ""}'
-                                              f'\n{field} = inf\n')
+    record = _write(
+        tmp_path / "record.toml",
+        f'id = "x"\nspectrum = "lamp.csv"\nno_emission_outside = true\n'
+        f"{'distance_mm = 200' if field != 'distance_mm' else ''}\n"
+        f"{'source_diameter_mm = 5' if field != 'source_diameter_mm' else ''}"
+        f"\n{field} = inf\n",
+    )
     # method §5: values finite; a distance or size must be a finite positive length (common practice)
     with pytest.raises(InputError, match=field):
         hazard.load_product(record)
 
 
-@pytest.mark.parametrize(("header", "fields", "pattern"), [
-    ("E [mW/m2/nm]", {**SIZE, "unit": "W/m2/nm"},
-     r"the record says unit 'W/m2/nm' but the file's header cell says 'mW/m2/nm'"),
-    ("L [W/m2/sr/nm]", SIZE, r"the file's header cell gives 'W/m2/sr/nm', which does not fit quantity "
-                             r"'irradiance'"),
-])
+@pytest.mark.parametrize(
+    ("header", "fields", "pattern"),
+    [
+        (
+            "E [mW/m2/nm]",
+            {**SIZE, "unit": "W/m2/nm"},
+            r"the record says unit 'W/m2/nm' but the file's header cell says 'mW/m2/nm'",
+        ),
+        (
+            "L [W/m2/sr/nm]",
+            SIZE,
+            r"the file's header cell gives 'W/m2/sr/nm', which does not fit quantity "
+            r"'irradiance'",
+        ),
+    ],
+)
 def test_unit_in_the_header_that_contradicts_the_record(tmp_path, header, fields, pattern):
     # method §5: units are converted, never guessed; a header and a record that disagree are refused
-    path = write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, 1000 * _lamp(VISIBLE_NM),
-                          header=f"wavelength_nm,{header}")
+    path = write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, 1000 * _lamp(VISIBLE_NM), header=f"wavelength_nm,{header}")
     with pytest.raises(InputError, match=pattern) as caught:
         hazard.assess(path, fields)
     assert "lamp.csv" in str(caught.value)
@@ -349,8 +435,15 @@ def test_descending_wavelengths_equal_ascending(tmp_path):
 
 
 # Bands of method §1 (IEC 62471:2006 §4.3) and what a 380–780 nm spectrum misses of each
-_MISSING_FROM_380_780 = {"E_S": "200–380 nm", "E_UVA": "315–380 nm", "L_B": "300–380 nm", "E_B": "300–380 nm",
-                         "L_R": "780–1400 nm", "E_IR": "780–3000 nm", "E_H": "780–3000 nm"}
+_MISSING_FROM_380_780 = {
+    "E_S": "200–380 nm",
+    "E_UVA": "315–380 nm",
+    "L_B": "300–380 nm",
+    "E_B": "300–380 nm",
+    "L_R": "780–1400 nm",
+    "E_IR": "780–3000 nm",
+    "E_H": "780–3000 nm",
+}
 
 
 @pytest.mark.parametrize(("diameter_mm", "blue"), [(5.0, "L_B"), (1.0, "E_B")])
@@ -371,8 +464,9 @@ def test_band_not_covered_is_not_assessed(tmp_path, monkeypatch, diameter_mm, bl
         assert f"missing {missing}" in h.note, h.note
         assert "no_emission_outside" in h.note  # the fix is named
     monkeypatch.chdir(tmp_path)
-    result = CliRunner().invoke(main, ["assess", "lamp.csv", "--distance-mm", "200", "--source-diameter-mm",
-                                       str(diameter_mm)])
+    result = CliRunner().invoke(
+        main, ["assess", "lamp.csv", "--distance-mm", "200", "--source-diameter-mm", str(diameter_mm)]
+    )
     assert result.exit_code == 0
     overall = next(line for line in result.stdout.splitlines() if line.startswith("Overall risk group"))
     assert overall.startswith("Overall risk group: NOT DETERMINED") and "Exempt" not in overall
@@ -390,8 +484,9 @@ def test_band_gap_assumed_empty_with_no_emission_outside(tmp_path, monkeypatch):
     assert any(assumption in text for text in a.assumptions)
     monkeypatch.chdir(tmp_path)
     text = CliRunner().invoke(main, ["assess", "lamp.csv", *SIZE_OPTIONS, "--no-emission-outside"])
-    as_json = CliRunner().invoke(main, ["assess", "lamp.csv", *SIZE_OPTIONS, "--no-emission-outside", "--format",
-                                        "json"])
+    as_json = CliRunner().invoke(
+        main, ["assess", "lamp.csv", *SIZE_OPTIONS, "--no-emission-outside", "--format", "json"]
+    )
     assert text.exit_code == 0 and as_json.exit_code == 0
     assert assumption in text.stdout and assumption in as_json.stdout
 
@@ -401,8 +496,10 @@ def test_decimal_comma_with_semicolons_equals_decimal_point(tmp_path):
     wl, values = VISIBLE_NM, _lamp(VISIBLE_NM)
     (tmp_path / "comma").mkdir(), (tmp_path / "point").mkdir()
     comma = tmp_path / "comma" / "lamp.csv"
-    comma.write_text("wavelength_nm;value\n" + "".join(f"{w!r};{v!r}\n".replace(".", ",") for w, v in
-                                                         zip(map(float, wl), map(float, values), strict=True)))
+    comma.write_text(
+        "wavelength_nm;value\n"
+        + "".join(f"{w!r};{v!r}\n".replace(".", ",") for w, v in zip(map(float, wl), map(float, values), strict=True))
+    )
     point = write_spectrum(tmp_path / "point" / "lamp.csv", wl, values)
     assert _same_result(hazard.assess(comma, SIZE), hazard.assess(point, SIZE))
 
@@ -412,8 +509,10 @@ def _columns_file(tmp_path):
     wl = VISIBLE_NM
     a, b = _lamp(wl), 3.0 * _lamp(wl)[::-1]
     path = tmp_path / "columns.csv"
-    path.write_text("wavelength_nm,a,b\n" + "".join(f"{w!r},{x!r},{y!r}\n" for w, x, y in
-                                                       zip(*(map(float, c) for c in (wl, a, b)), strict=True)))
+    path.write_text(
+        "wavelength_nm,a,b\n"
+        + "".join(f"{w!r},{x!r},{y!r}\n" for w, x, y in zip(*(map(float, c) for c in (wl, a, b)), strict=True))
+    )
     (tmp_path / "single").mkdir()
     single = write_spectrum(tmp_path / "single" / "columns.csv", wl, b)
     return path, single
@@ -433,16 +532,20 @@ def test_value_column_by_name_or_number(tmp_path, column):
 def test_value_column_on_the_command_line(tmp_path, monkeypatch, column):
     _, single = _columns_file(tmp_path)
     monkeypatch.chdir(tmp_path)
-    chosen = CliRunner().invoke(main, ["assess", "columns.csv", *SIZE_OPTIONS, "--column", column, "--format",
-                                       "json"])
+    chosen = CliRunner().invoke(main, ["assess", "columns.csv", *SIZE_OPTIONS, "--column", column, "--format", "json"])
     assert chosen.exit_code == 0, chosen.stderr
     alone = hazard.assess(single, SIZE)
     assert hazard.Assessment.model_validate_json(chosen.stdout).hazards == alone.hazards
 
 
-@pytest.mark.parametrize(("column", "pattern"), [("c", r"no value column named 'c'; fix: use one of: a, b"),
-                                                 (3, r"column 3 does not exist \(2 value columns\)"),
-                                                 (0, r"column 0 does not exist")])
+@pytest.mark.parametrize(
+    ("column", "pattern"),
+    [
+        ("c", r"no value column named 'c'; fix: use one of: a, b"),
+        (3, r"column 3 does not exist \(2 value columns\)"),
+        (0, r"column 0 does not exist"),
+    ],
+)
 def test_value_column_that_does_not_exist(tmp_path, column, pattern):
     path, _ = _columns_file(tmp_path)
     with pytest.raises(InputError, match=pattern):

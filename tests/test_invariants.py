@@ -31,11 +31,12 @@ def _gaussians(wavelength_nm, lines):
 
 
 def _log_uniform(lo, hi):
-    return st.floats(math.log10(lo), math.log10(hi)).map(lambda x: 10.0 ** x)
+    return st.floats(math.log10(lo), math.log10(hi)).map(lambda x: 10.0**x)
 
 
-LINES = st.lists(st.tuples(st.floats(200.0, 3000.0), st.floats(1.0, 300.0), _log_uniform(1e-6, 10.0)),
-                 min_size=1, max_size=4)
+LINES = st.lists(
+    st.tuples(st.floats(200.0, 3000.0), st.floats(1.0, 300.0), _log_uniform(1e-6, 10.0)), min_size=1, max_size=4
+)
 """Gaussian lines anywhere in 200–3000 nm, narrow (1 nm) to broad, over seven decades [nm, nm, W m⁻² nm⁻¹]."""
 
 
@@ -51,16 +52,17 @@ def _rank(group):
 # t_max exponents from the exposure limits (IEC 62471:2006 §4.3; method §1): dose limits value·t ≤ D give
 # t = D/value ∝ k^-1; E_IR ≤ 18000·t^-0.75 and E_H·t ≤ 20000·t^0.25 give t ∝ k^(-4/3); L_R ≤ 50000/(α·t^0.25)
 # gives t ∝ k^-4.
-T_MAX_EXPONENT = {"E_S": -1.0, "E_UVA": -1.0, "L_B": -1.0, "E_B": -1.0, "E_IR": -4 / 3, "E_H": -4 / 3,
-                  "L_R": -4.0}
+T_MAX_EXPONENT = {"E_S": -1.0, "E_UVA": -1.0, "L_B": -1.0, "E_B": -1.0, "E_IR": -4 / 3, "E_H": -4 / 3, "L_R": -4.0}
 
 # A floor under every generated spectrum that reaches every exposure limit for k ≥ 0.5 with a margin of two
 # (thresholds from method §1: E_S > 0.001 W/m2 within 30000 s, E_UVA > 10 W/m2, L_B > 100 W/(m2 sr),
 # E_B > 1 W/m2, L_R above 50000/(α·10^0.25), E_IR above 18000·1000^-0.75 ≈ 101 W/m2, E_H above
 # 20000·10^-0.75 ≈ 3560 W/m2), so that every t_max is finite and the scaling of t_max is always checked.
-FLOOR_LINES = [(270.0, 3.0, 2e-3),   # E_S ≈ 0.015 W/m2 (S_UV ≈ 1 near 270 nm, Table 4.1)
-               (365.0, 10.0, 2.0),   # E_UVA ≈ 50 W/m2
-               (450.0, 10.0, 0.5)]   # E_B ≈ 12 W/m2, luminance far above 10 cd/m2 (L_R, not L_IR)
+FLOOR_LINES = [
+    (270.0, 3.0, 2e-3),  # E_S ≈ 0.015 W/m2 (S_UV ≈ 1 near 270 nm, Table 4.1)
+    (365.0, 10.0, 2.0),  # E_UVA ≈ 50 W/m2
+    (450.0, 10.0, 0.5),
+]  # E_B ≈ 12 W/m2, luminance far above 10 cd/m2 (L_R, not L_IR)
 IR_FLOOR = 20.0
 """Flat 780–3000 nm [W m⁻² nm⁻¹]: E_IR ≈ E_H ≈ 44 kW/m2, R-weighted ≈ 2.7 kW/m2."""
 
@@ -71,9 +73,11 @@ def _floor(wavelength_nm):
 
 
 @FAST
-@given(extra=st.lists(st.tuples(st.floats(200.0, 3000.0), st.floats(1.0, 300.0), _log_uniform(1e-4, 10.0)),
-                      max_size=3),
-       k=st.floats(0.5, 4.0), diameter_mm=st.floats(0.5, 8.0))
+@given(
+    extra=st.lists(st.tuples(st.floats(200.0, 3000.0), st.floats(1.0, 300.0), _log_uniform(1e-4, 10.0)), max_size=3),
+    k=st.floats(0.5, 4.0),
+    diameter_mm=st.floats(0.5, 8.0),
+)
 def test_scaling_scales_values_by_k_and_t_max_by_a_power_of_k(tmp_path_factory, extra, k, diameter_mm):
     values = _floor(GRID) + _gaussians(GRID, extra)
     folder = _folder(tmp_path_factory, "scaling")
@@ -95,7 +99,7 @@ def test_scaling_scales_values_by_k_and_t_max_by_a_power_of_k(tmp_path_factory, 
             continue  # E_B or L_B, by α (IEC 62471:2006 Table 6.1, α < 0.011 rad)
         b, s = base.hazards[symbol], scaled.hazards[symbol]
         assert b.t_max_s is not None and s.t_max_s is not None, symbol  # the floor reaches every limit
-        assert s.t_max_s == pytest.approx(b.t_max_s * k ** exponent, rel=1e-9), symbol
+        assert s.t_max_s == pytest.approx(b.t_max_s * k**exponent, rel=1e-9), symbol
 
 
 # --- the group never improves when the spectrum grows --------------------------------------------------------
@@ -114,8 +118,7 @@ def _assert_never_improves(base, grown):
 
 
 @FAST
-@given(first=LINES, added=LINES, diameter_mm=st.floats(0.5, 30.0),
-       distance_mm=st.sampled_from([100.0, 200.0, 500.0]))
+@given(first=LINES, added=LINES, diameter_mm=st.floats(0.5, 30.0), distance_mm=st.sampled_from([100.0, 200.0, 500.0]))
 def test_group_never_improves_when_the_spectrum_grows(tmp_path_factory, first, added, diameter_mm, distance_mm):
     """Non-GLS lamps only: a GLS lamp is assessed where it gives 500 lx, so more light moves it further away
     and can lower its group (method §4; see the GLS tests below)."""
@@ -193,17 +196,22 @@ def test_gls_group_can_improve_when_the_spectrum_grows(tmp_path_factory):
 # --- descending input equals ascending input ---------------------------------------------------------------
 @FAST
 # start ≥ 200 nm: the spectrum overlaps 200-3000 nm (hazard/inputs.py refuses one wholly outside the bands)
-@given(steps=st.lists(st.floats(0.05, 10.0), min_size=1, max_size=150), start=st.floats(200.0, 2500.0),
-       data=st.data(), diameter_mm=st.floats(0.5, 30.0), no_emission_outside=st.booleans(),
-       lamp_type=st.sampled_from(["gls", "other"]))
-def test_descending_input_equals_ascending(tmp_path_factory, steps, start, data, diameter_mm, no_emission_outside,
-                                           lamp_type):
+@given(
+    steps=st.lists(st.floats(0.05, 10.0), min_size=1, max_size=150),
+    start=st.floats(200.0, 2500.0),
+    data=st.data(),
+    diameter_mm=st.floats(0.5, 30.0),
+    no_emission_outside=st.booleans(),
+    lamp_type=st.sampled_from(["gls", "other"]),
+)
+def test_descending_input_equals_ascending(
+    tmp_path_factory, steps, start, data, diameter_mm, no_emission_outside, lamp_type
+):
     wl = start + np.concatenate([[0.0], np.cumsum(steps)])
     values = np.array(data.draw(st.lists(st.floats(0.0, 100.0), min_size=wl.size, max_size=wl.size)))
     assume(values.max() > 0)  # a spectrum needs a positive value (method §5)
     up, down = _folder(tmp_path_factory, "up"), _folder(tmp_path_factory, "down")
-    fields = {"source_diameter_mm": diameter_mm, "no_emission_outside": no_emission_outside,
-              "lamp_type": lamp_type}
+    fields = {"source_diameter_mm": diameter_mm, "no_emission_outside": no_emission_outside, "lamp_type": lamp_type}
     a_up = assess_arrays(up, wl, values, **fields)
     a_down = assess_arrays(down, wl[::-1], values[::-1], **fields)
     # method §5: descending input is reversed; only the note of the reversal and the file's hash differ
@@ -214,11 +222,11 @@ def test_descending_input_equals_ascending(tmp_path_factory, steps, start, data,
 
 
 # --- resampling a smooth spectrum ----------------------------------------------------------------------------
-SMOOTH = st.lists(st.tuples(st.floats(300.0, 1100.0), st.floats(15.0, 150.0), st.floats(0.05, 1.0)),
-                  min_size=1, max_size=3)
+SMOOTH = st.lists(
+    st.tuples(st.floats(300.0, 1100.0), st.floats(15.0, 150.0), st.floats(0.05, 1.0)), min_size=1, max_size=3
+)
 """1–3 broad Gaussians (σ ≥ 15 nm) in 300–1100 nm [nm, nm, W m⁻² nm⁻¹]."""
-MAX_WEIGHT = {"E_S": 1.0, "E_UVA": 1.0, "L_B": 1.0, "E_B": 1.0, "L_R": 10.0, "L_IR": 10.0, "E_IR": 1.0,
-              "E_H": 1.0}
+MAX_WEIGHT = {"E_S": 1.0, "E_UVA": 1.0, "L_B": 1.0, "E_B": 1.0, "L_R": 10.0, "L_IR": 10.0, "E_IR": 1.0, "E_H": 1.0}
 """Largest weight in each band (Tables 4.1, 4.2: S_UV ≤ 1, B ≤ 1, R ≤ 10; unweighted bands 1)."""
 RESAMPLING_REL = {"E_S": 0.010}
 """E_S may move by up to 1 %: on a 1 nm grid the trapezoid overestimates ∫exp(sλ)dλ by about (s·1 nm)²/12,
@@ -295,8 +303,14 @@ def _line(centre_nm, peak):
 
 def _record(quantity, diameter_mm):
     if quantity == "radiance":
-        return {"quantity": "radiance", "unit": "W/m2/sr/nm", "source_diameter_mm": diameter_mm,
-                "no_emission_outside": True, "measurement_fov_mrad": 1.0, "distance_mm": None}
+        return {
+            "quantity": "radiance",
+            "unit": "W/m2/sr/nm",
+            "source_diameter_mm": diameter_mm,
+            "no_emission_outside": True,
+            "measurement_fov_mrad": 1.0,
+            "distance_mm": None,
+        }
     return {"source_diameter_mm": diameter_mm, "no_emission_outside": True}
 
 
@@ -314,14 +328,17 @@ def test_narrow_line_where_the_weight_is_constant(tmp_path_factory, case, data, 
 
 def _triangle_times_exponential(s):
     """∫₀¹ (1 − x)·e^(−s·x) dx: one side of a unit triangle under a weight falling by e^(−s) per nm."""
-    return 0.5 if abs(s) < 1e-12 else (s - 1 + math.exp(-s)) / s ** 2
+    return 0.5 if abs(s) < 1e-12 else (s - 1 + math.exp(-s)) / s**2
 
 
-@pytest.mark.parametrize(("symbol", "centre", "weight", "left", "right", "source"), [
-    ("E_S", 270.0, 1.0, (265.0, 0.81), (275.0, 0.96), "IEC 62471:2006 Table 4.1"),
-    ("E_S", 254.0, 0.5, (250.0, 0.43), (255.0, 0.52), "IEC 62471:2006 Table 4.1"),
-    ("E_B", 440.0, 1.0, (435.0, 1.0), (445.0, 0.97), "IEC 62471:2006 Table 4.2"),
-])
+@pytest.mark.parametrize(
+    ("symbol", "centre", "weight", "left", "right", "source"),
+    [
+        ("E_S", 270.0, 1.0, (265.0, 0.81), (275.0, 0.96), "IEC 62471:2006 Table 4.1"),
+        ("E_S", 254.0, 0.5, (250.0, 0.43), (255.0, 0.52), "IEC 62471:2006 Table 4.1"),
+        ("E_B", 440.0, 1.0, (435.0, 1.0), (445.0, 0.97), "IEC 62471:2006 Table 4.2"),
+    ],
+)
 def test_narrow_line_at_a_tabulated_point(tmp_path_factory, symbol, centre, weight, left, right, source):
     """At a tabulated point the weight bends; between table points it is log-linear (method §2), so the
     line integral is weight × peak × 1 nm × (g(s_left) + g(s_right)), with g from
@@ -329,8 +346,7 @@ def test_narrow_line_at_a_tabulated_point(tmp_path_factory, symbol, centre, weig
     peak = 2.0
     grid = centre + 0.01 * np.arange(-100, 101)  # trapezoid error ≈ (h²/12)·2·(s_left + s_right)·P < 1e-6·P
     values = triangle_line(grid, centre, peak, 1.0)
-    a = assess_arrays(_folder(tmp_path_factory, "kink"), grid, values, source_diameter_mm=1.0,
-                      no_emission_outside=True)
+    a = assess_arrays(_folder(tmp_path_factory, "kink"), grid, values, source_diameter_mm=1.0, no_emission_outside=True)
     s_left = math.log(weight / left[1]) / (centre - left[0])
     s_right = math.log(weight / right[1]) / (right[0] - centre)
     shape = _triangle_times_exponential(s_left) + _triangle_times_exponential(s_right)

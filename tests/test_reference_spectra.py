@@ -28,12 +28,15 @@ def test_k_m_is_683(tmp_path):
     assert a.illuminance_lx == pytest.approx(683.0, rel=1e-4)
 
 
-@pytest.mark.parametrize(("name", "cct_k", "tolerance_k"), [
-    ("A", 2856, 2),        # CIE 15:2004 §3.1: illuminant A, CCT 2856 K
-    ("D65", 6504, 5),      # CIE 15:2004 §3.1: D65, CCT ≈ 6504 K
-    ("FL2", 4230, 15),     # CIE 15:2004 Table T.8: FL2 (cool white fluorescent), CCT 4230 K (from memory)
-    ("LED-B3", 4103, 15),  # CIE 15:2018 Table 11: LED-B3, CCT 4103 K (from memory)
-])
+@pytest.mark.parametrize(
+    ("name", "cct_k", "tolerance_k"),
+    [
+        ("A", 2856, 2),  # CIE 15:2004 §3.1: illuminant A, CCT 2856 K
+        ("D65", 6504, 5),  # CIE 15:2004 §3.1: D65, CCT ≈ 6504 K
+        ("FL2", 4230, 15),  # CIE 15:2004 Table T.8: FL2 (cool white fluorescent), CCT 4230 K (from memory)
+        ("LED-B3", 4103, 15),  # CIE 15:2018 Table 11: LED-B3, CCT 4103 K (from memory)
+    ],
+)
 def test_cct_of_cie_illuminants(colour, tmp_path, name, cct_k, tolerance_k):
     wl, values = _illuminant(colour, name)
     a = assess_arrays(tmp_path, wl, values * 1e-3, no_emission_outside=True)
@@ -56,8 +59,7 @@ def test_led_b_series_is_not_uv_or_ir_hazardous_at_office_levels(colour, tmp_pat
     # (IEC TR 62778:2014 Annex C, from memory).
     for name in ("LED-B1", "LED-B3", "LED-B5"):
         wl, values = _illuminant(colour, name)
-        probe = assess_arrays(tmp_path, wl, values, name=name, no_emission_outside=True,
-                              source_diameter_mm=20.0)
+        probe = assess_arrays(tmp_path, wl, values, name=name, no_emission_outside=True, source_diameter_mm=20.0)
         scaled = values * 500 / probe.illuminance_lx
         a = assess_arrays(tmp_path, wl, scaled, name=name, no_emission_outside=True, source_diameter_mm=20.0)
         assert a.illuminance_lx == pytest.approx(500)

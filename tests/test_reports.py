@@ -31,9 +31,17 @@ RENDERED_AT = datetime.datetime(2024, 6, 1, 12, 0, tzinfo=datetime.UTC)
 
 # examples/README.md: "the line-up spans the groups: Exempt (desk lamp, indicator), RG1 (spotlight, IR
 # illuminator), RG2 (far-UV-C lamp, horticulture spotlight), RG3 (curing lamp, germicidal lamp, heater)"
-EXPECTED_GROUP = {"cl-desk-30": "Exempt", "cl-pip-470": "Exempt", "cl-spot-65": "RG1", "cl-ir-940": "RG1",
-                  "cl-far-222": "RG2", "cl-grow-30": "RG2", "cl-cure-365": "RG3", "cl-germ-254": "RG3",
-                  "cl-heat-2k": "RG3"}
+EXPECTED_GROUP = {
+    "cl-desk-30": "Exempt",
+    "cl-pip-470": "Exempt",
+    "cl-spot-65": "RG1",
+    "cl-ir-940": "RG1",
+    "cl-far-222": "RG2",
+    "cl-grow-30": "RG2",
+    "cl-cure-365": "RG3",
+    "cl-germ-254": "RG3",
+    "cl-heat-2k": "RG3",
+}
 FOOTER = "Pre-screen only — not a certification"  # project contract: README "a pre-screen, not a certification"
 SECTION = "Distance, uncertainty and remedies"  # project contract: issue "Beyond the label", the section's title
 
@@ -76,8 +84,9 @@ def test_product_report_has_three_pages_with_its_facts(stem, lineup, lineup_pdfs
     for h in a.hazards.values():
         assert h.assessed  # examples/lineup: every record states no emission outside its measured range
         # project contract: hazard.output.formatting.format_value prints every value, in the row of its hazard
-        assert re.search(_row_pattern(h.symbol, h.title, format_value(h.value), UNIT_DISPLAY.get(h.unit, h.unit)),
-                         first), h.symbol
+        assert re.search(
+            _row_pattern(h.symbol, h.title, format_value(h.value), UNIT_DISPLAY.get(h.unit, h.unit)), first
+        ), h.symbol
     for caution in a.cautions:
         # project contract: hazard/cautions.py, every chosen caution on page 1 and in full at the end
         assert _normalise(caution) in first and _normalise(caution) in pages[-1]
@@ -127,8 +136,9 @@ def test_page_one_names_the_page_the_studies_start_on(lineup):
     # project contract: reports/product_pdf.py, page 1 points to the studies' page; 25 extra assumption lines
     # make page 2 run over (beyond the slight shrink it allows), so the section starts on page 4
     a = lineup["cl-heat-2k"]
-    long = a.model_copy(update={"assumptions": a.assumptions + [f"Assumption {i}: " + "an invented line. " * 12
-                                                                for i in range(25)]})
+    long = a.model_copy(
+        update={"assumptions": a.assumptions + [f"Assumption {i}: " + "an invented line. " * 12 for i in range(25)]}
+    )
     pages = _pages(render_assessment_pdf(long, RENDERED_AT))
     assert [number for number, page in enumerate(pages, start=1) if page.startswith(SECTION)] == [4]
     assert "— page 4" in pages[0] and "(page 4)" in pages[0] and "page 3" not in pages[0]
@@ -241,8 +251,15 @@ def _with_tightest(a: Assessment, new_id: str, group: str, margins: dict[str, fl
     """``a`` re-labelled: one deciding hazard (E_UVA) in ``group`` with the given value/limit ratios, and no
     uncertainty study (the line-up records state an uncertainty), so the margin rule flags it."""
     hazard_result = a.hazards["E_UVA"].model_copy(update={"risk_group": group, "margins": margins})
-    return a.model_copy(update={"id": new_id, "risk_group": group, "deciding_hazards": ["E_UVA"],
-                                "hazards": {**a.hazards, "E_UVA": hazard_result}, "uncertainty": None})
+    return a.model_copy(
+        update={
+            "id": new_id,
+            "risk_group": group,
+            "deciding_hazards": ["E_UVA"],
+            "hazards": {**a.hazards, "E_UVA": hazard_result},
+            "uncertainty": None,
+        }
+    )
 
 
 def test_rank_orders_groups_then_headroom(lineup):
@@ -251,39 +268,52 @@ def test_rank_orders_groups_then_headroom(lineup):
     # reports/ranking.py); then (reports/ranking.py) the deciding hazard with the largest value/limit at its
     # group's upper boundary first
     base = lineup["cl-cure-365"]
-    products = [_with_tightest(base, "E-LOW", "Exempt", {"Exempt": 0.1, "RG1": 0.03, "RG2": 0.01}),
-                _with_tightest(base, "RG2-TIGHT", "RG2", {"Exempt": 90.0, "RG1": 27.0, "RG2": 0.9}),
-                _with_tightest(base, "RG3-FAR", "RG3", {"Exempt": 500.0, "RG1": 150.0, "RG2": 50.0}),
-                _with_tightest(base, "RG1-LOOSE", "RG1", {"Exempt": 2.0, "RG1": 0.6, "RG2": 0.2}),
-                _with_tightest(base, "RG2-LOOSE", "RG2", {"Exempt": 10.0, "RG1": 3.0, "RG2": 0.1}),
-                _with_tightest(base, "RG3-NEAR", "RG3", {"Exempt": 12.0, "RG1": 4.0, "RG2": 1.2}),
-                _with_tightest(base, "E-HIGH", "Exempt", {"Exempt": 0.7, "RG1": 0.2, "RG2": 0.07})]
-    assert [a.id for a in rank_assessments(products)] == ["RG3-NEAR", "RG3-FAR", "RG2-TIGHT", "RG2-LOOSE",
-                                                           "RG1-LOOSE", "E-HIGH", "E-LOW"]
+    products = [
+        _with_tightest(base, "E-LOW", "Exempt", {"Exempt": 0.1, "RG1": 0.03, "RG2": 0.01}),
+        _with_tightest(base, "RG2-TIGHT", "RG2", {"Exempt": 90.0, "RG1": 27.0, "RG2": 0.9}),
+        _with_tightest(base, "RG3-FAR", "RG3", {"Exempt": 500.0, "RG1": 150.0, "RG2": 50.0}),
+        _with_tightest(base, "RG1-LOOSE", "RG1", {"Exempt": 2.0, "RG1": 0.6, "RG2": 0.2}),
+        _with_tightest(base, "RG2-LOOSE", "RG2", {"Exempt": 10.0, "RG1": 3.0, "RG2": 0.1}),
+        _with_tightest(base, "RG3-NEAR", "RG3", {"Exempt": 12.0, "RG1": 4.0, "RG2": 1.2}),
+        _with_tightest(base, "E-HIGH", "Exempt", {"Exempt": 0.7, "RG1": 0.2, "RG2": 0.07}),
+    ]
+    assert [a.id for a in rank_assessments(products)] == [
+        "RG3-NEAR",
+        "RG3-FAR",
+        "RG2-TIGHT",
+        "RG2-LOOSE",
+        "RG1-LOOSE",
+        "E-HIGH",
+        "E-LOW",
+    ]
 
 
 def test_rank_of_the_lineup(lineup):
     # examples/README.md groups; within a group by the deciding hazard's value/limit as each result reports
     # it (germicidal E_S far over RG2 before the curing lamp's E_UVA and the heater's E_IR, both about 2x)
     ranked = rank_assessments(list(lineup.values()))
-    assert [a.risk_group for a in ranked] == sorted((a.risk_group for a in ranked),
-                                                     key=["RG3", "RG2", "RG1", "Exempt"].index)
+    assert [a.risk_group for a in ranked] == sorted(
+        (a.risk_group for a in ranked), key=["RG3", "RG2", "RG1", "Exempt"].index
+    )
     assert not any(is_borderline(a) for a in ranked)  # by the values in each result (see the summary test)
     ratios = [(a.risk_group, tightest_margin(a).ratio) for a in ranked]
     assert all(r1 >= r2 for (g1, r1), (g2, r2) in pairwise(ratios) if g1 == g2)
     assert ranked[0].id == "CL-GERM-254"
 
 
-@pytest.mark.parametrize(("group", "margins", "expected"), [
-    ("RG1", {"Exempt": 3.0, "RG1": 0.8, "RG2": 0.1}, True),      # 0.8 of the RG1 limit: at the edge
-    ("RG1", {"Exempt": 2.9, "RG1": 0.79, "RG2": 0.1}, False),    # just beyond the factor
-    ("RG1", {"Exempt": 1.25, "RG1": 0.3, "RG2": 0.01}, True),    # just over the Exempt limit, the other side
-    ("RG1", {"Exempt": 1.26, "RG1": 0.3, "RG2": 0.01}, False),
-    ("RG3", {"Exempt": 40.0, "RG1": 12.0, "RG2": 1.2}, True),    # RG3 within 1.25x of the RG2 limit
-    ("RG3", {"Exempt": 50.0, "RG1": 15.0, "RG2": 1.3}, False),
-    ("Exempt", {"Exempt": 0.95, "RG1": 0.3, "RG2": 0.1}, True),
-    ("Exempt", {"Exempt": 0.5, "RG1": 0.15, "RG2": 0.05}, False),
-])
+@pytest.mark.parametrize(
+    ("group", "margins", "expected"),
+    [
+        ("RG1", {"Exempt": 3.0, "RG1": 0.8, "RG2": 0.1}, True),  # 0.8 of the RG1 limit: at the edge
+        ("RG1", {"Exempt": 2.9, "RG1": 0.79, "RG2": 0.1}, False),  # just beyond the factor
+        ("RG1", {"Exempt": 1.25, "RG1": 0.3, "RG2": 0.01}, True),  # just over the Exempt limit, the other side
+        ("RG1", {"Exempt": 1.26, "RG1": 0.3, "RG2": 0.01}, False),
+        ("RG3", {"Exempt": 40.0, "RG1": 12.0, "RG2": 1.2}, True),  # RG3 within 1.25x of the RG2 limit
+        ("RG3", {"Exempt": 50.0, "RG1": 15.0, "RG2": 1.3}, False),
+        ("Exempt", {"Exempt": 0.95, "RG1": 0.3, "RG2": 0.1}, True),
+        ("Exempt", {"Exempt": 0.5, "RG1": 0.15, "RG2": 0.05}, False),
+    ],
+)
 def test_borderline_within_a_factor_of_a_boundary(lineup, group, margins, expected):
     # project contract (summary brief): borderline when the tightest hazard's value/limit lies in 0.8-1.25
     # for the limit above or below it
@@ -293,8 +323,9 @@ def test_borderline_within_a_factor_of_a_boundary(lineup, group, margins, expect
 def test_summary_ranks_flags_and_lists_failures(tmp_path, lineup):
     bad = tmp_path / "cl-bad-1.toml"
     (tmp_path / "cl-bad-1.csv").write_text("wavelength_nm,value\n0.38,1\n0.39,2\n0.40,1\n", encoding="utf-8")
-    bad.write_text('id = "CL-BAD-1"\nspectrum = "cl-bad-1.csv"\ndistance_mm = 200.0\nsource_diameter_mm = 5.0\n',
-                   encoding="utf-8")
+    bad.write_text(
+        'id = "CL-BAD-1"\nspectrum = "cl-bad-1.csv"\ndistance_mm = 200.0\nsource_diameter_mm = 5.0\n', encoding="utf-8"
+    )
     with pytest.raises(InputError) as failure:  # design/method.md §5: a wavelength column in µm is an error
         hazard.assess(bad)
     reason = f"{failure.value}\nsecond line, not shown"
@@ -321,8 +352,15 @@ def test_summary_ranks_flags_and_lists_failures(tmp_path, lineup):
 def _study(verdict: str) -> UncertaintyStudy:
     """An uncertainty study of ±10 % (k = 2) and ±1 nm with the given verdict."""
     low, high = ("RG1", "RG1") if verdict == "robust" else ("Exempt", "RG1")
-    return UncertaintyStudy(uncertainty_pct=10.0, wavelength_uncertainty_nm=1.0, hazards=[], risk_group_low=low,
-                            risk_group_high=high, verdict=verdict, note=f"{verdict} by construction")
+    return UncertaintyStudy(
+        uncertainty_pct=10.0,
+        wavelength_uncertainty_nm=1.0,
+        hazards=[],
+        risk_group_low=low,
+        risk_group_high=high,
+        verdict=verdict,
+        note=f"{verdict} by construction",
+    )
 
 
 def test_uncertainty_study_sets_borderline_and_ranks_it_first(lineup):
@@ -330,17 +368,24 @@ def test_uncertainty_study_sets_borderline_and_ranks_it_first(lineup):
     # project contract: issue "Beyond the label": with an uncertainty study its verdict is the BORDERLINE flag
     # (else the margin rule of reports/ranking.py), and borderline products rank first within their group
     study_edge = _with_tightest(base, "RG1-STUDY-EDGE", "RG1", {"Exempt": 2.0, "RG1": 0.3, "RG2": 0.01}).model_copy(
-        update={"uncertainty": _study("borderline")})
+        update={"uncertainty": _study("borderline")}
+    )
     study_safe = _with_tightest(base, "RG1-STUDY-SAFE", "RG1", {"Exempt": 3.0, "RG1": 0.95, "RG2": 0.1}).model_copy(
-        update={"uncertainty": _study("robust")})
+        update={"uncertainty": _study("robust")}
+    )
     margin_edge = _with_tightest(base, "RG1-MARGIN-EDGE", "RG1", {"Exempt": 2.8, "RG1": 0.85, "RG2": 0.1})
     loose = _with_tightest(base, "RG1-LOOSE", "RG1", {"Exempt": 1.6, "RG1": 0.5, "RG2": 0.05})
     rg2 = _with_tightest(base, "RG2-LOOSE", "RG2", {"Exempt": 10.0, "RG1": 3.0, "RG2": 0.1})
     # 0.3 and 2.0 of the RG1 and Exempt limits lie outside 0.8-1.25, 0.95 inside: the studies decide here
     assert [is_borderline(a) for a in (study_edge, study_safe, margin_edge, loose)] == [True, False, True, False]
     products = [loose, study_safe, rg2, study_edge, margin_edge]
-    assert [a.id for a in rank_assessments(products)] == ["RG2-LOOSE", "RG1-MARGIN-EDGE", "RG1-STUDY-EDGE",
-                                                           "RG1-STUDY-SAFE", "RG1-LOOSE"]
+    assert [a.id for a in rank_assessments(products)] == [
+        "RG2-LOOSE",
+        "RG1-MARGIN-EDGE",
+        "RG1-STUDY-EDGE",
+        "RG1-STUDY-SAFE",
+        "RG1-LOOSE",
+    ]
     text = " ".join(_pages(render_summary_pdf(products, [], RENDERED_AT)))
     assert "borderline: 2" in text
     assert re.search(r"RG1-STUDY-EDGE .* BORDERLINE \(within ±10 %, ±1 nm\)", text)  # the study's flag, in words

@@ -47,8 +47,10 @@ def _spectrum(folder: Path, name: str = "lamp.csv") -> Path:
 @contextlib.contextmanager
 def _bounded(seconds: float):
     """Fail instead of hanging: a case that once took minutes (or forever) must end; 10× margin and more."""
+
     def expire(*_):
         raise TimeoutError(f"still running after {seconds} s")
+
     previous = signal.signal(signal.SIGALRM, expire)
     signal.setitimer(signal.ITIMER_REAL, seconds)
     try:
@@ -107,11 +109,15 @@ def _xlsx(path: Path, rows, sheet_xml_edit=None) -> Path:
     return path
 
 
-@pytest.mark.parametrize(("edit", "fragment"), [
-    (lambda xml: xml.replace(b"<v>410</v>", b"<v>NaN</v>"), "cannot read the workbook"),
-    (lambda xml: xml.replace(b"</row>", b"</rowx>", 2), "cannot read the workbook"),
-    (lambda xml: xml[: len(xml) // 2], "cannot read the workbook"),
-], ids=["NaN cell", "damaged XML", "truncated sheet"])
+@pytest.mark.parametrize(
+    ("edit", "fragment"),
+    [
+        (lambda xml: xml.replace(b"<v>410</v>", b"<v>NaN</v>"), "cannot read the workbook"),
+        (lambda xml: xml.replace(b"</row>", b"</rowx>", 2), "cannot read the workbook"),
+        (lambda xml: xml[: len(xml) // 2], "cannot read the workbook"),
+    ],
+    ids=["NaN cell", "damaged XML", "truncated sheet"],
+)
 def test_damaged_workbook_is_one_input_error(tmp_path, edit, fragment):
     # the workbook is read lazily: damage shows while rows are read, and must still be an input error
     path = _xlsx(tmp_path / "w.xlsx", [["wavelength_nm", "value"], [400, 0.1], [410, 0.2], [420, 0.1]], edit)
@@ -122,9 +128,11 @@ def test_damaged_workbook_is_one_input_error(tmp_path, edit, fragment):
 
 def test_workbook_claiming_millions_of_rows_is_refused_while_streaming(tmp_path):
     # one cell in row 3 000 000: the reader would create every empty row before it; the row limit stops it
-    path = _xlsx(tmp_path / "w.xlsx", [["wavelength_nm", "value"], [400, 0.1], [410, 0.2]],
-                 lambda xml: xml.replace(b"</sheetData>", b'<row r="3000000"><c r="A3000000"><v>1</v></c></row>'
-                                                          b"</sheetData>"))
+    path = _xlsx(
+        tmp_path / "w.xlsx",
+        [["wavelength_nm", "value"], [400, 0.1], [410, 0.2]],
+        lambda xml: xml.replace(b"</sheetData>", b'<row r="3000000"><c r="A3000000"><v>1</v></c></row></sheetData>'),
+    )
     with _bounded(30), pytest.raises(InputError) as caught:
         read_spectrum(str(path), display_path="w.xlsx")
     _one_line(caught.value, "more than 100,000 rows")
@@ -133,8 +141,11 @@ def test_workbook_claiming_millions_of_rows_is_refused_while_streaming(tmp_path)
 def test_workbook_that_unpacks_huge_is_refused_before_parsing(tmp_path):
     # 60 MB of sheet XML compresses to a small file (a zip bomb); the unpacked size is checked first
     padding = b"<!--" + b" " * (60 * 2**20) + b"-->"
-    path = _xlsx(tmp_path / "w.xlsx", [["wavelength_nm", "value"], [400, 0.1], [410, 0.2]],
-                 lambda xml: xml.replace(b"<sheetData>", padding + b"<sheetData>"))
+    path = _xlsx(
+        tmp_path / "w.xlsx",
+        [["wavelength_nm", "value"], [400, 0.1], [410, 0.2]],
+        lambda xml: xml.replace(b"<sheetData>", padding + b"<sheetData>"),
+    )
     assert path.stat().st_size < 2**20
     with pytest.raises(InputError) as caught:
         read_spectrum(str(path), display_path="w.xlsx")
@@ -150,11 +161,15 @@ def test_workbook_date_and_bool_cells_are_named(tmp_path):
     _one_line(caught.value, "w.xlsx:3", "in a number column")
 
 
-@pytest.mark.parametrize(("content", "fragment"), [
-    ("[" * 100_000 + "]" * 100_000, "nested too deep"),
-    ('{"wavelength_nm": [400, 410], "value": [1, ' + "9" * 5000 + "]}", "not a finite number"),
-    ('[[400, 1], [410, 2]]', None),
-], ids=["deep nesting", "5000-digit integer", "plain pairs"])
+@pytest.mark.parametrize(
+    ("content", "fragment"),
+    [
+        ("[" * 100_000 + "]" * 100_000, "nested too deep"),
+        ('{"wavelength_nm": [400, 410], "value": [1, ' + "9" * 5000 + "]}", "not a finite number"),
+        ("[[400, 1], [410, 2]]", None),
+    ],
+    ids=["deep nesting", "5000-digit integer", "plain pairs"],
+)
 def test_json_decoder_limits_are_input_errors(tmp_path, content, fragment):
     path = tmp_path / "s.json"
     path.write_text(content)
@@ -208,10 +223,17 @@ def test_linear_time_header_and_number_patterns(tmp_path):
     _one_line(caught.value, "long.csv:3", "cell of 21,001 characters")
 
 
-@pytest.mark.parametrize(("cell", "unit"), [
-    ("Irradiance [mW/m²/nm]", "mW/m²/nm"), ("E (µW/(cm²·nm))", "µW/(cm²·nm)"), ("E (a) (W/m2/nm)", "W/m2/nm"),
-    ("E [W/m2/nm] ", "W/m2/nm"), ("counts", None), ("Wavelength [µm]", None),
-])
+@pytest.mark.parametrize(
+    ("cell", "unit"),
+    [
+        ("Irradiance [mW/m²/nm]", "mW/m²/nm"),
+        ("E (µW/(cm²·nm))", "µW/(cm²·nm)"),
+        ("E (a) (W/m2/nm)", "W/m2/nm"),
+        ("E [W/m2/nm] ", "W/m2/nm"),
+        ("counts", None),
+        ("Wavelength [µm]", None),
+    ],
+)
 def test_header_units_read_as_before(cell, unit):
     # the linear-time reading keeps the behaviour on ordinary header cells (hazard/readers/headers.py)
     assert header_statement(cell).unit == unit
@@ -256,8 +278,11 @@ def test_symlink_loop_nul_byte_long_name_and_folder(tmp_path):
     (tmp_path / "a.csv").symlink_to("b.csv")
     (tmp_path / "b.csv").symlink_to("a.csv")
     (tmp_path / "x.toml").mkdir()
-    cases = [(tmp_path / "a.csv", "loop of symbolic links"), (tmp_path / ("n" * 300 + ".csv"), "too long"),
-             (tmp_path / "x.toml", "a folder, not a record")]
+    cases = [
+        (tmp_path / "a.csv", "loop of symbolic links"),
+        (tmp_path / ("n" * 300 + ".csv"), "too long"),
+        (tmp_path / "x.toml", "a folder, not a record"),
+    ]
     for path, fragment in cases:
         with pytest.raises(InputError) as caught:
             load_product(path, SIZE)
@@ -293,11 +318,20 @@ def test_invalid_size_limit_variable(tmp_path, monkeypatch):
 
 
 # --- records: numbers that overflowed the geometry or the parser --------------------------------------------
-@pytest.mark.parametrize(("field", "value"), [
-    ("distance_mm", 1e-300), ("distance_mm", 5e-324), ("distance_mm", 1e300), ("at_distance_mm", 1e-300),
-    ("source_diameter_mm", 1e300), ("source_diameter_mm", 1e-300), ("peak_to_mean_radiance", 1e300),
-    ("claimed_t_max_s_L_B", 5e-324), ("claimed_cct_k", 1e300),
-])
+@pytest.mark.parametrize(
+    ("field", "value"),
+    [
+        ("distance_mm", 1e-300),
+        ("distance_mm", 5e-324),
+        ("distance_mm", 1e300),
+        ("at_distance_mm", 1e-300),
+        ("source_diameter_mm", 1e300),
+        ("source_diameter_mm", 1e-300),
+        ("peak_to_mean_radiance", 1e300),
+        ("claimed_t_max_s_L_B", 5e-324),
+        ("claimed_cct_k", 1e300),
+    ],
+)
 def test_absurd_record_magnitudes_are_refused_with_the_bound(tmp_path, field, value):
     path = _spectrum(tmp_path)
     with pytest.raises(InputError) as caught:
@@ -305,10 +339,13 @@ def test_absurd_record_magnitudes_are_refused_with_the_bound(tmp_path, field, va
     _one_line(caught.value, f"{value:g}", "is not a usable", "give ")
 
 
-@pytest.mark.parametrize(("text", "fragment"), [
-    ("a = " + "[" * 5000 + "]" * 5000 + "\n", "nested too deep"),
-    ("distance_mm = " + "9" * 5000 + "\n", "not a usable TOML value"),
-])
+@pytest.mark.parametrize(
+    ("text", "fragment"),
+    [
+        ("a = " + "[" * 5000 + "]" * 5000 + "\n", "nested too deep"),
+        ("distance_mm = " + "9" * 5000 + "\n", "not a usable TOML value"),
+    ],
+)
 def test_toml_parser_limits_are_input_errors(tmp_path, text, fragment):
     record = tmp_path / "r.toml"
     record.write_text('id = "x"\n' + text)
@@ -332,7 +369,8 @@ def test_a_result_that_overflowed_never_leaves_the_engine(tmp_path):
     assert require_finite(good) is good
     hazards = dict(good.hazards)
     hazards["E_B" if "E_B" in hazards else "L_B"] = next(iter(hazards.values())).model_copy(
-        update={"value": float("inf")})
+        update={"value": float("inf")}
+    )
     with pytest.raises(InputError) as caught:
         require_finite(good.model_copy(update={"hazards": hazards}))
     _one_line(caught.value, "product 'P'", "came out as inf")
@@ -364,9 +402,14 @@ def test_xlsx_manifest_with_a_date_cell(tmp_path):
     from hazard.assessment.batch import run_batch
 
     _spectrum(tmp_path)
-    path = _xlsx(tmp_path / "m.xlsx", [["id", "spectrum", "distance_mm", "source_diameter_mm", "name"],
-                                       ["A", "lamp.csv", 500, 30, datetime.datetime(2024, 5, 1, 12, 0)],
-                                       [datetime.date(2024, 5, 2), "lamp.csv", 500, 30, "dated"]])
+    path = _xlsx(
+        tmp_path / "m.xlsx",
+        [
+            ["id", "spectrum", "distance_mm", "source_diameter_mm", "name"],
+            ["A", "lamp.csv", 500, 30, datetime.datetime(2024, 5, 1, 12, 0)],
+            [datetime.date(2024, 5, 2), "lamp.csv", 500, 30, "dated"],
+        ],
+    )
     outcome = run_batch(path, tmp_path / "out")
     assert outcome.exit_code == 0 and list(outcome.assessments) == ["A", "2024-05-02"]
     assert outcome.assessments["A"].name == "2024-05-01 12:00:00"
@@ -380,8 +423,7 @@ def _manifest(folder: Path, ids, spectrum="lamp.csv") -> Path:
     return path
 
 
-@pytest.mark.parametrize(("raised", "status"), [(OverflowError("math range error"), 3),
-                                                (RuntimeError("a defect"), 1)])
+@pytest.mark.parametrize(("raised", "status"), [(OverflowError("math range error"), 3), (RuntimeError("a defect"), 1)])
 def test_a_failure_after_loading_is_that_products_error(tmp_path, monkeypatch, raised, status):
     import hazard.assessment.batch as batch
 
@@ -443,8 +485,9 @@ def test_assess_refuses_to_write_over_its_input(tmp_path):
     path = _spectrum(tmp_path)
     before = path.read_bytes()
     for option in ("--output", "--pdf"):
-        result = _cli(["assess", "lamp.csv", "--distance-mm", "500", "--source-diameter-mm", "30", option,
-                       "lamp.csv"], tmp_path)
+        result = _cli(
+            ["assess", "lamp.csv", "--distance-mm", "500", "--source-diameter-mm", "30", option, "lamp.csv"], tmp_path
+        )
         _assert_exit_2(result, "would replace an input file")
     assert path.read_bytes() == before
 
@@ -476,8 +519,10 @@ def test_colliding_ids_get_files_of_their_own(tmp_path):
     assert outcome.exit_code == 0
     files = sorted(p.name for p in (tmp_path / "out").glob("*.json"))
     assert len(files) == len(ids) and "summary.json" not in files
-    stems = {line.split(",")[0].strip('"'): line.rsplit(",", 1)[1]
-             for line in (tmp_path / "out" / "summary.csv").read_text().splitlines()[1:]}
+    stems = {
+        line.split(",")[0].strip('"'): line.rsplit(",", 1)[1]
+        for line in (tmp_path / "out" / "summary.csv").read_text().splitlines()[1:]
+    }
     assert sorted(f"{stems[i]}.json" for i in ids) == files
     for i in ids:
         assert json.loads((tmp_path / "out" / f"{stems[i]}.json").read_text())["id"] == i
@@ -526,12 +571,15 @@ def test_full_disk_and_read_only_folder_are_one_line(tmp_path, monkeypatch):
 
     _spectrum(tmp_path)
     for code in (errno.ENOSPC, errno.EROFS):
+
         def refuse(*args, code=code, **kwargs):
             raise OSError(code, os.strerror(code), str(tmp_path / "out.json"))
 
         monkeypatch.setattr(atomic.tempfile, "mkstemp", refuse)
-        result = _cli(["assess", "lamp.csv", "--distance-mm", "500", "--source-diameter-mm", "30", "--output",
-                       "out.json"], tmp_path)
+        result = _cli(
+            ["assess", "lamp.csv", "--distance-mm", "500", "--source-diameter-mm", "30", "--output", "out.json"],
+            tmp_path,
+        )
         _assert_exit_2(result, "cannot write", os.strerror(code))
         assert not (tmp_path / "out.json").exists()
 
@@ -548,8 +596,10 @@ def test_spectrum_paths_outside_the_manifest_folder_are_refused(tmp_path):
     _spectrum(vendor)
     (vendor / "link.csv").symlink_to(secret / "s.csv")
     manifest = vendor / "m.csv"
-    manifest.write_text(MANIFEST_HEAD + "A,lamp.csv,500,30,true\nB,../secret/s.csv,500,30,true\n"
-                        f"C,{secret / 's.csv'},500,30,true\nD,link.csv,500,30,true\nE,../secret/none.csv,500,30,true\n")
+    manifest.write_text(
+        MANIFEST_HEAD + "A,lamp.csv,500,30,true\nB,../secret/s.csv,500,30,true\n"
+        f"C,{secret / 's.csv'},500,30,true\nD,link.csv,500,30,true\nE,../secret/none.csv,500,30,true\n"
+    )
     outcome = run_batch(manifest, tmp_path / "out")
     assert list(outcome.assessments) == ["A"]
     for product in "BCDE":
@@ -562,8 +612,11 @@ def test_spectrum_paths_outside_the_manifest_folder_are_refused(tmp_path):
 
 def test_report_refuses_a_result_that_does_not_read_back(tmp_path):
     good = hazard.assess(_spectrum(tmp_path), {**SIZE, "id": "P"}).model_dump_json()
-    cases = {"deep.json": "[" * 100_000, "torn.json": good[:300], "nan.json": re.sub(r'"value":[0-9.e+-]+',
-                                                                                     '"value":NaN', good, count=1)}
+    cases = {
+        "deep.json": "[" * 100_000,
+        "torn.json": good[:300],
+        "nan.json": re.sub(r'"value":[0-9.e+-]+', '"value":NaN', good, count=1),
+    }
     for name, text in cases.items():
         (tmp_path / name).write_text(text)
         _assert_exit_2(_cli(["report", name, "--output", "r.pdf"], tmp_path), name)

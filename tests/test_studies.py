@@ -31,14 +31,16 @@ def test_small_source_blue_light_switches_criterion_at_the_right_distance(tmp_pa
     # Table 6.1). B = 1 on 435-440 nm (Table 4.2), so the line's irradiance is E_B.
     switch_mm = 2 / 0.011
     # E_B(200 mm) = 4 W/m2: the E_B Exempt limit 1 W/m2 is reached at 200·√4 = 400 mm, beyond the switch.
-    far = assess_arrays(tmp_path, GRID, triangle_line(GRID, 437.5, 4.0), name="far", source_diameter_mm=2.0,
-                        no_emission_outside=True)
+    far = assess_arrays(
+        tmp_path, GRID, triangle_line(GRID, 437.5, 4.0), name="far", source_diameter_mm=2.0, no_emission_outside=True
+    )
     b = _boundary(far, "blue light", "Exempt")
     assert b.criterion == "E_B" and b.distance_mm == pytest.approx(400.0, rel=1e-6) and b.distance_mm > switch_mm
     # E_B(200 mm) = 0.3 W/m2: nearer than the switch L_B applies, averaged over the 0.1 rad Exempt field
     # (Ω = 2π(1 − cos 0.05) sr, method §4), limit 100 W/(m2 sr): E(d) = 100·Ω at d = 200·√(0.3/(100·Ω)).
-    near = assess_arrays(tmp_path, GRID, triangle_line(GRID, 437.5, 0.3), name="near", source_diameter_mm=2.0,
-                         no_emission_outside=True)
+    near = assess_arrays(
+        tmp_path, GRID, triangle_line(GRID, 437.5, 0.3), name="near", source_diameter_mm=2.0, no_emission_outside=True
+    )
     omega = 2 * math.pi * (1 - math.cos(0.05))
     b = _boundary(near, "blue light", "Exempt")
     assert b.criterion == "L_B" and b.distance_mm < switch_mm
@@ -90,8 +92,11 @@ def test_dimming_factor_reassesses_to_the_target_boundary(tmp_path, stem):
     assert product, "every line-up product above Exempt has product remedies"
     raw = hazard.load_product(LINEUP / f"{stem}.toml")
     for remedy in product:
-        path = write_spectrum(tmp_path / f"{stem}-{remedy.group}.csv", raw.spectrum.wavelength_nm,
-                              raw.spectrum.value * remedy.dimming_factor)
+        path = write_spectrum(
+            tmp_path / f"{stem}-{remedy.group}.csv",
+            raw.spectrum.wavelength_nm,
+            raw.spectrum.value * remedy.dimming_factor,
+        )
         fields = raw.record.model_dump(exclude_none=True, exclude={"id", "spectrum", "unit"})
         again = hazard.assess(path, {**fields, "unit": "W/m2/nm"})
         assert again.risk_group == remedy.group
@@ -114,8 +119,9 @@ def test_peak_to_mean_multiplies_radiance_in_small_fields(tmp_path):
     # multiplies the radiance seen by fields of view smaller than the source (project design, issue 6).
     values = triangle_line(GRID, 437.5, 5.0)
     uniform = assess_arrays(tmp_path, GRID, values, name="u", source_diameter_mm=15.0, no_emission_outside=True)
-    hot = assess_arrays(tmp_path, GRID, values, name="h", source_diameter_mm=15.0, no_emission_outside=True,
-                        peak_to_mean_radiance=3.0)
+    hot = assess_arrays(
+        tmp_path, GRID, values, name="h", source_diameter_mm=15.0, no_emission_outside=True, peak_to_mean_radiance=3.0
+    )
     u, h = uniform.hazards["L_B"], hot.hazards["L_B"]
     assert h.value == pytest.approx(3 * u.value)
     for group in ("RG1", "RG2"):  # 0.011 and 0.0017 rad fields are inside a 15 mm source at 200 mm (α = 0.075)

@@ -9,12 +9,15 @@ import pytest
 from hazard.weighting_tables import TABLE_NAMES, TableError, load_table
 
 
-@pytest.mark.parametrize(("name", "rows", "lo", "hi"), [
-    ("s_uv", 54, 200, 400),              # IEC 62471:2006 Table 4.1: 200-400 nm, 54 tabulated points
-    ("blue_light", 28, 300, 700),        # IEC 62471:2006 Table 4.2: B over 300-700 nm
-    ("retinal_thermal", 31, 380, 1400),  # IEC 62471:2006 Table 4.2: R over 380-1400 nm
-    ("v_photopic", 471, 360, 830),       # CIE 1924 V(λ), 360-830 nm at 1 nm (CIE S 010)
-])
+@pytest.mark.parametrize(
+    ("name", "rows", "lo", "hi"),
+    [
+        ("s_uv", 54, 200, 400),  # IEC 62471:2006 Table 4.1: 200-400 nm, 54 tabulated points
+        ("blue_light", 28, 300, 700),  # IEC 62471:2006 Table 4.2: B over 300-700 nm
+        ("retinal_thermal", 31, 380, 1400),  # IEC 62471:2006 Table 4.2: R over 380-1400 nm
+        ("v_photopic", 471, 360, 830),  # CIE 1924 V(λ), 360-830 nm at 1 nm (CIE S 010)
+    ],
+)
 def test_fingerprint(name, rows, lo, hi):
     table = load_table(name)
     assert table.wavelength_nm.size == rows
@@ -24,23 +27,48 @@ def test_fingerprint(name, rows, lo, hi):
     assert table.metadata["source"] and table.metadata["interpolation"] in ("linear", "log-linear")
 
 
-@pytest.mark.parametrize(("name", "wavelength_nm", "expected"), [
-    # IEC 62471:2006 Table 4.1 (ICNIRP 2004), printed to two or three significant digits
-    ("s_uv", 200, 0.030), ("s_uv", 254, 0.5), ("s_uv", 270, 1.0), ("s_uv", 280, 0.88),
-    ("s_uv", 300, 0.30), ("s_uv", 305, 0.06), ("s_uv", 313, 0.006), ("s_uv", 320, 0.0010),
-    ("s_uv", 350, 0.0002), ("s_uv", 400, 3.0e-5),
-    # IEC 62471:2006 Table 4.2 (ICNIRP 1997): B(λ)
-    ("blue_light", 300, 0.01), ("blue_light", 380, 0.01), ("blue_light", 400, 0.10),
-    ("blue_light", 435, 1.0), ("blue_light", 440, 1.0), ("blue_light", 450, 0.94), ("blue_light", 480, 0.45),
-    ("blue_light", 500, 0.10), ("blue_light", 550, 10 ** ((450 - 550) / 50)), ("blue_light", 600, 0.001),
-    ("blue_light", 650, 0.001), ("blue_light", 700, 0.001),
-    # IEC 62471:2006 Table 4.2: R(λ)
-    ("retinal_thermal", 380, 0.1), ("retinal_thermal", 440, 10.0), ("retinal_thermal", 450, 9.4),
-    ("retinal_thermal", 500, 1.0), ("retinal_thermal", 600, 1.0), ("retinal_thermal", 700, 1.0),
-    ("retinal_thermal", 800, 10 ** ((700 - 800) / 500)), ("retinal_thermal", 1000, 10 ** ((700 - 1000) / 500)),
-    ("retinal_thermal", 1100, 0.2), ("retinal_thermal", 1175, 0.2 * 10 ** (0.02 * (1150 - 1175))),
-    ("retinal_thermal", 1300, 0.02), ("retinal_thermal", 1400, 0.02),
-])
+@pytest.mark.parametrize(
+    ("name", "wavelength_nm", "expected"),
+    [
+        # IEC 62471:2006 Table 4.1 (ICNIRP 2004), printed to two or three significant digits
+        ("s_uv", 200, 0.030),
+        ("s_uv", 254, 0.5),
+        ("s_uv", 270, 1.0),
+        ("s_uv", 280, 0.88),
+        ("s_uv", 300, 0.30),
+        ("s_uv", 305, 0.06),
+        ("s_uv", 313, 0.006),
+        ("s_uv", 320, 0.0010),
+        ("s_uv", 350, 0.0002),
+        ("s_uv", 400, 3.0e-5),
+        # IEC 62471:2006 Table 4.2 (ICNIRP 1997): B(λ)
+        ("blue_light", 300, 0.01),
+        ("blue_light", 380, 0.01),
+        ("blue_light", 400, 0.10),
+        ("blue_light", 435, 1.0),
+        ("blue_light", 440, 1.0),
+        ("blue_light", 450, 0.94),
+        ("blue_light", 480, 0.45),
+        ("blue_light", 500, 0.10),
+        ("blue_light", 550, 10 ** ((450 - 550) / 50)),
+        ("blue_light", 600, 0.001),
+        ("blue_light", 650, 0.001),
+        ("blue_light", 700, 0.001),
+        # IEC 62471:2006 Table 4.2: R(λ)
+        ("retinal_thermal", 380, 0.1),
+        ("retinal_thermal", 440, 10.0),
+        ("retinal_thermal", 450, 9.4),
+        ("retinal_thermal", 500, 1.0),
+        ("retinal_thermal", 600, 1.0),
+        ("retinal_thermal", 700, 1.0),
+        ("retinal_thermal", 800, 10 ** ((700 - 800) / 500)),
+        ("retinal_thermal", 1000, 10 ** ((700 - 1000) / 500)),
+        ("retinal_thermal", 1100, 0.2),
+        ("retinal_thermal", 1175, 0.2 * 10 ** (0.02 * (1150 - 1175))),
+        ("retinal_thermal", 1300, 0.02),
+        ("retinal_thermal", 1400, 0.02),
+    ],
+)
 def test_spot_values(name, wavelength_nm, expected):
     assert load_table(name).at(wavelength_nm) == pytest.approx(expected, rel=1e-9)
 

@@ -87,8 +87,10 @@ class WeightingTable:
 
 
 def _fail(name: str, problem: str) -> TableError:
-    return TableError(f"weighting table {name!r}: {problem}; reinstall the package or run "
-                      f"'python -m weighting_tables.regenerate' from a source checkout")
+    return TableError(
+        f"weighting table {name!r}: {problem}; reinstall the package or run "
+        f"'python -m weighting_tables.regenerate' from a source checkout"
+    )
 
 
 @cache
@@ -134,5 +136,12 @@ def load_table(name: str) -> WeightingTable:
         raise _fail(name, f"unknown interpolation {meta['interpolation']!r}")
     wl.flags.writeable = False
     value.flags.writeable = False
-    return WeightingTable(name=name, symbol=meta["symbol"], wavelength_nm=wl, value=value,
-                          interpolation=meta["interpolation"], metadata=meta, sha256=digest)
+    return WeightingTable(
+        name=name,
+        symbol=meta["symbol"],
+        wavelength_nm=wl,
+        value=value,
+        interpolation=meta["interpolation"],
+        metadata=meta,
+        sha256=digest,
+    )

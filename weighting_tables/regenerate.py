@@ -22,24 +22,88 @@ from pathlib import Path
 HERE = Path(__file__).resolve().parent
 
 S_UV_POINTS = [
-    (200, 0.030), (205, 0.051), (210, 0.075), (215, 0.095), (220, 0.120), (225, 0.150),
-    (230, 0.190), (235, 0.240), (240, 0.300), (245, 0.360), (250, 0.430), (254, 0.500),
-    (255, 0.520), (260, 0.650), (265, 0.810), (270, 1.000), (275, 0.960), (280, 0.880),
-    (285, 0.770), (290, 0.640), (295, 0.540), (297, 0.460), (300, 0.300), (303, 0.120),
-    (305, 0.060), (308, 0.026), (310, 0.015), (313, 0.006), (315, 0.003), (316, 0.0024),
-    (317, 0.0020), (318, 0.0016), (319, 0.0012), (320, 0.0010), (322, 0.00067), (323, 0.00054),
-    (325, 0.00050), (328, 0.00044), (330, 0.00041), (333, 0.00037), (335, 0.00034),
-    (340, 0.00028), (345, 0.00024), (350, 0.00020), (355, 0.00016), (360, 0.00013),
-    (365, 0.00011), (370, 0.000093), (375, 0.000077), (380, 0.000064), (385, 0.000053),
-    (390, 0.000044), (395, 0.000036), (400, 0.000030),
+    (200, 0.030),
+    (205, 0.051),
+    (210, 0.075),
+    (215, 0.095),
+    (220, 0.120),
+    (225, 0.150),
+    (230, 0.190),
+    (235, 0.240),
+    (240, 0.300),
+    (245, 0.360),
+    (250, 0.430),
+    (254, 0.500),
+    (255, 0.520),
+    (260, 0.650),
+    (265, 0.810),
+    (270, 1.000),
+    (275, 0.960),
+    (280, 0.880),
+    (285, 0.770),
+    (290, 0.640),
+    (295, 0.540),
+    (297, 0.460),
+    (300, 0.300),
+    (303, 0.120),
+    (305, 0.060),
+    (308, 0.026),
+    (310, 0.015),
+    (313, 0.006),
+    (315, 0.003),
+    (316, 0.0024),
+    (317, 0.0020),
+    (318, 0.0016),
+    (319, 0.0012),
+    (320, 0.0010),
+    (322, 0.00067),
+    (323, 0.00054),
+    (325, 0.00050),
+    (328, 0.00044),
+    (330, 0.00041),
+    (333, 0.00037),
+    (335, 0.00034),
+    (340, 0.00028),
+    (345, 0.00024),
+    (350, 0.00020),
+    (355, 0.00016),
+    (360, 0.00013),
+    (365, 0.00011),
+    (370, 0.000093),
+    (375, 0.000077),
+    (380, 0.000064),
+    (385, 0.000053),
+    (390, 0.000044),
+    (395, 0.000036),
+    (400, 0.000030),
 ]
 
 # B(λ) tabulated at 5 nm from 380 to 495 nm (IEC 62471:2006 Table 4.2).
 B_TABULATED = [
-    (380, 0.01), (385, 0.013), (390, 0.025), (395, 0.05), (400, 0.10), (405, 0.20), (410, 0.40),
-    (415, 0.80), (420, 0.90), (425, 0.95), (430, 0.98), (435, 1.00), (440, 1.00), (445, 0.97),
-    (450, 0.94), (455, 0.90), (460, 0.80), (465, 0.70), (470, 0.62), (475, 0.55), (480, 0.45),
-    (485, 0.40), (490, 0.22), (495, 0.16),
+    (380, 0.01),
+    (385, 0.013),
+    (390, 0.025),
+    (395, 0.05),
+    (400, 0.10),
+    (405, 0.20),
+    (410, 0.40),
+    (415, 0.80),
+    (420, 0.90),
+    (425, 0.95),
+    (430, 0.98),
+    (435, 1.00),
+    (440, 1.00),
+    (445, 0.97),
+    (450, 0.94),
+    (455, 0.90),
+    (460, 0.80),
+    (465, 0.70),
+    (470, 0.62),
+    (475, 0.55),
+    (480, 0.45),
+    (485, 0.40),
+    (490, 0.22),
+    (495, 0.16),
 ]
 
 
@@ -58,7 +122,16 @@ def retinal_thermal_points() -> list[tuple[float, float]]:
     the exponential exact up to 1049 nm and confines the step to the last nanometre.
     """
     blue = [(w, round(10 * v, 6)) for w, v in B_TABULATED]
-    return [*blue, (500, 1.0), (700, 1.0), (1049, 10 ** ((700 - 1049) / 500)), (1050, 0.2), (1150, 0.2), (1200, 0.2 * 10 ** (0.02 * (1150 - 1200))), (1400, 0.02)]
+    return [
+        *blue,
+        (500, 1.0),
+        (700, 1.0),
+        (1049, 10 ** ((700 - 1049) / 500)),
+        (1050, 0.2),
+        (1150, 0.2),
+        (1200, 0.2 * 10 ** (0.02 * (1150 - 1200))),
+        (1400, 0.02),
+    ]
 
 
 def photopic_points() -> list[tuple[float, float]]:
@@ -71,30 +144,46 @@ def photopic_points() -> list[tuple[float, float]]:
 
 TABLES = {
     "s_uv": dict(
-        symbol="S_UV", title="Actinic ultraviolet hazard weighting function S_UV(λ)",
+        symbol="S_UV",
+        title="Actinic ultraviolet hazard weighting function S_UV(λ)",
         source="IEC 62471:2006 / CIE S 009:2002, Table 4.1 (reproducing ICNIRP 2004)",
-        edition="IEC 62471:2006", interpolation="log-linear", points=lambda: S_UV_POINTS,
+        edition="IEC 62471:2006",
+        interpolation="log-linear",
+        points=lambda: S_UV_POINTS,
         note="Tabulated points as published; between them the logarithm of the weight is interpolated "
-             "linearly (the function spans five decades). Directive 2006/25/EC Annex I lists 1 nm values "
-             "that agree with this interpolation to within about 0.5 %."),
+        "linearly (the function spans five decades). Directive 2006/25/EC Annex I lists 1 nm values "
+        "that agree with this interpolation to within about 0.5 %.",
+    ),
     "blue_light": dict(
-        symbol="B", title="Blue-light hazard weighting function B(λ)",
+        symbol="B",
+        title="Blue-light hazard weighting function B(λ)",
         source="IEC 62471:2006 / CIE S 009:2002, Table 4.2 (ICNIRP 1997, unchanged in ICNIRP 2013)",
-        edition="IEC 62471:2006", interpolation="log-linear", points=blue_light_points,
+        edition="IEC 62471:2006",
+        interpolation="log-linear",
+        points=blue_light_points,
         note="5 nm table 380-495 nm; formula segments written at their end points, exact under log-linear "
-             "interpolation."),
+        "interpolation.",
+    ),
     "retinal_thermal": dict(
-        symbol="R", title="Retinal thermal hazard weighting function R(λ)",
+        symbol="R",
+        title="Retinal thermal hazard weighting function R(λ)",
         source="IEC 62471:2006 / CIE S 009:2002, Table 4.2 (ICNIRP 1997)",
-        edition="IEC 62471:2006", interpolation="log-linear", points=retinal_thermal_points,
+        edition="IEC 62471:2006",
+        interpolation="log-linear",
+        points=retinal_thermal_points,
         note="10·B(λ) at 5 nm over 380-495 nm; formula segments written at their end points, exact under "
-             "log-linear interpolation; the 1050 nm step is confined to 1049-1050 nm."),
+        "log-linear interpolation; the 1050 nm step is confined to 1049-1050 nm.",
+    ),
     "v_photopic": dict(
-        symbol="V", title="CIE 1924 photopic luminous efficiency function V(λ)",
+        symbol="V",
+        title="CIE 1924 photopic luminous efficiency function V(λ)",
         source="CIE 1924 photopic standard observer (CIE S 010:2004 / ISO 23539:2005), via colour-science "
-               "SDS_LEFS_PHOTOPIC",
-        edition="CIE 1924", interpolation="linear", points=photopic_points,
-        note="1 nm data; K_m = 683 lm/W is applied by the photometry module, not stored here."),
+        "SDS_LEFS_PHOTOPIC",
+        edition="CIE 1924",
+        interpolation="linear",
+        points=photopic_points,
+        note="1 nm data; K_m = 683 lm/W is applied by the photometry module, not stored here.",
+    ),
 }
 
 
@@ -107,26 +196,27 @@ def write_all() -> None:
     """Write every ``NAME.csv`` and ``NAME.toml`` beside this module."""
     for name, spec in TABLES.items():
         points = spec["points"]()
-        csv_text = "wavelength_nm,value\n" + "".join(
-            f"{_format_value(w)},{_format_value(v)}\n" for w, v in points)
+        csv_text = "wavelength_nm,value\n" + "".join(f"{_format_value(w)},{_format_value(v)}\n" for w, v in points)
         csv_path = HERE / f"{name}.csv"
         csv_path.write_text(csv_text, encoding="utf-8", newline="\n")
         digest = hashlib.sha256(csv_text.encode("utf-8")).hexdigest()
-        meta = "\n".join([
-            f'symbol = "{spec["symbol"]}"',
-            f'title = "{spec["title"]}"',
-            f'source = "{spec["source"]}"',
-            f'edition = "{spec["edition"]}"',
-            'unit = "1 (relative weight)"',
-            f"wavelength_min_nm = {points[0][0]}",
-            f"wavelength_max_nm = {points[-1][0]}",
-            f"rows = {len(points)}",
-            f'interpolation = "{spec["interpolation"]}"',
-            'outside_range = "zero"',
-            f'note = "{spec["note"]}"',
-            f'sha256 = "{digest}"',
-            "",
-        ])
+        meta = "\n".join(
+            [
+                f'symbol = "{spec["symbol"]}"',
+                f'title = "{spec["title"]}"',
+                f'source = "{spec["source"]}"',
+                f'edition = "{spec["edition"]}"',
+                'unit = "1 (relative weight)"',
+                f"wavelength_min_nm = {points[0][0]}",
+                f"wavelength_max_nm = {points[-1][0]}",
+                f"rows = {len(points)}",
+                f'interpolation = "{spec["interpolation"]}"',
+                'outside_range = "zero"',
+                f'note = "{spec["note"]}"',
+                f'sha256 = "{digest}"',
+                "",
+            ]
+        )
         (HERE / f"{name}.toml").write_text(meta, encoding="utf-8", newline="\n")
 
 

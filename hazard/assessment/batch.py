@@ -183,8 +183,7 @@ def load_row(row: ManifestRow, allow_outside: bool = False) -> LoadedProduct:
     if row.problem is not None:
         raise row.problem
     record = record_from_fields(row.fields, path=row.origin, text=row.text)
-    return product_from_record(record, row.base_dir, row.origin, row.inputs,
-                               root=None if allow_outside else row.root)
+    return product_from_record(record, row.base_dir, row.origin, row.inputs, root=None if allow_outside else row.root)
 
 
 def failure_reason(row: ManifestRow, exc: BaseException) -> tuple[str, bool]:
@@ -192,12 +191,21 @@ def failure_reason(row: ManifestRow, exc: BaseException) -> tuple[str, bool]:
     if isinstance(exc, InputError):
         return str(exc), False
     if isinstance(exc, OSError):
-        return str(InputError(f"cannot read input ({exc.strerror or type(exc).__name__})",
-                              "check the file and its permissions", row.origin)), False
+        return str(
+            InputError(
+                f"cannot read input ({exc.strerror or type(exc).__name__})",
+                "check the file and its permissions",
+                row.origin,
+            )
+        ), False
     if isinstance(exc, ArithmeticError):
-        return str(InputError(f"the computation left the range of numbers ({type(exc).__name__})",
-                              "check the record's distances and source size and the spectrum's unit",
-                              row.origin)), False
+        return str(
+            InputError(
+                f"the computation left the range of numbers ({type(exc).__name__})",
+                "check the record's distances and source size and the spectrum's unit",
+                row.origin,
+            )
+        ), False
     return str(InputError(f"internal error ({type(exc).__name__}: {exc})", INTERNAL_FIX, row.origin)), True
 
 
@@ -245,8 +253,13 @@ def _previous_results(folder: Path) -> dict[str, _Earlier]:
         for offset, line in _complete_lines(path):
             try:
                 result = json.loads(line)
-                earlier = _Earlier(str(path), offset, len(line), _digest(result["provenance"]["inputs"]),
-                                   result.get("distances") is not None)
+                earlier = _Earlier(
+                    str(path),
+                    offset,
+                    len(line),
+                    _digest(result["provenance"]["inputs"]),
+                    result.get("distances") is not None,
+                )
                 found[str(result["id"])] = earlier
             except (ValueError, KeyError, TypeError, AttributeError):
                 continue
@@ -272,13 +285,34 @@ def _hazard_columns(limit_set: LimitSet) -> list[str]:
 
 def summary_columns(limit_set: LimitSet = DEFAULT_LIMIT_SET) -> list[str]:
     """The columns of ``summary.csv``."""
-    return ["id", "status", "risk_group", "group_note", "complete", "basis", "what_if_distance_mm",
-            "what_if_risk_group", *_hazard_columns(limit_set), "warning_count", "claims_contradicted", "claims",
-            "uncertainty", "group_range", "min_distance_exempt_mm", "error", "file_stem"]
+    return [
+        "id",
+        "status",
+        "risk_group",
+        "group_note",
+        "complete",
+        "basis",
+        "what_if_distance_mm",
+        "what_if_risk_group",
+        *_hazard_columns(limit_set),
+        "warning_count",
+        "claims_contradicted",
+        "claims",
+        "uncertainty",
+        "group_range",
+        "min_distance_exempt_mm",
+        "error",
+        "file_stem",
+    ]
 
 
-def summary_row(product_id: str, stem: str, assessment: Assessment | None, error: str | None,
-                limit_set: LimitSet = DEFAULT_LIMIT_SET) -> dict:
+def summary_row(
+    product_id: str,
+    stem: str,
+    assessment: Assessment | None,
+    error: str | None,
+    limit_set: LimitSet = DEFAULT_LIMIT_SET,
+) -> dict:
     """One product's row of ``summary.csv``.
 
     The risk group is the standard's classification (a what-if has its own columns), "not determined" when there is
@@ -291,20 +325,29 @@ def summary_row(product_id: str, stem: str, assessment: Assessment | None, error
         return row
     a = assessment
     group = a.classification_group
-    row.update(risk_group=group or NOT_DETERMINED, complete=str(a.complete).lower(), basis=a.basis,
-               group_note="" if a.complete or group is None else "lower bound", warning_count=len(a.warnings),
-               claims_contradicted=sum(c.verdict == "contradicted" for c in a.claims),
-               claims="; ".join(f"{c.field}: {c.verdict}" for c in a.claims))
+    row.update(
+        risk_group=group or NOT_DETERMINED,
+        complete=str(a.complete).lower(),
+        basis=a.basis,
+        group_note="" if a.complete or group is None else "lower bound",
+        warning_count=len(a.warnings),
+        claims_contradicted=sum(c.verdict == "contradicted" for c in a.claims),
+        claims="; ".join(f"{c.field}: {c.verdict}" for c in a.claims),
+    )
     if a.basis == "what-if":
-        row.update(what_if_distance_mm=repr(a.assessment_distance_mm),
-                   what_if_risk_group=a.risk_group or NOT_DETERMINED)
+        row.update(
+            what_if_distance_mm=repr(a.assessment_distance_mm), what_if_risk_group=a.risk_group or NOT_DETERMINED
+        )
     if a.uncertainty is not None:
-        row.update(uncertainty=a.uncertainty.verdict,
-                   group_range=f"{a.uncertainty.risk_group_low}-{a.uncertainty.risk_group_high}")
+        row.update(
+            uncertainty=a.uncertainty.verdict,
+            group_range=f"{a.uncertainty.risk_group_low}-{a.uncertainty.risk_group_high}",
+        )
     if a.distances is not None and "Exempt" in a.distances.minimum_distance_mm:
         found = a.distances.minimum_distance_mm["Exempt"]
-        row["min_distance_exempt_mm"] = (repr(found) if found is not None else
-                                         f"not within {a.distances.distance_mm[-1]:.0f}")
+        row["min_distance_exempt_mm"] = (
+            repr(found) if found is not None else f"not within {a.distances.distance_mm[-1]:.0f}"
+        )
     for symbol, h in a.hazards.items():
         row[f"{symbol}_value"] = "" if h.value is None else repr(h.value)
         row[f"{symbol}_group"] = h.risk_group or ("not assessed" if not h.assessed else "")
@@ -328,15 +371,25 @@ class _Job:
 def _finished(job: _Job, k: int, assessment: Assessment, line: bytes, reused: bool) -> _Product:
     row = job.rows[k]
     pretty = (assessment.model_dump_json(indent=2) + "\n").encode("utf-8") if job.pretty else None
-    return _Product(row.product_id, line, list(summary_row(row.product_id, job.stems[k], assessment, None,
-                                                           job.limit_set).values()), reused=reused, pretty=pretty)
+    return _Product(
+        row.product_id,
+        line,
+        list(summary_row(row.product_id, job.stems[k], assessment, None, job.limit_set).values()),
+        reused=reused,
+        pretty=pretty,
+    )
 
 
 def _failed(job: _Job, k: int, exc: BaseException) -> _Product:
     row = job.rows[k]
     reason, internal = failure_reason(row, exc)
-    return _Product(row.product_id, None, list(summary_row(row.product_id, job.stems[k], None, reason,
-                                                           job.limit_set).values()), reason, internal)
+    return _Product(
+        row.product_id,
+        None,
+        list(summary_row(row.product_id, job.stems[k], None, reason, job.limit_set).values()),
+        reason,
+        internal,
+    )
 
 
 def _reuse(job: _Job, k: int) -> _Product | None:
@@ -407,7 +460,6 @@ def _in_order(pool: Executor | None, work, jobs: Iterable, ahead: int) -> Iterat
         yield pending.popleft().result()
 
 
-
 def _input_files(source: Path, rows: list[ManifestRow]) -> Iterator[Path]:
     """Every file the run reads: the manifest (or each record) and the spectra named."""
     records = source.is_dir()
@@ -464,13 +516,24 @@ def _write_pdfs(folder: Path, outcome: BatchOutcome, jobs: int) -> None:
         progress.close()
     errors = [(i, outcome.errors[i]) for i in outcome.ids if i in outcome.errors]
     # the summary's renderer takes whole results: it holds one per assessed product while it ranks them
-    write_atomic(folder / "summary.pdf", render_summary_pdf([assessed[i] for i in outcome.ids if i in assessed],
-                                                            errors, report_time()))
+    write_atomic(
+        folder / "summary.pdf",
+        render_summary_pdf([assessed[i] for i in outcome.ids if i in assessed], errors, report_time()),
+    )
 
 
-def run_batch(source: str | Path, output_dir: str | Path, *, pdf: bool = False, jobs: int = 1,
-              resume: bool = False, per_product_json: bool = False, studies: bool = False,
-              allow_outside: bool = False, limit_set: LimitSet = DEFAULT_LIMIT_SET) -> BatchOutcome:
+def run_batch(
+    source: str | Path,
+    output_dir: str | Path,
+    *,
+    pdf: bool = False,
+    jobs: int = 1,
+    resume: bool = False,
+    per_product_json: bool = False,
+    studies: bool = False,
+    allow_outside: bool = False,
+    limit_set: LimitSet = DEFAULT_LIMIT_SET,
+) -> BatchOutcome:
     """Assess every product of a manifest or folder of records.
 
     Parameters
@@ -515,10 +578,19 @@ def run_batch(source: str | Path, output_dir: str | Path, *, pdf: bool = False, 
             _cut_torn_tail(partial)
         else:
             partial.unlink(missing_ok=True)
-        chunks = (rows[k:k + CHUNK_PRODUCTS] for k in range(0, len(rows), CHUNK_PRODUCTS))
-        work = (_Job(chunk, [stems[r.product_id] for r in chunk],
-                     {r.product_id: previous[r.product_id] for r in chunk if r.product_id in previous},
-                     studies, limit_set, allow_outside, per_product_json) for chunk in chunks)
+        chunks = (rows[k : k + CHUNK_PRODUCTS] for k in range(0, len(rows), CHUNK_PRODUCTS))
+        work = (
+            _Job(
+                chunk,
+                [stems[r.product_id] for r in chunk],
+                {r.product_id: previous[r.product_id] for r in chunk if r.product_id in previous},
+                studies,
+                limit_set,
+                allow_outside,
+                per_product_json,
+            )
+            for chunk in chunks
+        )
         positions: dict[str, tuple[int, int]] = {}
         progress = Progress(len(rows), "products")
         pool = None
@@ -526,8 +598,11 @@ def run_batch(source: str | Path, output_dir: str | Path, *, pdf: bool = False, 
             import_colour()  # once here, inherited by the workers instead of imported by each
             pool = ProcessPoolExecutor(max_workers=jobs)
         try:
-            with atomic_file(folder / RESULTS_NAME) as results, atomic_file(folder / SUMMARY_NAME) as summary, \
-                    open(partial, "ab") as journal:
+            with (
+                atomic_file(folder / RESULTS_NAME) as results,
+                atomic_file(folder / SUMMARY_NAME) as summary,
+                open(partial, "ab") as journal,
+            ):
                 text = io.StringIO()
                 table = csv.writer(text, lineterminator="\n")
                 table.writerow(summary_columns(limit_set))

@@ -45,10 +45,12 @@ from hazard.weighting_tables import TABLE_NAMES, load_table
 __all__ = ["METHOD_TEXT", "assess", "build_assessment", "limit_set_info"]
 
 
-METHOD_TEXT = ("The spectrum is taken as linear between its samples; each weighted integral is the exact integral "
-               "of that interpolant times the weighting function as tabulated (S_UV, B, R log-linear between their "
-               "points; V and the CIE 1931 colour-matching functions linear), band ends and table points inserted as "
-               "nodes; weights are zero outside their tables.")
+METHOD_TEXT = (
+    "The spectrum is taken as linear between its samples; each weighted integral is the exact integral "
+    "of that interpolant times the weighting function as tabulated (S_UV, B, R log-linear between their "
+    "points; V and the CIE 1931 colour-matching functions linear), band ends and table points inserted as "
+    "nodes; weights are zero outside their tables."
+)
 
 
 def _higher(a: str | None, b: str | None, limit_set: LimitSet) -> str | None:
@@ -71,8 +73,9 @@ def _missing_text(range_nm: tuple[float, float], band: tuple[float, float]) -> s
     return " and ".join(gaps)
 
 
-def _hazard_results(ev: Evaluation, i: int, spectrum_range: tuple[float, float], limit_set: LimitSet
-                    ) -> dict[str, HazardResult]:
+def _hazard_results(
+    ev: Evaluation, i: int, spectrum_range: tuple[float, float], limit_set: LimitSet
+) -> dict[str, HazardResult]:
     boundaries = limit_set.boundaries
     results = {}
     for symbol, h in ev.hazards.items():
@@ -84,38 +87,56 @@ def _hazard_results(ev: Evaluation, i: int, spectrum_range: tuple[float, float],
         compared = {g: float(h.compared[i, k]) for k, g in enumerate(boundaries)} if grouped else {}
         band = f"{spec.band_nm[0]:g}–{spec.band_nm[1]:g} nm"
         if not h.assessed[i]:
-            note = (f"Not assessed: the spectrum covers {spectrum_range[0]:g}–{spectrum_range[1]:g} nm and the "
-                    f"band needs {band} (missing {_missing_text(spectrum_range, spec.band_nm)}); measure the "
-                    f"missing range, or set no_emission_outside if the source emits nothing there.")
+            note = (
+                f"Not assessed: the spectrum covers {spectrum_range[0]:g}–{spectrum_range[1]:g} nm and the "
+                f"band needs {band} (missing {_missing_text(spectrum_range, spec.band_nm)}); measure the "
+                f"missing range, or set no_emission_outside if the source emits nothing there."
+            )
         elif not grouped:
             note = f"Assessed over {band}; exposure limit only, IEC 62471 gives this hazard no risk group."
         else:
             note = f"Assessed over {band}."
         if h.assessed[i] and h.raised_by_t_max[i]:
-            note += (f" The group was raised to {GROUPS[h.group_index[i]]} because the exposure limit is reached "
-                     f"after {format_duration_s(float(h.t_max_s[i]))}, before the time base of the group its "
-                     f"tabulated limits give: a group never reads safer than its own t_max.")
-        if h.assessed[i] and any(p.exponent == 0 and p.after_s > 0 and np.isclose(h.t_max_s[i], p.after_s)
-                                 for p in spec.exposure_limit.pieces):
-            note += (f" The limit for exposures longer than {format_duration_s(float(h.t_max_s[i]))} is exceeded, "
-                     f"so t_max is that time: any longer exposure is over the limit.")
+            note += (
+                f" The group was raised to {GROUPS[h.group_index[i]]} because the exposure limit is reached "
+                f"after {format_duration_s(float(h.t_max_s[i]))}, before the time base of the group its "
+                f"tabulated limits give: a group never reads safer than its own t_max."
+            )
+        if h.assessed[i] and any(
+            p.exponent == 0 and p.after_s > 0 and np.isclose(h.t_max_s[i], p.after_s)
+            for p in spec.exposure_limit.pieces
+        ):
+            note += (
+                f" The limit for exposures longer than {format_duration_s(float(h.t_max_s[i]))} is exceeded, "
+                f"so t_max is that time: any longer exposure is over the limit."
+            )
         valid_from = spec.exposure_limit.valid_from_s
         if h.assessed[i] and h.t_max_s[i] < valid_from:
-            note += (f" t_max is below the {format_duration_s(valid_from)} lower end of the limit's range, so it "
-                     f"is an extrapolation: treat it as immediate.")
+            note += (
+                f" t_max is below the {format_duration_s(valid_from)} lower end of the limit's range, so it "
+                f"is an extrapolation: treat it as immediate."
+            )
         results[symbol] = HazardResult(
-            symbol=symbol, title=spec.title, band_nm=spec.band_nm,
+            symbol=symbol,
+            title=spec.title,
+            band_nm=spec.band_nm,
             weighting=None if spec.table is None else load_table(spec.table).symbol,
-            value=float(h.value[i]) if h.assessed[i] else None, unit=spec.unit,
+            value=float(h.value[i]) if h.assessed[i] else None,
+            unit=spec.unit,
             t_max_s=optional_float(h.t_max_s[i]) if h.assessed[i] else None,
             risk_group=GROUPS[h.group_index[i]] if (h.assessed[i] and grouped) else None,
-            assessed=bool(h.assessed[i]), limits=limits, compared=compared if h.assessed[i] else {},
+            assessed=bool(h.assessed[i]),
+            limits=limits,
+            compared=compared if h.assessed[i] else {},
             margins={g: compared[g] / limits[g] for g in limits} if h.assessed[i] else {},
             fov_rad=dict(zip(boundaries, spec.fov_rad, strict=True)) if spec.fov_rad else {},
             alpha_rad={g: float(h.alpha_bounded[i, k]) for k, g in enumerate(boundaries)}
-            if spec.limits_over_alpha else {},
+            if spec.limits_over_alpha
+            else {},
             time_bases_s={g: float(t) for g, t in zip(boundaries, spec.time_bases_s, strict=True)} if grouped else {},
-            exposure_limit=spec.exposure_limit.text, note=note)
+            exposure_limit=spec.exposure_limit.text,
+            note=note,
+        )
     return results
 
 
@@ -131,8 +152,14 @@ def _studies(loaded: LoadedProduct, batch: BatchEvaluation, i: int, distances_an
     if ev.group_index[i] < 0:
         return out
     if record.uncertainty_pct or record.wavelength_uncertainty_nm:
-        out["uncertainty"] = uncertainty_study(arrays, loaded.spectrum, record.no_emission_outside, limit_set,
-                                               record.uncertainty_pct or 0.0, record.wavelength_uncertainty_nm or 0.0)
+        out["uncertainty"] = uncertainty_study(
+            arrays,
+            loaded.spectrum,
+            record.no_emission_outside,
+            limit_set,
+            record.uncertainty_pct or 0.0,
+            record.wavelength_uncertainty_nm or 0.0,
+        )
     if distances_and_remedies:
         out["distances"] = distance_study(arrays, limit_set, record.largest_dimension_mm)
         d_a = float(ev.assessment_distance_m[i])
@@ -141,8 +168,9 @@ def _studies(loaded: LoadedProduct, batch: BatchEvaluation, i: int, distances_an
         else:
             geometric = (record.reference_distance_mm * 1e-3 / d_a) ** 2
         assessed = {symbol for symbol, h in ev.hazards.items() if h.assessed[i]}
-        out["remedies"] = remedies_study(arrays, loaded.spectrum, float(ev.anchor_scale[i]) * geometric, limit_set,
-                                         assessed)
+        out["remedies"] = remedies_study(
+            arrays, loaded.spectrum, float(ev.anchor_scale[i]) * geometric, limit_set, assessed
+        )
     return out
 
 
@@ -153,13 +181,19 @@ def _shares(raw: np.ndarray, keys: dict[str, int], limit_set: LimitSet) -> dict[
         total = raw[keys[h.symbol]]
         for share in h.shares:
             if share.step_nm is None:
-                out[(h.symbol, share.name)] = float(raw[keys[share_key(h.symbol, share.name)]] / total) \
-                    if total > 0 else 0.0
+                out[(h.symbol, share.name)] = (
+                    float(raw[keys[share_key(h.symbol, share.name)]] / total) if total > 0 else 0.0
+                )
     return out
 
 
-def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int,
-                     tolerances: ClaimTolerances = DEFAULT_TOLERANCES, studies: bool = True) -> Assessment:
+def build_assessment(
+    loaded: LoadedProduct,
+    batch: BatchEvaluation,
+    i: int,
+    tolerances: ClaimTolerances = DEFAULT_TOLERANCES,
+    studies: bool = True,
+) -> Assessment:
     """The result of product ``i`` of an evaluation, vendor claims checked with ``tolerances``.
 
     With ``studies``, hazard distances and remedies too (the uncertainty study runs whenever the record states an
@@ -178,56 +212,98 @@ def build_assessment(loaded: LoadedProduct, batch: BatchEvaluation, i: int,
     standard = _hazard_results(batch.standard, i, spectrum.range_nm, limit_set) if what_if else hazards
     standard_overall = _group_name(batch.standard.group_index[i])
     standard_distance_mm = float(batch.standard.assessment_distance_m[i]) * 1e3
-    groups = {s: _higher(h.risk_group, standard[s].risk_group if s in standard else None, limit_set)
-              for s, h in hazards.items()}
-    tables = {name: {"symbol": t.symbol, "source": t.metadata["source"], "edition": t.metadata["edition"],
-                     "sha256": t.sha256} for name in TABLE_NAMES for t in [load_table(name)]}
-    return require_finite(Assessment(
-        id=record.id, name=record.name, risk_group=overall, complete=bool(ev.complete[i]),
-        basis="what-if" if what_if else "standard",
-        standard_risk_group=standard_overall if what_if else None,
-        standard_assessment_distance_mm=standard_distance_mm if what_if else None,
-        assessment_distance_mm=d_a_mm, alpha_rad=float(ev.alpha_rad[i]),
-        illuminance_lx=float(ev.illuminance_lx[i]), hazards=hazards,
-        not_assessed=[s for s, h in hazards.items() if not h.assessed],
-        deciding_hazards=[s for s, g in groups.items() if overall is not None and g == overall],
-        geometry=Geometry(
-            measurement_distance_mm=record.distance_mm, assessment_distance_mm=d_a_mm,
-            distance_rule=distance_rule(record, d_a_mm), alpha_rad=float(ev.alpha_rad[i]),
-            source_solid_angle_sr=float(ev.source_solid_angle_sr[i]),
-            largest_dimension_mm=float(record.largest_dimension_mm), small_source=bool(ev.small_source[i]),
-            weak_visual_stimulus=bool(ev.weak_visual_stimulus[i])),
-        photometry=photometry_summary(batch, i, v_covered),
-        spectrum=spectrum_summary(loaded, float(ev.anchor_scale[i])),
-        blue_light_transfer=transfer_summary(ev, i, covered, keys, record, limit_set),
-        scaling=scaling_summary(record, float(ev.anchor_scale[i])),
-        **_studies(loaded, batch, i, studies),
-        record=record.model_dump(exclude_none=True),
-        warnings=warnings_for(loaded, ev, i, v_covered) + switch_warnings(ev, i, limit_set),
-        assumptions=assumptions_for(loaded, ev, i),
-        cautions=select_cautions(limit_set, groups, _shares(raw, keys, limit_set), bool(ev.complete[i]),
-                                 determined=overall is not None or standard_overall is not None),
-        claims=check_claims(record, risk_group=standard_overall, complete=bool(ev.complete[i]),
-                            not_assessed=[s for s, h in standard.items() if not h.assessed], hazards=standard,
-                            cct_k=optional_float(batch.cct_k[i]), cct_reason=cct_reason(batch, i, v_covered),
-                            illuminance_at_record_distance_lx=illuminance_at_record_distance_lx(record, ev, i),
-                            assessment_distance_mm=standard_distance_mm, tolerances=tolerances),
-        provenance=Provenance(tool_version=__version__, limit_set=limit_set.name, tables=tables,
-                              inputs=dict(sorted(loaded.inputs.items())), method=METHOD_TEXT),
-        limit_set=limit_set_info(limit_set)).sealed())
+    groups = {
+        s: _higher(h.risk_group, standard[s].risk_group if s in standard else None, limit_set)
+        for s, h in hazards.items()
+    }
+    tables = {
+        name: {"symbol": t.symbol, "source": t.metadata["source"], "edition": t.metadata["edition"], "sha256": t.sha256}
+        for name in TABLE_NAMES
+        for t in [load_table(name)]
+    }
+    return require_finite(
+        Assessment(
+            id=record.id,
+            name=record.name,
+            risk_group=overall,
+            complete=bool(ev.complete[i]),
+            basis="what-if" if what_if else "standard",
+            standard_risk_group=standard_overall if what_if else None,
+            standard_assessment_distance_mm=standard_distance_mm if what_if else None,
+            assessment_distance_mm=d_a_mm,
+            alpha_rad=float(ev.alpha_rad[i]),
+            illuminance_lx=float(ev.illuminance_lx[i]),
+            hazards=hazards,
+            not_assessed=[s for s, h in hazards.items() if not h.assessed],
+            deciding_hazards=[s for s, g in groups.items() if overall is not None and g == overall],
+            geometry=Geometry(
+                measurement_distance_mm=record.distance_mm,
+                assessment_distance_mm=d_a_mm,
+                distance_rule=distance_rule(record, d_a_mm),
+                alpha_rad=float(ev.alpha_rad[i]),
+                source_solid_angle_sr=float(ev.source_solid_angle_sr[i]),
+                largest_dimension_mm=float(record.largest_dimension_mm),
+                small_source=bool(ev.small_source[i]),
+                weak_visual_stimulus=bool(ev.weak_visual_stimulus[i]),
+            ),
+            photometry=photometry_summary(batch, i, v_covered),
+            spectrum=spectrum_summary(loaded, float(ev.anchor_scale[i])),
+            blue_light_transfer=transfer_summary(ev, i, covered, keys, record, limit_set),
+            scaling=scaling_summary(record, float(ev.anchor_scale[i])),
+            **_studies(loaded, batch, i, studies),
+            record=record.model_dump(exclude_none=True),
+            warnings=warnings_for(loaded, ev, i, v_covered) + switch_warnings(ev, i, limit_set),
+            assumptions=assumptions_for(loaded, ev, i),
+            cautions=select_cautions(
+                limit_set,
+                groups,
+                _shares(raw, keys, limit_set),
+                bool(ev.complete[i]),
+                determined=overall is not None or standard_overall is not None,
+            ),
+            claims=check_claims(
+                record,
+                risk_group=standard_overall,
+                complete=bool(ev.complete[i]),
+                not_assessed=[s for s, h in standard.items() if not h.assessed],
+                hazards=standard,
+                cct_k=optional_float(batch.cct_k[i]),
+                cct_reason=cct_reason(batch, i, v_covered),
+                illuminance_at_record_distance_lx=illuminance_at_record_distance_lx(record, ev, i),
+                assessment_distance_mm=standard_distance_mm,
+                tolerances=tolerances,
+            ),
+            provenance=Provenance(
+                tool_version=__version__,
+                limit_set=limit_set.name,
+                tables=tables,
+                inputs=dict(sorted(loaded.inputs.items())),
+                method=METHOD_TEXT,
+            ),
+            limit_set=limit_set_info(limit_set),
+        ).sealed()
+    )
 
 
 def limit_set_info(limit_set: LimitSet) -> LimitSetInfo:
     """What a renderer needs of a limit set, as it is stored in a result."""
-    return LimitSetInfo(name=limit_set.name, groups=list(limit_set.groups), boundaries=list(limit_set.boundaries),
-                        families={name: list(members) for name, members in limit_set.families},
-                        grouped_families=[name for name, _ in limit_set.grouped_families],
-                        small_source_alpha_rad=limit_set.small_source_alpha_rad,
-                        weak_stimulus_luminance_cd_m2=limit_set.weak_stimulus_luminance_cd_m2)
+    return LimitSetInfo(
+        name=limit_set.name,
+        groups=list(limit_set.groups),
+        boundaries=list(limit_set.boundaries),
+        families={name: list(members) for name, members in limit_set.families},
+        grouped_families=[name for name, _ in limit_set.grouped_families],
+        small_source_alpha_rad=limit_set.small_source_alpha_rad,
+        weak_stimulus_luminance_cd_m2=limit_set.weak_stimulus_luminance_cd_m2,
+    )
 
 
-def assess(product: str | Path | ProductRecord | LoadedProduct, overrides: dict | None = None,
-           limit_set: LimitSet = DEFAULT_LIMIT_SET, tolerances: ClaimTolerances = DEFAULT_TOLERANCES) -> Assessment:
+def assess(
+    product: str | Path | ProductRecord | LoadedProduct,
+    overrides: dict | None = None,
+    limit_set: LimitSet = DEFAULT_LIMIT_SET,
+    tolerances: ClaimTolerances = DEFAULT_TOLERANCES,
+) -> Assessment:
     """Pre-screen one product.
 
     Parameters

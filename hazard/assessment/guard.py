@@ -62,6 +62,9 @@ def require_finite(assessment: Assessment) -> Assessment:
     if found is None:
         return assessment
     where, value = found
-    raise InputError(f"product {assessment.id!r}: {where} came out as {value} (the computation left the range of "
-                     f"floating-point numbers)", "check the record's distances and source size and the spectrum's "
-                     "unit and magnitude", None)
+    raise InputError(
+        f"product {assessment.id!r}: {where} came out as {value} (the computation left the range of "
+        f"floating-point numbers)",
+        "check the record's distances and source size and the spectrum's unit and magnitude",
+        None,
+    )

@@ -26,9 +26,23 @@ __all__ = ["assess_many", "frame_columns"]
 
 def frame_columns(limit_set: LimitSet = DEFAULT_LIMIT_SET) -> list[str]:
     """Columns of the DataFrame that :func:`assess_many` returns."""
-    columns = ["id", "status", "error", "risk_group", "complete", "basis", "standard_risk_group",
-               "assessment_distance_mm", "alpha_rad",
-               "illuminance_lx", "luminance_cd_m2", "cct_k", "duv", "small_source", "weak_visual_stimulus"]
+    columns = [
+        "id",
+        "status",
+        "error",
+        "risk_group",
+        "complete",
+        "basis",
+        "standard_risk_group",
+        "assessment_distance_mm",
+        "alpha_rad",
+        "illuminance_lx",
+        "luminance_cd_m2",
+        "cct_k",
+        "duv",
+        "small_source",
+        "weak_visual_stimulus",
+    ]
     for h in limit_set.hazards:
         columns += [f"{h.symbol}_{part}" for part in ("applicable", "assessed", "value", "group", "t_max_s")]
         columns += [f"{h.symbol}_margin_{g}" for g in limit_set.boundaries]
@@ -62,8 +76,7 @@ def _check_grid(wavelength_nm: np.ndarray, spectra: np.ndarray) -> None:
     """The common grid must be 1-D, strictly increasing and match the spectra's columns."""
     grid = np.asarray(wavelength_nm, dtype=float)
     if grid.ndim != 1 or spectra.ndim != 2 or spectra.shape[1] != grid.size:
-        raise ValueError(f"spectra must be (n, {grid.size}) for a grid of {grid.size} wavelengths, got "
-                         f"{spectra.shape}")
+        raise ValueError(f"spectra must be (n, {grid.size}) for a grid of {grid.size} wavelengths, got {spectra.shape}")
     if not np.all(np.diff(grid) > 0):
         raise ValueError("wavelength_nm must be strictly increasing [nm]")
 
@@ -89,8 +102,7 @@ def _distinct(records) -> tuple[list, list[str], np.ndarray]:
     return items, ids, np.arange(len(items))
 
 
-def _frame(batch: BatchEvaluation | None, ids: list[str], good: list[int], errors: dict[int, str],
-           limit_set: LimitSet):
+def _frame(batch: BatchEvaluation | None, ids: list[str], good: list[int], errors: dict[int, str], limit_set: LimitSet):
     import pandas as pd
 
     n = len(ids)
@@ -109,21 +121,30 @@ def _frame(batch: BatchEvaluation | None, ids: list[str], good: list[int], error
         full[good] = codes
         return pd.Categorical.from_codes(full, categories=list(GROUPS))
 
-    data = {"id": ids, "status": ["error" if i in errors else "ok" for i in range(n)],
-            "error": [errors.get(i) for i in range(n)]}
+    data = {
+        "id": ids,
+        "status": ["error" if i in errors else "ok" for i in range(n)],
+        "error": [errors.get(i) for i in range(n)],
+    }
     if batch is not None:
         ev = batch.evaluation
         what_if = batch.what_if
-        data.update({
-            "risk_group": groups(ev.group_index),
-            "complete": spread(ev.complete, False),
-            "basis": spread(np.where(what_if, "what-if", "standard"), False),
-            "standard_risk_group": groups(np.where(what_if, batch.standard.group_index, -1)),
-            "assessment_distance_mm": spread(ev.assessment_distance_m * 1e3), "alpha_rad": spread(ev.alpha_rad),
-            "illuminance_lx": spread(ev.illuminance_lx), "luminance_cd_m2": spread(ev.luminance_cd_m2),
-            "cct_k": spread(batch.cct_k), "duv": spread(batch.duv),
-            "small_source": spread(ev.small_source, False),
-            "weak_visual_stimulus": spread(ev.weak_visual_stimulus, False)})
+        data.update(
+            {
+                "risk_group": groups(ev.group_index),
+                "complete": spread(ev.complete, False),
+                "basis": spread(np.where(what_if, "what-if", "standard"), False),
+                "standard_risk_group": groups(np.where(what_if, batch.standard.group_index, -1)),
+                "assessment_distance_mm": spread(ev.assessment_distance_m * 1e3),
+                "alpha_rad": spread(ev.alpha_rad),
+                "illuminance_lx": spread(ev.illuminance_lx),
+                "luminance_cd_m2": spread(ev.luminance_cd_m2),
+                "cct_k": spread(batch.cct_k),
+                "duv": spread(batch.duv),
+                "small_source": spread(ev.small_source, False),
+                "weak_visual_stimulus": spread(ev.weak_visual_stimulus, False),
+            }
+        )
         for symbol, h in ev.hazards.items():
             grouped = h.hazard.limits is not None
             data[f"{symbol}_applicable"] = spread(h.applicable, False)
@@ -137,8 +158,12 @@ def _frame(batch: BatchEvaluation | None, ids: list[str], good: list[int], error
     return pd.DataFrame(data, columns=frame_columns(limit_set))
 
 
-def assess_many(records, wavelength_nm: np.ndarray | None = None, spectra: np.ndarray | None = None,
-                limit_set: LimitSet = DEFAULT_LIMIT_SET):
+def assess_many(
+    records,
+    wavelength_nm: np.ndarray | None = None,
+    spectra: np.ndarray | None = None,
+    limit_set: LimitSet = DEFAULT_LIMIT_SET,
+):
     """Pre-screen many products; one row per product, in the order given.
 
     Parameters
@@ -184,11 +209,16 @@ def assess_many(records, wavelength_nm: np.ndarray | None = None, spectra: np.nd
             validated.append(str(exc))
     _check_grid(wavelength_nm, spectra)
     is_record = [isinstance(r, ProductRecord) for r in validated]
-    factors = np.array([parse_spectral_unit(r.unit_text).factor_to_si if ok else 1.0
-                        for r, ok in zip(validated, is_record, strict=True)])[index]
+    factors = np.array(
+        [
+            parse_spectral_unit(r.unit_text).factor_to_si if ok else 1.0
+            for r, ok in zip(validated, is_record, strict=True)
+        ]
+    )[index]
     flags = np.array([ok and r.no_emission_outside for r, ok in zip(validated, is_record, strict=True)])[index]
-    integrated, peak, lowest = integrate_matrix(np.asarray(wavelength_nm, dtype=float), spectra, flags, limit_set,
-                                                factors)
+    integrated, peak, lowest = integrate_matrix(
+        np.asarray(wavelength_nm, dtype=float), spectra, flags, limit_set, factors
+    )
     visual = integrated.raw[:, integral_index(limit_set)["V"]]
     quantity = np.array([r.quantity if ok else "relative" for r, ok in zip(validated, is_record, strict=True)])[index]
     relative = quantity == "relative"

@@ -18,7 +18,18 @@ from hazard.method.weighting import coarse_steps_in
 from hazard.output.formatting import UNIT_DISPLAY
 from hazard.standards import LimitSet
 
-__all__ = ["MAX_STEEP_STEP_NM", "PLAUSIBLE_MAX_ILLUMINANCE_LX", "PLAUSIBLE_PEAK_IRRADIANCE", "STEEP_REGIONS_NM", "SWITCH_NEIGHBOURHOOD", "anchor_text", "assumptions_for", "distance_rule", "switch_warnings", "warnings_for"]
+__all__ = [
+    "MAX_STEEP_STEP_NM",
+    "PLAUSIBLE_MAX_ILLUMINANCE_LX",
+    "PLAUSIBLE_PEAK_IRRADIANCE",
+    "STEEP_REGIONS_NM",
+    "SWITCH_NEIGHBOURHOOD",
+    "anchor_text",
+    "assumptions_for",
+    "distance_rule",
+    "switch_warnings",
+    "warnings_for",
+]
 
 
 STEEP_REGIONS_NM = ((200.0, 400.0), (380.0, 500.0))
@@ -63,12 +74,14 @@ def switch_warnings(ev: Evaluation, i: int, limit_set: LimitSet) -> list[str]:
                 quantity, threshold, shown = ev.luminance_cd_m2[i], limit_set.weak_stimulus_luminance_cd_m2, "L_v"
                 text = f"{quantity:.3g} cd/m², switch at {threshold:g} cd/m²"
             near = 1 / SWITCH_NEIGHBOURHOOD <= quantity / threshold <= SWITCH_NEIGHBOURHOOD
-            reading = int(top_down_groups(other.compared[i:i + 1], other.limits[i:i + 1])[0])
+            reading = int(top_down_groups(other.compared[i : i + 1], other.limits[i : i + 1])[0])
             if near and reading > used.group_index[i]:
-                out.append(f"{family}: {shown} = {text}; {used.hazard.symbol} applies and gives "
-                           f"{limit_set.groups[used.group_index[i]]}, but {spec.symbol} would give "
-                           f"{limit_set.groups[reading]}: a small change of size, distance or light changes the "
-                           f"group here (the standard's own step); have the laboratory confirm it")
+                out.append(
+                    f"{family}: {shown} = {text}; {used.hazard.symbol} applies and gives "
+                    f"{limit_set.groups[used.group_index[i]]}, but {spec.symbol} would give "
+                    f"{limit_set.groups[reading]}: a small change of size, distance or light changes the "
+                    f"group here (the standard's own step); have the laboratory confirm it"
+                )
     return out
 
 
@@ -82,14 +95,18 @@ def warnings_for(loaded: LoadedProduct, ev: Evaluation, i: int, v_covered: bool)
     warnings = list(spectrum.warnings)
     lo, hi = spectrum.range_nm
     if record.at_distance_mm is not None:
-        warnings.append(f"assessed at {record.at_distance_mm:g} mm by request (at_distance_mm), not at the "
-                        f"standard's distance: the risk groups are a what-if, not a classification")
+        warnings.append(
+            f"assessed at {record.at_distance_mm:g} mm by request (at_distance_mm), not at the "
+            f"standard's distance: the risk groups are a what-if, not a classification"
+        )
     for region in STEEP_REGIONS_NM:
         step = coarse_steps_in(spectrum.wavelength_nm, region, MAX_STEEP_STEP_NM)
         if step is not None and lo < region[1] and hi > region[0]:
-            warnings.append(f"sampling step up to {step:g} nm in {region[0]:g}–{region[1]:g} nm, where the "
-                            f"weights change steeply; values there are approximate (use ≤ {MAX_STEEP_STEP_NM:g} "
-                            f"nm)")
+            warnings.append(
+                f"sampling step up to {step:g} nm in {region[0]:g}–{region[1]:g} nm, where the "
+                f"weights change steeply; values there are approximate (use ≤ {MAX_STEEP_STEP_NM:g} "
+                f"nm)"
+            )
     d_a_mm = float(ev.assessment_distance_m[i]) * 1e3
     size_mm = record.largest_dimension_mm
     d_ref = record.reference_distance_mm
@@ -97,32 +114,46 @@ def warnings_for(loaded: LoadedProduct, ev: Evaluation, i: int, v_covered: bool)
     if irradiance_input and abs(d_a_mm - d_ref) > 1e-9:
         near = min(d_a_mm, d_ref)
         if near < FIVE_TIMES_RULE * size_mm:
-            warnings.append(f"inverse-square scaling from {d_ref:g} mm to {d_a_mm:.4g} mm with a "
-                            f"{size_mm:g} mm source: {near:.4g} mm is under five source sizes, so the scaled "
-                            f"values are approximate; measure at the assessment distance")
+            warnings.append(
+                f"inverse-square scaling from {d_ref:g} mm to {d_a_mm:.4g} mm with a "
+                f"{size_mm:g} mm source: {near:.4g} mm is under five source sizes, so the scaled "
+                f"values are approximate; measure at the assessment distance"
+            )
     if not v_covered:
-        warnings.append(f"the spectrum covers {lo:g}–{hi:g} nm, not all of V(λ)'s {VISIBLE_BAND_NM[0]:g}–"
-                        f"{VISIBLE_BAND_NM[1]:g} nm: illuminance and luminance are lower bounds, and so is the "
-                        f"weak-visual-stimulus test")
+        warnings.append(
+            f"the spectrum covers {lo:g}–{hi:g} nm, not all of V(λ)'s {VISIBLE_BAND_NM[0]:g}–"
+            f"{VISIBLE_BAND_NM[1]:g} nm: illuminance and luminance are lower bounds, and so is the "
+            f"weak-visual-stimulus test"
+        )
     if ev.illuminance_lx[i] > PLAUSIBLE_MAX_ILLUMINANCE_LX:
-        warnings.append(f"illuminance {ev.illuminance_lx[i]:.3g} lx at the assessment distance is above "
-                        f"{PLAUSIBLE_MAX_ILLUMINANCE_LX:.0f} lx: check the unit and the distance")
+        warnings.append(
+            f"illuminance {ev.illuminance_lx[i]:.3g} lx at the assessment distance is above "
+            f"{PLAUSIBLE_MAX_ILLUMINANCE_LX:.0f} lx: check the unit and the distance"
+        )
     if irradiance_input:
         peak = float(spectrum.value.max() * ev.anchor_scale[i])
         if not PLAUSIBLE_PEAK_IRRADIANCE[0] <= peak <= PLAUSIBLE_PEAK_IRRADIANCE[1]:
-            cause = ("the anchor (a relative spectrum with little light within V(λ) is scaled enormously)"
-                     if record.quantity == "relative" else
-                     f"the unit ({record.unit_text!r}); a factor of 10³ or 10⁴ is a common slip")
-            warnings.append(f"peak spectral irradiance {peak:.3g} {UNIT_DISPLAY[IRRADIANCE_SI]} is implausible for a "
-                            f"lamp: check {cause}")
+            cause = (
+                "the anchor (a relative spectrum with little light within V(λ) is scaled enormously)"
+                if record.quantity == "relative"
+                else f"the unit ({record.unit_text!r}); a factor of 10³ or 10⁴ is a common slip"
+            )
+            warnings.append(
+                f"peak spectral irradiance {peak:.3g} {UNIT_DISPLAY[IRRADIANCE_SI]} is implausible for a "
+                f"lamp: check {cause}"
+            )
     if record.quantity == "radiance":
         fov = record.measurement_fov_mrad
         if fov is None:
-            warnings.append("measurement_fov_mrad not given: a radiance measured over a wider field than the "
-                            "limits' fields of view underestimates hot spots")
+            warnings.append(
+                "measurement_fov_mrad not given: a radiance measured over a wider field than the "
+                "limits' fields of view underestimates hot spots"
+            )
         elif fov > 11.0:
-            warnings.append(f"radiance measured over {fov:g} mrad, wider than the 11 and 1.7 mrad fields of the "
-                            f"RG1/RG2 limits: hot spots may be underestimated")
+            warnings.append(
+                f"radiance measured over {fov:g} mrad, wider than the 11 and 1.7 mrad fields of the "
+                f"RG1/RG2 limits: hot spots may be underestimated"
+            )
     return warnings
 
 
@@ -136,31 +167,43 @@ def assumptions_for(loaded: LoadedProduct, ev: Evaluation, i: int) -> list[str]:
     record, (lo, hi) = loaded.record, loaded.spectrum.range_nm
     assumptions = []
     if record.no_emission_outside:
-        assumptions.append(f"The record states the source emits nothing outside {lo:g}–{hi:g} nm; band parts "
-                           f"outside that range count as zero.")
+        assumptions.append(
+            f"The record states the source emits nothing outside {lo:g}–{hi:g} nm; band parts "
+            f"outside that range count as zero."
+        )
     if record.source_alpha_mrad is not None:
-        assumptions.append(f"Source given by its angular subtense {record.source_alpha_mrad:g} mrad at "
-                           f"{record.distance_mm:g} mm, treated as a disc of {record.largest_dimension_mm:.4g} mm.")
+        assumptions.append(
+            f"Source given by its angular subtense {record.source_alpha_mrad:g} mrad at "
+            f"{record.distance_mm:g} mm, treated as a disc of {record.largest_dimension_mm:.4g} mm."
+        )
     d_a_mm = float(ev.assessment_distance_m[i]) * 1e3
     if record.quantity == "relative":
         assumptions.append(anchor_text(record, float(ev.anchor_scale[i])))
     if record.lamp_type == "gls" and record.at_distance_mm is None and d_a_mm > 200.0 + 1e-9:
-        assumptions.append(f"General lighting service lamp: assessed where it gives 500 lx, {d_a_mm:.0f} mm away; "
-                           f"nearer than that (e.g. at 200 mm, as other lamps are assessed) its group can be "
-                           f"higher: see the distances")
+        assumptions.append(
+            f"General lighting service lamp: assessed where it gives 500 lx, {d_a_mm:.0f} mm away; "
+            f"nearer than that (e.g. at 200 mm, as other lamps are assessed) its group can be "
+            f"higher: see the distances"
+        )
     if record.peak_to_mean_radiance > 1:
-        assumptions.append(f"Peak-to-mean radiance {record.peak_to_mean_radiance:g} (record): radiance values and "
-                           f"the radiance seen by fields of view smaller than the source are multiplied by it.")
+        assumptions.append(
+            f"Peak-to-mean radiance {record.peak_to_mean_radiance:g} (record): radiance values and "
+            f"the radiance seen by fields of view smaller than the source are multiplied by it."
+        )
     if record.effective_quantity == "irradiance":
         d_ref = record.reference_distance_mm
         if abs(d_a_mm - d_ref) > 1e-9:
-            assumptions.append(f"Irradiance scaled from {d_ref:g} mm to {d_a_mm:.4g} mm by the "
-                               f"inverse-square law (point source).")
-        assumptions.append("Radiance derived as E/Ω_s from the irradiance and the stated source size, i.e. a "
-                           "uniform source; LED arrays and hot spots can exceed this average.")
+            assumptions.append(
+                f"Irradiance scaled from {d_ref:g} mm to {d_a_mm:.4g} mm by the inverse-square law (point source)."
+            )
+        assumptions.append(
+            "Radiance derived as E/Ω_s from the irradiance and the stated source size, i.e. a "
+            "uniform source; LED arrays and hot spots can exceed this average."
+        )
     else:
-        assumptions.append("Irradiance derived as L·Ω_s from the measured radiance and the stated source size "
-                           "(uniform source).")
+        assumptions.append(
+            "Irradiance derived as L·Ω_s from the measured radiance and the stated source size (uniform source)."
+        )
     return assumptions
 
 
@@ -172,20 +215,26 @@ def anchor_text(record: ProductRecord, scale: float) -> str:
     if anchor.field == "illuminance_lx":
         target = f"{anchor.value:g} lx at {record.distance_mm:g} mm"
     elif anchor.field == "luminous_intensity_cd":
-        target = (f"{anchor.value:g} cd, i.e. {anchor_photometric(record):.4g} lx at "
-                  f"{record.reference_distance_mm:g} mm by the inverse-square law")
+        target = (
+            f"{anchor.value:g} cd, i.e. {anchor_photometric(record):.4g} lx at "
+            f"{record.reference_distance_mm:g} mm by the inverse-square law"
+        )
     else:
         target = f"{anchor.value:g} cd/m² (so the spectrum is read as a radiance)"
     unit = UNIT_DISPLAY[record.unit_text]  # the SI unit the anchor scales the relative spectrum into
-    return (f"Relative spectrum scaled by {scale:.6g} {unit} per unit so that 683 lm/W · ∫S(λ)V(λ)dλ reproduces "
-            f"the stated {target}; every absolute value rests on that figure and on the spectrum's shape.")
+    return (
+        f"Relative spectrum scaled by {scale:.6g} {unit} per unit so that 683 lm/W · ∫S(λ)V(λ)dλ reproduces "
+        f"the stated {target}; every absolute value rests on that figure and on the spectrum's shape."
+    )
 
 
 def distance_rule(record: ProductRecord, d_a_mm: float) -> str:
     """Which rule set the assessment distance ``d_a_mm`` [mm]: a what-if, 200 mm, or the GLS lamps' 500 lx."""
     if record.at_distance_mm is not None:
-        return (f"{record.at_distance_mm:g} mm as the record asks (at_distance_mm): a what-if study, not the "
-                f"standard's classification distance")
+        return (
+            f"{record.at_distance_mm:g} mm as the record asks (at_distance_mm): a what-if study, not the "
+            f"standard's classification distance"
+        )
     if record.lamp_type != "gls":
         return "200 mm: the standard's distance for lamps other than general lighting service"
     if d_a_mm > 200.0 + 1e-9:

@@ -60,8 +60,9 @@ def file_stems(ids: Iterable[str]) -> dict[str, str]:
         taken: dict[str, list[str]] = {}
         for product_id, stem in stems.items():
             taken.setdefault(stem.casefold(), []).append(product_id)
-        clashing = [i for group, members in taken.items() for i in members
-                    if len(members) > 1 or group in RESERVED_STEMS]
+        clashing = [
+            i for group, members in taken.items() for i in members if len(members) > 1 or group in RESERVED_STEMS
+        ]
         if not clashing:
             break
         for product_id in clashing:
@@ -72,8 +73,10 @@ def file_stems(ids: Iterable[str]) -> dict[str, str]:
 def _holder_text(path: Path) -> str:
     try:
         holder = json.loads(path.read_text(encoding="utf-8"))
-        return (f"process {int(holder['pid'])} on {excerpt(holder['host'])} since {excerpt(holder['started'])}, "
-                f"manifest {excerpt(holder['source'], 80)}")
+        return (
+            f"process {int(holder['pid'])} on {excerpt(holder['host'])} since {excerpt(holder['started'])}, "
+            f"manifest {excerpt(holder['source'], 80)}"
+        )
     except (OSError, ValueError, KeyError, TypeError):
         return "another process"
 
@@ -114,9 +117,12 @@ class OutputFolder:
                 parent = os.path.dirname(text) or "."
                 where = folders.get(parent) or folders.setdefault(parent, os.path.realpath(parent))
             if where == here:
-                raise InputError(f"the output folder holds this run's input {excerpt(Path(path).name, 80)}",
-                                 "name a new sub-folder for the outputs, e.g. --output "
-                                 f"{os.path.join(str(self.folder), 'hazard-out')}", str(self.folder))
+                raise InputError(
+                    f"the output folder holds this run's input {excerpt(Path(path).name, 80)}",
+                    "name a new sub-folder for the outputs, e.g. --output "
+                    f"{os.path.join(str(self.folder), 'hazard-out')}",
+                    str(self.folder),
+                )
 
     def _refuse_foreign(self, lock: Path) -> None:
         """A folder without hazard's lock file that holds anything is the user's: refuse it."""
@@ -127,17 +133,24 @@ class OutputFolder:
             except (OSError, ValueError, AttributeError):
                 pass
             if previous is not None and previous != os.path.realpath(self.source):
-                raise InputError(f"the folder holds the outputs of another batch (manifest {excerpt(previous, 80)})",
-                                 "name another --output folder, or delete this one first", str(self.folder))
+                raise InputError(
+                    f"the folder holds the outputs of another batch (manifest {excerpt(previous, 80)})",
+                    "name another --output folder, or delete this one first",
+                    str(self.folder),
+                )
             return
         if any(True for _ in os.scandir(self.folder)):
-            raise InputError("the output folder already holds files that hazard did not write",
-                             "name a new or empty folder for the outputs", str(self.folder))
+            raise InputError(
+                "the output folder already holds files that hazard did not write",
+                "name a new or empty folder for the outputs",
+                str(self.folder),
+            )
 
     def __enter__(self) -> OutputFolder:
         if self.folder.exists() and not self.folder.is_dir():
-            raise InputError("the output path is a file, not a folder", "name a folder for the outputs",
-                             str(self.folder))
+            raise InputError(
+                "the output path is a file, not a folder", "name a folder for the outputs", str(self.folder)
+            )
         self._refuse_inputs()
         self.folder.mkdir(parents=True, exist_ok=True)
         lock = self.folder / LOCK_NAME
@@ -147,15 +160,21 @@ class OutputFolder:
             fcntl.flock(handle.fileno(), fcntl.LOCK_EX | fcntl.LOCK_NB)
         except BlockingIOError:
             handle.close()
-            raise InputError(f"another hazard run is writing into this folder ({_holder_text(lock)})",
-                             "wait for it to finish, or name another --output folder", str(self.folder)) from None
+            raise InputError(
+                f"another hazard run is writing into this folder ({_holder_text(lock)})",
+                "wait for it to finish, or name another --output folder",
+                str(self.folder),
+            ) from None
         except BaseException:
             handle.close()
             raise
         self._handle = handle
-        holder = {"pid": os.getpid(), "host": socket.gethostname(),
-                  "started": datetime.datetime.now(datetime.UTC).isoformat(timespec="seconds"),
-                  "source": os.path.realpath(self.source)}
+        holder = {
+            "pid": os.getpid(),
+            "host": socket.gethostname(),
+            "started": datetime.datetime.now(datetime.UTC).isoformat(timespec="seconds"),
+            "source": os.path.realpath(self.source),
+        }
         handle.seek(0)
         handle.truncate()
         handle.write(json.dumps(holder) + "\n")

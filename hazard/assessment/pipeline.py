@@ -23,7 +23,14 @@ from hazard.method.integrals import Integrated, integrate_spectra
 from hazard.method.photometry import cct_from_xyz
 from hazard.standards import DEFAULT_LIMIT_SET, LimitSet
 
-__all__ = ["BatchEvaluation", "anchor_photometric", "evaluate_loaded", "evaluate_products", "product_arrays", "source_shape"]
+__all__ = [
+    "BatchEvaluation",
+    "anchor_photometric",
+    "evaluate_loaded",
+    "evaluate_products",
+    "product_arrays",
+    "source_shape",
+]
 
 
 def source_shape(records: list[ProductRecord]) -> SourceShape:
@@ -33,27 +40,34 @@ def source_shape(records: list[ProductRecord]) -> SourceShape:
     return SourceShape(width * 1e-3, height * 1e-3)
 
 
-def product_arrays(records: list[ProductRecord], raw: np.ndarray, covered: np.ndarray,
-                   index: np.ndarray | None = None) -> ProductArrays:
+def product_arrays(
+    records: list[ProductRecord], raw: np.ndarray, covered: np.ndarray, index: np.ndarray | None = None
+) -> ProductArrays:
     """Stack records and their integrals for :func:`~hazard.method.evaluate.evaluate`.
 
     With ``index``, product i uses ``records[index[i]]`` (many products sharing one validated record's
     geometry); otherwise product i uses ``records[i]``.
     """
     take = np.arange(len(records)) if index is None else np.asarray(index)
-    distance = np.array([np.nan if r.reference_distance_mm is None else r.reference_distance_mm * 1e-3
-                         for r in records])
+    distance = np.array(
+        [np.nan if r.reference_distance_mm is None else r.reference_distance_mm * 1e-3 for r in records]
+    )
     return ProductArrays(
-        raw=np.atleast_2d(raw), covered=np.atleast_2d(covered),
+        raw=np.atleast_2d(raw),
+        covered=np.atleast_2d(covered),
         is_radiance=np.array([r.effective_quantity == "radiance" for r in records])[take],
-        measurement_distance_m=distance[take], shape=source_shape(records).take(take),
+        measurement_distance_m=distance[take],
+        shape=source_shape(records).take(take),
         is_gls=np.array([r.lamp_type == "gls" for r in records])[take],
         anchor_photometric=np.array([anchor_photometric(r) for r in records])[take],
-        luminous_intensity_cd=np.array([np.nan if r.luminous_intensity_cd is None else r.luminous_intensity_cd
-                                        for r in records])[take],
+        luminous_intensity_cd=np.array(
+            [np.nan if r.luminous_intensity_cd is None else r.luminous_intensity_cd for r in records]
+        )[take],
         peak_to_mean=np.array([r.peak_to_mean_radiance for r in records])[take],
-        forced_distance_m=np.array([np.nan if r.at_distance_mm is None else r.at_distance_mm * 1e-3
-                                    for r in records])[take])
+        forced_distance_m=np.array([np.nan if r.at_distance_mm is None else r.at_distance_mm * 1e-3 for r in records])[
+            take
+        ],
+    )
 
 
 def anchor_photometric(record: ProductRecord) -> float:
@@ -88,8 +102,12 @@ class BatchEvaluation:
     duv: np.ndarray
 
 
-def evaluate_products(records: list[ProductRecord], integrated: Integrated,
-                      limit_set: LimitSet = DEFAULT_LIMIT_SET, index: np.ndarray | None = None) -> BatchEvaluation:
+def evaluate_products(
+    records: list[ProductRecord],
+    integrated: Integrated,
+    limit_set: LimitSet = DEFAULT_LIMIT_SET,
+    index: np.ndarray | None = None,
+) -> BatchEvaluation:
     """Apply the method to n products whose integrals are known.
 
     Colour only where V(λ) is covered and there is light. ``index`` maps products to ``records`` as in
@@ -114,7 +132,10 @@ def evaluate_products(records: list[ProductRecord], integrated: Integrated,
 
 def evaluate_loaded(products: list[LoadedProduct], limit_set: LimitSet = DEFAULT_LIMIT_SET) -> BatchEvaluation:
     """Integrate and evaluate loaded products (spectra sharing a grid share one matrix product)."""
-    integrated = integrate_spectra([p.spectrum.wavelength_nm for p in products],
-                                   [p.spectrum.value for p in products],
-                                   [p.record.no_emission_outside for p in products], limit_set)
+    integrated = integrate_spectra(
+        [p.spectrum.wavelength_nm for p in products],
+        [p.spectrum.value for p in products],
+        [p.record.no_emission_outside for p in products],
+        limit_set,
+    )
     return evaluate_products([p.record for p in products], integrated, limit_set)

@@ -43,8 +43,9 @@ class Progress:
         width = 24
         filled = int(width * self.done / max(self.total, 1))
         eta = f"{left:.0f} s left" if left != float("inf") else "—"
-        self.stream.write(f"\r[{'#' * filled}{'.' * (width - filled)}] {self.done}/{self.total} {self.label}, "
-                          f"{rate:.0f}/s, {eta}   ")
+        self.stream.write(
+            f"\r[{'#' * filled}{'.' * (width - filled)}] {self.done}/{self.total} {self.label}, {rate:.0f}/s, {eta}   "
+        )
         self.stream.flush()
 
     def close(self) -> None:

@@ -21,7 +21,16 @@ from hazard.result import (
 )
 from hazard.standards import LimitSet
 
-__all__ = ["PREVIEW_BINS", "cct_reason", "illuminance_at_record_distance_lx", "optional_float", "photometry_summary", "scaling_summary", "spectrum_summary", "transfer_summary"]
+__all__ = [
+    "PREVIEW_BINS",
+    "cct_reason",
+    "illuminance_at_record_distance_lx",
+    "optional_float",
+    "photometry_summary",
+    "scaling_summary",
+    "spectrum_summary",
+    "transfer_summary",
+]
 
 
 def optional_float(x) -> float | None:
@@ -33,10 +42,14 @@ def optional_float(x) -> float | None:
 def photometry_summary(batch: BatchEvaluation, i: int, covered: bool) -> Photometry:
     """Illuminance, luminance, CCT, Duv and chromaticity of product ``i``; ``covered`` when V(λ) is covered."""
     x, y = batch.chromaticity_x[i], batch.chromaticity_y[i]
-    return Photometry(illuminance_lx=float(batch.evaluation.illuminance_lx[i]),
-                      luminance_cd_m2=float(batch.evaluation.luminance_cd_m2[i]),
-                      cct_k=optional_float(batch.cct_k[i]), duv=optional_float(batch.duv[i]),
-                      chromaticity_xy=None if np.isnan(x) else (float(x), float(y)), covered=covered)
+    return Photometry(
+        illuminance_lx=float(batch.evaluation.illuminance_lx[i]),
+        luminance_cd_m2=float(batch.evaluation.luminance_cd_m2[i]),
+        cct_k=optional_float(batch.cct_k[i]),
+        duv=optional_float(batch.duv[i]),
+        chromaticity_xy=None if np.isnan(x) else (float(x), float(y)),
+        covered=covered,
+    )
 
 
 def scaling_summary(record: ProductRecord, scale: float) -> Scaling | None:
@@ -44,9 +57,13 @@ def scaling_summary(record: ProductRecord, scale: float) -> Scaling | None:
     anchor = record.anchor
     if record.quantity != "relative" or anchor is None:
         return None
-    return Scaling(anchor=anchor.field, anchor_value=anchor.value,
-                   reference_distance_mm=None if anchor.is_radiance else record.reference_distance_mm,
-                   scale_factor=scale, note=anchor_text(record, scale))
+    return Scaling(
+        anchor=anchor.field,
+        anchor_value=anchor.value,
+        reference_distance_mm=None if anchor.is_radiance else record.reference_distance_mm,
+        scale_factor=scale,
+        note=anchor_text(record, scale),
+    )
 
 
 PREVIEW_BINS = 240
@@ -77,16 +94,24 @@ def spectrum_summary(loaded: LoadedProduct, scale: float) -> SpectrumSummary:
     centres = (edges[:-1] + edges[1:]) / 2
     peak = int(np.argmax(value))
     return SpectrumSummary(
-        path=spectrum.path, quantity=loaded.record.effective_quantity, quantity_given=loaded.record.quantity,
+        path=spectrum.path,
+        quantity=loaded.record.effective_quantity,
+        quantity_given=loaded.record.quantity,
         unit_given=loaded.metadata.get("unit_used", loaded.record.unit_text),
-        points=int(wl.size), min_nm=float(wl[0]), max_nm=float(wl[-1]), peak_nm=float(wl[peak]),
+        points=int(wl.size),
+        min_nm=float(wl[0]),
+        max_nm=float(wl[-1]),
+        peak_nm=float(wl[peak]),
         peak_value_si=float(value[peak]),
         preview_nm=np.round(centres[filled], 2).tolist(),
-        preview_value_si=_four_digits(binned[filled]).tolist(), file_metadata=loaded.metadata.get("file_metadata", {}))
+        preview_value_si=_four_digits(binned[filled]).tolist(),
+        file_metadata=loaded.metadata.get("file_metadata", {}),
+    )
 
 
-def transfer_summary(ev: Evaluation, i: int, covered: np.ndarray, keys: dict[str, int], record: ProductRecord,
-              limit_set: LimitSet) -> BlueLightTransfer | None:
+def transfer_summary(
+    ev: Evaluation, i: int, covered: np.ndarray, keys: dict[str, int], record: ProductRecord, limit_set: LimitSet
+) -> BlueLightTransfer | None:
     """IEC TR 62778 transfer quantities, where they apply.
 
     They are given where the spectrum covers both the blue-light band and V(λ), the source is mainly visible (the
@@ -94,10 +119,23 @@ def transfer_summary(ev: Evaluation, i: int, covered: np.ndarray, keys: dict[str
     no threshold worth printing).
     """
     blue = limit_set.transfer_quantity()
-    finite = all(np.isfinite(x[i]) for x in (ev.blue_light_efficacy_w_per_lm, ev.threshold_illuminance_lx,
-                                             ev.luminous_intensity_cd, ev.threshold_distance_m))
-    if not (blue and covered[keys[blue]] and covered[keys["V"]] and ev.mainly_visible[i] and finite
-            and ev.blue_light_efficacy_w_per_lm[i] > 0):
+    finite = all(
+        np.isfinite(x[i])
+        for x in (
+            ev.blue_light_efficacy_w_per_lm,
+            ev.threshold_illuminance_lx,
+            ev.luminous_intensity_cd,
+            ev.threshold_distance_m,
+        )
+    )
+    if not (
+        blue
+        and covered[keys[blue]]
+        and covered[keys["V"]]
+        and ev.mainly_visible[i]
+        and finite
+        and ev.blue_light_efficacy_w_per_lm[i] > 0
+    ):
         return None
     if record.luminous_intensity_cd is not None:
         source = "stated in the record"
@@ -108,8 +146,10 @@ def transfer_summary(ev: Evaluation, i: int, covered: np.ndarray, keys: dict[str
     return BlueLightTransfer(
         k_bv_w_per_lm=float(ev.blue_light_efficacy_w_per_lm[i]),
         threshold_illuminance_lx=float(ev.threshold_illuminance_lx[i]),
-        luminous_intensity_cd=float(ev.luminous_intensity_cd[i]), intensity_source=source,
-        threshold_distance_mm=float(ev.threshold_distance_m[i]) * 1e3)
+        luminous_intensity_cd=float(ev.luminous_intensity_cd[i]),
+        intensity_source=source,
+        threshold_distance_mm=float(ev.threshold_distance_m[i]) * 1e3,
+    )
 
 
 def cct_reason(batch: BatchEvaluation, i: int, v_covered: bool) -> str:
@@ -119,8 +159,10 @@ def cct_reason(batch: BatchEvaluation, i: int, v_covered: bool) -> str:
     if not batch.evaluation.illuminance_lx[i] > 0:
         return "the spectrum has no visible light"
     if np.isnan(batch.cct_k[i]):
-        return (f"its chromaticity is too far from the Planckian locus for a CCT (|Duv| > {CCT_DUV_LIMIT:g} or "
-                f"outside {CCT_RANGE_K[0]:g}–{CCT_RANGE_K[1]:g} K)")
+        return (
+            f"its chromaticity is too far from the Planckian locus for a CCT (|Duv| > {CCT_DUV_LIMIT:g} or "
+            f"outside {CCT_RANGE_K[0]:g}–{CCT_RANGE_K[1]:g} K)"
+        )
     return ""
 
 

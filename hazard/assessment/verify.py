@@ -75,28 +75,39 @@ def check_result(assessment: Assessment, path: str) -> None:
         raise _refuse("the result was changed after it was made: its content no longer matches its SHA-256", path)
     limit_set = LIMIT_SETS.get(assessment.provenance.limit_set)
     if limit_set is None:
-        raise InputError(f"limit set {assessment.provenance.limit_set!r} is not one this tool knows",
-                         f"use a result made with one of: {', '.join(LIMIT_SETS)}", path)
+        raise InputError(
+            f"limit set {assessment.provenance.limit_set!r} is not one this tool knows",
+            f"use a result made with one of: {', '.join(LIMIT_SETS)}",
+            path,
+        )
     _check_against_set(assessment, limit_set, path)
     derived = {}
     for symbol, h in assessment.hazards.items():
         derived[symbol] = _hazard_group(symbol, h, limit_set, path)
         if derived[symbol] != h.risk_group:
             shown = "the compared values and limits" if h.assessed else "its assessed flag"
-            raise _refuse(f"hazard {symbol} says {h.risk_group or 'no group'} but {shown} give "
-                          f"{derived[symbol] or 'no group'}", path)
+            raise _refuse(
+                f"hazard {symbol} says {h.risk_group or 'no group'} but {shown} give {derived[symbol] or 'no group'}",
+                path,
+            )
     grouped = [limit_set.groups.index(g) for g in derived.values() if g is not None]
     overall = limit_set.groups[max(grouped)] if grouped else None
     if overall != assessment.risk_group:
-        raise _refuse(f"the overall group says {assessment.risk_group or 'not determined'} but its hazards give "
-                      f"{overall or 'not determined'}", path)
+        raise _refuse(
+            f"the overall group says {assessment.risk_group or 'not determined'} but its hazards give "
+            f"{overall or 'not determined'}",
+            path,
+        )
     not_assessed = sorted(s for s, h in assessment.hazards.items() if not h.assessed)
     if sorted(assessment.not_assessed) != not_assessed or assessment.complete != (not not_assessed):
         raise _refuse("its completeness does not match the hazards it lists as assessed", path)
     what_if = assessment.record.get("at_distance_mm") is not None
     if (assessment.basis == "what-if") != what_if:
-        raise _refuse(f"its basis says {assessment.basis} but the record "
-                      f"{'asks' if what_if else 'does not ask'} for a what-if distance", path)
+        raise _refuse(
+            f"its basis says {assessment.basis} but the record "
+            f"{'asks' if what_if else 'does not ask'} for a what-if distance",
+            path,
+        )
     _check_distance_and_cautions(assessment, limit_set, derived, path)
 
 
@@ -118,8 +129,9 @@ def _check_against_set(a: Assessment, limit_set: LimitSet, path: str) -> None:
             raise _refuse(f"hazard {symbol} is not in {limit_set.name}", path) from None
         covered = no_emission_outside or (lo <= spec.band_nm[0] and hi >= spec.band_nm[1])
         if h.assessed != covered or h.unit != spec.unit or tuple(h.band_nm) != tuple(spec.band_nm):
-            raise _refuse(f"hazard {symbol}: band, unit or assessed flag differ from the spectrum and "
-                          f"{limit_set.name}", path)
+            raise _refuse(
+                f"hazard {symbol}: band, unit or assessed flag differ from the spectrum and {limit_set.name}", path
+            )
         if not spec.grouped:
             continue
         expected = {}
@@ -134,21 +146,24 @@ def _check_against_set(a: Assessment, limit_set: LimitSet, path: str) -> None:
             expected[b] = coefficient
         bases = dict(zip(limit_set.boundaries, spec.time_bases_s, strict=True))
         fovs = dict(zip(limit_set.boundaries, spec.fov_rad, strict=True)) if spec.fov_rad else {}
-        if (any(not math.isclose(h.limits.get(b, math.nan), v, rel_tol=1e-9) for b, v in expected.items())
-                or h.time_bases_s != bases or h.fov_rad != fovs):
-            raise _refuse(f"hazard {symbol}: limits, time bases or fields of view differ from {limit_set.name}",
-                          path)
+        if (
+            any(not math.isclose(h.limits.get(b, math.nan), v, rel_tol=1e-9) for b, v in expected.items())
+            or h.time_bases_s != bases
+            or h.fov_rad != fovs
+        ):
+            raise _refuse(f"hazard {symbol}: limits, time bases or fields of view differ from {limit_set.name}", path)
 
 
-def _check_distance_and_cautions(a: Assessment, limit_set: LimitSet, groups: dict[str, str | None],
-                                 path: str) -> None:
+def _check_distance_and_cautions(a: Assessment, limit_set: LimitSet, groups: dict[str, str | None], path: str) -> None:
     """A standard result at the standard's distance; the cautions its groups call for present."""
     if a.basis == "standard":
         other = a.record.get("lamp_type", "other") != "gls"
         at_minimum = math.isclose(a.assessment_distance_mm, MIN_ASSESSMENT_DISTANCE_M * 1e3, rel_tol=1e-9)
         if (other and not at_minimum) or a.assessment_distance_mm < MIN_ASSESSMENT_DISTANCE_M * 1e3 * (1 - 1e-9):
-            raise _refuse(f"a standard result at {a.assessment_distance_mm:g} mm is not at the standard's "
-                          f"assessment distance", path)
+            raise _refuse(
+                f"a standard result at {a.assessment_distance_mm:g} mm is not at the standard's assessment distance",
+                path,
+            )
     needed = select_cautions(limit_set, groups, {}, a.complete, determined=a.risk_group is not None)
     if not a.cautions or a.cautions[0] != PRE_SCREEN or not set(needed) <= set(a.cautions):
         raise _refuse("its cautions are not the ones its groups call for", path)

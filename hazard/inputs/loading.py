@@ -50,9 +50,12 @@ def _check_anchorable(spectrum: Spectrum, origin: str) -> None:
     """A photometric anchor can only scale a spectrum that has visible light (V(λ) > 0 somewhere)."""
     visual = quadrature_weights(spectrum.wavelength_nm, VISIBLE_BAND_NM, load_table("v_photopic"))
     if not float(visual @ spectrum.value) > 0:
-        raise InputError(f"the relative spectrum {spectrum.path} has no light within V(λ)'s "
-                         f"{VISIBLE_BAND_NM[0]:g}-{VISIBLE_BAND_NM[1]:g} nm, so a photometric anchor cannot scale it",
-                         "give an absolute spectrum (irradiance or radiance) instead", origin)
+        raise InputError(
+            f"the relative spectrum {spectrum.path} has no light within V(λ)'s "
+            f"{VISIBLE_BAND_NM[0]:g}-{VISIBLE_BAND_NM[1]:g} nm, so a photometric anchor cannot scale it",
+            "give an absolute spectrum (irradiance or radiance) instead",
+            origin,
+        )
 
 
 def _check_overlaps_bands(spectrum: Spectrum, origin: str) -> None:
@@ -65,9 +68,12 @@ def _check_overlaps_bands(spectrum: Spectrum, origin: str) -> None:
     low, high = min(b[0] for b in bands), max(b[1] for b in bands)
     lo, hi = spectrum.range_nm
     if hi <= low or lo >= high:
-        raise InputError(f"the spectrum covers {lo:g}–{hi:g} nm, wholly outside {low:g}–{high:g} nm where every "
-                         f"hazard band lies: nothing could be assessed", "check that the wavelength column is in nm",
-                         origin)
+        raise InputError(
+            f"the spectrum covers {lo:g}–{hi:g} nm, wholly outside {low:g}–{high:g} nm where every "
+            f"hazard band lies: nothing could be assessed",
+            "check that the wavelength column is in nm",
+            origin,
+        )
 
 
 def spectrum_path(record: ProductRecord, base_dir: Path, origin: str, root: Path | None) -> Path:
@@ -82,25 +88,34 @@ def spectrum_path(record: ProductRecord, base_dir: Path, origin: str, root: Path
         No spectrum named, or (with ``root``) an absolute path or one that leads out of ``root``.
     """
     if not record.spectrum:
-        raise InputError("the record names no spectrum file", "add spectrum = \"FILE.csv\"", origin)
+        raise InputError("the record names no spectrum file", 'add spectrum = "FILE.csv"', origin)
     path = base_dir / record.spectrum
     if root is None:
         return path
-    fix = (f"keep the spectra in the folder of the record or manifest (or below it), or give "
-           f"{ALLOW_OUTSIDE_OPTION} if you trust where it points")
+    fix = (
+        f"keep the spectra in the folder of the record or manifest (or below it), or give "
+        f"{ALLOW_OUTSIDE_OPTION} if you trust where it points"
+    )
     if "\x00" in record.spectrum:
         raise InputError("the spectrum path contains a NUL byte", "remove the control character", origin)
     if Path(record.spectrum).is_absolute() or Path(record.spectrum).drive:
         raise InputError(f"spectrum path {excerpt(record.spectrum)} is absolute", fix, origin)
     top = os.path.realpath(root)
     if os.path.commonpath([top, os.path.realpath(path)]) != top:
-        raise InputError(f"spectrum path {excerpt(record.spectrum)} leads outside the folder {excerpt(root, 80)}",
-                         fix, origin)
+        raise InputError(
+            f"spectrum path {excerpt(record.spectrum)} leads outside the folder {excerpt(root, 80)}", fix, origin
+        )
     return path
 
 
-def product_from_record(record: ProductRecord, base_dir: Path, origin: str,
-                        record_inputs: dict[str, str] | None = None, *, root: Path | None = None) -> LoadedProduct:
+def product_from_record(
+    record: ProductRecord,
+    base_dir: Path,
+    origin: str,
+    record_inputs: dict[str, str] | None = None,
+    *,
+    root: Path | None = None,
+) -> LoadedProduct:
     """Read the spectrum a record names, relative to ``base_dir``.
 
     Parameters
@@ -121,8 +136,9 @@ def product_from_record(record: ProductRecord, base_dir: Path, origin: str,
     metadata["unit_used"] = unit.text
     metadata["file_metadata"] = file_metadata(metadata)
     warnings = (*raw.warnings, *unit_warnings, *metadata_warnings(record, metadata["file_metadata"], raw.path))
-    spectrum = validate_spectrum(raw.wavelength_nm, raw.value, raw.lines, raw.path, unit.factor_to_si,
-                                 record.quantity, warnings)
+    spectrum = validate_spectrum(
+        raw.wavelength_nm, raw.value, raw.lines, raw.path, unit.factor_to_si, record.quantity, warnings
+    )
     _check_overlaps_bands(spectrum, origin)
     if record.quantity == "relative":
         _check_anchorable(spectrum, origin)
@@ -156,10 +172,12 @@ def load_product(path: str | Path, overrides: dict | None = None, *, allow_outsi
         fields.update(overrides)
         record = record_from_fields(fields, path=str(path), text=text)
         digest = hashlib.sha256(raw).hexdigest()
-        return product_from_record(record, path.parent, str(path), {path.name: digest},
-                                   root=None if allow_outside else path.parent)
-    regular_file_size(path, what="file", display=str(path),
-                      fix_missing="give a RECORD.toml or a spectrum file that exists")
+        return product_from_record(
+            record, path.parent, str(path), {path.name: digest}, root=None if allow_outside else path.parent
+        )
+    regular_file_size(
+        path, what="file", display=str(path), fix_missing="give a RECORD.toml or a spectrum file that exists"
+    )
     fields = {"id": path.stem, **overrides, "spectrum": path.name}
     record = record_from_fields(fields, path="command line", option_names=True)
     return product_from_record(record, path.parent, str(path))

@@ -83,8 +83,12 @@ def _row_digest(fields: dict) -> str:
 def _check_columns(columns: list[str], path: str) -> None:
     known = set(ProductRecord.model_fields)
     if "id" not in columns:
-        raise InputError("the manifest has no 'id' column", "add a header row naming the record fields, with "
-                         "'id' and 'spectrum' among them", path, 1)
+        raise InputError(
+            "the manifest has no 'id' column",
+            "add a header row naming the record fields, with 'id' and 'spectrum' among them",
+            path,
+            1,
+        )
     seen = set()
     for column in columns:
         if column not in known:
@@ -114,14 +118,24 @@ def _table_rows(header: list, rows, path: Path) -> list[ManifestRow]:
     manifest, folder = path.name, path.parent
     result = []
     for number, cells in rows:
-        fields = {h: value for h, c in zip(header, cells, strict=False)
-                  if h and (value := _cell(c)) is not None and value != ""}
+        fields = {
+            h: value
+            for h, c in zip(header, cells, strict=False)
+            if h and (value := _cell(c)) is not None and value != ""
+        }
         if not fields:
             continue
         if len(result) >= MAX_MANIFEST_ROWS:
             raise InputError(f"more than {MAX_MANIFEST_ROWS:,} products", "split the manifest", str(path), number)
-        result.append(ManifestRow(origin=f"{path}:{number}", fields=fields, base_dir=folder, root=folder,
-                                  inputs={f"{manifest}:{fields.get('id', number)}": _row_digest(fields)}))
+        result.append(
+            ManifestRow(
+                origin=f"{path}:{number}",
+                fields=fields,
+                base_dir=folder,
+                root=folder,
+                inputs={f"{manifest}:{fields.get('id', number)}": _row_digest(fields)},
+            )
+        )
     return result
 
 
@@ -140,15 +154,23 @@ def _csv_lines(reader, path: Path):
         except StopIteration:
             return
         except csv.Error as exc:
-            raise InputError(f"not a readable CSV row ({excerpt(exc, 80)})", "save the manifest again as CSV; "
-                             f"keep cells under {MAX_FIELD_CHARS // 1024} KiB", str(path), reader.line_num) from None
+            raise InputError(
+                f"not a readable CSV row ({excerpt(exc, 80)})",
+                f"save the manifest again as CSV; keep cells under {MAX_FIELD_CHARS // 1024} KiB",
+                str(path),
+                reader.line_num,
+            ) from None
         yield reader.line_num, cells
 
 
 def _read_csv(path: Path) -> list[ManifestRow]:
-    raw = read_user_file(path, what="manifest", max_bytes=MAX_MANIFEST_BYTES,
-                         fix_missing="give a CSV or .xlsx manifest, or a folder of TOML records",
-                         fix_large="split the manifest")
+    raw = read_user_file(
+        path,
+        what="manifest",
+        max_bytes=MAX_MANIFEST_BYTES,
+        fix_missing="give a CSV or .xlsx manifest, or a folder of TOML records",
+        fix_large="split the manifest",
+    )
     text = _decode(raw)
     if b"\x00" in raw[:4096]:
         raise InputError("this is a binary file, not a CSV manifest", "give a CSV or .xlsx manifest", str(path))
@@ -168,12 +190,21 @@ def _read_csv(path: Path) -> list[ManifestRow]:
 
 def _read_xlsx(path: Path) -> list[ManifestRow]:
     limits = current_limits()
-    raw = read_user_file(path, what="manifest", max_bytes=limits.max_bytes,
-                         fix_missing="give a CSV or .xlsx manifest, or a folder of TOML records",
-                         fix_large="split the manifest, or save it as CSV")
-    rows = workbook_rows(raw, str(path), max_rows=limits.max_workbook_rows + 1,
-                         max_columns=limits.max_workbook_columns,
-                         max_unpacked_bytes=limits.max_workbook_unpacked_bytes, what="manifest")
+    raw = read_user_file(
+        path,
+        what="manifest",
+        max_bytes=limits.max_bytes,
+        fix_missing="give a CSV or .xlsx manifest, or a folder of TOML records",
+        fix_large="split the manifest, or save it as CSV",
+    )
+    rows = workbook_rows(
+        raw,
+        str(path),
+        max_rows=limits.max_workbook_rows + 1,
+        max_columns=limits.max_workbook_columns,
+        max_unpacked_bytes=limits.max_workbook_unpacked_bytes,
+        what="manifest",
+    )
     if not rows:
         raise InputError("the workbook's first sheet is empty", "put the header row in row 1", str(path))
     return _table_rows(rows[0][1], rows[1:], path)
@@ -192,8 +223,7 @@ def _read_folder(folder: Path) -> list[ManifestRow]:
         if len(result) > MAX_MANIFEST_ROWS:
             raise InputError(f"more than {MAX_MANIFEST_ROWS:,} records", "split the folder", str(folder))
     if not result:
-        raise InputError("no *.toml records in this folder", "give a manifest file or a folder of records",
-                         str(folder))
+        raise InputError("no *.toml records in this folder", "give a manifest file or a folder of records", str(folder))
     return result
 
 
@@ -220,7 +250,10 @@ def read_manifest(path: str | Path) -> list[ManifestRow]:
             continue
         product_id = str(row.fields["id"])
         if product_id in seen:
-            raise InputError(f"duplicate id {excerpt(product_id)} (also at {seen[product_id]})",
-                             "give every product its own id", row.origin)
+            raise InputError(
+                f"duplicate id {excerpt(product_id)} (also at {seen[product_id]})",
+                "give every product its own id",
+                row.origin,
+            )
         seen[product_id] = row.origin
     return rows

@@ -95,6 +95,8 @@ class SourceSize:
     def largest_dimension_mm(self) -> float:
         """Largest linear dimension [mm]."""
         return max(self.width_mm, self.height_mm or 0.0)
+
+
 RELATIVE_UNITS = ("relative", "rel", "a.u.", "au", "arb", "1", "counts")
 """Units accepted for a relative spectrum (they all mean: no physical unit)."""
 ANCHORS = ("illuminance_lx", "luminous_intensity_cd", "luminance_cd_m2")
@@ -122,8 +124,10 @@ MAGNITUDE_BOUNDS: dict[str, tuple[float, float, str, str, str]] = {
     "peak_to_mean_radiance": (1.0, 1e4, "", "peak-to-mean ratio", "beyond any LED array or hot spot"),
     "claimed_cct_k": (100.0, 1e6, "K", "colour temperature", "outside any light source's"),
     "claimed_illuminance_lx": (1e-6, 1e9, "lx", "illuminance", "beyond any lamp"),
-    **{claim_field(symbol): (1e-6, 1e12, "s", "exposure time", "from a microsecond to 30 000 years")
-       for symbol in CLAIMABLE},
+    **{
+        claim_field(symbol): (1e-6, 1e12, "s", "exposure time", "from a microsecond to 30 000 years")
+        for symbol in CLAIMABLE
+    },
 }
 """Range of each physical field [its unit]: lowest, highest, unit, what it is, why the bound."""
 
@@ -137,52 +141,85 @@ class ProductRecord(BaseModel):
     name: str | None = Field(None, max_length=1000, description="Human-readable product name.")
     vendor: str | None = Field(None, max_length=1000, description="Who makes or sells the product.")
     model: str | None = Field(None, max_length=1000, description="The vendor's model designation.")
-    spectrum: str | None = Field(None, max_length=4096, description="Spectrum file, relative to the record "
-                                                                     "file's folder.")
+    spectrum: str | None = Field(
+        None, max_length=4096, description="Spectrum file, relative to the record file's folder."
+    )
     quantity: Literal["irradiance", "radiance", "relative"] = Field(
-        "irradiance", description="What the spectrum holds: spectral irradiance, spectral radiance, or a "
-                                  "relative spectrum scaled by a photometric anchor.")
-    unit: str | None = Field(None, max_length=200, description="Unit of the spectral values, e.g. W/m2/nm, mW/m2/nm, "
-                                               "uW/cm2/nm, W/m2/sr/nm. Default by quantity.")
-    column: StrictStr | StrictInt | None = Field(None, description="Value column to use when the file has several "
-                                                       "(header name or 1-based index).")
-    distance_mm: float | None = Field(None, gt=0, description="Distance at which the spectrum was measured "
-                                                              "[mm]; required for irradiance.")
+        "irradiance",
+        description="What the spectrum holds: spectral irradiance, spectral radiance, or a "
+        "relative spectrum scaled by a photometric anchor.",
+    )
+    unit: str | None = Field(
+        None,
+        max_length=200,
+        description="Unit of the spectral values, e.g. W/m2/nm, mW/m2/nm, uW/cm2/nm, W/m2/sr/nm. Default by quantity.",
+    )
+    column: StrictStr | StrictInt | None = Field(
+        None, description="Value column to use when the file has several (header name or 1-based index)."
+    )
+    distance_mm: float | None = Field(
+        None, gt=0, description="Distance at which the spectrum was measured [mm]; required for irradiance."
+    )
     source_diameter_mm: float | None = Field(None, gt=0, description="Diameter of a round source [mm].")
     source_width_mm: float | None = Field(None, gt=0, description="Width of a rectangular source [mm].")
     source_height_mm: float | None = Field(None, gt=0, description="Height of a rectangular source [mm].")
-    source_alpha_mrad: float | None = Field(None, gt=0, description="Angular subtense of the source at "
-                                                                    "distance_mm [mrad].")
+    source_alpha_mrad: float | None = Field(
+        None, gt=0, description="Angular subtense of the source at distance_mm [mrad]."
+    )
     lamp_type: Literal["gls", "other"] = Field(
-        "other", description="'gls': general lighting service, assessed where it gives 500 lx (not nearer "
-                             "than 200 mm); 'other': assessed at 200 mm.")
-    no_emission_outside: bool = Field(False, description="Within the hazard bands (200-3000 nm) the source "
-                                                         "emits nothing outside the measured range; gaps in "
-                                                         "a band count as zero.")
-    measurement_fov_mrad: float | None = Field(None, gt=0, description="Field of view of a radiance "
-                                                                       "measurement [mrad].")
-    illuminance_lx: float | None = Field(None, gt=0, description="Anchor of a relative spectrum: illuminance "
-                                                                 "at distance_mm [lx].")
-    luminous_intensity_cd: float | None = Field(None, gt=0, description="Anchor of a relative spectrum: "
-                                                                        "luminous intensity [cd]; illuminance "
-                                                                        "follows by the inverse-square law.")
-    luminance_cd_m2: float | None = Field(None, gt=0, description="Anchor of a relative spectrum: luminance "
-                                                                  "[cd/m2]; the spectrum is then a radiance.")
-    uncertainty_pct: float | None = Field(None, ge=0, lt=100, description="Expanded uncertainty (k = 2) of the "
-                                                                         "spectral values [%].")
-    wavelength_uncertainty_nm: float | None = Field(None, ge=0, le=20, description="Uncertainty of the "
-                                                                                   "wavelength scale [nm].")
-    peak_to_mean_radiance: float = Field(1.0, ge=1, description="Peak-to-mean radiance of the source (LED "
-                                                                "arrays, hot spots); multiplies the radiance "
-                                                                "seen by fields of view smaller than the source.")
-    at_distance_mm: float | None = Field(None, gt=0, description="Assess at this distance instead of the "
-                                                                 "standard's (a what-if study: the group is "
-                                                                 "then not the standard's classification) [mm].")
+        "other",
+        description="'gls': general lighting service, assessed where it gives 500 lx (not nearer "
+        "than 200 mm); 'other': assessed at 200 mm.",
+    )
+    no_emission_outside: bool = Field(
+        False,
+        description="Within the hazard bands (200-3000 nm) the source "
+        "emits nothing outside the measured range; gaps in "
+        "a band count as zero.",
+    )
+    measurement_fov_mrad: float | None = Field(
+        None, gt=0, description="Field of view of a radiance measurement [mrad]."
+    )
+    illuminance_lx: float | None = Field(
+        None, gt=0, description="Anchor of a relative spectrum: illuminance at distance_mm [lx]."
+    )
+    luminous_intensity_cd: float | None = Field(
+        None,
+        gt=0,
+        description="Anchor of a relative spectrum: "
+        "luminous intensity [cd]; illuminance "
+        "follows by the inverse-square law.",
+    )
+    luminance_cd_m2: float | None = Field(
+        None, gt=0, description="Anchor of a relative spectrum: luminance [cd/m2]; the spectrum is then a radiance."
+    )
+    uncertainty_pct: float | None = Field(
+        None, ge=0, lt=100, description="Expanded uncertainty (k = 2) of the spectral values [%]."
+    )
+    wavelength_uncertainty_nm: float | None = Field(
+        None, ge=0, le=20, description="Uncertainty of the wavelength scale [nm]."
+    )
+    peak_to_mean_radiance: float = Field(
+        1.0,
+        ge=1,
+        description="Peak-to-mean radiance of the source (LED "
+        "arrays, hot spots); multiplies the radiance "
+        "seen by fields of view smaller than the source.",
+    )
+    at_distance_mm: float | None = Field(
+        None,
+        gt=0,
+        description="Assess at this distance instead of the "
+        "standard's (a what-if study: the group is "
+        "then not the standard's classification) [mm].",
+    )
     claimed_risk_group: Literal[GROUPS] | None = Field(  # type: ignore[valid-type]
-        None, description="The vendor's claimed overall risk group.")
+        None, description="The vendor's claimed overall risk group."
+    )
     claimed_cct_k: float | None = Field(None, gt=0, description="The vendor's claimed CCT [K].")
-    claimed_illuminance_lx: float | None = Field(None, gt=0, description="The vendor's claimed illuminance at "
-                                                                         "distance_mm [lx].")
+    claimed_illuminance_lx: float | None = Field(
+        None, gt=0, description="The vendor's claimed illuminance at distance_mm [lx]."
+    )
     # One claimed t_max field per claimable hazard of the limit sets, generated from them (never hand-written):
     for _symbol in CLAIMABLE:
         __annotations__[claim_field(_symbol)] = "float | None"
@@ -196,16 +233,20 @@ class ProductRecord(BaseModel):
             return value
         low, high, unit, what, why = MAGNITUDE_BOUNDS[info.field_name]
         if not low <= value <= high:
-            raise ValueError(f"{value:g}{' ' + unit if unit else ''} is not a usable {what}: give {low:g} to "
-                             f"{high:g}{' ' + unit if unit else ''} ({why})")
+            raise ValueError(
+                f"{value:g}{' ' + unit if unit else ''} is not a usable {what}: give {low:g} to "
+                f"{high:g}{' ' + unit if unit else ''} ({why})"
+            )
         return value
 
     @field_validator("id")
     @classmethod
     def _printable_id(cls, product_id: str) -> str:
         if not product_id.isprintable():
-            raise ValueError(f"the id {excerpt(product_id)} holds a control character (a line break, tab or "
-                             f"similar): give a printable id")
+            raise ValueError(
+                f"the id {excerpt(product_id)} holds a control character (a line break, tab or "
+                f"similar): give a printable id"
+            )
         return product_id
 
     @field_validator("column")
@@ -217,12 +258,15 @@ class ProductRecord(BaseModel):
                 raise ValueError("a column name of more than 1000 characters: give the header's name or a number")
             if column.isdigit():  # "12", but also "²" or "١": only plain decimal digits make a number
                 if not (column.isascii() and len(column) <= 7):
-                    raise ValueError(f"column {excerpt(column)} is not a column number: give a number from 1 "
-                                     f"written with the digits 0-9, or a header name")
+                    raise ValueError(
+                        f"column {excerpt(column)} is not a column number: give a number from 1 "
+                        f"written with the digits 0-9, or a header name"
+                    )
                 number = int(column)
         if number is not None and not 1 <= number <= MAX_COLUMN_NUMBER:
-            raise ValueError(f"column {number} does not exist: value columns count from 1 (the first column "
-                             f"after the wavelength)")
+            raise ValueError(
+                f"column {number} does not exist: value columns count from 1 (the first column after the wavelength)"
+            )
         return column
 
     @field_validator("unit")
@@ -239,14 +283,21 @@ class ProductRecord(BaseModel):
     @model_validator(mode="after")
     def _consistent(self) -> ProductRecord:
         rect = (self.source_width_mm, self.source_height_mm)
-        forms = [self.source_diameter_mm is not None, any(v is not None for v in rect),
-                 self.source_alpha_mrad is not None]
+        forms = [
+            self.source_diameter_mm is not None,
+            any(v is not None for v in rect),
+            self.source_alpha_mrad is not None,
+        ]
         if sum(forms) == 0:
-            raise ValueError("missing source size: give source_diameter_mm, or source_width_mm and "
-                             "source_height_mm, or source_alpha_mrad")
+            raise ValueError(
+                "missing source size: give source_diameter_mm, or source_width_mm and "
+                "source_height_mm, or source_alpha_mrad"
+            )
         if sum(forms) > 1:
-            raise ValueError("give exactly one source size: source_diameter_mm, or source_width_mm + "
-                             "source_height_mm, or source_alpha_mrad")
+            raise ValueError(
+                "give exactly one source size: source_diameter_mm, or source_width_mm + "
+                "source_height_mm, or source_alpha_mrad"
+            )
         if any(v is not None for v in rect) and None in rect:
             raise ValueError("source_width_mm and source_height_mm go together: give both")
         if self.quantity == "irradiance" and self.distance_mm is None:
@@ -256,30 +307,38 @@ class ProductRecord(BaseModel):
         anchors = [a for a in ANCHORS if getattr(self, a) is not None]
         if self.quantity == "relative":
             if self.unit is not None and self.unit.strip().lower() not in RELATIVE_UNITS:
-                raise ValueError(f"a relative spectrum has no physical unit (got {self.unit!r}): leave unit out "
-                                 f"or write \"relative\"")
+                raise ValueError(
+                    f'a relative spectrum has no physical unit (got {self.unit!r}): leave unit out or write "relative"'
+                )
             if len(anchors) != 1:
-                raise ValueError("a relative spectrum needs exactly one anchor: illuminance_lx (with "
-                                 "distance_mm), luminous_intensity_cd, or luminance_cd_m2")
+                raise ValueError(
+                    "a relative spectrum needs exactly one anchor: illuminance_lx (with "
+                    "distance_mm), luminous_intensity_cd, or luminance_cd_m2"
+                )
             if anchors == ["illuminance_lx"] and self.distance_mm is None:
                 raise ValueError("illuminance_lx needs distance_mm, the distance at which it was measured")
             return self
         if anchors:
-            raise ValueError(f"{anchors[0]} scales a relative spectrum: set quantity = \"relative\" or remove it")
+            raise ValueError(f'{anchors[0]} scales a relative spectrum: set quantity = "relative" or remove it')
         try:
             unit = parse_spectral_unit(self.unit_text)
         except ValueError as exc:
             raise ValueError(str(exc)) from None
         if unit.per_steradian != (self.quantity == "radiance"):
-            raise ValueError(f"unit {self.unit_text!r} does not fit quantity {self.quantity!r}: radiance units "
-                             f"have /sr, irradiance units do not")
+            raise ValueError(
+                f"unit {self.unit_text!r} does not fit quantity {self.quantity!r}: radiance units "
+                f"have /sr, irradiance units do not"
+            )
         return self
 
     @property
     def unit_text(self) -> str:
         """The unit as given, or the default for the quantity (relative spectra keep their own scale)."""
-        return _DEFAULT_UNIT[self.effective_quantity] if self.quantity == "relative" else (
-            self.unit or _DEFAULT_UNIT[self.quantity])
+        return (
+            _DEFAULT_UNIT[self.effective_quantity]
+            if self.quantity == "relative"
+            else (self.unit or _DEFAULT_UNIT[self.quantity])
+        )
 
     @property
     def effective_quantity(self) -> Literal["irradiance", "radiance"]:
@@ -344,16 +403,23 @@ def _as_input_error(exc: ValidationError, path: str, text: str | None, option_na
     key = str(error["loc"][0]) if error["loc"] else None
     message = error["msg"].removeprefix("Value error, ")
     if key is None and text:  # a rule across fields: point at the first field it names that the file sets
-        named = sorted((message.find(f), f) for f in ProductRecord.model_fields
-                       if re.search(rf"\b{f}\b", message) and _line_of(text, f) is not None)
+        named = sorted(
+            (message.find(f), f)
+            for f in ProductRecord.model_fields
+            if re.search(rf"\b{f}\b", message) and _line_of(text, f) is not None
+        )
         key_for_line = named[0][1] if named else None
     else:
         key_for_line = key
     line = _line_of(text, key_for_line) if (text and key_for_line) else None
     if option_names:
-        message = re.sub(r"\b(" + "|".join(sorted((f for f in ProductRecord.model_fields if "_" in f), key=len,
-                                                   reverse=True)) + r")\b",
-                         lambda m: "--" + m.group(1).replace("_", "-"), message)
+        message = re.sub(
+            r"\b("
+            + "|".join(sorted((f for f in ProductRecord.model_fields if "_" in f), key=len, reverse=True))
+            + r")\b",
+            lambda m: "--" + m.group(1).replace("_", "-"),
+            message,
+        )
     label = f"--{key.replace('_', '-')}" if (option_names and key) else key
     if error["type"] == "extra_forbidden":
         close = difflib.get_close_matches(key, ProductRecord.model_fields, n=1)
@@ -366,8 +432,9 @@ def _as_input_error(exc: ValidationError, path: str, text: str | None, option_na
     return InputError(message, "correct the record (see 'hazard schema record')", path, line)
 
 
-def record_from_fields(fields: dict, *, path: str, text: str | None = None,
-                       option_names: bool = False) -> ProductRecord:
+def record_from_fields(
+    fields: dict, *, path: str, text: str | None = None, option_names: bool = False
+) -> ProductRecord:
     """Validate a dict of record fields (from TOML, a CSV row or CLI options).
 
     Parameters
@@ -399,8 +466,13 @@ def read_record_file(path: str | Path) -> tuple[dict, str, bytes]:
     InputError
         Not a regular file, too large, not UTF-8, or not valid TOML.
     """
-    raw = read_user_file(path, what="record", max_bytes=MAX_RECORD_BYTES, fix_missing="check the path",
-                         fix_large="a record is a few lines of 'field = value'")
+    raw = read_user_file(
+        path,
+        what="record",
+        max_bytes=MAX_RECORD_BYTES,
+        fix_missing="check the path",
+        fix_large="a record is a few lines of 'field = value'",
+    )
     try:
         text = raw.decode("utf-8-sig")
     except UnicodeDecodeError:

@@ -27,14 +27,16 @@ PEAK_RANGE_SI = {"irradiance": (0.0, 1e12), "radiance": (0.0, 1e12), "relative":
 """Range of a spectrum's peak value in SI units (above the first, up to the second); beyond it the file's unit
 is wrong or the numbers are not a measurement, and the method's products would leave the floating-point range
 (common practice, no published source) [W m⁻² nm⁻¹, W m⁻² sr⁻¹ nm⁻¹, or 1 for a relative spectrum]."""
-VALUE_RULES = ("a value is not finite (NaN or infinity)", "no positive value",
-               f"negative beyond dark noise (more than {NEGATIVE_TOLERANCE:.0%} of the peak)",
-               "the peak is not a plausible measurement in its unit")
+VALUE_RULES = (
+    "a value is not finite (NaN or infinity)",
+    "no positive value",
+    f"negative beyond dark noise (more than {NEGATIVE_TOLERANCE:.0%} of the peak)",
+    "the peak is not a plausible measurement in its unit",
+)
 """The value rules of method §5, in the order they are checked (codes 0, 1, 2, 3 of :func:`value_rule_broken`)."""
 
 
-def value_rule_broken(peak: np.ndarray, lowest: np.ndarray, peak_si: np.ndarray, quantity: np.ndarray
-                      ) -> np.ndarray:
+def value_rule_broken(peak: np.ndarray, lowest: np.ndarray, peak_si: np.ndarray, quantity: np.ndarray) -> np.ndarray:
     """The first value rule (:data:`VALUE_RULES`) each spectrum breaks, from its extreme samples; −1 where none.
 
     The one implementation of the rules, for one spectrum read from a file (:func:`validate_spectrum`) and for
@@ -96,8 +98,15 @@ class Spectrum:
         return float(self.wavelength_nm[0]), float(self.wavelength_nm[-1])
 
 
-def validate_spectrum(wavelength_nm: np.ndarray, value: np.ndarray, lines: np.ndarray, path: str,
-                      factor_to_si: float, quantity: str, warnings: tuple[str, ...] = ()) -> Spectrum:
+def validate_spectrum(
+    wavelength_nm: np.ndarray,
+    value: np.ndarray,
+    lines: np.ndarray,
+    path: str,
+    factor_to_si: float,
+    quantity: str,
+    warnings: tuple[str, ...] = (),
+) -> Spectrum:
     """Apply the validation rules of method §5 and convert to SI.
 
     Parameters
@@ -141,19 +150,35 @@ def validate_spectrum(wavelength_nm: np.ndarray, value: np.ndarray, lines: np.nd
     for column, name in ((wl, "wavelength"), (val, "value")):
         bad = np.flatnonzero(~np.isfinite(column))
         if bad.size:
-            raise InputError(f"{name} is not a finite number (NaN or infinity)",
-                             "replace it with a measured value or remove the row", path, int(lines[bad[0]]))
+            raise InputError(
+                f"{name} is not a finite number (NaN or infinity)",
+                "replace it with a measured value or remove the row",
+                path,
+                int(lines[bad[0]]),
+            )
     if wl.max() < _UM_LOOKING_MAX_NM:
-        raise InputError(f"wavelengths run from {wl.min():g} to {wl.max():g}: this looks like µm, not nm",
-                         "multiply the wavelength column by 1000 so it is in nm", path, int(lines[0]))
+        raise InputError(
+            f"wavelengths run from {wl.min():g} to {wl.max():g}: this looks like µm, not nm",
+            "multiply the wavelength column by 1000 so it is in nm",
+            path,
+            int(lines[0]),
+        )
     beyond = np.flatnonzero(wl > MAX_WAVELENGTH_NM)
     if beyond.size:
-        raise InputError(f"wavelength {wl[beyond[0]]:g} nm is beyond {MAX_WAVELENGTH_NM:g} nm (1 mm): not an "
-                         f"optical spectrum", "give wavelengths in nm", path, int(lines[beyond[0]]))
+        raise InputError(
+            f"wavelength {wl[beyond[0]]:g} nm is beyond {MAX_WAVELENGTH_NM:g} nm (1 mm): not an optical spectrum",
+            "give wavelengths in nm",
+            path,
+            int(lines[beyond[0]]),
+        )
     nonpositive = np.flatnonzero(wl <= 0)
     if nonpositive.size:
-        raise InputError(f"wavelength {wl[nonpositive[0]]:g} nm is not positive",
-                         "wavelengths are in nm and must be above zero", path, int(lines[nonpositive[0]]))
+        raise InputError(
+            f"wavelength {wl[nonpositive[0]]:g} nm is not positive",
+            "wavelengths are in nm and must be above zero",
+            path,
+            int(lines[nonpositive[0]]),
+        )
     steps = np.diff(wl)
     if np.all(steps < 0):
         wl, val, lines = wl[::-1], val[::-1], lines[::-1]
@@ -162,13 +187,21 @@ def validate_spectrum(wavelength_nm: np.ndarray, value: np.ndarray, lines: np.nd
     duplicate = np.flatnonzero(steps == 0)
     if duplicate.size:
         i = duplicate[0]
-        raise InputError(f"duplicate wavelength {wl[i]:g} nm (also on line {int(lines[i])})",
-                         "remove or average one of the two rows", path, int(lines[i + 1]))
+        raise InputError(
+            f"duplicate wavelength {wl[i]:g} nm (also on line {int(lines[i])})",
+            "remove or average one of the two rows",
+            path,
+            int(lines[i + 1]),
+        )
     backwards = np.flatnonzero(steps < 0)
     if backwards.size:
         i = backwards[0] + 1
-        raise InputError(f"wavelength {wl[i]:g} nm breaks the order (previous row {wl[i - 1]:g} nm)",
-                         "sort the rows by wavelength", path, int(lines[i]))
+        raise InputError(
+            f"wavelength {wl[i]:g} nm breaks the order (previous row {wl[i - 1]:g} nm)",
+            "sort the rows by wavelength",
+            path,
+            int(lines[i]),
+        )
     peak = float(val.max())
     lowest = int(np.argmin(val))
     with np.errstate(over="ignore"):
@@ -177,18 +210,28 @@ def validate_spectrum(wavelength_nm: np.ndarray, value: np.ndarray, lines: np.nd
     if broken == 1:
         raise InputError("no positive value in the spectrum", "check the value column and its unit", path)
     if broken == 2:
-        raise InputError(f"value {val[lowest]:g} at {wl[lowest]:g} nm is negative beyond dark noise "
-                         f"(more than {NEGATIVE_TOLERANCE:.0%} of the peak {peak:g})",
-                         "subtract the dark reading correctly or re-measure", path, int(lines[lowest]))
+        raise InputError(
+            f"value {val[lowest]:g} at {wl[lowest]:g} nm is negative beyond dark noise "
+            f"(more than {NEGATIVE_TOLERANCE:.0%} of the peak {peak:g})",
+            "subtract the dark reading correctly or re-measure",
+            path,
+            int(lines[lowest]),
+        )
     if broken == 3:
         low, high = PEAK_RANGE_SI.get(quantity, PEAK_RANGE_SI["relative"])
-        raise InputError(f"peak value {peak:g} ({peak_si:g} in SI units) is outside {low:g} to {high:g}: not a "
-                         f"plausible measurement", "check the value column and its unit", path,
-                         int(lines[int(np.argmax(val))]))
+        raise InputError(
+            f"peak value {peak:g} ({peak_si:g} in SI units) is outside {low:g} to {high:g}: not a "
+            f"plausible measurement",
+            "check the value column and its unit",
+            path,
+            int(lines[int(np.argmax(val))]),
+        )
     negatives = val < 0
     if negatives.any():
-        warnings.append(f"{path}: {int(negatives.sum())} small negative value(s) (down to {val[lowest]:g}, "
-                        f"within {NEGATIVE_TOLERANCE:.0%} of the peak) set to zero as dark noise")
+        warnings.append(
+            f"{path}: {int(negatives.sum())} small negative value(s) (down to {val[lowest]:g}, "
+            f"within {NEGATIVE_TOLERANCE:.0%} of the peak) set to zero as dark noise"
+        )
         val = np.where(negatives, 0.0, val)
     wl = wl.copy()
     si = val * factor_to_si

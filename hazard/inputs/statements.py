@@ -51,8 +51,9 @@ def _declared(text: str) -> HeaderStatement:
 
 def _items(metadata: dict) -> list[tuple[str, str, str]]:
     """(key, value, where) of the metadata lines and of the comments written as ``key: value``."""
-    items = [(str(k), str(v).strip(), f"metadata line {str(k)[:40]!r}")
-             for k, v in metadata.get("metadata", {}).items()]
+    items = [
+        (str(k), str(v).strip(), f"metadata line {str(k)[:40]!r}") for k, v in metadata.get("metadata", {}).items()
+    ]
     for comment in metadata.get("comments", []):
         match = _COMMENT_ITEM.match(str(comment))
         if match:
@@ -75,8 +76,9 @@ def _statements(raw: RawSpectrum, metadata: dict) -> list[tuple[HeaderStatement,
     return found
 
 
-def resolve_unit(record: ProductRecord, raw: RawSpectrum, metadata: dict, origin: str
-                 ) -> tuple[SpectralUnit, list[str]]:
+def resolve_unit(
+    record: ProductRecord, raw: RawSpectrum, metadata: dict, origin: str
+) -> tuple[SpectralUnit, list[str]]:
     """The unit of the values, and warnings: the record's, checked against every statement of the file.
 
     A relative spectrum keeps its own scale (factor 1); its anchor sets the level.
@@ -94,30 +96,46 @@ def resolve_unit(record: ProductRecord, raw: RawSpectrum, metadata: dict, origin
     for statement, line, where in _statements(raw, metadata):
         if statement.problem is not None:
             if record.unit is None:
-                raise InputError(f"the {where} says {statement.problem}; units are never guessed",
-                                 "if the values are calibrated, state the unit in the record (e.g. unit = "
-                                 "\"W/m2/nm\"); otherwise export calibrated spectral values", raw.path, line)
-            warnings.append(f"{raw.path}: the {where} says {statement.problem}; the values are taken in "
-                            f"{record.unit!r} as the record states")
+                raise InputError(
+                    f"the {where} says {statement.problem}; units are never guessed",
+                    "if the values are calibrated, state the unit in the record (e.g. unit = "
+                    '"W/m2/nm"); otherwise export calibrated spectral values',
+                    raw.path,
+                    line,
+                )
+            warnings.append(
+                f"{raw.path}: the {where} says {statement.problem}; the values are taken in "
+                f"{record.unit!r} as the record states"
+            )
             continue
         if statement.unit is not None:
             units.append((parse_spectral_unit(statement.unit), statement.unit, line, where))
     for (first, text, _, where), (other, other_text, line, other_where) in pairwise(units):
         if not _same(first, other):
-            raise InputError(f"the {where} says {text!r} but the {other_where} says {other_text!r}",
-                             "correct the file so it states one unit", raw.path, line)
+            raise InputError(
+                f"the {where} says {text!r} but the {other_where} says {other_text!r}",
+                "correct the file so it states one unit",
+                raw.path,
+                line,
+            )
     if not units:
         return parse_spectral_unit(record.unit_text), warnings
     stated, text, line, where = units[0]
     if record.unit is None:
         if stated.per_steradian != (record.quantity == "radiance"):
-            raise InputError(f"the file's {where} gives {text!r}, which does not fit quantity "
-                             f"{record.quantity!r}", "set quantity (and unit) to match the file", origin)
+            raise InputError(
+                f"the file's {where} gives {text!r}, which does not fit quantity {record.quantity!r}",
+                "set quantity (and unit) to match the file",
+                origin,
+            )
         return stated, warnings
     given = parse_spectral_unit(record.unit)
     if not _same(given, stated):
-        raise InputError(f"the record says unit {record.unit!r} but the file's {where} says {text!r}",
-                         "correct the record's unit, or remove it to use the file's", origin)
+        raise InputError(
+            f"the record says unit {record.unit!r} but the file's {where} says {text!r}",
+            "correct the record's unit, or remove it to use the file's",
+            origin,
+        )
     return given, warnings
 
 
@@ -131,6 +149,7 @@ def file_metadata(metadata: dict) -> dict[str, str]:
     The first :data:`MAX_METADATA_ITEMS`, each key and value cut to :data:`MAX_METADATA_TEXT` characters of printable
     text.
     """
+
     def clean(text: object) -> str:
         printable = "".join(c if c.isprintable() else " " for c in str(text))
         return printable[:MAX_METADATA_TEXT].strip()
@@ -148,7 +167,9 @@ def metadata_warnings(record: ProductRecord, kept: dict[str, str], path: str) ->
             continue
         stated_mm = float(match.group(1).replace(",", ".")) * _TO_MM[match.group(2)]
         if not math.isclose(stated_mm, record.distance_mm, rel_tol=DISTANCE_TOLERANCE):
-            warnings.append(f"{path}: the file's metadata line '{key}: {value}' states {stated_mm:g} mm but the "
-                            f"record's distance_mm is {record.distance_mm:g} mm; the record's value is used, "
-                            f"check which is right")
+            warnings.append(
+                f"{path}: the file's metadata line '{key}: {value}' states {stated_mm:g} mm but the "
+                f"record's distance_mm is {record.distance_mm:g} mm; the record's value is used, "
+                f"check which is right"
+            )
     return warnings

@@ -43,8 +43,7 @@ class SpectralUnit:
 
 
 def _normalise(text: str) -> str:
-    table = str.maketrans({"µ": "u", "μ": "u", "²": "2", "⁻": "-", "¹": "1", "·": " ", "⋅": " ",
-                           "*": " ", "×": " "})
+    table = str.maketrans({"µ": "u", "μ": "u", "²": "2", "⁻": "-", "¹": "1", "·": " ", "⋅": " ", "*": " ", "×": " "})
     return text.translate(table).strip()
 
 
@@ -95,12 +94,21 @@ def parse_spectral_unit(text: str) -> SpectralUnit:
     length = [b for b in exponents if b in _LENGTH]
     spectral = [b for b in exponents if b in _SPECTRAL]
     known = set(power) | set(length) | set(spectral) | {"sr"}
-    ok = (len(power) == 1 and exponents[power[0]] == 1 and len(length) == 1 and exponents[length[0]] == -2
-          and len(spectral) == 1 and exponents[spectral[0]] == -1 and exponents.get("sr", -1) == -1
-          and set(exponents) <= known)
+    ok = (
+        len(power) == 1
+        and exponents[power[0]] == 1
+        and len(length) == 1
+        and exponents[length[0]] == -2
+        and len(spectral) == 1
+        and exponents[spectral[0]] == -1
+        and exponents.get("sr", -1) == -1
+        and set(exponents) <= known
+    )
     if not ok:
-        raise ValueError(f"unknown unit {text!r}: expected power per area per wavelength, "
-                         f"e.g. W/m2/nm, mW/m2/nm, uW/cm2/nm, W/cm2/nm or the /sr forms")
+        raise ValueError(
+            f"unknown unit {text!r}: expected power per area per wavelength, "
+            f"e.g. W/m2/nm, mW/m2/nm, uW/cm2/nm, W/cm2/nm or the /sr forms"
+        )
     factor = 10.0 ** (_POWER_PREFIX[power[0][:-1]] - 2 * _LENGTH[length[0]] + _SPECTRAL[spectral[0]])
     per_sr = "sr" in exponents
     return SpectralUnit(text=text, factor_to_si=factor, per_steradian=per_sr)

@@ -21,35 +21,41 @@ __all__ = ["DEFAULT_MAX_BYTES", "read_user_file", "regular_file_size"]
 DEFAULT_MAX_BYTES = 50 * 1024 * 1024
 """Largest input file read by default [bytes] (``HAZARD_MAX_FILE_MB`` changes it for spectra)."""
 
-_KINDS = ((stat.S_ISDIR, "a folder"), (stat.S_ISFIFO, "a named pipe (FIFO)"), (stat.S_ISCHR, "a device"),
-          (stat.S_ISBLK, "a device"), (stat.S_ISSOCK, "a socket"))
+_KINDS = (
+    (stat.S_ISDIR, "a folder"),
+    (stat.S_ISFIFO, "a named pipe (FIFO)"),
+    (stat.S_ISCHR, "a device"),
+    (stat.S_ISBLK, "a device"),
+    (stat.S_ISSOCK, "a socket"),
+)
 
 
 def _open_error(exc: OSError, what: str, display: str, fix_missing: str) -> InputError:
     if exc.errno in (errno.ENOENT, errno.ENOTDIR):
         return InputError(f"{what} not found", fix_missing, display)
     if exc.errno == errno.ENAMETOOLONG:
-        return InputError(f"the {what}'s path is too long for the file system", "give a shorter file name",
-                          display)
+        return InputError(f"the {what}'s path is too long for the file system", "give a shorter file name", display)
     if exc.errno == errno.ELOOP:
-        return InputError(f"the {what}'s path is a loop of symbolic links", "point the link at a real file",
-                          display)
+        return InputError(f"the {what}'s path is a loop of symbolic links", "point the link at a real file", display)
     if exc.errno in (errno.EACCES, errno.EPERM):
         return InputError(f"cannot read the {what}: permission denied", "make the file readable", display)
-    return InputError(f"cannot open the {what} ({exc.strerror or type(exc).__name__})",
-                      "check the file and its folder", display)
+    return InputError(
+        f"cannot open the {what} ({exc.strerror or type(exc).__name__})", "check the file and its folder", display
+    )
 
 
 def _open_regular(path: str | Path, what: str, display: str, fix_missing: str) -> tuple[int, os.stat_result]:
     """A read-only descriptor of ``path`` and its status, refusing everything but a regular file."""
     text = os.fspath(path)
     if "\x00" in text:
-        raise InputError(f"the {what}'s path contains a NUL byte", "remove the control character from the path",
-                         display)
+        raise InputError(
+            f"the {what}'s path contains a NUL byte", "remove the control character from the path", display
+        )
     try:
         _refuse_irregular(os.stat(text), what, display)  # before opening: opening a device can act on it
-        descriptor = os.open(text, os.O_RDONLY | os.O_NONBLOCK | getattr(os, "O_CLOEXEC", 0)
-                             | getattr(os, "O_NOCTTY", 0))
+        descriptor = os.open(
+            text, os.O_RDONLY | os.O_NONBLOCK | getattr(os, "O_CLOEXEC", 0) | getattr(os, "O_NOCTTY", 0)
+        )
     except OSError as exc:
         raise _open_error(exc, what, display, fix_missing) from None
     try:
@@ -71,8 +77,9 @@ def _refuse_irregular(status: os.stat_result, what: str, display: str) -> None:
 
 
 def _too_large(size_bytes: int, max_bytes: int, what: str, display: str, fix: str) -> InputError:
-    return InputError(f"{what} is {size_bytes / 2**20:.2f} MB, above the {max_bytes / 2**20:.2f} MB limit", fix,
-                      display)
+    return InputError(
+        f"{what} is {size_bytes / 2**20:.2f} MB, above the {max_bytes / 2**20:.2f} MB limit", fix, display
+    )
 
 
 def regular_file_size(path: str | Path, *, what: str, display: str, fix_missing: str) -> int:
@@ -82,8 +89,15 @@ def regular_file_size(path: str | Path, *, what: str, display: str, fix_missing:
     return status.st_size
 
 
-def read_user_file(path: str | Path, *, what: str, display: str | None = None, fix_missing: str = "check the path",
-                   max_bytes: int = DEFAULT_MAX_BYTES, fix_large: str = "give a smaller file") -> bytes:
+def read_user_file(
+    path: str | Path,
+    *,
+    what: str,
+    display: str | None = None,
+    fix_missing: str = "check the path",
+    max_bytes: int = DEFAULT_MAX_BYTES,
+    fix_large: str = "give a smaller file",
+) -> bytes:
     """All bytes of a regular file of at most ``max_bytes``.
 
     Parameters

@@ -61,8 +61,13 @@ def groups_from_t_max(t_max_s: np.ndarray, time_bases_s: tuple[float, float, flo
     return np.where(t < base[2], 3, np.where(t < base[1], 2, np.where(t < base[0], 1, 0)))
 
 
-def hazard_groups(compared: np.ndarray, limits: np.ndarray, t_max_s: np.ndarray,
-                  time_bases_s: tuple[float, float, float], tolerance: float) -> tuple[np.ndarray, np.ndarray]:
+def hazard_groups(
+    compared: np.ndarray,
+    limits: np.ndarray,
+    t_max_s: np.ndarray,
+    time_bases_s: tuple[float, float, float],
+    tolerance: float,
+) -> tuple[np.ndarray, np.ndarray]:
     """A hazard's groups: the top-down reading, raised where its t_max implies a higher group.
 
     Returns

@@ -69,8 +69,12 @@ def integral_specs(limit_set: LimitSet) -> list[IntegralSpec]:
     """
     specs = [IntegralSpec(h.symbol, h.band_nm, h.table) for h in limit_set.hazards]
     specs.append(IntegralSpec("V", VISIBLE_BAND_NM, "v_photopic"))
-    specs += [IntegralSpec(share_key(h.symbol, share.name), share.band_nm, h.table)
-              for h in limit_set.hazards for share in h.shares if share.step_nm is None]
+    specs += [
+        IntegralSpec(share_key(h.symbol, share.name), share.band_nm, h.table)
+        for h in limit_set.hazards
+        for share in h.shares
+        if share.step_nm is None
+    ]
     return [*specs, IntegralSpec("VIS", VISIBLE_RADIATION_NM, None), IntegralSpec("ALL", OPTICAL_RANGE_NM, None)]
 
 
@@ -123,14 +127,22 @@ class ProductArrays:
 
     def rows(self, index: np.ndarray) -> ProductArrays:
         """The products at ``index`` (repeats allowed), e.g. one product many times for a what-if sweep."""
+
         def pick(a):
             return None if a is None else a[index]
-        return ProductArrays(raw=self.raw[index], covered=self.covered[index], is_radiance=self.is_radiance[index],
-                             measurement_distance_m=self.measurement_distance_m[index],
-                             shape=self.shape.take(index), is_gls=self.is_gls[index],
-                             anchor_photometric=self.anchor_photometric[index],
-                             luminous_intensity_cd=self.luminous_intensity_cd[index],
-                             peak_to_mean=pick(self.peak_to_mean), forced_distance_m=pick(self.forced_distance_m))
+
+        return ProductArrays(
+            raw=self.raw[index],
+            covered=self.covered[index],
+            is_radiance=self.is_radiance[index],
+            measurement_distance_m=self.measurement_distance_m[index],
+            shape=self.shape.take(index),
+            is_gls=self.is_gls[index],
+            anchor_photometric=self.anchor_photometric[index],
+            luminous_intensity_cd=self.luminous_intensity_cd[index],
+            peak_to_mean=pick(self.peak_to_mean),
+            forced_distance_m=pick(self.forced_distance_m),
+        )
 
 
 @dataclass(frozen=True)
@@ -191,15 +203,19 @@ def _assessment_distance_m(arrays: ProductArrays, v_raw: np.ndarray) -> np.ndarr
     if solve.size:
         d500 = d500.copy()
         d500[solve] = arrays.shape.take(solve).distance_for_solid_angle_m(needed_sr[solve])
-    return np.where(arrays.is_gls, np.fmax(MIN_ASSESSMENT_DISTANCE_M, np.nan_to_num(d500)),
-                    MIN_ASSESSMENT_DISTANCE_M)
+    return np.where(arrays.is_gls, np.fmax(MIN_ASSESSMENT_DISTANCE_M, np.nan_to_num(d500)), MIN_ASSESSMENT_DISTANCE_M)
 
 
 def _applicable(hazard: Hazard, limit_set: LimitSet, alpha: np.ndarray, luminance: np.ndarray) -> np.ndarray:
     small = alpha < limit_set.small_source_alpha_rad
     weak = luminance < limit_set.weak_stimulus_luminance_cd_m2
-    return {"always": np.ones_like(small), "small_source": small, "large_source": ~small,
-            "weak_visual_stimulus": weak, "visual_stimulus": ~weak}[hazard.applies]
+    return {
+        "always": np.ones_like(small),
+        "small_source": small,
+        "large_source": ~small,
+        "weak_visual_stimulus": weak,
+        "visual_stimulus": ~weak,
+    }[hazard.applies]
 
 
 @dataclass(frozen=True)
@@ -225,8 +241,7 @@ class _Viewed:
         """The source's own (peak) radiance of a quantity, E/Ω_s × peak-to-mean [W m⁻² sr⁻¹]."""
         return self.irradiance[symbol] / self.omega_s * self.peak_to_mean
 
-    def field_radiance(self, symbol: str, fov_rad: np.ndarray | float, rows: np.ndarray | None = None
-                       ) -> np.ndarray:
+    def field_radiance(self, symbol: str, fov_rad: np.ndarray | float, rows: np.ndarray | None = None) -> np.ndarray:
         """Radiance averaged over a field of view γ centred on the source [W m⁻² sr⁻¹] (method §4).
 
         For all products or those at ``rows``.
@@ -247,8 +262,9 @@ class _Viewed:
         return self.shape.alpha_rad(self.distance_m, bounds_rad)
 
 
-def _hazard_arrays(hazard: Hazard, limit_set: LimitSet, viewed: _Viewed, covered: np.ndarray, alpha: np.ndarray,
-                   luminance: np.ndarray) -> HazardArrays:
+def _hazard_arrays(
+    hazard: Hazard, limit_set: LimitSet, viewed: _Viewed, covered: np.ndarray, alpha: np.ndarray, luminance: np.ndarray
+) -> HazardArrays:
     n = alpha.size
     nan3 = np.full((n, 3), np.nan)
     radiance = hazard.kind == "radiance"
@@ -268,9 +284,18 @@ def _hazard_arrays(hazard: Hazard, limit_set: LimitSet, viewed: _Viewed, covered
         group, raised = hazard_groups(compared, limits, t_max, hazard.time_bases_s, limit_set.table_rounding)
     applicable = _applicable(hazard, limit_set, alpha, luminance)
     assessed = applicable & covered
-    return HazardArrays(hazard=hazard, value=value, t_max_s=t_max, group_index=np.where(assessed, group, -1),
-                        applicable=applicable, assessed=assessed, limits=limits, compared=compared,
-                        alpha_bounded=alpha_bounded, raised_by_t_max=assessed & raised)
+    return HazardArrays(
+        hazard=hazard,
+        value=value,
+        t_max_s=t_max,
+        group_index=np.where(assessed, group, -1),
+        applicable=applicable,
+        assessed=assessed,
+        limits=limits,
+        compared=compared,
+        alpha_bounded=alpha_bounded,
+        raised_by_t_max=assessed & raised,
+    )
 
 
 def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
@@ -288,8 +313,9 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
     keys = integral_index(limit_set)
     v = keys["V"]
     with np.errstate(divide="ignore", invalid="ignore"):
-        anchor_scale = np.where(np.isnan(arrays.anchor_photometric), 1.0,
-                                arrays.anchor_photometric / (K_M_LM_PER_W * arrays.raw[:, v]))
+        anchor_scale = np.where(
+            np.isnan(arrays.anchor_photometric), 1.0, arrays.anchor_photometric / (K_M_LM_PER_W * arrays.raw[:, v])
+        )
     raw = arrays.raw * anchor_scale[:, None]
     distance = _assessment_distance_m(arrays, raw[:, v])
     if arrays.forced_distance_m is not None:
@@ -303,27 +329,48 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
     illuminance = K_M_LM_PER_W * irradiance[:, v]
     luminance = illuminance / omega_s
     blue = limit_set.transfer_quantity()
-    transfer = _blue_light_transfer(arrays, raw[:, keys[blue]] if blue else np.full(raw.shape[0], np.nan), raw[:, v],
-                                    d_m, limit_set.transfer_threshold_w_m2 or np.nan)
+    transfer = _blue_light_transfer(
+        arrays,
+        raw[:, keys[blue]] if blue else np.full(raw.shape[0], np.nan),
+        raw[:, v],
+        d_m,
+        limit_set.transfer_threshold_w_m2 or np.nan,
+    )
     peak = np.ones(distance.size) if arrays.peak_to_mean is None else arrays.peak_to_mean
-    viewed = _Viewed(irradiance={h.symbol: irradiance[:, i] for i, h in enumerate(limit_set.hazards)},
-                     shape=arrays.shape, distance_m=distance, field=field,
-                     peak_to_mean=peak)
-    hazards = {h.symbol: _hazard_arrays(h, limit_set, viewed, arrays.covered[:, i], alpha, luminance)
-               for i, h in enumerate(limit_set.hazards)}
+    viewed = _Viewed(
+        irradiance={h.symbol: irradiance[:, i] for i, h in enumerate(limit_set.hazards)},
+        shape=arrays.shape,
+        distance_m=distance,
+        field=field,
+        peak_to_mean=peak,
+    )
+    hazards = {
+        h.symbol: _hazard_arrays(h, limit_set, viewed, arrays.covered[:, i], alpha, luminance)
+        for i, h in enumerate(limit_set.hazards)
+    }
     group = np.max(np.column_stack([h.group_index for h in hazards.values()]), axis=1)
     complete = np.all(np.column_stack([h.assessed | ~h.applicable for h in hazards.values()]), axis=1)
     visible, total = raw[:, keys["VIS"]], raw[:, keys["ALL"]]
-    return Evaluation(assessment_distance_m=distance, alpha_rad=alpha, source_solid_angle_sr=omega_s,
-                      illuminance_lx=illuminance, luminance_cd_m2=luminance,
-                      small_source=alpha < limit_set.small_source_alpha_rad,
-                      weak_visual_stimulus=luminance < limit_set.weak_stimulus_luminance_cd_m2,
-                      hazards=hazards, group_index=group, complete=complete,
-                      anchor_scale=anchor_scale, mainly_visible=visible >= MAINLY_VISIBLE_SHARE * total, **transfer)
+    return Evaluation(
+        assessment_distance_m=distance,
+        alpha_rad=alpha,
+        source_solid_angle_sr=omega_s,
+        illuminance_lx=illuminance,
+        luminance_cd_m2=luminance,
+        small_source=alpha < limit_set.small_source_alpha_rad,
+        weak_visual_stimulus=luminance < limit_set.weak_stimulus_luminance_cd_m2,
+        hazards=hazards,
+        group_index=group,
+        complete=complete,
+        anchor_scale=anchor_scale,
+        mainly_visible=visible >= MAINLY_VISIBLE_SHARE * total,
+        **transfer,
+    )
 
 
-def _blue_light_transfer(arrays: ProductArrays, blue: np.ndarray, visual: np.ndarray, d_m: np.ndarray,
-                         threshold_w_m2: float) -> dict:
+def _blue_light_transfer(
+    arrays: ProductArrays, blue: np.ndarray, visual: np.ndarray, d_m: np.ndarray, threshold_w_m2: float
+) -> dict:
     """IEC TR 62778:2014 transfer quantities.
 
     K_B,v = E_B/E_v [W lm⁻¹], the illuminance E_thr = E_B,thr/K_B,v at which the blue-light irradiance reaches the limit
@@ -337,10 +384,13 @@ def _blue_light_transfer(arrays: ProductArrays, blue: np.ndarray, visual: np.nda
         efficacy = np.where(visual > 0, blue / (K_M_LM_PER_W * visual), np.nan)
         threshold = np.where(efficacy > 0, threshold_w_m2 / efficacy, np.nan)
         width, height = arrays.shape.width_m, arrays.shape.height_m
-        area = np.where(arrays.shape.is_disc, np.pi * width ** 2 / 4, width * np.nan_to_num(height))
-        estimated = np.where(arrays.is_radiance, K_M_LM_PER_W * visual * area, K_M_LM_PER_W * visual * d_m ** 2)
+        area = np.where(arrays.shape.is_disc, np.pi * width**2 / 4, width * np.nan_to_num(height))
+        estimated = np.where(arrays.is_radiance, K_M_LM_PER_W * visual * area, K_M_LM_PER_W * visual * d_m**2)
         intensity = np.where(np.isnan(arrays.luminous_intensity_cd), estimated, arrays.luminous_intensity_cd)
         distance = np.sqrt(intensity / threshold)
-    return {"blue_light_efficacy_w_per_lm": efficacy, "threshold_illuminance_lx": threshold,
-            "luminous_intensity_cd": intensity, "threshold_distance_m": distance}
-
+    return {
+        "blue_light_efficacy_w_per_lm": efficacy,
+        "threshold_illuminance_lx": threshold,
+        "luminous_intensity_cd": intensity,
+        "threshold_distance_m": distance,
+    }

@@ -82,14 +82,17 @@ def _growing(exceeded: Callable[[np.ndarray, np.ndarray], np.ndarray], n: int, a
     out = np.where(at_start, a, np.nan)
     rows = np.flatnonzero(at_end & ~at_start)
     if rows.size:
+
         def test(t, jobs):
             return exceeded(t.ravel(), np.repeat(rows[jobs], t.shape[1])).reshape(t.shape)
+
         out[rows] = log_search(test, np.full(rows.size, a), np.full(rows.size, b))[1]
     return out
 
 
-def time_to_limit_s(hazard: Hazard, n: int, value_of: ValueOf, radiance_at: RadianceAt, alpha_in: AlphaIn
-                    ) -> np.ndarray:
+def time_to_limit_s(
+    hazard: Hazard, n: int, value_of: ValueOf, radiance_at: RadianceAt, alpha_in: AlphaIn
+) -> np.ndarray:
     """t_max of ``hazard`` for n products [s]; NaN where the limit is not reached within its durations.
 
     Parameters
@@ -118,8 +121,10 @@ def time_to_limit_s(hazard: Hazard, n: int, value_of: ValueOf, radiance_at: Radi
         elif not fov.grows:
             reach = _closed_form(radiance_at(symbol, np.full(n, fov.fixed_rad)), coefficient, piece.exponent, a, b)
         else:
+
             def exceeded(t, rows, symbol=symbol, coefficient=coefficient, piece=piece, fov=fov):
-                return radiance_at(symbol, fov.at(t), rows) > coefficient[rows] * t ** piece.exponent
+                return radiance_at(symbol, fov.at(t), rows) > coefficient[rows] * t**piece.exponent
+
             reach = _growing(exceeded, n, max(a, 1e-9), b)
         earliest = np.fmin(earliest, reach)
     return np.where(np.isfinite(earliest), earliest, np.nan)

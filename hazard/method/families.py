@@ -49,8 +49,16 @@ def family_member(ev: Evaluation, members: tuple[str, ...], row: int) -> str | N
     return next((symbol for symbol in members if ev.hazards[symbol].applicable[row]), None)
 
 
-def evaluate_rows(arrays: ProductArrays, count: int, limit_set: LimitSet, *, raw=None, raw_scale=None,
-                  forced_distance_m=None, size_scale=None) -> Evaluation:
+def evaluate_rows(
+    arrays: ProductArrays,
+    count: int,
+    limit_set: LimitSet,
+    *,
+    raw=None,
+    raw_scale=None,
+    forced_distance_m=None,
+    size_scale=None,
+) -> Evaluation:
     """Evaluate ``count`` variants of the single product in ``arrays``.
 
     Parameters
@@ -73,12 +81,20 @@ def evaluate_rows(arrays: ProductArrays, count: int, limit_set: LimitSet, *, raw
     if size_scale is not None:
         size_scale = np.asarray(size_scale, dtype=float)
         shape = type(shape)(shape.width_m * size_scale, shape.height_m * size_scale)
-        factor = np.where(rows.is_radiance, factor / size_scale ** 2, factor)
+        factor = np.where(rows.is_radiance, factor / size_scale**2, factor)
     raw = (rows.raw if raw is None else raw) * factor[:, None]
     anchor = rows.anchor_photometric * factor  # a relative spectrum's anchor scales with it
     forced = rows.forced_distance_m if forced_distance_m is None else np.asarray(forced_distance_m, dtype=float)
-    variant = ProductArrays(raw=raw, covered=rows.covered, is_radiance=rows.is_radiance,
-                            measurement_distance_m=rows.measurement_distance_m, shape=shape, is_gls=rows.is_gls,
-                            anchor_photometric=anchor, luminous_intensity_cd=rows.luminous_intensity_cd * factor,
-                            peak_to_mean=rows.peak_to_mean, forced_distance_m=forced)
+    variant = ProductArrays(
+        raw=raw,
+        covered=rows.covered,
+        is_radiance=rows.is_radiance,
+        measurement_distance_m=rows.measurement_distance_m,
+        shape=shape,
+        is_gls=rows.is_gls,
+        anchor_photometric=anchor,
+        luminous_intensity_cd=rows.luminous_intensity_cd * factor,
+        peak_to_mean=rows.peak_to_mean,
+        forced_distance_m=forced,
+    )
     return evaluate(variant, limit_set)

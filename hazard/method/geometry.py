@@ -45,12 +45,13 @@ def cone_solid_angle_sr(full_angle_rad: np.ndarray | float) -> np.ndarray:
 
 def _edge(a: np.ndarray, half: np.ndarray) -> np.ndarray:
     """The difference a − asin(sin a/√(1 + half²)) without cancellation: atan2 of its sine and cosine [rad]."""
-    root = np.sqrt(np.cos(a) ** 2 + half ** 2)
-    return np.arctan2(np.sin(a) * half ** 2 / (root + np.cos(a)), np.cos(a) * root + np.sin(a) ** 2)
+    root = np.sqrt(np.cos(a) ** 2 + half**2)
+    return np.arctan2(np.sin(a) * half**2 / (root + np.cos(a)), np.cos(a) * root + np.sin(a) ** 2)
 
 
-def cone_rectangle_solid_angle(cone_half_angle_rad: np.ndarray, half_width: np.ndarray, half_height: np.ndarray
-                               ) -> np.ndarray:
+def cone_rectangle_solid_angle(
+    cone_half_angle_rad: np.ndarray, half_width: np.ndarray, half_height: np.ndarray
+) -> np.ndarray:
     """Solid angle of a flat rectangle seen on axis, clipped by a cone about the same axis [sr].
 
     The rectangle's half-sides are given relative to its distance (p/d, q/d) [1].
@@ -73,10 +74,10 @@ def cone_rectangle_solid_angle(cone_half_angle_rad: np.ndarray, half_width: np.n
     p = np.asarray(half_width, dtype=float)
     q = np.asarray(half_height, dtype=float)
     reach = np.tan(theta)
-    corner = np.arctan2(q, p)                               # φ of the rectangle's corner
-    right = np.arccos(np.minimum(p / reach, 1.0))           # the edge x = p lies inside the cone for φ below this
-    top = np.arcsin(np.minimum(q / reach, 1.0))             # the edge y = q lies inside the cone for φ above this
-    cap = 2 * np.sin(theta / 2) ** 2                        # 1 − cos θ
+    corner = np.arctan2(q, p)  # φ of the rectangle's corner
+    right = np.arccos(np.minimum(p / reach, 1.0))  # the edge x = p lies inside the cone for φ below this
+    top = np.arcsin(np.minimum(q / reach, 1.0))  # the edge y = q lies inside the cone for φ above this
+    cap = 2 * np.sin(theta / 2) ** 2  # 1 − cos θ
     a1 = np.minimum(corner, right)
     a2 = np.maximum(corner, top)
     quarter = _edge(a1, p) + (corner - a1) * cap + (a2 - corner) * cap + _edge(np.pi / 2 - a2, q)
@@ -112,8 +113,7 @@ class SourceShape:
         """True where the source is a disc."""
         return np.isnan(self.height_m)
 
-    def alpha_rad(self, distance_m: np.ndarray | float, bounds_rad: tuple[float, float] | None = None
-                  ) -> np.ndarray:
+    def alpha_rad(self, distance_m: np.ndarray | float, bounds_rad: tuple[float, float] | None = None) -> np.ndarray:
         """Angular subtense α at ``distance_m`` [rad].
 
         Disc: α = D/d. Rectangle: mean of w/d and h/d, each bounded to ``bounds_rad`` first when given
@@ -155,10 +155,13 @@ class SourceShape:
         d = np.asarray(distance_m, dtype=float)
         omega_s = self.solid_angle_sr(d)
         half_width = np.broadcast_to(self.width_m / (2 * d), self.width_m.shape)
-        half_height = np.broadcast_to(np.where(self.is_disc, self.width_m, self.height_m) / (2 * d),
-                                      self.width_m.shape)
-        return FieldGeometry(omega_s=np.broadcast_to(omega_s, self.width_m.shape), half_width=half_width,
-                             half_height=half_height, is_disc=self.is_disc)
+        half_height = np.broadcast_to(np.where(self.is_disc, self.width_m, self.height_m) / (2 * d), self.width_m.shape)
+        return FieldGeometry(
+            omega_s=np.broadcast_to(omega_s, self.width_m.shape),
+            half_width=half_width,
+            half_height=half_height,
+            is_disc=self.is_disc,
+        )
 
     def field_fraction(self, distance_m: np.ndarray | float, fov_rad: np.ndarray | float) -> np.ndarray:
         """Fraction of a field of view γ that the source fills (:meth:`FieldGeometry.fraction`) [1].
@@ -211,8 +214,7 @@ class FieldGeometry:
 
     def take(self, index: np.ndarray) -> FieldGeometry:
         """The sources at ``index``."""
-        return FieldGeometry(self.omega_s[index], self.half_width[index], self.half_height[index],
-                             self.is_disc[index])
+        return FieldGeometry(self.omega_s[index], self.half_width[index], self.half_height[index], self.is_disc[index])
 
     def fraction(self, fov_rad: np.ndarray | float) -> np.ndarray:
         """Fraction of a field of view γ that the source fills [1].

@@ -63,12 +63,19 @@ def coverage(range_nm: tuple[float, float], no_emission_outside: bool, limit_set
     It spans the band, or the record rules out emission outside the measured range (method §5).
     """
     lo, hi = range_nm
-    return np.array([no_emission_outside or (lo <= s.band_nm[0] and hi >= s.band_nm[1])
-                     for s in integral_specs(limit_set)])
+    return np.array(
+        [no_emission_outside or (lo <= s.band_nm[0] and hi >= s.band_nm[1]) for s in integral_specs(limit_set)]
+    )
 
 
-def _fill(out: Integrated, rows, products: np.ndarray, grid_nm: np.ndarray, no_emission_outside: np.ndarray,
-          limit_set: LimitSet) -> None:
+def _fill(
+    out: Integrated,
+    rows,
+    products: np.ndarray,
+    grid_nm: np.ndarray,
+    no_emission_outside: np.ndarray,
+    limit_set: LimitSet,
+) -> None:
     """Store the integrals ``products`` (rows × (k + 3)) of spectra on ``grid_nm`` into rows ``rows``."""
     k = out.raw.shape[1]
     out.raw[rows], out.xyz[rows] = products[:, :k], products[:, k:]
@@ -81,9 +88,14 @@ def _empty(n: int, limit_set: LimitSet) -> Integrated:
     return Integrated(raw=np.empty((n, k)), xyz=np.empty((n, 3)), covered=np.empty((n, k), dtype=bool))
 
 
-def integrate_matrix(grid_nm: np.ndarray, values: np.ndarray, no_emission_outside: np.ndarray,
-                     limit_set: LimitSet, factor_to_si: np.ndarray | None = None,
-                     chunk_rows: int = CHUNK_ROWS) -> tuple[Integrated, np.ndarray, np.ndarray]:
+def integrate_matrix(
+    grid_nm: np.ndarray,
+    values: np.ndarray,
+    no_emission_outside: np.ndarray,
+    limit_set: LimitSet,
+    factor_to_si: np.ndarray | None = None,
+    chunk_rows: int = CHUNK_ROWS,
+) -> tuple[Integrated, np.ndarray, np.ndarray]:
     """Integrals of n spectra on one grid, and each spectrum's highest and lowest sample.
 
     Negative samples count as zero (dark noise, method §5; the caller judges the lowest sample against
@@ -129,8 +141,9 @@ def integrate_matrix(grid_nm: np.ndarray, values: np.ndarray, no_emission_outsid
     return out, peak, lowest
 
 
-def integrate_spectra(grids: list[np.ndarray], values: list[np.ndarray], no_emission_outside: list[bool],
-                      limit_set: LimitSet) -> Integrated:
+def integrate_spectra(
+    grids: list[np.ndarray], values: list[np.ndarray], no_emission_outside: list[bool], limit_set: LimitSet
+) -> Integrated:
     """Integrals of n spectra, each on its own grid (a grid's matrix is built once and shared).
 
     Each product is reduced on its own, ``Σ_i q_i·X_i`` in a fixed order, so its integrals do not depend

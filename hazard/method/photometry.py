@@ -55,9 +55,18 @@ def _cmf_tables() -> tuple[WeightingTable, ...]:
     """x̄, ȳ, z̄ of the CIE 1931 2° observer (colour-science's CIE data) as linear weighting tables."""
     cmfs = import_colour().MSDS_CMFS["CIE 1931 2 Degree Standard Observer"]
     wl, values = np.asarray(cmfs.wavelengths, dtype=float), np.asarray(cmfs.values, dtype=float)
-    return tuple(WeightingTable(name=f"cie1931_{axis}", symbol=axis, wavelength_nm=wl, value=values[:, k],
-                                interpolation="linear", metadata={"source": "CIE 1931 2° via colour-science"},
-                                sha256="") for k, axis in enumerate("xyz"))
+    return tuple(
+        WeightingTable(
+            name=f"cie1931_{axis}",
+            symbol=axis,
+            wavelength_nm=wl,
+            value=values[:, k],
+            interpolation="linear",
+            metadata={"source": "CIE 1931 2° via colour-science"},
+            sha256="",
+        )
+        for k, axis in enumerate("xyz")
+    )
 
 
 def cct_from_xyz(xyz: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
@@ -81,8 +90,12 @@ def cct_from_xyz(xyz: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray, n
     safe = np.where(ok[:, None], xyz, [[0.95, 1.0, 1.09]])
     xy = colour.XYZ_to_xy(safe)
     uv = colour.xy_to_UCS_uv(xy)
-    cct_duv = np.vstack([np.atleast_2d(colour.temperature.uv_to_CCT(uv[k:k + _CCT_CHUNK], method="Robertson 1968"))
-                         for k in range(0, len(uv), _CCT_CHUNK)])
+    cct_duv = np.vstack(
+        [
+            np.atleast_2d(colour.temperature.uv_to_CCT(uv[k : k + _CCT_CHUNK], method="Robertson 1968"))
+            for k in range(0, len(uv), _CCT_CHUNK)
+        ]
+    )
     cct, duv = np.atleast_2d(cct_duv)[:, 0], np.atleast_2d(cct_duv)[:, 1]
     nan = np.full(len(xyz), np.nan)
     in_range = (cct > CCT_RANGE_K[0]) & (cct < CCT_RANGE_K[1])

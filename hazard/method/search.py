@@ -16,8 +16,13 @@ import numpy as np
 __all__ = ["log_search"]
 
 
-def log_search(test: Callable[[np.ndarray, np.ndarray], np.ndarray], low: np.ndarray, high: np.ndarray,
-               relative_precision: float = 1e-12, points: int = 31) -> tuple[np.ndarray, np.ndarray]:
+def log_search(
+    test: Callable[[np.ndarray, np.ndarray], np.ndarray],
+    low: np.ndarray,
+    high: np.ndarray,
+    relative_precision: float = 1e-12,
+    points: int = 31,
+) -> tuple[np.ndarray, np.ndarray]:
     """For each job, the bracket [last false, first true] around the x in [low, high] where ``test`` turns true.
 
     Narrowed to ``relative_precision``.

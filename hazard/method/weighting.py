@@ -43,8 +43,9 @@ class Weighting(Protocol):
         """Weight at the given wavelengths [nm] by the interpolation rule, zero outside the range [1]."""
 
 
-def _interval_coefficients(h: np.ndarray, wa: np.ndarray, wb: np.ndarray, log_linear: bool
-                           ) -> tuple[np.ndarray, np.ndarray]:
+def _interval_coefficients(
+    h: np.ndarray, wa: np.ndarray, wb: np.ndarray, log_linear: bool
+) -> tuple[np.ndarray, np.ndarray]:
     """Coefficients (c_a, c_b) with ∫ X·w = c_a·X_a + c_b·X_b on each interval of width h [nm]."""
     linear_a, linear_b = h / 6 * (2 * wa + wb), h / 6 * (wa + 2 * wb)
     if not log_linear:
@@ -53,13 +54,14 @@ def _interval_coefficients(h: np.ndarray, wa: np.ndarray, wb: np.ndarray, log_li
     with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         u = np.where(positive, np.log(np.where(positive, wb / np.where(wa > 0, wa, 1.0), 1.0)), 0.0)
         small = np.abs(u) < _SERIES_BELOW
-        e0 = np.where(small, 1 + u / 2 + u ** 2 / 6 + u ** 3 / 24, np.expm1(u) / u)
-        e1 = np.where(small, 0.5 + u / 3 + u ** 2 / 8 + u ** 3 / 30, (u * np.exp(u) - np.expm1(u)) / u ** 2)
+        e0 = np.where(small, 1 + u / 2 + u**2 / 6 + u**3 / 24, np.expm1(u) / u)
+        e1 = np.where(small, 0.5 + u / 3 + u**2 / 8 + u**3 / 30, (u * np.exp(u) - np.expm1(u)) / u**2)
     return (np.where(positive, wa * h * (e0 - e1), linear_a), np.where(positive, wa * h * e1, linear_b))
 
 
-def quadrature_weights(grid_nm: np.ndarray, band_nm: tuple[float, float], weight: Weighting | None = None
-                       ) -> np.ndarray:
+def quadrature_weights(
+    grid_nm: np.ndarray, band_nm: tuple[float, float], weight: Weighting | None = None
+) -> np.ndarray:
     """Quadrature vector for ∫_band X·w dλ on ``grid_nm``.
 
     Parameters

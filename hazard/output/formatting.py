@@ -20,8 +20,13 @@ UNIT_DISPLAY = {"W/m2": "W/m²", "W/m2/sr": "W/(m²·sr)", "W/m2/nm": "W/(m²·n
 """How each SI unit code of the results is written for people (one spelling in every output)."""
 NOT_DETERMINED = "not determined"
 """The overall group in words when no hazard with risk groups could be assessed."""
-_DURATION_UNITS = ((3600.0, 3600.0, "h"), (60.0, 60.0, "min"), (1.0, 0.1, "s"), (1e-3, 1e-4, "ms"),
-                   (1e-6, -math.inf, "µs"))  # (seconds per unit, shown from, unit)
+_DURATION_UNITS = (
+    (3600.0, 3600.0, "h"),
+    (60.0, 60.0, "min"),
+    (1.0, 0.1, "s"),
+    (1e-3, 1e-4, "ms"),
+    (1e-6, -math.inf, "µs"),
+)  # (seconds per unit, shown from, unit)
 
 
 def format_value(value: float | None, digits: int = 3) -> str:
@@ -46,10 +51,10 @@ def format_value(value: float | None, digits: int = 3) -> str:
 def _significant(value: float, digits: int, direction: str) -> float:
     """``value`` > 0 rounded to ``digits`` significant digits towards ``"up"`` or ``"down"``."""
     exponent = math.floor(math.log10(value)) - digits + 1
-    scaled = value / 10.0 ** exponent
+    scaled = value / 10.0**exponent
     scaled = round(scaled, 9)  # floating noise (1.2300000000001) is not a digit
     step = math.ceil(scaled) if direction == "up" else math.floor(scaled)
-    return step * 10.0 ** exponent
+    return step * 10.0**exponent
 
 
 def plain(value: float) -> str:
@@ -190,17 +195,24 @@ def format_margin(risk_group: str | None, margins: dict[str, float]) -> str:
     parts = []
     if rank > 0:
         below = boundaries[rank - 1]
-        parts.append(f"{_times(margins[below])} {below} limit" if margins[below] > 1 else
-                     f"{format_percent(margins[below])} of {below} limit")
+        parts.append(
+            f"{_times(margins[below])} {below} limit"
+            if margins[below] > 1
+            else f"{format_percent(margins[below])} of {below} limit"
+        )
     if rank < len(boundaries):
         above = boundaries[rank]
-        parts.append(f"{format_percent(margins[above])} of {above} limit" if margins[above] <= 1 else
-                     f"{_times(margins[above])} {above} limit")
+        parts.append(
+            f"{format_percent(margins[above])} of {above} limit"
+            if margins[above] <= 1
+            else f"{_times(margins[above])} {above} limit"
+        )
     return "; ".join(parts)
 
 
-def group_words(risk_group: str | None, complete: bool = True, basis: str = "standard",
-                distance_mm: float | None = None) -> str:
+def group_words(
+    risk_group: str | None, complete: bool = True, basis: str = "standard", distance_mm: float | None = None
+) -> str:
     """The overall group as words for a heading.
 
     ``'RG2'``, ``'RG1 (lower bound)'``, ``'not determined'``, ``'what-if at 500 mm: Exempt'``.

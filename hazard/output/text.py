@@ -17,6 +17,7 @@ from hazard.result import Assessment
 
 __all__ = ["overall_lines", "render_batch_table", "render_claims", "render_text"]
 
+
 def _columns(boundaries: list[str]) -> tuple[str, ...]:
     return ("Hazard", "Quantity", "Value", "Unit", "Compared", *boundaries, "t_max", "Group", "Margin")
 
@@ -39,9 +40,19 @@ def _rows(assessment: Assessment) -> list[tuple[str, ...]]:
     boundaries = assessment.limit_set.boundaries
     for symbol, h in assessment.hazards.items():
         limits = [format_limit(h.limits.get(g)) for g in boundaries]
-        rows.append((symbol, h.title, format_value(h.value) if h.assessed else "not assessed",
-                     UNIT_DISPLAY.get(h.unit, h.unit), _compared(h, boundaries), *limits, format_duration_s(h.t_max_s),
-                     h.risk_group or ("EL only" if h.assessed else "—"), format_margin(h.risk_group, h.margins)))
+        rows.append(
+            (
+                symbol,
+                h.title,
+                format_value(h.value) if h.assessed else "not assessed",
+                UNIT_DISPLAY.get(h.unit, h.unit),
+                _compared(h, boundaries),
+                *limits,
+                format_duration_s(h.t_max_s),
+                h.risk_group or ("EL only" if h.assessed else "—"),
+                format_margin(h.risk_group, h.margins),
+            )
+        )
     return rows
 
 
@@ -88,11 +99,14 @@ def render_text(assessment: Assessment) -> str:
         lines += ["", f"Scaling: {a.scaling.note}"]
     t = a.blue_light_transfer
     if t is not None:
-        lines += ["", f"Blue-light transfer (IEC TR 62778): K_B,v = {t.k_bv_w_per_lm * 1e3:.3g} mW/lm; the "
-                      f"blue-light irradiance reaches its threshold at E_thr = "
-                      f"{format_value(t.threshold_illuminance_lx)} lx, i.e. nearer than "
-                      f"d_thr = {distance_beyond_mm(t.threshold_distance_mm)} "
-                      f"(I_v = {format_value(t.luminous_intensity_cd)} cd, {t.intensity_source})"]
+        lines += [
+            "",
+            f"Blue-light transfer (IEC TR 62778): K_B,v = {t.k_bv_w_per_lm * 1e3:.3g} mW/lm; the "
+            f"blue-light irradiance reaches its threshold at E_thr = "
+            f"{format_value(t.threshold_illuminance_lx)} lx, i.e. nearer than "
+            f"d_thr = {distance_beyond_mm(t.threshold_distance_mm)} "
+            f"(I_v = {format_value(t.luminous_intensity_cd)} cd, {t.intensity_source})",
+        ]
     if a.claims:
         lines += ["", *render_claims(a)]
     lines += _studies(a)
@@ -109,20 +123,27 @@ def overall_lines(a: Assessment) -> list[str]:
     A what-if names the standard's group beside it; an undetermined group names the fix.
     """
     if a.risk_group is None:
-        head = [f"Overall risk group: {NOT_DETERMINED.upper()} — no hazard with risk groups could be assessed "
-                f"(not assessed: {', '.join(a.not_assessed) or 'none'}); measure the missing wavelength range, or "
-                f"state no_emission_outside if the source truly emits nothing outside the measured range"]
+        head = [
+            f"Overall risk group: {NOT_DETERMINED.upper()} — no hazard with risk groups could be assessed "
+            f"(not assessed: {', '.join(a.not_assessed) or 'none'}); measure the missing wavelength range, or "
+            f"state no_emission_outside if the source truly emits nothing outside the measured range"
+        ]
     else:
-        status = ("complete" if a.complete else
-                  f"INCOMPLETE, lower bound: not assessed {', '.join(a.not_assessed)}")
+        status = "complete" if a.complete else f"INCOMPLETE, lower bound: not assessed {', '.join(a.not_assessed)}"
         decided = f"; set by {', '.join(a.deciding_hazards)}" if a.risk_group != "Exempt" else ""
-        meaning = (" — within the exposure limits for the Exempt time bases at the assessment distance"
-                   if a.risk_group == "Exempt" else "")
+        meaning = (
+            " — within the exposure limits for the Exempt time bases at the assessment distance"
+            if a.risk_group == "Exempt"
+            else ""
+        )
         head = [f"Overall risk group: {group_words(a.risk_group, a.complete)}{meaning}  ({status}{decided})"]
     if a.basis == "what-if":
-        head.insert(0, f"WHAT-IF at {a.assessment_distance_mm:.0f} mm, not a classification: the standard's "
-                       f"distance ({a.standard_assessment_distance_mm:.0f} mm) gives "
-                       f"{group_words(a.standard_risk_group, a.complete)}")
+        head.insert(
+            0,
+            f"WHAT-IF at {a.assessment_distance_mm:.0f} mm, not a classification: the standard's "
+            f"distance ({a.standard_assessment_distance_mm:.0f} mm) gives "
+            f"{group_words(a.standard_risk_group, a.complete)}",
+        )
     return head
 
 
@@ -136,17 +157,31 @@ def _studies(a: Assessment) -> list[str]:
         shown = []
         for group, d in a.distances.minimum_distance_mm.items():
             name = group if group == "Exempt" else f"{group} or lower"
-            shown.append(f"{name} beyond {distance_beyond_mm(d)}" if d else f"{name} at any distance" if d == 0
-                         else f"{name} not within 100 m")
+            shown.append(
+                f"{name} beyond {distance_beyond_mm(d)}"
+                if d
+                else f"{name} at any distance"
+                if d == 0
+                else f"{name} not within 100 m"
+            )
         scope = "" if a.complete else "assessed hazards only; "
-        lines += ["", "Distances: " + "; ".join(shown)
-                  + f" ({scope}values nearer than {distance_beyond_mm(a.distances.near_field_below_mm)} are "
-                    f"approximate)"]
+        lines += [
+            "",
+            "Distances: "
+            + "; ".join(shown)
+            + f" ({scope}values nearer than {distance_beyond_mm(a.distances.near_field_below_mm)} are "
+            f"approximate)",
+        ]
     if a.remedies is not None:
         product = [r for r in a.remedies.remedies if r.target == "product" and r.dimming_factor is not None]
         if product:
-            lines += ["", "What it would take: " + "; ".join(
-                f"{r.group}: dim to {dimming_percent(r.dimming_factor)} of today's output" for r in product)]
+            lines += [
+                "",
+                "What it would take: "
+                + "; ".join(
+                    f"{r.group}: dim to {dimming_percent(r.dimming_factor)} of today's output" for r in product
+                ),
+            ]
         for r in a.remedies.remedies:
             if r.area_factor is not None:
                 lines.append(f"  {r.target} → {r.group}: or enlarge the emitting area ×{r.area_factor:.3g} (diffuser)")
@@ -160,8 +195,17 @@ def _studies(a: Assessment) -> list[str]:
 def render_claims(assessment: Assessment) -> list[str]:
     """The vendor-claim checks as table lines: claim, claimed, computed, tolerance, verdict, reason."""
     header = ("Claim", "Claimed", "Computed", "Tolerance", "Verdict", "Reason")
-    rows = [(c.claim, c.claimed, c.computed or "—", c.tolerance or "—", c.verdict.upper() if c.verdict ==
-             "contradicted" else c.verdict, c.reason) for c in assessment.claims]
+    rows = [
+        (
+            c.claim,
+            c.claimed,
+            c.computed or "—",
+            c.tolerance or "—",
+            c.verdict.upper() if c.verdict == "contradicted" else c.verdict,
+            c.reason,
+        )
+        for c in assessment.claims
+    ]
     widths = [max(len(r[i]) for r in [header, *rows]) for i in range(5)]
 
     def line(r: tuple[str, ...]) -> str:
@@ -199,21 +243,29 @@ def render_batch_table(ids: list[str], assessments: dict[str, Assessment], error
             margin = format_margin(h.risk_group, h.margins)
         flags = []
         if not standard:
-            flags.append(f"WHAT-IF at {a.assessment_distance_mm:.0f} mm gives "
-                         f"{group_words(a.risk_group, a.complete)} (not a classification)")
+            flags.append(
+                f"WHAT-IF at {a.assessment_distance_mm:.0f} mm gives "
+                f"{group_words(a.risk_group, a.complete)} (not a classification)"
+            )
         if a.uncertainty is not None and a.uncertainty.verdict == "borderline":
             flags.append(f"BORDERLINE {a.uncertainty.risk_group_low}-{a.uncertainty.risk_group_high}")
         contradicted = sum(c.verdict == "contradicted" for c in a.claims)
         if contradicted:
             flags.append(f"{contradicted} claim(s) CONTRADICTED")
-        rows.append((product_id, group_words(a.classification_group, a.complete),
-                     "complete" if a.complete else "INCOMPLETE",
-                     deciding, margin, "; ".join(flags)))
+        rows.append(
+            (
+                product_id,
+                group_words(a.classification_group, a.complete),
+                "complete" if a.complete else "INCOMPLETE",
+                deciding,
+                margin,
+                "; ".join(flags),
+            )
+        )
     header = ("Product", "Group", "Assessment", "Set by", "Margin", "Flags / error")
     widths = [max(len(r[i]) for r in [header, *rows]) for i in range(5)]
 
     def line(r: tuple[str, ...]) -> str:
         return "  ".join([*(c.ljust(w) for c, w in zip(r[:5], widths, strict=True)), r[5]]).rstrip()
 
-    return "\n".join([line(header), line((*("-" * w for w in widths), "-" * 13)),
-                      *(line(r) for r in rows)]) + "\n"
+    return "\n".join([line(header), line((*("-" * w for w in widths), "-" * 13)), *(line(r) for r in rows)]) + "\n"

@@ -22,8 +22,9 @@ SEARCH_RANGE_M = (0.01, 100.0)
 CURVE_POINTS = 121
 
 
-def _crossings(arrays: ProductArrays, limit_set: LimitSet, grid: np.ndarray, groups: dict[str, np.ndarray]
-               ) -> dict[tuple[str, int], tuple[float | None, str]]:
+def _crossings(
+    arrays: ProductArrays, limit_set: LimitSet, grid: np.ndarray, groups: dict[str, np.ndarray]
+) -> dict[tuple[str, int], tuple[float | None, str]]:
     """Distance beyond which each family stays in group ``k`` or lower, for k = Exempt, RG1, RG2 [m].
 
     Bracketed on the grid, then all brackets narrowed together by :func:`hazard.method.search.log_search`. The group is
@@ -86,8 +87,15 @@ def distance_study(arrays: ProductArrays, limit_set: LimitSet, largest_dimension
     for name, _ in grouped:
         for k, group in enumerate(limit_set.boundaries):
             distance_m, how = crossings[(name, k)]
-            boundaries.append(BoundaryDistance(family=name, group=group, distance_mm=None if distance_m is None
-                                               else distance_m * 1e3, criterion=criteria.get((name, k)), note=how))
+            boundaries.append(
+                BoundaryDistance(
+                    family=name,
+                    group=group,
+                    distance_mm=None if distance_m is None else distance_m * 1e3,
+                    criterion=criteria.get((name, k)),
+                    note=how,
+                )
+            )
     for group in limit_set.boundaries:
         found = [b for b in boundaries if b.group == group and b.note != "not assessed"]
         if not found:
@@ -96,11 +104,18 @@ def distance_study(arrays: ProductArrays, limit_set: LimitSet, largest_dimension
             minimum[group] = None
         else:
             minimum[group] = max((b.distance_mm for b in found if b.distance_mm is not None), default=0.0)
-    t_max = {name: [None if np.isnan(t) else float(t) for t in family_t_max(ev, members)]
-             for name, members in limit_set.families}
+    t_max = {
+        name: [None if np.isnan(t) else float(t) for t in family_t_max(ev, members)]
+        for name, members in limit_set.families
+    }
     names = limit_set.groups
     groups = {name: [names[g] if g >= 0 else None for g in family_groups(ev, members)] for name, members in grouped}
-    return DistanceStudy(distance_mm=[float(d * 1e3) for d in grid],
-                         group=[names[g] if g >= 0 else None for g in ev.group_index],
-                         family_group=groups, t_max_s=t_max, boundaries=boundaries, minimum_distance_mm=minimum,
-                         near_field_below_mm=5 * largest_dimension_mm)
+    return DistanceStudy(
+        distance_mm=[float(d * 1e3) for d in grid],
+        group=[names[g] if g >= 0 else None for g in ev.group_index],
+        family_group=groups,
+        t_max_s=t_max,
+        boundaries=boundaries,
+        minimum_distance_mm=minimum,
+        near_field_below_mm=5 * largest_dimension_mm,
+    )

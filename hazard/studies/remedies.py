@@ -45,6 +45,7 @@ def _reaches(arrays, limit_set, jobs: list[tuple[str, int]], variant: str):
 
     ``variant`` is ``raw_scale`` (dimming) or ``size_scale`` (a diffuser).
     """
+
     def test(x: np.ndarray, index: np.ndarray) -> np.ndarray:
         ev = evaluate_rows(arrays, x.size, limit_set, **{variant: x.ravel()})
         targets = np.repeat(np.asarray(index), x.shape[1])
@@ -54,6 +55,7 @@ def _reaches(arrays, limit_set, jobs: list[tuple[str, int]], variant: str):
             groups = _groups_of(ev, target, limit_set)[rows]
             ok[rows] = groups <= np.array([jobs[j][1] for j in targets[rows]])
         return ok.reshape(x.shape)
+
     return test
 
 
@@ -65,8 +67,9 @@ def _largest_dimming(arrays, limit_set, jobs: list[tuple[str, int]]) -> list[flo
     """
     reaches = _reaches(arrays, limit_set, jobs, "raw_scale")
     ok_at_least = reaches(np.full((len(jobs), 1), _LEAST_DIMMING), np.arange(len(jobs)))[:, 0]
-    _, inverse = log_search(lambda y, index: reaches(1 / y, index), np.ones(len(jobs)),
-                            np.full(len(jobs), 1 / _LEAST_DIMMING))
+    _, inverse = log_search(
+        lambda y, index: reaches(1 / y, index), np.ones(len(jobs)), np.full(len(jobs), 1 / _LEAST_DIMMING)
+    )
     return [float(1 / inverse[i]) if ok_at_least[i] else None for i in range(len(jobs))]
 
 
@@ -82,8 +85,9 @@ def _smallest_area(arrays, limit_set, jobs: list[tuple[str, int]]) -> list[float
     return [float(scale[i] ** 2) if ok_at_largest[i] else None for i in range(len(jobs))]
 
 
-def _band_shares(spectrum: Spectrum, to_assessment: float, limit_set: LimitSet, assessed: set[str]
-                 ) -> dict[str, list[BandContribution]]:
+def _band_shares(
+    spectrum: Spectrum, to_assessment: float, limit_set: LimitSet, assessed: set[str]
+) -> dict[str, list[BandContribution]]:
     """Each assessed hazard's value by bands of a fixed width (its stepped :class:`~hazard.standards.BandShare`).
 
     Largest first, bands of at least 0.1 % of the total.
@@ -102,9 +106,11 @@ def _band_shares(spectrum: Spectrum, to_assessment: float, limit_set: LimitSet, 
             if not total > 0:
                 continue
             order = np.argsort(-values)
-            out[hazard.symbol] = [BandContribution(band_nm=bands[k], value=float(values[k]),
-                                                   share=float(values[k] / total))
-                                  for k in order if values[k] / total >= 1e-3]
+            out[hazard.symbol] = [
+                BandContribution(band_nm=bands[k], value=float(values[k]), share=float(values[k] / total))
+                for k in order
+                if values[k] / total >= 1e-3
+            ]
     return out
 
 
@@ -116,14 +122,18 @@ def _why_none(target: str, dimming: float | None, area: float | None, radiance: 
         if target in radiance:
             notes.append(f"enlarging the area up to ×{_MAX_AREA_FACTOR:g} does not reach this group")
         else:
-            notes.append(f"a diffuser changes radiance only; see the "
-                         f"{' and '.join(name.replace(' ', '-') for name in sorted(radiance))} rows"
-                         if target == "product" else "no diffuser factor: not a radiance hazard")
+            notes.append(
+                f"a diffuser changes radiance only; see the "
+                f"{' and '.join(name.replace(' ', '-') for name in sorted(radiance))} rows"
+                if target == "product"
+                else "no diffuser factor: not a radiance hazard"
+            )
     return "; ".join(notes)
 
 
-def remedies_study(arrays: ProductArrays, spectrum: Spectrum, to_assessment: float, limit_set: LimitSet,
-                   assessed: set[str]) -> Remedies:
+def remedies_study(
+    arrays: ProductArrays, spectrum: Spectrum, to_assessment: float, limit_set: LimitSet, assessed: set[str]
+) -> Remedies:
     """Remedies for one product (one row of ``arrays``).
 
     Parameters
@@ -146,11 +156,21 @@ def remedies_study(arrays: ProductArrays, spectrum: Spectrum, to_assessment: flo
     radiance = _radiance_families(limit_set)
     area_jobs = [(t, g) for t, g in jobs if t in radiance]
     areas = dict(zip(area_jobs, _smallest_area(arrays, limit_set, area_jobs), strict=True)) if area_jobs else {}
-    remedies = [Remedy(target=t, group=limit_set.groups[g], dimming_factor=f, area_factor=areas.get((t, g)),
-                       note=_why_none(t, f, areas.get((t, g)), radiance))
-                for (t, g), f in zip(jobs, dimming, strict=True)]
-    return Remedies(remedies=remedies, uv_bands=_band_shares(spectrum, to_assessment, limit_set, assessed),
-                    note="Dimming factors are the largest emission multipliers (or neutral filter transmissions) "
-                         "that reach the group; area factors enlarge the emitting area at the same power (a "
-                         "diffuser). Each was found by re-assessing the product, as the standard's distances "
-                         "apply.")
+    remedies = [
+        Remedy(
+            target=t,
+            group=limit_set.groups[g],
+            dimming_factor=f,
+            area_factor=areas.get((t, g)),
+            note=_why_none(t, f, areas.get((t, g)), radiance),
+        )
+        for (t, g), f in zip(jobs, dimming, strict=True)
+    ]
+    return Remedies(
+        remedies=remedies,
+        uv_bands=_band_shares(spectrum, to_assessment, limit_set, assessed),
+        note="Dimming factors are the largest emission multipliers (or neutral filter transmissions) "
+        "that reach the group; area factors enlarge the emitting area at the same power (a "
+        "diffuser). Each was found by re-assessing the product, as the standard's distances "
+        "apply.",
+    )

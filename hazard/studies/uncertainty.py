@@ -20,8 +20,14 @@ from hazard.standards import LimitSet
 __all__ = ["uncertainty_study"]
 
 
-def uncertainty_study(arrays: ProductArrays, spectrum: Spectrum, no_emission_outside: bool, limit_set: LimitSet,
-                      uncertainty_pct: float, wavelength_uncertainty_nm: float) -> UncertaintyStudy:
+def uncertainty_study(
+    arrays: ProductArrays,
+    spectrum: Spectrum,
+    no_emission_outside: bool,
+    limit_set: LimitSet,
+    uncertainty_pct: float,
+    wavelength_uncertainty_nm: float,
+) -> UncertaintyStudy:
     """Assess the nine variants of one product and summarise the group bounds.
 
     Parameters
@@ -37,8 +43,9 @@ def uncertainty_study(arrays: ProductArrays, spectrum: Spectrum, no_emission_out
     """
     u, shift = uncertainty_pct / 100, wavelength_uncertainty_nm
     shifts = np.array([-shift, 0.0, shift])
-    shifted = integrate_spectra([spectrum.wavelength_nm + s for s in shifts], [spectrum.value] * 3,
-                                [no_emission_outside] * 3, limit_set)
+    shifted = integrate_spectra(
+        [spectrum.wavelength_nm + s for s in shifts], [spectrum.value] * 3, [no_emission_outside] * 3, limit_set
+    )
     scales = np.array([1 - u, 1.0, 1 + u])
     ev = evaluate_rows(arrays, 9, limit_set, raw=np.repeat(shifted.raw, 3, axis=0), raw_scale=np.tile(scales, 3))
     nominal, minus, plus = 4, 1, 7  # (shift index × 3 + scale index)
@@ -51,13 +58,19 @@ def uncertainty_study(arrays: ProductArrays, spectrum: Spectrum, no_emission_out
         finite = values[~np.isnan(values)]
         assessed = groups[groups >= 0]
         member = family_member(ev, members, nominal)
-        bounds.append(HazardBounds(
-            family=name, criterion=member, unit=None if member is None else limit_set[member].unit,
-            value_low=float(finite.min()), value_high=float(finite.max()),
-            value_shift_minus=None if np.isnan(values[minus]) else float(values[minus]),
-            value_shift_plus=None if np.isnan(values[plus]) else float(values[plus]),
-            group_low=names[assessed.min()] if assessed.size else None,
-            group_high=names[assessed.max()] if assessed.size else None))
+        bounds.append(
+            HazardBounds(
+                family=name,
+                criterion=member,
+                unit=None if member is None else limit_set[member].unit,
+                value_low=float(finite.min()),
+                value_high=float(finite.max()),
+                value_shift_minus=None if np.isnan(values[minus]) else float(values[minus]),
+                value_shift_plus=None if np.isnan(values[plus]) else float(values[plus]),
+                group_low=names[assessed.min()] if assessed.size else None,
+                group_high=names[assessed.max()] if assessed.size else None,
+            )
+        )
     overall = ev.group_index
     name = [names[g] if g >= 0 else None for g in overall]
     low, high = name[int(np.argmin(overall))], name[int(np.argmax(overall))]
@@ -65,9 +78,18 @@ def uncertainty_study(arrays: ProductArrays, spectrum: Spectrum, no_emission_out
     if high is None:
         note = "no risk group could be determined at any variant"
     elif verdict == "borderline":
-        note = (f"within ±{uncertainty_pct:g} % (k = 2) and ±{shift:g} nm the product may be {low or 'undetermined'} "
-                f"or {high}: send it to the laboratory")
+        note = (
+            f"within ±{uncertainty_pct:g} % (k = 2) and ±{shift:g} nm the product may be {low or 'undetermined'} "
+            f"or {high}: send it to the laboratory"
+        )
     else:
         note = f"the group {name[nominal]} holds across ±{uncertainty_pct:g} % (k = 2) and ±{shift:g} nm"
-    return UncertaintyStudy(uncertainty_pct=uncertainty_pct, wavelength_uncertainty_nm=shift, hazards=bounds,
-                            risk_group_low=low, risk_group_high=high, verdict=verdict, note=note)
+    return UncertaintyStudy(
+        uncertainty_pct=uncertainty_pct,
+        wavelength_uncertainty_nm=shift,
+        hazards=bounds,
+        risk_group_low=low,
+        risk_group_high=high,
+        verdict=verdict,
+        note=note,
+    )

@@ -19,8 +19,9 @@ __all__ = ["Limits", "RawSpectrum", "current_limits", "read_spectrum"]
 _BY_SUFFIX = {".xlsx": read_xlsx, ".json": read_json}
 
 
-def read_spectrum(path: str, *, display_path: str, column: str | int | None = None,
-                  limits: Limits | None = None) -> tuple[RawSpectrum, dict]:
+def read_spectrum(
+    path: str, *, display_path: str, column: str | int | None = None, limits: Limits | None = None
+) -> tuple[RawSpectrum, dict]:
     """Read one spectrum file with the reader for its format.
 
     Parameters

@@ -66,9 +66,11 @@ def current_limits() -> Limits:
     except ValueError:
         megabytes = math.nan
     if not (math.isfinite(megabytes) and 0 < megabytes <= 2**20):
-        raise InputError(f"{MAX_FILE_MB_VARIABLE}={excerpt(text)} is not a size in MB",
-                         f"set it to a number of MB from above 0 to {2**20}, e.g. 50, or unset it",
-                         "environment")
+        raise InputError(
+            f"{MAX_FILE_MB_VARIABLE}={excerpt(text)} is not a size in MB",
+            f"set it to a number of MB from above 0 to {2**20}, e.g. 50, or unset it",
+            "environment",
+        )
     return Limits(max_bytes=int(megabytes * 1024 * 1024))
 
 
@@ -106,20 +108,31 @@ class RawSpectrum:
 
 def read_bytes(path: str, display_path: str, limits: Limits) -> tuple[bytes, str]:
     """The bytes of a spectrum file and their SHA-256: a regular, non-empty file within the size limit."""
-    raw = read_user_file(path, what="spectrum file", display=display_path, max_bytes=limits.max_bytes,
-                         fix_missing="check the 'spectrum' path (relative to the record's folder)",
-                         fix_large=f"trim it to the spectrum, or raise {MAX_FILE_MB_VARIABLE}")
+    raw = read_user_file(
+        path,
+        what="spectrum file",
+        display=display_path,
+        max_bytes=limits.max_bytes,
+        fix_missing="check the 'spectrum' path (relative to the record's folder)",
+        fix_large=f"trim it to the spectrum, or raise {MAX_FILE_MB_VARIABLE}",
+    )
     if not raw:
-        raise InputError("no data rows: the file is empty", "export the spectrum again: wavelength in nm, then "
-                         "the value", display_path)
+        raise InputError(
+            "no data rows: the file is empty",
+            "export the spectrum again: wavelength in nm, then the value",
+            display_path,
+        )
     return raw, hashlib.sha256(raw).hexdigest()
 
 
 def decode_text(raw: bytes, display_path: str) -> str:
     """UTF-8 (with or without BOM), else Latin-1; binary content is refused."""
     if b"\x00" in raw[:4096]:
-        raise InputError("this is a binary file, not a text spectrum",
-                         "export the spectrum as CSV/TSV text, .xlsx or JSON", display_path)
+        raise InputError(
+            "this is a binary file, not a text spectrum",
+            "export the spectrum as CSV/TSV text, .xlsx or JSON",
+            display_path,
+        )
     try:
         return raw.decode("utf-8-sig")
     except UnicodeDecodeError:

@@ -60,31 +60,51 @@ def _metadata_item(line: str) -> tuple[str, str] | None:
     return None
 
 
-def _careful(rows: list[str], numbers: np.ndarray, delimiter: str | None, decimal_comma: bool, width: int,
-             path: str, limits: Limits) -> np.ndarray:
+def _careful(
+    rows: list[str],
+    numbers: np.ndarray,
+    delimiter: str | None,
+    decimal_comma: bool,
+    width: int,
+    path: str,
+    limits: Limits,
+) -> np.ndarray:
     """Parse row by row, raising for the first bad line; the table (n, width)."""
     table = []
     for number, line in zip(numbers.tolist(), rows, strict=True):
         cells = _cells(line.strip(), delimiter, decimal_comma)
         if len(cells) != width:
-            raise InputError(f"{len(cells)} cells where the table has {width}", "give every row the same columns",
-                             path, number)
+            raise InputError(
+                f"{len(cells)} cells where the table has {width}", "give every row the same columns", path, number
+            )
         for cell in cells:
             _check_cell_length(cell, limits, path, number)
             if not cell:
-                raise InputError("empty cell in a number column (the file may be truncated)",
-                                 "export the spectrum again, or remove the incomplete row", path, number)
+                raise InputError(
+                    "empty cell in a number column (the file may be truncated)",
+                    "export the spectrum again, or remove the incomplete row",
+                    path,
+                    number,
+                )
             if not _is_number(cell):
-                raise InputError(f"text {excerpt(cell)} in a number column",
-                                 "use plain numbers (decimal point or decimal comma, consistently)", path, number)
+                raise InputError(
+                    f"text {excerpt(cell)} in a number column",
+                    "use plain numbers (decimal point or decimal comma, consistently)",
+                    path,
+                    number,
+                )
         table.append([float(c) for c in cells])
     return np.array(table, dtype=float).reshape(-1, width)
 
 
 def _check_cell_length(cell: str, limits: Limits, path: str, line: int) -> None:
     if len(cell) > limits.max_cell_chars:
-        raise InputError(f"a cell of {len(cell):,} characters", f"keep cells under {limits.max_cell_chars:,} "
-                         f"characters: a number, a column name or a unit", path, line)
+        raise InputError(
+            f"a cell of {len(cell):,} characters",
+            f"keep cells under {limits.max_cell_chars:,} characters: a number, a column name or a unit",
+            path,
+            line,
+        )
 
 
 def _lines_from(text: str):
@@ -114,15 +134,21 @@ def _fast(rows: list[str], delimiter: str | None, decimal_comma: bool, width: in
     if decimal_comma:
         body = body.replace(",", ".")
     try:
-        table = np.loadtxt(io.StringIO(body), delimiter=delimiter, ndmin=2, dtype=float, quotechar='"',
-                           comments=None)
+        table = np.loadtxt(io.StringIO(body), delimiter=delimiter, ndmin=2, dtype=float, quotechar='"', comments=None)
     except ValueError:
         return None
     return table if table.shape == (len(rows), width) else None
 
 
-def _parse(rows: list[str], numbers: np.ndarray, delimiter: str | None, decimal_comma: bool, width: int, path: str,
-           limits: Limits) -> np.ndarray:
+def _parse(
+    rows: list[str],
+    numbers: np.ndarray,
+    delimiter: str | None,
+    decimal_comma: bool,
+    width: int,
+    path: str,
+    limits: Limits,
+) -> np.ndarray:
     """The table of ``rows``, a chunk at a time.
 
     numpy's C parser reads each chunk, the careful pass only a chunk it refuses, so that naming a bad last line costs no
@@ -130,15 +156,19 @@ def _parse(rows: list[str], numbers: np.ndarray, delimiter: str | None, decimal_
     """
     tables = [np.empty((0, width))]
     for k in range(0, len(rows), PARSE_CHUNK_ROWS):
-        chunk = rows[k:k + PARSE_CHUNK_ROWS]
+        chunk = rows[k : k + PARSE_CHUNK_ROWS]
         table = _fast(chunk, delimiter, decimal_comma, width)
-        tables.append(table if table is not None else _careful(chunk, numbers[k:k + PARSE_CHUNK_ROWS], delimiter,
-                                                                decimal_comma, width, path, limits))
+        tables.append(
+            table
+            if table is not None
+            else _careful(chunk, numbers[k : k + PARSE_CHUNK_ROWS], delimiter, decimal_comma, width, path, limits)
+        )
     return np.concatenate(tables)
 
 
-def read_delimited(path: str, *, display_path: str, column: str | int | None = None,
-                   limits: Limits | None = None) -> tuple[RawSpectrum, dict]:
+def read_delimited(
+    path: str, *, display_path: str, column: str | int | None = None, limits: Limits | None = None
+) -> tuple[RawSpectrum, dict]:
     """Read a delimited text spectrum.
 
     Parameters
@@ -165,8 +195,7 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
     limits = limits or current_limits()
     raw, digest = read_bytes(path, display_path, limits)
     if max(raw.count(b"\n"), raw.count(b"\r")) > 2 * limits.max_rows + 1000:  # room for blank lines
-        raise InputError(f"more than {limits.max_rows:,} rows", "resample the spectrum to a coarser grid",
-                         display_path)
+        raise InputError(f"more than {limits.max_rows:,} rows", "resample the spectrum to a coarser grid", display_path)
     text = decode_text(raw, display_path)
     if "\r" in text:
         text = text.replace("\r\n", "\n").replace("\r", "\n")
@@ -186,19 +215,27 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
         cells = _cells(stripped, delimiter, decimal_comma)
         if _is_number(cells[0]):
             if len(cells) < 2:
-                raise InputError("only one column found", "give two columns: wavelength in nm, then the spectral "
-                                 "value, separated by a comma, tab or semicolon", display_path, index + 1)
+                raise InputError(
+                    "only one column found",
+                    "give two columns: wavelength in nm, then the spectral "
+                    "value, separated by a comma, tab or semicolon",
+                    display_path,
+                    index + 1,
+                )
             start = index
             break
         preamble.append((index + 1, stripped))
     body_offset = line_start
     if start is None:
-        raise InputError("no data rows", "give two columns: wavelength in nm, then the spectral value",
-                         display_path)
+        raise InputError("no data rows", "give two columns: wavelength in nm, then the spectral value", display_path)
     width = len(cells)
     if width > limits.max_columns:
-        raise InputError(f"{width:,} columns, above the {limits.max_columns:,} limit", "keep the wavelength and "
-                         "the value columns you need", display_path, index + 1)
+        raise InputError(
+            f"{width:,} columns, above the {limits.max_columns:,} limit",
+            "keep the wavelength and the value columns you need",
+            display_path,
+            index + 1,
+        )
     for cell in cells:
         _check_cell_length(cell, limits, display_path, index + 1)
     header, header_number = None, None
@@ -208,8 +245,12 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
         if len(header_cells) == width:
             if any(_is_number(c) for c in _cells(last_line, delimiter, decimal_comma)[1:]):
                 bad = header_cells[0]  # numbers beside it: a data row whose first cell is mistyped
-                raise InputError(f"text {excerpt(bad)} in a number column", "use plain numbers (a letter O or l for a "
-                                 "digit is a common slip)", display_path, last_number)
+                raise InputError(
+                    f"text {excerpt(bad)} in a number column",
+                    "use plain numbers (a letter O or l for a digit is a common slip)",
+                    display_path,
+                    last_number,
+                )
             for cell in header_cells:
                 _check_cell_length(cell, limits, display_path, last_number)
             header, header_number = header_cells, last_number
@@ -218,21 +259,39 @@ def read_delimited(path: str, *, display_path: str, column: str | int | None = N
     value_index = choose_value_column(header, width, column, display_path)
     rows, numbers = _data_rows(text[body_offset:], start + 1)
     if len(rows) > limits.max_rows:
-        raise InputError(f"{len(rows):,} rows, above the {limits.max_rows:,} limit",
-                         "resample the spectrum to a coarser grid", display_path)
+        raise InputError(
+            f"{len(rows):,} rows, above the {limits.max_rows:,} limit",
+            "resample the spectrum to a coarser grid",
+            display_path,
+        )
     table = _parse(rows, numbers, delimiter, decimal_comma, width, display_path, limits)
     scale = wavelength_scale(header[0] if header else None, display_path, header_number)
     warnings = []
     if scale != 1.0:
-        warnings.append(f"{display_path}: the wavelength column's header gives {1 / scale if scale < 1 else scale:g}"
-                        f"{' nm per unit' if scale >= 1 else ' units per nm'}; converted to nm")
+        warnings.append(
+            f"{display_path}: the wavelength column's header gives {1 / scale if scale < 1 else scale:g}"
+            f"{' nm per unit' if scale >= 1 else ' units per nm'}; converted to nm"
+        )
     if not raw.endswith(b"\n"):
-        warnings.append(f"{display_path}: the file does not end with a line break, so it may be truncated; "
-                        f"check its last row")
-    spectrum = RawSpectrum(wavelength_nm=to_nm(table[:, 0], scale), value=table[:, value_index], lines=numbers,
-                           path=display_path, header_cell=header[value_index] if header else None,
-                           header_line=header_number, warnings=tuple(warnings))
-    info = {"header": header, "value_column": header[value_index] if header else value_index,
-            "comments": comments, "metadata": metadata, "delimiter": delimiter or "whitespace",
-            "decimal_comma": decimal_comma, "sha256": digest}
+        warnings.append(
+            f"{display_path}: the file does not end with a line break, so it may be truncated; check its last row"
+        )
+    spectrum = RawSpectrum(
+        wavelength_nm=to_nm(table[:, 0], scale),
+        value=table[:, value_index],
+        lines=numbers,
+        path=display_path,
+        header_cell=header[value_index] if header else None,
+        header_line=header_number,
+        warnings=tuple(warnings),
+    )
+    info = {
+        "header": header,
+        "value_column": header[value_index] if header else value_index,
+        "comments": comments,
+        "metadata": metadata,
+        "delimiter": delimiter or "whitespace",
+        "decimal_comma": decimal_comma,
+        "sha256": digest,
+    }
     return spectrum, info

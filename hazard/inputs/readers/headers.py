@@ -42,7 +42,7 @@ def _bracketed(cell: str) -> tuple[int, str] | None:
         elif char == ")":
             nested = True
         elif char in _OPEN:
-            return i, cell[i + 1:end].strip()
+            return i, cell[i + 1 : end].strip()
         elif char == "]":
             return None
     return None
@@ -57,9 +57,12 @@ def _unit_text(cell: str) -> str | None:
     return parts[1].strip() if len(parts) == 2 else None
 
 
-_UNCALIBRATED = re.compile(r"(?<![a-z])(counts?|cnts?|digits|adc|dn|raw|signal|intensity|relative|rel|a\.?u\.?|arb"
-                           r"|arbitrary|normali[sz]ed|norm|percent|transmittance|reflectance|absorbance|scope"
-                           r"|sample)(?![a-z])|%", re.IGNORECASE)
+_UNCALIBRATED = re.compile(
+    r"(?<![a-z])(counts?|cnts?|digits|adc|dn|raw|signal|intensity|relative|rel|a\.?u\.?|arb"
+    r"|arbitrary|normali[sz]ed|norm|percent|transmittance|reflectance|absorbance|scope"
+    r"|sample)(?![a-z])|%",
+    re.IGNORECASE,
+)
 """Words in a header cell that name values which are not a calibrated spectral irradiance or radiance."""
 
 
@@ -108,12 +111,14 @@ def header_statement(cell: str) -> HeaderStatement:
                 continue
             return HeaderStatement(cell, unit=candidate)
     if _UNCALIBRATED.search(cell):
-        return HeaderStatement(cell, problem=f"{cell!r} names values that are not a calibrated spectral "
-                                             f"irradiance or radiance")
+        return HeaderStatement(
+            cell, problem=f"{cell!r} names values that are not a calibrated spectral irradiance or radiance"
+        )
     if stated:
         if _per_area(stated):
-            return HeaderStatement(cell, problem=f"{cell!r} states {stated!r}, a power per area without /nm: "
-                                                 f"not a spectral quantity")
+            return HeaderStatement(
+                cell, problem=f"{cell!r} states {stated!r}, a power per area without /nm: not a spectral quantity"
+            )
         return HeaderStatement(cell, problem=f"{cell!r} states {stated!r}, a unit this tool does not read")
     return HeaderStatement(cell)
 
@@ -127,13 +132,29 @@ def _per_area(text: str) -> bool:
     return True
 
 
-_WAVELENGTH_UNITS = {"nm": 1.0, "nanometre": 1.0, "nanometer": 1.0, "nanometres": 1.0, "nanometers": 1.0,
-                     "um": 1000.0, "micron": 1000.0, "microns": 1000.0, "micrometre": 1000.0,
-                     "micrometer": 1000.0, "micrometres": 1000.0, "micrometers": 1000.0,
-                     "å": 0.1, "a": 0.1, "angstrom": 0.1, "angstroms": 0.1, "ångström": 0.1}
+_WAVELENGTH_UNITS = {
+    "nm": 1.0,
+    "nanometre": 1.0,
+    "nanometer": 1.0,
+    "nanometres": 1.0,
+    "nanometers": 1.0,
+    "um": 1000.0,
+    "micron": 1000.0,
+    "microns": 1000.0,
+    "micrometre": 1000.0,
+    "micrometer": 1000.0,
+    "micrometres": 1000.0,
+    "micrometers": 1000.0,
+    "å": 0.1,
+    "a": 0.1,
+    "angstrom": 0.1,
+    "angstroms": 0.1,
+    "ångström": 0.1,
+}
 """Wavelength units a header may state, and their factor to nm."""
-_NOT_WAVELENGTH = re.compile(r"wave\s*number|cm\s*\^?\s*-\s*1|cm⁻¹|1\s*/\s*cm|\bev\b|\bthz\b|\bhz\b|frequency",
-                             re.IGNORECASE)
+_NOT_WAVELENGTH = re.compile(
+    r"wave\s*number|cm\s*\^?\s*-\s*1|cm⁻¹|1\s*/\s*cm|\bev\b|\bthz\b|\bhz\b|frequency", re.IGNORECASE
+)
 
 
 def wavelength_scale(cell: str | None, path: str = "", line: int | None = None) -> float:
@@ -155,21 +176,30 @@ def wavelength_scale(cell: str | None, path: str = "", line: int | None = None) 
     if not cell:
         return 1.0
     if _NOT_WAVELENGTH.search(cell):
-        raise InputError(f"the wavelength column's header {cell[:40]!r} states wavenumbers, frequencies or "
-                         f"energies, not wavelengths", "convert the column to wavelength in nm", path, line)
+        raise InputError(
+            f"the wavelength column's header {cell[:40]!r} states wavenumbers, frequencies or "
+            f"energies, not wavelengths",
+            "convert the column to wavelength in nm",
+            path,
+            line,
+        )
     unit = _unit_text(cell)
     if unit is None:
         return 1.0
     key = unit.replace("µ", "u").replace("μ", "u").strip().lower()
     if key not in _WAVELENGTH_UNITS:
-        raise InputError(f"the wavelength column's header states {unit[:40]!r}, a unit this tool does not read",
-                         "give the wavelength in nm (or µm or Å, named so in the header)", path, line)
+        raise InputError(
+            f"the wavelength column's header states {unit[:40]!r}, a unit this tool does not read",
+            "give the wavelength in nm (or µm or Å, named so in the header)",
+            path,
+            line,
+        )
     return _WAVELENGTH_UNITS[key]
 
 
 def _bare(cell: str) -> str:
     found = _bracketed(cell)
-    return (cell if found is None else cell[:found[0]]).strip().lower()
+    return (cell if found is None else cell[: found[0]]).strip().lower()
 
 
 def choose_value_column(header: list[str] | None, width: int, column: str | int | None, path: str) -> int:
@@ -181,18 +211,25 @@ def choose_value_column(header: list[str] | None, width: int, column: str | int 
     if column is None:
         if width > 2:
             names = ", ".join(header[1:]) + " or a number" if header else f"a number from 1 to {width - 1}"
-            raise InputError(f"{width - 1} value columns",
-                             f"name the one to use with 'column' in the record: {names}", path)
+            raise InputError(
+                f"{width - 1} value columns", f"name the one to use with 'column' in the record: {names}", path
+            )
         return 1
     if isinstance(column, int) or (isinstance(column, str) and column.isdigit()):
         number = int(column)
         if not 1 <= number <= width - 1:
-            raise InputError(f"column {number} does not exist ({width - 1} value columns)",
-                             "give a number from 1 to the count of value columns", path)
+            raise InputError(
+                f"column {number} does not exist ({width - 1} value columns)",
+                "give a number from 1 to the count of value columns",
+                path,
+            )
         return number
     if header:
-        for match in (lambda h: h == column, lambda h: h.lower() == column.lower(),
-                      lambda h: _bare(h) == _bare(column)):
+        for match in (
+            lambda h: h == column,
+            lambda h: h.lower() == column.lower(),
+            lambda h: _bare(h) == _bare(column),
+        ):
             found = [i for i, h in enumerate(header) if i > 0 and match(h)]
             if found:
                 return found[0]

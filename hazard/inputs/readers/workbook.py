@@ -28,16 +28,23 @@ def _check_parts(raw: bytes, display: str, max_unpacked_bytes: int) -> None:
         with zipfile.ZipFile(io.BytesIO(raw)) as archive:
             total = sum(part.file_size for part in archive.infolist())
     except (zipfile.BadZipFile, zipfile.LargeZipFile, OSError, ValueError, EOFError):
-        raise InputError("not an .xlsx workbook (the file is not a valid zip archive)",
-                         "save it again as .xlsx, or export CSV", display) from None
+        raise InputError(
+            "not an .xlsx workbook (the file is not a valid zip archive)",
+            "save it again as .xlsx, or export CSV",
+            display,
+        ) from None
     if total > max_unpacked_bytes:
-        raise InputError(f"the workbook unpacks to {total / 2**20:.1f} MB, above the "
-                         f"{max_unpacked_bytes / 2**20:.0f} MB limit of a workbook",
-                         "keep only the table on the first sheet, or export CSV", display)
+        raise InputError(
+            f"the workbook unpacks to {total / 2**20:.1f} MB, above the "
+            f"{max_unpacked_bytes / 2**20:.0f} MB limit of a workbook",
+            "keep only the table on the first sheet, or export CSV",
+            display,
+        )
 
 
-def workbook_rows(raw: bytes, display: str, *, max_rows: int, max_columns: int, max_unpacked_bytes: int,
-                  what: str = "workbook") -> list[tuple[int, list]]:
+def workbook_rows(
+    raw: bytes, display: str, *, max_rows: int, max_columns: int, max_unpacked_bytes: int, what: str = "workbook"
+) -> list[tuple[int, list]]:
     """(row number, cell values) of the first sheet's non-empty rows, trailing empty cells dropped.
 
     openpyxl's warnings about the file (invalid parts it skips) are silenced: the rows say what matters.
@@ -72,8 +79,9 @@ def _rows(raw: bytes, display: str, max_rows: int, max_columns: int, what: str) 
     try:
         book = openpyxl.load_workbook(io.BytesIO(raw), read_only=True, data_only=True)
     except Exception as exc:  # a damaged workbook raises many kinds of error
-        raise InputError(f"cannot read the workbook ({type(exc).__name__})", "save it again as .xlsx, or export "
-                         "CSV", display) from None
+        raise InputError(
+            f"cannot read the workbook ({type(exc).__name__})", "save it again as .xlsx, or export CSV", display
+        ) from None
     number, rows = 0, []
     try:
         if not book.worksheets:
@@ -82,12 +90,14 @@ def _rows(raw: bytes, display: str, max_rows: int, max_columns: int, what: str) 
         sheet.reset_dimensions()  # the size a sheet states may be false: read what is there
         for number, values in enumerate(sheet.iter_rows(values_only=True, max_col=max_columns + 1), start=1):
             if number > max_rows:
-                raise InputError(f"more than {max_rows:,} rows on the first sheet",
-                                 f"keep only the {what} on the sheet, or export CSV", display)
+                raise InputError(
+                    f"more than {max_rows:,} rows on the first sheet",
+                    f"keep only the {what} on the sheet, or export CSV",
+                    display,
+                )
             cells = list(values)
             if len(cells) > max_columns and cells[max_columns] is not None:
-                raise InputError(f"more than {max_columns} columns", f"keep only the {what}'s columns",
-                                 display, number)
+                raise InputError(f"more than {max_columns} columns", f"keep only the {what}'s columns", display, number)
             while cells and cells[-1] is None:
                 cells.pop()
             if cells:
@@ -95,8 +105,11 @@ def _rows(raw: bytes, display: str, max_rows: int, max_columns: int, what: str) 
     except InputError:
         raise
     except Exception as exc:  # damaged XML surfaces lazily, as any of many errors
-        raise InputError(f"cannot read the workbook: damaged content after row {number} ({type(exc).__name__})",
-                         "save it again as .xlsx, or export CSV", display) from None
+        raise InputError(
+            f"cannot read the workbook: damaged content after row {number} ({type(exc).__name__})",
+            "save it again as .xlsx, or export CSV",
+            display,
+        ) from None
     finally:
         book.close()
     return rows
