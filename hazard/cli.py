@@ -12,6 +12,8 @@ import json
 import os
 import sys
 import traceback
+from collections.abc import Callable
+from functools import partial
 from pathlib import Path
 
 import click
@@ -447,8 +449,10 @@ def check(
     from hazard.inputs.loading import load_product
     from hazard.inputs.manifest import ManifestRow, read_manifest
     from hazard.output.text import render_claims
+    from hazard.result import Assessment
 
     tolerances = ClaimTolerances(cct_tolerance_k, cct_tolerance_pct, illuminance_tolerance_pct, t_max_tolerance_pct)
+    items: list[tuple[ManifestRow, Callable[[], Assessment]]]
     if source.suffix.lower() == ".toml":
         items = [
             (
@@ -457,10 +461,11 @@ def check(
             )
         ]
     else:
-        items = [
-            (row, (lambda row=row: run_assessment(load_row(row, allow_outside), tolerances=tolerances)))
-            for row in read_manifest(source)
-        ]
+
+        def assess_row(row: ManifestRow) -> Assessment:
+            return run_assessment(load_row(row, allow_outside), tolerances=tolerances)
+
+        items = [(row, partial(assess_row, row)) for row in read_manifest(source)]
     contradicted = failed = internal = False
     for row, run in items:
         try:

@@ -331,6 +331,8 @@ def _result(hazard: HazardResult, x: float, y: float, row_h: float, fonts: FontS
     """Right-hand column: the hazard's group as a labelled box, and its margin in words."""
     g = Group()
     group = hazard.risk_group
+    if group is None:  # excluded by _chart_rows: assessed hazards with risk groups
+        raise ValueError(f"{hazard.symbol} has no risk group to draw")
     g.add(Rect(x, y + 2, 38, row_h - 4, fillColor=group_fill(group), strokeColor=INK, strokeWidth=0.5))
     g.add(_text(x + 19, y + row_h / 2 - 2.5, group, fonts, 7, bold=True, color=group_ink(group), anchor="middle"))
     margin = format_margin(group, hazard.margins)
@@ -422,6 +424,8 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
     Drawing
     """
     study = assessment.distances
+    if study is None:
+        raise ValueError("the result holds no distance study to draw")
     d = Drawing(width, height)
     left, right, bottom = 40.0, 10.0, 38.0
     strip_h, label_row, near_row = 13.0, 10.0, 11.0

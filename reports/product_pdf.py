@@ -38,7 +38,7 @@ from hazard.reports.wording import (
     NOT_DETERMINED_NAME,
     WHAT_IF_MEANING,
 )
-from hazard.result import Assessment, HazardResult
+from hazard.result import Assessment, BlueLightTransfer, HazardResult, Scaling
 
 __all__ = ["render_assessment_pdf"]
 
@@ -114,6 +114,8 @@ def _deciding(a: Assessment) -> tuple[str, str]:
         return "Not assessed:", ", ".join(a.not_assessed) or "—"
     if a.risk_group == "Exempt":
         closest = tightest_margin(a)
+        if closest is None:  # a result with deciding hazards has a tightest one
+            raise ValueError("an Exempt result with deciding hazards but no margin")
         h = a.hazards[closest.symbol]
         return (
             "Closest to a boundary:",
@@ -247,7 +249,7 @@ def _hazard_table(a: Assessment, st: Styles) -> Flowable:
     head = ["Symbol", "Hazard", "Value", "Unit", "Limits as applied", "", "", "t_max", "Group", "Margin"]
     sub = ["", "", "", "", *a.limit_set.boundaries, "", "", ""]
     rows = [[st.p(h, st.head) for h in head], [st.p(h, st.head) for h in sub]]
-    extra = [("SPAN", (4, 0), (6, 0))] + [("SPAN", (c, 0), (c, 1)) for c in (0, 1, 2, 3, 7, 8, 9)]
+    extra: list[tuple] = [("SPAN", (4, 0), (6, 0))] + [("SPAN", (c, 0), (c, 1)) for c in (0, 1, 2, 3, 7, 8, 9)]
     fitted = [_TYPICAL_ROW]
     for i, h in enumerate(a.hazards.values(), start=2):
         if not h.assessed:
@@ -341,7 +343,7 @@ def _geometry(a: Assessment, st: Styles, studies_page: int) -> Flowable:
         ("Completeness", completeness),
     ]
     if a.scaling is not None:
-        cells.append(("Scaling", _scaling(a)))
+        cells.append(("Scaling", _scaling(a.scaling)))
     if a.claims:
         cells.append(("Vendor claims", _claims_summary(a)))
     if (studies := study_summary(a, studies_page)) is not None:
@@ -350,9 +352,8 @@ def _geometry(a: Assessment, st: Styles, studies_page: int) -> Flowable:
     return _key_values(cells, st, key_width=64)
 
 
-def _scaling(a: Assessment) -> str:
+def _scaling(sc: Scaling) -> str:
     """How a relative spectrum was made absolute, in one line."""
-    sc = a.scaling
     name, unit = _ANCHOR[sc.anchor]
     at = "" if sc.reference_distance_mm is None else f" at {sc.reference_distance_mm:g} mm"
     return (
@@ -525,9 +526,8 @@ def _claims_table(a: Assessment, st: Styles) -> list[Flowable]:
     return [st.p("Vendor claims checked", st.h2), table]
 
 
-def _transfer(a: Assessment) -> str:
+def _transfer(t: BlueLightTransfer) -> str:
     """The IEC TR 62778 blue-light transfer values in one line."""
-    t = a.blue_light_transfer
     return (
         f"IEC TR 62778:2014: K_B,v = {format_value(t.k_bv_w_per_lm)} W/lm; "
         f"E_thr = {format_value(t.threshold_illuminance_lx)} lx; "
@@ -554,8 +554,8 @@ def _inputs(a: Assessment, st: Styles) -> list[Flowable]:
         Spacer(1, 3),
         _key_values(
             [("Colour", "; ".join(colour) or "—")]
-            + ([("Blue-light transfer", _transfer(a))] if a.blue_light_transfer is not None else [])
-            + ([("Scaling", _scaling(a))] if a.scaling is not None else [])
+            + ([("Blue-light transfer", _transfer(a.blue_light_transfer))] if a.blue_light_transfer is not None else [])
+            + ([("Scaling", _scaling(a.scaling))] if a.scaling is not None else [])
             + (
                 [("File metadata", "; ".join(f"{k}: {v}" for k, v in s.file_metadata.items()))]
                 if s.file_metadata

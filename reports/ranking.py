@@ -76,6 +76,8 @@ def is_borderline(assessment: Assessment) -> bool:
     if tightest is None:
         return False
     hazard = assessment.hazards[tightest.symbol]
+    if hazard.risk_group is None:  # excluded by tightest_margin: only hazards with a group have a margin
+        raise ValueError(f"{tightest.symbol} has a margin but no risk group")
     limits = list(hazard.margins)  # the boundaries, rising
     rank = assessment.limit_set.groups.index(hazard.risk_group)
     boundaries = {limits[min(rank, len(limits) - 1)], limits[max(rank - 1, 0)]}

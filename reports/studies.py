@@ -15,7 +15,7 @@ from hazard.output.formatting import UNIT_DISPLAY, dimming_percent, distance_bey
 from hazard.reports.charts import distance_chart
 from hazard.reports.layout import FRAME_WIDTH
 from hazard.reports.style import INK, Styles, group_fill, group_ink, table_style
-from hazard.result import Assessment, DistanceStudy, Remedy
+from hazard.result import Assessment, BoundaryDistance, DistanceStudy, Remedies, Remedy, UncertaintyStudy
 
 __all__ = [
     "SECTION_TITLE",
@@ -118,9 +118,9 @@ def _family_label(a: Assessment, family: str) -> str:
 
 
 def _group_range(low: str | None, high: str | None) -> str:
-    if low is None and high is None:
-        return "—"
-    return (low or high) if low == high else f"{low} to {high}"
+    if low == high:
+        return low or "—"
+    return f"{low} to {high}"
 
 
 def study_summary(a: Assessment, page: int) -> str | None:
@@ -144,7 +144,7 @@ def study_summary(a: Assessment, page: int) -> str | None:
                 break
             distances.append(f"{name} {'beyond ' if distance else ''}{beyond(distance, s, metres=False)}")
         parts.append(", ".join(distances) + ("" if a.complete else " (assessed hazards only)"))
-    exempt = [r for r in _product_remedies(a) if r.group == "Exempt"] if a.remedies is not None else []
+    exempt = [r for r in _product_remedies(a.remedies) if r.group == "Exempt"] if a.remedies is not None else []
     if exempt and exempt[0].dimming_factor is not None:
         parts.append(f"Exempt at {dimming_percent(exempt[0].dimming_factor)} of today's output")
     return "; ".join(parts) + f" — page {page}" if parts else None
@@ -156,15 +156,16 @@ def uncertainty_summary(a: Assessment, page: int) -> tuple[str, str]:
     ``page`` is where the section starts.
     """
     u = a.uncertainty
+    if u is None:
+        raise ValueError("the result holds no uncertainty study")
     return "Uncertainty:", f"{u.verdict.upper()} — {u.note} (page {page})"
 
 
-def _product_remedies(a: Assessment) -> list[Remedy]:
-    return [r for r in a.remedies.remedies if r.target == "product"]
+def _product_remedies(remedies: Remedies) -> list[Remedy]:
+    return [r for r in remedies.remedies if r.target == "product"]
 
 
-def _distance_table(a: Assessment, st: Styles) -> Flowable:
-    s = a.distances
+def _distance_table(a: Assessment, s: DistanceStudy, st: Styles) -> Flowable:
     near = s.near_field_below_mm
     head = ["Beyond: in the group or lower", *a.limit_set.boundaries]
     rows = [[st.p(h, st.head) for h in head]]
@@ -185,19 +186,19 @@ def _distance_table(a: Assessment, st: Styles) -> Flowable:
         [st.p("Whole product", st.cell_bold)]
         + [cell(s.minimum_distance_mm.get(g), None, None, st.cell_bold, g) for g in a.limit_set.boundaries]
     )
-    by_family: dict[str, dict[str, object]] = {}
+    by_family: dict[str, dict[str, BoundaryDistance]] = {}
     for b in s.boundaries:
         if b.note != "not assessed":  # a family that was not assessed has nothing true to say about distance
             by_family.setdefault(b.family, {})[b.group] = b
     for family, found in by_family.items():
         cells = []
         for group in a.limit_set.boundaries:
-            b = found.get(group)
-            if b is None:
+            at = found.get(group)
+            if at is None:
                 cells.append(st.p("—", st.cell))
                 continue
-            criterion = b.criterion if b.criterion and b.criterion != family else None
-            cells.append(cell(b.distance_mm, criterion, None if b.distance_mm is not None else b.note, st.cell))
+            criterion = at.criterion if at.criterion and at.criterion != family else None
+            cells.append(cell(at.distance_mm, criterion, None if at.distance_mm is not None else at.note, st.cell))
         rows.append([st.p(family, st.cell_bold), *cells])
     first = max(st.bold_width(label) for label in ["Whole product", *by_family])
     table = Table(rows, colWidths=[first] + [(FRAME_WIDTH - first) / 3] * 3, repeatRows=1)
@@ -205,8 +206,7 @@ def _distance_table(a: Assessment, st: Styles) -> Flowable:
     return table
 
 
-def _uncertainty_block(a: Assessment, st: Styles) -> list[Flowable]:
-    u = a.uncertainty
+def _uncertainty_block(a: Assessment, u: UncertaintyStudy, st: Styles) -> list[Flowable]:
     shift = f"{u.wavelength_uncertainty_nm:g} nm"
     head = ["Hazard family", "Lowest – highest value", f"λ −{shift} / +{shift}", "Unit", "Group within it"]
     rows = [[st.p(h, st.head) for h in head]]
@@ -245,8 +245,7 @@ def _uncertainty_block(a: Assessment, st: Styles) -> list[Flowable]:
     ]
 
 
-def _remedies_block(a: Assessment, st: Styles) -> list[Flowable]:
-    r = a.remedies
+def _remedies_block(a: Assessment, r: Remedies, st: Styles) -> list[Flowable]:
     head = ["Target", "Now", "To reach", "Dimming (or a neutral filter)", "Diffuser (same power)"]
     rows = [[st.p(h, st.head) for h in head]]
     extra, targets = [], ["Target"]
@@ -254,7 +253,7 @@ def _remedies_block(a: Assessment, st: Styles) -> list[Flowable]:
     def same(x: Remedy) -> tuple:
         return x.group, x.dimming_factor, x.area_factor
 
-    product = _product_remedies(a)
+    product = _product_remedies(r)
     first_family: dict[tuple, str] = {}  # a family row that says what a product row says is folded into it
     for x in r.remedies:
         if x.target != "product":
@@ -366,7 +365,7 @@ def studies_section(a: Assessment, st: Styles) -> list[list[Flowable]]:
         blocks += [
             [st.p("Group and t_max against distance", st.h3), chart, st.p(caption, st.caption)],
             [Spacer(1, 4)],
-            [_distance_table(a, st)],
+            [_distance_table(a, s, st)],
             [
                 Spacer(1, 2),
                 st.p(
@@ -387,7 +386,7 @@ def studies_section(a: Assessment, st: Styles) -> list[list[Flowable]]:
             ],
         ]
     if a.uncertainty is not None:
-        blocks.append(_uncertainty_block(a, st))
+        blocks.append(_uncertainty_block(a, a.uncertainty, st))
     if a.remedies is not None:
-        blocks.append(_remedies_block(a, st))
+        blocks.append(_remedies_block(a, a.remedies, st))
     return blocks

@@ -121,7 +121,7 @@ def _ranked_table(assessments: list[Assessment], st: Styles) -> Flowable:
     if distances:
         head.insert(7, "Min. distance to Exempt")
     rows = [[st.p(h, st.head) for h in head]]
-    extra = []
+    extra: list[tuple] = []
     for rank, a in enumerate(rank_assessments(assessments), start=1):
         tightest = tightest_margin(a)
         if tightest is None:

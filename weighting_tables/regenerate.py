@@ -17,7 +17,9 @@ Sources
 from __future__ import annotations
 
 import hashlib
+from collections.abc import Callable, Sequence
 from pathlib import Path
+from typing import TypedDict
 
 HERE = Path(__file__).resolve().parent
 
@@ -142,8 +144,20 @@ def photopic_points() -> list[tuple[float, float]]:
     return [(float(w), float(v)) for w, v in zip(sd.wavelengths, sd.values, strict=True)]
 
 
-TABLES = {
-    "s_uv": dict(
+class _TableSpec(TypedDict):
+    """How one table is made and described (its ``NAME.toml``)."""
+
+    symbol: str
+    title: str
+    source: str
+    edition: str
+    interpolation: str
+    points: Callable[[], Sequence[tuple[float, float]]]
+    note: str
+
+
+TABLES: dict[str, _TableSpec] = {
+    "s_uv": _TableSpec(
         symbol="S_UV",
         title="Actinic ultraviolet hazard weighting function S_UV(λ)",
         source="IEC 62471:2006 / CIE S 009:2002, Table 4.1 (reproducing ICNIRP 2004)",
@@ -154,7 +168,7 @@ TABLES = {
         "linearly (the function spans five decades). Directive 2006/25/EC Annex I lists 1 nm values "
         "that agree with this interpolation to within about 0.5 %.",
     ),
-    "blue_light": dict(
+    "blue_light": _TableSpec(
         symbol="B",
         title="Blue-light hazard weighting function B(λ)",
         source="IEC 62471:2006 / CIE S 009:2002, Table 4.2 (ICNIRP 1997, unchanged in ICNIRP 2013)",
@@ -164,7 +178,7 @@ TABLES = {
         note="5 nm table 380-495 nm; formula segments written at their end points, exact under log-linear "
         "interpolation.",
     ),
-    "retinal_thermal": dict(
+    "retinal_thermal": _TableSpec(
         symbol="R",
         title="Retinal thermal hazard weighting function R(λ)",
         source="IEC 62471:2006 / CIE S 009:2002, Table 4.2 (ICNIRP 1997)",
@@ -174,7 +188,7 @@ TABLES = {
         note="10·B(λ) at 5 nm over 380-495 nm; formula segments written at their end points, exact under "
         "log-linear interpolation; the 1050 nm step is confined to 1049-1050 nm.",
     ),
-    "v_photopic": dict(
+    "v_photopic": _TableSpec(
         symbol="V",
         title="CIE 1924 photopic luminous efficiency function V(λ)",
         source="CIE 1924 photopic standard observer (CIE S 010:2004 / ISO 23539:2005), via colour-science "

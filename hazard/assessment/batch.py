@@ -318,7 +318,7 @@ def summary_row(
     The risk group is the standard's classification (a what-if has its own columns), "not determined" when there is
     none.
     """
-    row = dict.fromkeys(summary_columns(limit_set), "")
+    row: dict[str, object] = dict.fromkeys(summary_columns(limit_set), "")
     row.update(id=product_id, status="ok", file_stem=stem)
     if error is not None or assessment is None:
         row.update(status="error", error=error or "")
@@ -423,10 +423,13 @@ def _run_job(job: _Job) -> list[_Product]:
     Top level, so a process pool can run it; every product's numbers are independent of the others in its
     chunk (:func:`hazard.method.integrals.integrate_spectra`), so any split of the work gives the same lines.
     """
-    out: list[_Product | None] = [_reuse(job, k) for k in range(len(job.rows))]
+    out: dict[int, _Product] = {}
+    for k in range(len(job.rows)):
+        if (earlier := _reuse(job, k)) is not None:
+            out[k] = earlier
     loaded: dict[int, LoadedProduct] = {}
     for k, row in enumerate(job.rows):
-        if out[k] is not None:
+        if k in out:
             continue
         try:
             loaded[k] = load_row(row, job.allow_outside)
@@ -440,7 +443,7 @@ def _run_job(job: _Job) -> list[_Product]:
             batch = None
     for position, (k, product) in enumerate(loaded.items()):
         out[k] = _assess(job, k, product, batch, position)
-    return out
+    return [out[k] for k in range(len(job.rows))]
 
 
 def _in_order(pool: Executor | None, work, jobs: Iterable, ahead: int) -> Iterator:
@@ -493,11 +496,10 @@ def _render_one(job: tuple[str, int, int, str]) -> str | None:
     return None
 
 
-def _write_pdfs(folder: Path, outcome: BatchOutcome, jobs: int) -> None:
+def _write_pdfs(folder: Path, outcome: BatchOutcome, assessed: LazyAssessments, jobs: int) -> None:
     from hazard.reports import render_summary_pdf, report_time
     from hazard.reports.fonts import report_fonts
 
-    assessed = outcome.assessments
     ids = [i for i in outcome.ids if i in assessed.positions]
     work = ((str(assessed.path), *assessed.positions[i], str(folder / f"{outcome.stems[i]}.pdf")) for i in ids)
     progress = Progress(len(ids), "reports")
@@ -636,8 +638,8 @@ def run_batch(
             if pool is not None:
                 pool.shutdown(cancel_futures=True)
             progress.close()
-        outcome.assessments = LazyAssessments(folder / RESULTS_NAME, positions)
+        outcome.assessments = assessed = LazyAssessments(folder / RESULTS_NAME, positions)
         if pdf:
-            _write_pdfs(folder, outcome, jobs)
+            _write_pdfs(folder, outcome, assessed, jobs)
         partial.unlink(missing_ok=True)
     return outcome

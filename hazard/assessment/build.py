@@ -31,10 +31,13 @@ from hazard.method.evaluate import Evaluation, integral_index, share_key
 from hazard.output.formatting import format_duration_s
 from hazard.result import (
     Assessment,
+    DistanceStudy,
     Geometry,
     HazardResult,
     LimitSetInfo,
     Provenance,
+    Remedies,
+    UncertaintyStudy,
 )
 from hazard.standards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
 from hazard.studies.distances import distance_study
@@ -133,14 +136,18 @@ def _hazard_results(
             alpha_rad={g: float(h.alpha_bounded[i, k]) for k, g in enumerate(boundaries)}
             if spec.limits_over_alpha
             else {},
-            time_bases_s={g: float(t) for g, t in zip(boundaries, spec.time_bases_s, strict=True)} if grouped else {},
+            time_bases_s={g: float(t) for g, t in zip(boundaries, spec.time_bases_s, strict=True)}
+            if spec.time_bases_s is not None  # exactly when grouped (Hazard)
+            else {},
             exposure_limit=spec.exposure_limit.text,
             note=note,
         )
     return results
 
 
-def _studies(loaded: LoadedProduct, batch: BatchEvaluation, i: int, distances_and_remedies: bool) -> dict:
+def _studies(
+    loaded: LoadedProduct, batch: BatchEvaluation, i: int, distances_and_remedies: bool
+) -> dict[str, UncertaintyStudy | DistanceStudy | Remedies]:
     """Uncertainty (when the record states one), hazard distances and remedies of product ``i``.
 
     None of them when no risk group could be determined (a study of hazards that were not assessed would say nothing
@@ -148,7 +155,7 @@ def _studies(loaded: LoadedProduct, batch: BatchEvaluation, i: int, distances_an
     """
     record, limit_set, ev = loaded.record, batch.limit_set, batch.evaluation
     arrays = product_arrays([record], batch.integrated.raw[i], batch.integrated.covered[i])
-    out = {}
+    out: dict[str, UncertaintyStudy | DistanceStudy | Remedies] = {}
     if ev.group_index[i] < 0:
         return out
     if record.uncertainty_pct or record.wavelength_uncertainty_nm:
@@ -166,7 +173,7 @@ def _studies(loaded: LoadedProduct, batch: BatchEvaluation, i: int, distances_an
         if record.effective_quantity == "radiance":
             geometric = float(ev.source_solid_angle_sr[i])
         else:
-            geometric = (record.reference_distance_mm * 1e-3 / d_a) ** 2
+            geometric = (record.irradiance_distance_mm * 1e-3 / d_a) ** 2
         assessed = {symbol for symbol, h in ev.hazards.items() if h.assessed[i]}
         out["remedies"] = remedies_study(
             arrays, loaded.spectrum, float(ev.anchor_scale[i]) * geometric, limit_set, assessed

@@ -49,19 +49,24 @@ def frame_columns(limit_set: LimitSet = DEFAULT_LIMIT_SET) -> list[str]:
     return columns
 
 
-def _prepare(item, i: int, read_spectrum: bool) -> ProductRecord | LoadedProduct:
-    """A record (and its spectrum, when ``read_spectrum``) from what the caller gave."""
+def _record(item, i: int) -> ProductRecord:
+    """A record from what the caller gave (product ``i``)."""
     origin = f"record {i + 1}"
     if isinstance(item, (str, Path)):
-        return load_product(item) if read_spectrum else load_record(item)
+        return load_record(item)
     if isinstance(item, dict):
         fields = {k: v for k, v in item.items() if v is not None and not (isinstance(v, float) and np.isnan(v))}
-        record = record_from_fields(fields, path=origin)
-    elif isinstance(item, ProductRecord):
-        record = item
-    else:
-        raise TypeError(f"{origin}: expected a ProductRecord, a dict of record fields or a path, got {type(item)}")
-    return product_from_record(record, Path.cwd(), origin) if read_spectrum else record
+        return record_from_fields(fields, path=origin)
+    if isinstance(item, ProductRecord):
+        return item
+    raise TypeError(f"{origin}: expected a ProductRecord, a dict of record fields or a path, got {type(item)}")
+
+
+def _loaded(item, i: int) -> LoadedProduct:
+    """A record and its spectrum from what the caller gave (product ``i``)."""
+    if isinstance(item, (str, Path)):
+        return load_product(item)
+    return product_from_record(_record(item, i), Path.cwd(), f"record {i + 1}")
 
 
 def _id_of(item, prepared) -> str:
@@ -72,7 +77,7 @@ def _id_of(item, prepared) -> str:
     return str(item.get("id")) if isinstance(item, dict) else str(getattr(item, "id", item))
 
 
-def _check_grid(wavelength_nm: np.ndarray, spectra: np.ndarray) -> None:
+def _check_grid(wavelength_nm: np.ndarray | None, spectra: np.ndarray) -> None:
     """The common grid must be 1-D, strictly increasing and match the spectra's columns."""
     grid = np.asarray(wavelength_nm, dtype=float)
     if grid.ndim != 1 or spectra.ndim != 2 or spectra.shape[1] != grid.size:
@@ -119,7 +124,7 @@ def _frame(batch: BatchEvaluation | None, ids: list[str], good: list[int], error
         """Group names as a categorical column (codes −1: none), cheap for 10⁵ rows."""
         full = np.full(n, -1)
         full[good] = codes
-        return pd.Categorical.from_codes(full, categories=list(GROUPS))
+        return pd.Categorical.from_codes(full, categories=pd.Index(GROUPS))
 
     data = {
         "id": ids,
@@ -190,7 +195,7 @@ def assess_many(
         loaded: dict[int, LoadedProduct] = {}
         for i, item in enumerate(items):
             try:
-                loaded[i] = _prepare(item, i, read_spectrum=True)
+                loaded[i] = _loaded(item, i)
             except InputError as exc:
                 errors[i] = str(exc)
         ids = [_id_of(item, loaded.get(i)) for i, item in enumerate(items)]
@@ -203,30 +208,27 @@ def assess_many(
     validated: list[ProductRecord | str] = []
     for k, item in enumerate(distinct):
         try:
-            record = _prepare({"id": "-", **item} if isinstance(item, dict) else item, k, read_spectrum=False)
+            record = _record({"id": "-", **item} if isinstance(item, dict) else item, k)
             validated.append(record)
         except InputError as exc:
             validated.append(str(exc))
     _check_grid(wavelength_nm, spectra)
     is_record = [isinstance(r, ProductRecord) for r in validated]
     factors = np.array(
-        [
-            parse_spectral_unit(r.unit_text).factor_to_si if ok else 1.0
-            for r, ok in zip(validated, is_record, strict=True)
-        ]
+        [parse_spectral_unit(r.unit_text).factor_to_si if isinstance(r, ProductRecord) else 1.0 for r in validated]
     )[index]
-    flags = np.array([ok and r.no_emission_outside for r, ok in zip(validated, is_record, strict=True)])[index]
+    flags = np.array([isinstance(r, ProductRecord) and r.no_emission_outside for r in validated])[index]
     integrated, peak, lowest = integrate_matrix(
         np.asarray(wavelength_nm, dtype=float), spectra, flags, limit_set, factors
     )
     visual = integrated.raw[:, integral_index(limit_set)["V"]]
-    quantity = np.array([r.quantity if ok else "relative" for r, ok in zip(validated, is_record, strict=True)])[index]
+    quantity = np.array([r.quantity if isinstance(r, ProductRecord) else "relative" for r in validated])[index]
     relative = quantity == "relative"
     with np.errstate(over="ignore", invalid="ignore"):
         broken = value_rule_broken(peak, lowest, peak * factors, quantity)
     valid_values = (broken < 0) & ~(relative & ~(visual > 0))
     errors = {}
-    for i in np.flatnonzero(~np.array(is_record)[index] | ~valid_values | (np.array(ids) == "")):
+    for i in np.flatnonzero(~np.array(is_record)[index] | ~valid_values | (np.array(ids) == "")).tolist():
         problem = validated[index[i]]
         if isinstance(problem, str):
             errors[i] = f"{ids[i]}: {problem}"
@@ -243,5 +245,6 @@ def assess_many(
     usable = [k for k, ok in enumerate(is_record) if ok]
     renumber = np.full(len(validated), -1)
     renumber[usable] = np.arange(len(usable))
-    batch = evaluate_products([validated[k] for k in usable], integrated, limit_set, renumber[index[good]])
+    records_used = [r for r in validated if isinstance(r, ProductRecord)]  # in the order of ``usable``
+    batch = evaluate_products(records_used, integrated, limit_set, renumber[index[good]])
     return _frame(batch, ids, good, errors, limit_set)

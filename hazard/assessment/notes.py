@@ -109,9 +109,9 @@ def warnings_for(loaded: LoadedProduct, ev: Evaluation, i: int, v_covered: bool)
             )
     d_a_mm = float(ev.assessment_distance_m[i]) * 1e3
     size_mm = record.largest_dimension_mm
-    d_ref = record.reference_distance_mm
     irradiance_input = record.effective_quantity == "irradiance"
-    if irradiance_input and abs(d_a_mm - d_ref) > 1e-9:
+    d_ref = record.irradiance_distance_mm if irradiance_input else None
+    if d_ref is not None and abs(d_a_mm - d_ref) > 1e-9:
         near = min(d_a_mm, d_ref)
         if near < FIVE_TIMES_RULE * size_mm:
             warnings.append(
@@ -191,7 +191,7 @@ def assumptions_for(loaded: LoadedProduct, ev: Evaluation, i: int) -> list[str]:
             f"the radiance seen by fields of view smaller than the source are multiplied by it."
         )
     if record.effective_quantity == "irradiance":
-        d_ref = record.reference_distance_mm
+        d_ref = record.irradiance_distance_mm
         if abs(d_a_mm - d_ref) > 1e-9:
             assumptions.append(
                 f"Irradiance scaled from {d_ref:g} mm to {d_a_mm:.4g} mm by the inverse-square law (point source)."

@@ -21,6 +21,7 @@ import re
 import socket
 from collections.abc import Iterable
 from pathlib import Path
+from typing import TextIO
 
 from hazard.errors import InputError, excerpt
 from hazard.output.atomic import remove_stale_temporaries
@@ -102,7 +103,7 @@ class OutputFolder:
 
     def __init__(self, folder: Path, source: Path, inputs: Iterable[Path]):
         self.folder, self.source, self.inputs = Path(folder), Path(source), inputs
-        self._handle = None
+        self._handle: TextIO | None = None
 
     def _refuse_inputs(self) -> None:
         if not self.folder.exists():

@@ -79,7 +79,7 @@ def anchor_photometric(record: ProductRecord) -> float:
     if record.quantity != "relative" or anchor is None:
         return np.nan
     if anchor.field == "luminous_intensity_cd":
-        return anchor.value / (record.reference_distance_mm * 1e-3) ** 2
+        return anchor.value / (record.irradiance_distance_mm * 1e-3) ** 2
     return anchor.value
 
 

@@ -40,7 +40,7 @@ def _hazard_group(symbol: str, h, limit_set: LimitSet, path: str) -> str | None:
     try:
         compared = np.array([[h.compared[b] for b in limit_set.boundaries]], dtype=float)
         limits = np.array([[h.limits[b] for b in limit_set.boundaries]], dtype=float)
-        bases = tuple(float(h.time_bases_s[b]) for b in limit_set.boundaries)
+        exempt_s, rg1_s, rg2_s = (float(h.time_bases_s[b]) for b in limit_set.boundaries)
     except KeyError as missing:
         raise _refuse(f"hazard {symbol} lacks its {missing} boundary", path) from None
     if not (np.all(np.isfinite(compared)) and np.all(np.isfinite(limits))):
@@ -50,7 +50,7 @@ def _hazard_group(symbol: str, h, limit_set: LimitSet, path: str) -> str | None:
         if margin is None or not math.isclose(margin, c / lim, rel_tol=1e-9):
             raise _refuse(f"hazard {symbol}: margin at {b} is {margin!r} but compared/limit is {c / lim:.6g}", path)
     t_max = np.array([np.nan if h.t_max_s is None else h.t_max_s])
-    group, _ = hazard_groups(compared, limits, t_max, bases, limit_set.table_rounding)
+    group, _ = hazard_groups(compared, limits, t_max, (exempt_s, rg1_s, rg2_s), limit_set.table_rounding)
     return limit_set.groups[int(group[0])]
 
 
@@ -132,14 +132,15 @@ def _check_against_set(a: Assessment, limit_set: LimitSet, path: str) -> None:
             raise _refuse(
                 f"hazard {symbol}: band, unit or assessed flag differ from the spectrum and {limit_set.name}", path
             )
-        if not spec.grouped:
+        if spec.limits is None or spec.time_bases_s is None:  # no risk groups (both or neither: Hazard)
             continue
+        alpha_bounds = spec.alpha_bounds_rad or ()
         expected = {}
         for k, b in enumerate(limit_set.boundaries):
             coefficient = spec.limits[k]
             if spec.limits_over_alpha:
                 alpha = h.alpha_rad.get(b, math.nan)
-                low, high = spec.alpha_bounds_rad[k]
+                low, high = alpha_bounds[k]
                 if not low * (1 - 1e-12) <= alpha <= high * (1 + 1e-12):
                     raise _refuse(f"hazard {symbol}: α at {b} is outside {low:g}–{high:g} rad", path)
                 coefficient = coefficient / alpha

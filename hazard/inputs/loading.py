@@ -76,6 +76,13 @@ def _check_overlaps_bands(spectrum: Spectrum, origin: str) -> None:
         )
 
 
+def _spectrum_name(record: ProductRecord, origin: str) -> str:
+    """The spectrum file name the record gives; refused when it gives none."""
+    if not record.spectrum:
+        raise InputError("the record names no spectrum file", 'add spectrum = "FILE.csv"', origin)
+    return record.spectrum
+
+
 def spectrum_path(record: ProductRecord, base_dir: Path, origin: str, root: Path | None) -> Path:
     """The spectrum file a record names, relative to ``base_dir``.
 
@@ -87,24 +94,21 @@ def spectrum_path(record: ProductRecord, base_dir: Path, origin: str, root: Path
     InputError
         No spectrum named, or (with ``root``) an absolute path or one that leads out of ``root``.
     """
-    if not record.spectrum:
-        raise InputError("the record names no spectrum file", 'add spectrum = "FILE.csv"', origin)
-    path = base_dir / record.spectrum
+    name = _spectrum_name(record, origin)
+    path = base_dir / name
     if root is None:
         return path
     fix = (
         f"keep the spectra in the folder of the record or manifest (or below it), or give "
         f"{ALLOW_OUTSIDE_OPTION} if you trust where it points"
     )
-    if "\x00" in record.spectrum:
+    if "\x00" in name:
         raise InputError("the spectrum path contains a NUL byte", "remove the control character", origin)
-    if Path(record.spectrum).is_absolute() or Path(record.spectrum).drive:
-        raise InputError(f"spectrum path {excerpt(record.spectrum)} is absolute", fix, origin)
+    if Path(name).is_absolute() or Path(name).drive:
+        raise InputError(f"spectrum path {excerpt(name)} is absolute", fix, origin)
     top = os.path.realpath(root)
     if os.path.commonpath([top, os.path.realpath(path)]) != top:
-        raise InputError(
-            f"spectrum path {excerpt(record.spectrum)} leads outside the folder {excerpt(root, 80)}", fix, origin
-        )
+        raise InputError(f"spectrum path {excerpt(name)} leads outside the folder {excerpt(root, 80)}", fix, origin)
     return path
 
 
@@ -130,8 +134,9 @@ def product_from_record(
     root : Path, optional
         Folder tree the spectrum must lie in (see :func:`spectrum_path`); anywhere when None.
     """
+    name = _spectrum_name(record, origin)
     path = spectrum_path(record, base_dir, origin, root)
-    raw, metadata = read_spectrum(str(path), display_path=record.spectrum, column=record.column)
+    raw, metadata = read_spectrum(str(path), display_path=name, column=record.column)
     unit, unit_warnings = resolve_unit(record, raw, metadata, origin)
     metadata["unit_used"] = unit.text
     metadata["file_metadata"] = file_metadata(metadata)
@@ -143,7 +148,7 @@ def product_from_record(
     if record.quantity == "relative":
         _check_anchorable(spectrum, origin)
     inputs = dict(record_inputs or {})
-    inputs[record.spectrum] = metadata["sha256"]
+    inputs[name] = metadata["sha256"]
     return LoadedProduct(record=record, spectrum=spectrum, inputs=inputs, metadata=metadata)
 
 

@@ -116,7 +116,7 @@ def _table_rows(header: list, rows, path: Path) -> list[ManifestRow]:
     header = [str(_cell(h)) if h is not None else "" for h in header]
     _check_columns([h for h in header if h], str(path))
     manifest, folder = path.name, path.parent
-    result = []
+    result: list[ManifestRow] = []
     for number, cells in rows:
         fields = {
             h: value

@@ -51,6 +51,10 @@ def claim_field(symbol: str) -> str:
     return f"claimed_t_max_s_{symbol}"
 
 
+AnchorField = Literal["illuminance_lx", "luminous_intensity_cd", "luminance_cd_m2"]
+"""A record field that can anchor a relative spectrum."""
+
+
 @dataclass(frozen=True)
 class Anchor:
     """The photometric value a relative spectrum is scaled by.
@@ -63,7 +67,7 @@ class Anchor:
         The stated value [lx, cd or cd m⁻²].
     """
 
-    field: Literal["illuminance_lx", "luminous_intensity_cd", "luminance_cd_m2"]
+    field: AnchorField
     value: float
 
     @property
@@ -99,7 +103,7 @@ class SourceSize:
 
 RELATIVE_UNITS = ("relative", "rel", "a.u.", "au", "arb", "1", "counts")
 """Units accepted for a relative spectrum (they all mean: no physical unit)."""
-ANCHORS = ("illuminance_lx", "luminous_intensity_cd", "luminance_cd_m2")
+ANCHORS: tuple[AnchorField, ...] = ("illuminance_lx", "luminous_intensity_cd", "luminance_cd_m2")
 """Photometric anchors that scale a relative spectrum."""
 MAX_RECORD_BYTES = 1024 * 1024
 """Largest TOML record read; a record is a few hundred bytes [bytes]."""
@@ -362,6 +366,17 @@ class ProductRecord(BaseModel):
         return self.distance_mm
 
     @property
+    def irradiance_distance_mm(self) -> float:
+        """:attr:`reference_distance_mm` of a spectrum that is, or is anchored to, an irradiance [mm].
+
+        The validator requires a distance for every such record, so only a radiance record has none.
+        """
+        distance = self.reference_distance_mm
+        if distance is None:
+            raise ValueError("a radiance record has no irradiance distance")  # excluded by the validator
+        return distance
+
+    @property
     def claimed_t_max_s(self) -> dict[str, float]:
         """Claimed t_max per hazard symbol [s]."""
         return {s: v for s in CLAIMABLE if (v := getattr(self, claim_field(s))) is not None}
@@ -421,7 +436,7 @@ def _as_input_error(exc: ValidationError, path: str, text: str | None, option_na
             message,
         )
     label = f"--{key.replace('_', '-')}" if (option_names and key) else key
-    if error["type"] == "extra_forbidden":
+    if error["type"] == "extra_forbidden" and key is not None:
         close = difflib.get_close_matches(key, ProductRecord.model_fields, n=1)
         hint = f"did you mean {close[0]!r}?" if close else "see 'hazard schema record' for the fields"
         return InputError(f"unknown field {key!r}", hint, path, line)

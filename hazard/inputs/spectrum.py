@@ -142,7 +142,7 @@ def validate_spectrum(
     """
     wl = np.asarray(wavelength_nm, dtype=float)
     val = np.asarray(value, dtype=float)
-    warnings = list(warnings)
+    notes = list(warnings)
     if wl.size == 0:
         raise InputError("no data rows", "give two columns: wavelength in nm, spectral value", path)
     if wl.size == 1:
@@ -183,7 +183,7 @@ def validate_spectrum(
     if np.all(steps < 0):
         wl, val, lines = wl[::-1], val[::-1], lines[::-1]
         steps = -steps[::-1]
-        warnings.append(f"{path}: wavelengths were in descending order and have been reversed")
+        notes.append(f"{path}: wavelengths were in descending order and have been reversed")
     duplicate = np.flatnonzero(steps == 0)
     if duplicate.size:
         i = duplicate[0]
@@ -228,7 +228,7 @@ def validate_spectrum(
         )
     negatives = val < 0
     if negatives.any():
-        warnings.append(
+        notes.append(
             f"{path}: {int(negatives.sum())} small negative value(s) (down to {val[lowest]:g}, "
             f"within {NEGATIVE_TOLERANCE:.0%} of the peak) set to zero as dark noise"
         )
@@ -237,4 +237,4 @@ def validate_spectrum(
     si = val * factor_to_si
     wl.flags.writeable = False
     si.flags.writeable = False
-    return Spectrum(wl, si, quantity, path, tuple(warnings))
+    return Spectrum(wl, si, quantity, path, tuple(notes))

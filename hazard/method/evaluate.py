@@ -272,8 +272,8 @@ def _hazard_arrays(
     t_max = time_to_limit_s(hazard, n, viewed.value, viewed.field_radiance, viewed.alpha)
     compared, limits, alpha_bounded = nan3.copy(), nan3.copy(), nan3.copy()
     group, raised = np.full(n, -1), np.zeros(n, dtype=bool)
-    if hazard.limits is not None:
-        fovs, bounds = hazard.fov_rad, hazard.alpha_bounds_rad
+    if hazard.limits is not None and hazard.time_bases_s is not None:  # both or neither (Hazard)
+        fovs, bounds = hazard.fov_rad or (), hazard.alpha_bounds_rad or ()
         for k, coefficient in enumerate(hazard.limits):
             compared[:, k] = viewed.field_radiance(hazard.symbol, fovs[k]) if radiance else value
             if hazard.limits_over_alpha:

@@ -28,14 +28,16 @@ ValueOf = Callable[[str], np.ndarray]
 """symbol → the irradiance value of that quantity [W m⁻²], one per product."""
 AlphaIn = Callable[[tuple[float, float]], np.ndarray]
 """α bounds [rad] → the bounded angular subtense, one per product [rad]."""
+Cut = tuple[float, float, LimitPiece, FieldOfView | None, tuple[float, float] | None]
+"""(after [s], up to [s], the limit's piece, the field of view or None, the α bounds [rad] or None)."""
 
 
-def _cuts(hazard: Hazard) -> list[tuple[float, float, LimitPiece, FieldOfView | None, tuple | None]]:
+def _cuts(hazard: Hazard) -> list[Cut]:
     """(after, up_to, piece, field of view, α bounds) for every stretch of duration with one formula.
 
     Each stretch also has one viewing rule; a growing field is cut where it reaches its cap, beyond which it is fixed.
     """
-    cuts = []
+    cuts: list[Cut] = []
     for piece in hazard.exposure_limit.pieces:
         if not hazard.viewing:
             cuts.append((piece.after_s, piece.up_to_s, piece, None, None))
@@ -46,9 +48,9 @@ def _cuts(hazard: Hazard) -> list[tuple[float, float, LimitPiece, FieldOfView | 
             start = rule.up_to_s
             if a >= b:
                 continue
-            fov = rule.fov
-            if fov.grows and np.isfinite(fov.cap_rad):
-                t_cap = (fov.cap_rad / fov.growth_rad_per_sqrt_s) ** 2
+            fov, growth = rule.fov, rule.fov.growth_rad_per_sqrt_s
+            if fov.grows and growth is not None and np.isfinite(fov.cap_rad):
+                t_cap = (fov.cap_rad / growth) ** 2
                 if a < t_cap:
                     cuts.append((a, min(b, t_cap), piece, fov, rule.alpha_bounds_rad))
                 if b > t_cap:
@@ -115,7 +117,12 @@ def time_to_limit_s(
     earliest = np.full(n, np.inf)
     for a, b, piece, fov, bounds in _cuts(hazard):
         symbol = piece.quantity or hazard.symbol
-        coefficient = piece.coefficient / alpha_in(bounds) if piece.over_alpha else np.full(n, piece.coefficient)
+        if not piece.over_alpha:
+            coefficient = np.full(n, piece.coefficient)
+        elif bounds is None:
+            raise ValueError(f"{hazard.symbol}: a limit over α needs α bounds")
+        else:
+            coefficient = piece.coefficient / alpha_in(bounds)
         if fov is None:
             reach = _closed_form(value_of(symbol), coefficient, piece.exponent, a, b)
         elif not fov.grows:

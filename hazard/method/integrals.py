@@ -123,7 +123,7 @@ def integrate_matrix(
     tuple of (Integrated, numpy.ndarray, numpy.ndarray)
         The integrals, and the (n,) highest and lowest sample of each row (NaN or ±inf show in them).
     """
-    dtype = np.float32 if values.dtype == np.float32 else np.float64
+    dtype: type[np.floating] = np.float32 if values.dtype == np.float32 else np.float64
     matrix = integral_matrix(grid_nm, limit_set).astype(dtype)
     flags = np.asarray(no_emission_outside, dtype=bool)
     out = _empty(values.shape[0], limit_set)

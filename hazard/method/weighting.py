@@ -19,6 +19,7 @@ batch path stacks the vectors of all quantities into a matrix.
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from typing import Protocol
 
 import numpy as np
@@ -35,9 +36,17 @@ class Weighting(Protocol):
     :class:`hazard.weighting_tables.WeightingTable` is one.
     """
 
-    wavelength_nm: np.ndarray
-    value: np.ndarray
-    interpolation: str
+    @property
+    def wavelength_nm(self) -> np.ndarray:
+        """Tabulated wavelengths [nm]."""
+
+    @property
+    def value(self) -> np.ndarray:
+        """Weights at the tabulated wavelengths [1]."""
+
+    @property
+    def interpolation(self) -> str:
+        """``linear`` or ``log-linear``."""
 
     def at(self, wavelength_nm: np.ndarray) -> np.ndarray:
         """Weight at the given wavelengths [nm] by the interpolation rule, zero outside the range [1]."""
@@ -111,7 +120,7 @@ def quadrature_weights(
     return q
 
 
-def quadrature_matrix(grid_nm: np.ndarray, bands: list[tuple[tuple[float, float], Weighting | None]]) -> np.ndarray:
+def quadrature_matrix(grid_nm: np.ndarray, bands: Sequence[tuple[tuple[float, float], Weighting | None]]) -> np.ndarray:
     """Stack :func:`quadrature_weights` for several (band, weight) pairs: shape (grid, quantities) [nm]."""
     return np.column_stack([quadrature_weights(grid_nm, band, weight) for band, weight in bands])
 

@@ -173,21 +173,25 @@ def _studies(a: Assessment) -> list[str]:
             f"approximate)",
         ]
     if a.remedies is not None:
-        product = [r for r in a.remedies.remedies if r.target == "product" and r.dimming_factor is not None]
+        product = [
+            (r.group, r.dimming_factor)
+            for r in a.remedies.remedies
+            if r.target == "product" and r.dimming_factor is not None
+        ]
         if product:
             lines += [
                 "",
                 "What it would take: "
                 + "; ".join(
-                    f"{r.group}: dim to {dimming_percent(r.dimming_factor)} of today's output" for r in product
+                    f"{group}: dim to {dimming_percent(factor)} of today's output" for group, factor in product
                 ),
             ]
         for r in a.remedies.remedies:
             if r.area_factor is not None:
                 lines.append(f"  {r.target} → {r.group}: or enlarge the emitting area ×{r.area_factor:.3g} (diffuser)")
         for symbol, bands in a.remedies.uv_bands.items():
-            shown = [b for k, b in enumerate(bands[:3]) if k == 0 or b.share >= 0.01]  # the rest is noise
-            top = ", ".join(f"{b.band_nm[0]:g}–{b.band_nm[1]:g} nm {b.share * 100:.2g} %" for b in shown)
+            main = [b for k, b in enumerate(bands[:3]) if k == 0 or b.share >= 0.01]  # the rest is noise
+            top = ", ".join(f"{b.band_nm[0]:g}–{b.band_nm[1]:g} nm {b.share * 100:.2g} %" for b in main)
             lines.append(f"  {symbol} comes mostly from {top}")
     return lines
 

@@ -208,7 +208,7 @@ class Hazard:
         Limits at the boundaries [unit], or the coefficient c of c/α when ``limits_over_alpha``; None when the
         hazard has an exposure limit but no risk group.
     time_bases_s : tuple of float or None
-        Exposure duration behind each boundary's limit [s].
+        Exposure duration behind each boundary's limit [s]; given exactly when ``limits`` is.
     viewing : tuple of Viewing
         Radiance hazards: field of view and α bounds by exposure duration, in rising ``up_to_s``.
     limits_over_alpha : bool
@@ -240,6 +240,10 @@ class Hazard:
     feeds_transfer: bool = False
     shares: tuple[BandShare, ...] = ()
     cautions: tuple[CautionTrigger, ...] = ()
+
+    def __post_init__(self) -> None:
+        if (self.limits is None) != (self.time_bases_s is None):
+            raise ValueError(f"{self.symbol}: boundary limits and their time bases are given together or not at all")
 
     @property
     def unit(self) -> str:

@@ -32,7 +32,8 @@ def _crossings(
     changes, whichever boundary's field of view decides it.
     """
     families = dict(limit_set.families)
-    result, open_jobs = {}, []
+    result: dict[tuple[str, int], tuple[float | None, str]] = {}
+    open_jobs: list[tuple[str, int, float, float]] = []
     for name, g in groups.items():
         for k in range(3):
             above = np.flatnonzero(g > k)

@@ -72,8 +72,8 @@ def uncertainty_study(
             )
         )
     overall = ev.group_index
-    name = [names[g] if g >= 0 else None for g in overall]
-    low, high = name[int(np.argmin(overall))], name[int(np.argmax(overall))]
+    group_of = [names[g] if g >= 0 else None for g in overall]
+    low, high = group_of[int(np.argmin(overall))], group_of[int(np.argmax(overall))]
     verdict = "borderline" if low != high else "robust"
     if high is None:
         note = "no risk group could be determined at any variant"
@@ -83,7 +83,7 @@ def uncertainty_study(
             f"or {high}: send it to the laboratory"
         )
     else:
-        note = f"the group {name[nominal]} holds across ±{uncertainty_pct:g} % (k = 2) and ±{shift:g} nm"
+        note = f"the group {group_of[nominal]} holds across ±{uncertainty_pct:g} % (k = 2) and ±{shift:g} nm"
     return UncertaintyStudy(
         uncertainty_pct=uncertainty_pct,
         wavelength_uncertainty_nm=shift,

@@ -27,7 +27,8 @@ def _describe(item) -> str:
         return f"text {excerpt(item)}"
     if isinstance(item, bool) or item is None:
         return json.dumps(item)
-    return {list: "an array", dict: "an object"}.get(type(item), type(item).__name__)
+    kinds: dict[type, str] = {list: "an array", dict: "an object"}
+    return kinds.get(type(item), type(item).__name__)
 
 
 def _value_key(column: str | int | None, path: str) -> str:
