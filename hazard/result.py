@@ -11,6 +11,8 @@ from typing import Literal
 
 from pydantic import BaseModel, ConfigDict, Field
 
+from hazard.standards import RiskGroup
+
 __all__ = [
     "Assessment",
     "BandContribution",
@@ -32,7 +34,6 @@ __all__ = [
     "UncertaintyStudy",
 ]
 
-RiskGroup = Literal["Exempt", "RG1", "RG2", "RG3"]
 Basis = Literal["standard", "what-if"]
 
 

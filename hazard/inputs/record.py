@@ -27,7 +27,7 @@ from pydantic import (
 from hazard.errors import InputError, excerpt
 from hazard.inputs.units import IRRADIANCE_SI, RADIANCE_SI, parse_spectral_unit
 from hazard.inputs.userfiles import read_user_file
-from hazard.standards import GROUPS, LIMIT_SETS
+from hazard.standards import LIMIT_SETS, RiskGroup
 
 __all__ = [
     "CLAIMABLE",
@@ -217,9 +217,7 @@ class ProductRecord(BaseModel):
         "standard's (a what-if study: the group is "
         "then not the standard's classification) [mm].",
     )
-    claimed_risk_group: Literal[GROUPS] | None = Field(  # type: ignore[valid-type]
-        None, description="The vendor's claimed overall risk group."
-    )
+    claimed_risk_group: RiskGroup | None = Field(None, description="The vendor's claimed overall risk group.")
     claimed_cct_k: float | None = Field(None, gt=0, description="The vendor's claimed CCT [K].")
     claimed_illuminance_lx: float | None = Field(
         None, gt=0, description="The vendor's claimed illuminance at distance_mm [lx]."

@@ -13,6 +13,7 @@ from hazard.standards.model import (
     Hazard,
     LimitPiece,
     LimitSet,
+    RiskGroup,
     Viewing,
 )
 
@@ -28,6 +29,7 @@ __all__ = [
     "Hazard",
     "LimitPiece",
     "LimitSet",
+    "RiskGroup",
     "Viewing",
     "limit_set_named",
 ]

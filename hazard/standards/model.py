@@ -23,11 +23,14 @@ __all__ = [
     "Hazard",
     "LimitPiece",
     "LimitSet",
+    "RiskGroup",
     "Viewing",
 ]
 
 GROUPS = ("Exempt", "RG1", "RG2", "RG3")
 """Risk groups in rising order, the same in every limit set of the IEC 62471 family."""
+RiskGroup = Literal["Exempt", "RG1", "RG2", "RG3"]
+"""The name of a risk group, as a type: one of :data:`GROUPS`."""
 
 Applies = Literal["always", "large_source", "small_source", "visual_stimulus", "weak_visual_stimulus"]
 
