@@ -19,13 +19,19 @@ __all__ = [
     "BlueLightTransfer",
     "BoundaryDistance",
     "ClaimCheck",
+    "DayExposure",
     "DistanceStudy",
+    "Emission",
+    "ExposureFraction",
+    "ExposureResult",
+    "ExposureStudy",
     "Geometry",
     "HazardBounds",
     "HazardResult",
     "LimitSetInfo",
     "Photometry",
     "Provenance",
+    "PulseCheck",
     "Remedies",
     "Remedy",
     "RiskGroup",
@@ -39,6 +45,35 @@ Basis = Literal["standard", "what-if"]
 
 class _Frozen(BaseModel):
     model_config = ConfigDict(frozen=True, extra="forbid")
+
+
+class PulseCheck(_Frozen):
+    """One hazard's pulses against the exposure limit at the pulse duration."""
+
+    duration_s: float = Field(description="Half-peak width of a pulse [s].")
+    dose_per_pulse: float = Field(description="The peak value times the pulse duration [unit·s: J/m² or J/(m²·sr)].")
+    fraction: float = Field(description="A pulse as a fraction of the limit at its duration [1]; over 1 exceeds it.")
+    fraction_in_train: float | None = Field(
+        None,
+        description="Thermal limits in a train: each pulse against its limit × N^−0.25, as a fraction [1]; null "
+        "for a single pulse or a photochemical hazard.",
+    )
+    pulses_in_window: float | None = Field(None, description="N, pulses within the thermal window [1].")
+    pulses_to_limit: float | None = Field(
+        None,
+        description="Pulses that together reach the limit: dose limits 1/fraction (within the limit's dose period), "
+        "thermal limits fraction^−4 (the N^−0.25 rule) [1]; null where a pulse alone exceeds it.",
+    )
+
+
+class Emission(_Frozen):
+    """How the source emits: continuous, a single pulse or a pulse train, and which rule set the group."""
+
+    mode: Literal["single_pulse", "pulse_train"]
+    pulse_duration_s: float = Field(description="Half-peak width of each pulse [s].")
+    pulse_rate_hz: float | None = Field(description="Pulses per second of a train [Hz]; null for a single pulse.")
+    duty_cycle: float | None = Field(description="Pulse duration × rate: the time-averaged share of the peak [1].")
+    rule: str = Field(description="Which rule set the group, in a sentence.")
 
 
 class HazardResult(_Frozen):
@@ -72,6 +107,7 @@ class HazardResult(_Frozen):
     time_bases_s: dict[str, float] = Field(description="Exposure duration behind each group limit [s].")
     exposure_limit: str | None = Field(description="The exposure limit formula.")
     note: str = Field(description="Why the hazard was or was not assessed, in a sentence.")
+    pulse: PulseCheck | None = Field(None, description="Pulsed sources: the pulses against the exposure limit.")
 
 
 class Photometry(_Frozen):
@@ -273,6 +309,49 @@ class Remedies(_Frozen):
     note: str
 
 
+class ExposureFraction(_Frozen):
+    """One hazard family in one exposure of the day."""
+
+    criterion: str = Field(description="The family member that applies at the exposure's distance.")
+    fraction: float = Field(description="The exposure as a fraction of its limit for that duration [1].")
+    allowed_duration_s: float | None = Field(
+        description="Longest duration at that distance within the limit (t_max there) [s]; null when never reached."
+    )
+    shortest_distance_mm: float | None = Field(
+        description="Least distance beyond which that duration stays within the limit [mm]; 0 when it does from "
+        "10 mm; null when not within 100 m."
+    )
+    note: str = Field(description="How the shortest distance was found.")
+
+
+class ExposureResult(_Frozen):
+    """One task of the day: where and how long, and each hazard family's share of its limit."""
+
+    label: str
+    distance_mm: float
+    duration_s: float
+    hazards: dict[str, ExposureFraction] = Field(description="Hazard family → its fraction of the limit.")
+
+
+class DayExposure(_Frozen):
+    """A hazard family over the whole day."""
+
+    fraction: float = Field(description="The day's exposure as a fraction of the limit [1]; over 1 exceeds it.")
+    rule: str = Field(description="How the exposures were combined.")
+
+
+class ExposureStudy(_Frozen):
+    """A day of exposures against the exposure limit values."""
+
+    limit_set: str = Field(description="The exposure limits judged by.")
+    exposures: list[ExposureResult]
+    day: dict[str, DayExposure] = Field(description="Hazard family → the day as a fraction of its limit.")
+    most_family: str | None = Field(description="The family that uses most of the day's allowance.")
+    most_exposure: str | None = Field(description="The exposure that uses most of that family's allowance.")
+    within: bool = Field(description="Every family stays within its limit over the day.")
+    note: str
+
+
 class LimitSetInfo(_Frozen):
     """What a renderer needs of the limit set the result was made with."""
 
@@ -345,6 +424,12 @@ class Assessment(_Frozen):
     remedies: Remedies | None = Field(None, description="Dimming, diffuser and UV-band findings.")
     scaling: Scaling | None = Field(
         None, description="Photometric scaling of a relative spectrum; null for an absolute one."
+    )
+    emission: Emission | None = Field(
+        None, description="Pulsed sources: the pulses and the rule that set the group; null for a continuous source."
+    )
+    exposure: ExposureStudy | None = Field(
+        None, description="The day's exposures the record states, against the exposure limit values."
     )
     record: dict = Field(description="The product record as used.")
     warnings: list[str]

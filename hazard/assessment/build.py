@@ -113,12 +113,8 @@ def _hazard_results(
                 f" The limit for exposures longer than {format_duration_s(float(h.t_max_s[i]))} is exceeded, "
                 f"so t_max is that time: any longer exposure is over the limit."
             )
-        valid_from = spec.exposure_limit.valid_from_s
-        if h.assessed[i] and h.t_max_s[i] < valid_from:
-            note += (
-                f" t_max is below the {format_duration_s(valid_from)} lower end of the limit's range, so it "
-                f"is an extrapolation: treat it as immediate."
-            )
+        if h.assessed[i] and h.t_max_s[i] == 0:
+            note += " The limit is exceeded from the first instant of exposure (t_max 0 s)."
         results[symbol] = HazardResult(
             symbol=symbol,
             title=spec.title,

@@ -67,6 +67,10 @@ def product_arrays(
         forced_distance_m=np.array([np.nan if r.at_distance_mm is None else r.at_distance_mm * 1e-3 for r in records])[
             take
         ],
+        pulse_duration_s=np.array([np.nan if r.pulse_duration_s is None else r.pulse_duration_s for r in records])[
+            take
+        ],
+        pulse_rate_hz=np.array([np.nan if r.pulse_rate_hz is None else r.pulse_rate_hz for r in records])[take],
     )
 
 

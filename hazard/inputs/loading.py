@@ -141,9 +141,11 @@ def product_from_record(
     metadata["unit_used"] = unit.text
     metadata["file_metadata"] = file_metadata(metadata)
     warnings = (*raw.warnings, *unit_warnings, *metadata_warnings(record, metadata["file_metadata"], raw.path))
-    spectrum = validate_spectrum(
-        raw.wavelength_nm, raw.value, raw.lines, raw.path, unit.factor_to_si, record.quantity, warnings
-    )
+    factor, quantity = unit.factor_to_si, record.quantity
+    if quantity == "radiant_exposure" and record.pulse_duration_s is not None:
+        # one pulse's exposure over its half-peak width: the peak of a pulse of that width (method: pulsed sources)
+        factor, quantity = factor / record.pulse_duration_s, record.effective_quantity
+    spectrum = validate_spectrum(raw.wavelength_nm, raw.value, raw.lines, raw.path, factor, quantity, warnings)
     _check_overlaps_bands(spectrum, origin)
     if record.quantity == "relative":
         _check_anchorable(spectrum, origin)

@@ -11,10 +11,12 @@ import tomllib
 from dataclasses import dataclass
 from functools import cached_property
 from pathlib import Path
-from typing import Literal
+from typing import Annotated, Literal
 
 from pydantic import (
+    AfterValidator,
     BaseModel,
+    BeforeValidator,
     ConfigDict,
     Field,
     StrictInt,
@@ -25,7 +27,7 @@ from pydantic import (
 )
 
 from hazard.errors import InputError, excerpt
-from hazard.inputs.units import IRRADIANCE_SI, RADIANCE_SI, parse_spectral_unit
+from hazard.inputs.units import EXPOSURE_SI, IRRADIANCE_SI, RADIANCE_SI, parse_spectral_unit
 from hazard.inputs.userfiles import read_user_file
 from hazard.standards import LIMIT_SETS, RiskGroup
 
@@ -41,7 +43,106 @@ __all__ = [
     "record_from_fields",
 ]
 
-_DEFAULT_UNIT = {"irradiance": IRRADIANCE_SI, "radiance": RADIANCE_SI}
+_DEFAULT_UNIT = {"irradiance": IRRADIANCE_SI, "radiance": RADIANCE_SI, "radiant_exposure": EXPOSURE_SI}
+CW_LONGEST_PULSE_S = 0.25
+"""A lamp lit longer than this is a continuous-wave lamp (IEC 62471:2006 3.5) [s]."""
+PULSED_PEAK_TO_AVERAGE = 10.0
+"""A train whose peak power is at least this many times its average is a pulsed lamp (CIE S 017:2011, 17-1001),
+whatever its pulse duration [1]."""
+DAY_S = 86400.0
+"""A daily exposure lasts at most a day [s]."""
+_DURATION = re.compile(r"^\s*([0-9]+(?:\.[0-9]*)?(?:[eE][+-]?[0-9]+)?)\s*(µs|us|ms|s|sec|min|h|hr|d)?\s*$")
+_DURATION_UNITS = {
+    "µs": 1e-6,
+    "us": 1e-6,
+    "ms": 1e-3,
+    "s": 1.0,
+    "sec": 1.0,
+    "min": 60.0,
+    "h": 3600.0,
+    "hr": 3600.0,
+    "d": 86400.0,
+}
+
+
+def parse_duration_s(value: object) -> object:
+    """A duration in seconds from a number, or from text like ``90s``, ``15min``, ``2h``, ``2 ms`` [s].
+
+    Other values are returned as they are, for the field's own validation to refuse.
+
+    Examples
+    --------
+    >>> parse_duration_s("15min"), parse_duration_s("2 h"), parse_duration_s("2ms"), parse_duration_s(30)
+    (900.0, 7200.0, 0.002, 30)
+    """
+    if isinstance(value, str):
+        match = _DURATION.match(value)
+        if match is None:
+            raise ValueError(f"{value[:40]!r} is not a duration: give seconds, or e.g. 90s, 15min, 2h, 5ms")
+        return float(match.group(1)) * _DURATION_UNITS[match.group(2) or "s"]
+    return value
+
+
+def _positive_duration(value: float) -> float:
+    if not 0 < value <= DAY_S:
+        raise ValueError(f"{value:g} s is not a duration within a day: give more than 0 and at most {DAY_S:g} s")
+    return value
+
+
+Duration = Annotated[float, BeforeValidator(parse_duration_s), AfterValidator(_positive_duration)]
+"""A duration in seconds, more than 0 and at most a day; text with a unit (``15min``) is read [s]."""
+
+
+class ExposureEntry(BaseModel):
+    """One daily exposure: a distance, a duration per day and what the person does there."""
+
+    model_config = ConfigDict(extra="forbid", frozen=True, allow_inf_nan=False)
+
+    distance_mm: float = Field(ge=1e-3, le=1e8, description="Distance from the source [mm].")
+    duration_s: Duration = Field(description="Time spent there in a day [s].")
+    label: str | None = Field(None, max_length=200, description="What the person does, for the reader.")
+
+
+def _check_pulses(record: ProductRecord) -> None:
+    """A pulsed source: pulses shorter than 0.25 s (or a train with peak ≥ 10× average), a rate for a train."""
+    duration, rate = record.pulse_duration_s, record.pulse_rate_hz
+    if duration is None:
+        raise ValueError(f"emission {record.emission!r} needs pulse_duration_s, the half-peak width of a pulse")
+    if record.lamp_type == "gls":
+        raise ValueError(
+            "a general lighting service lamp is a continuous-wave lamp (IEC 62471:2006 3.5): set "
+            'lamp_type = "other" or emission = "continuous"'
+        )
+    if record.quantity == "relative":
+        raise ValueError(
+            "a pulsed source needs an absolute spectrum (its peak, or one pulse's radiant exposure): a "
+            "photometric anchor of a flash is ambiguous"
+        )
+    if record.emission == "single_pulse":
+        if rate is not None:
+            raise ValueError('a single pulse has no pulse_rate_hz: set emission = "pulse_train" or remove the rate')
+        if duration >= CW_LONGEST_PULSE_S:
+            raise ValueError(
+                f"a pulse of {duration:g} s is not a pulse: a lamp lit {CW_LONGEST_PULSE_S:g} s or longer "
+                f'is a continuous-wave lamp (IEC 62471:2006 3.5); set emission = "continuous"'
+            )
+        return
+    if rate is None:
+        raise ValueError("a pulse train needs pulse_rate_hz, the pulses per second")
+    duty = duration * rate
+    if duty > 1:
+        raise ValueError(
+            f"pulses of {duration:g} s at {rate:g} Hz overlap (duty cycle {duty:.3g} > 1): check the "
+            f"duration and the rate"
+        )
+    if duration >= CW_LONGEST_PULSE_S and duty > 1 / PULSED_PEAK_TO_AVERAGE:
+        raise ValueError(
+            f"pulses of {duration:g} s with a peak {1 / duty:.3g}× the average are not a pulsed lamp "
+            f"(pulses under {CW_LONGEST_PULSE_S:g} s, or a peak at least {PULSED_PEAK_TO_AVERAGE:g}× the "
+            f'average; IEC 62471:2006 3.5, CIE S 017:2011 17-1001): set emission = "continuous"'
+        )
+
+
 CLAIMABLE = tuple(dict.fromkeys(symbol for limit_set in LIMIT_SETS.values() for symbol in limit_set.claimable))
 """Hazard symbols a record may claim a t_max for, from the limit sets (field :func:`claim_field`)."""
 
@@ -126,6 +227,8 @@ MAGNITUDE_BOUNDS: dict[str, tuple[float, float, str, str, str]] = {
     "luminous_intensity_cd": (1e-6, 1e12, "cd", "luminous intensity", "beyond any lamp"),
     "luminance_cd_m2": (1e-6, 1e12, "cd/m2", "luminance", "a thousand times the sun's luminance is beyond any lamp"),
     "peak_to_mean_radiance": (1.0, 1e4, "", "peak-to-mean ratio", "beyond any LED array or hot spot"),
+    "exposure_distance_mm": (1e-3, 1e8, "mm", "distance", _GEOMETRY),
+    "pulse_rate_hz": (1e-6, 1e9, "Hz", "pulse rate", "from one pulse in eleven days to a gigahertz"),
     "claimed_cct_k": (100.0, 1e6, "K", "colour temperature", "outside any light source's"),
     "claimed_illuminance_lx": (1e-6, 1e9, "lx", "illuminance", "beyond any lamp"),
     **{
@@ -148,10 +251,10 @@ class ProductRecord(BaseModel):
     spectrum: str | None = Field(
         None, max_length=4096, description="Spectrum file, relative to the record file's folder."
     )
-    quantity: Literal["irradiance", "radiance", "relative"] = Field(
+    quantity: Literal["irradiance", "radiance", "relative", "radiant_exposure"] = Field(
         "irradiance",
-        description="What the spectrum holds: spectral irradiance, spectral radiance, or a "
-        "relative spectrum scaled by a photometric anchor.",
+        description="What the spectrum holds: spectral irradiance, spectral radiance, a relative spectrum scaled by "
+        "a photometric anchor, or the radiant exposure of one pulse (J/m2/nm, or J/m2/sr/nm for a radiance dose).",
     )
     unit: str | None = Field(
         None,
@@ -216,6 +319,24 @@ class ProductRecord(BaseModel):
         description="Assess at this distance instead of the "
         "standard's (a what-if study: the group is "
         "then not the standard's classification) [mm].",
+    )
+    emission: Literal["continuous", "single_pulse", "pulse_train"] = Field(
+        "continuous",
+        description="'continuous' (lit for more than 0.25 s), 'single_pulse' or 'pulse_train'; a pulsed source's "
+        "spectrum is its peak (or, with quantity radiant_exposure, one pulse's exposure).",
+    )
+    pulse_duration_s: Duration | None = Field(
+        None, description="Half-peak width of each pulse [s]; human durations like 2ms are read."
+    )
+    pulse_rate_hz: float | None = Field(None, gt=0, description="Pulses per second of a pulse train [Hz].")
+    exposure_distance_mm: float | None = Field(
+        None, gt=0, description="Distance of one daily exposure to assess against the exposure limits [mm]."
+    )
+    exposure_duration_s: Duration | None = Field(
+        None, description="Time spent at exposure_distance_mm in a day [s]; human durations like 15min, 2h are read."
+    )
+    exposure: list[ExposureEntry] | None = Field(
+        None, description="Several daily exposures (TOML [[exposure]] tables of distance_mm, duration_s, label)."
     )
     claimed_risk_group: RiskGroup | None = Field(None, description="The vendor's claimed overall risk group.")
     claimed_cct_k: float | None = Field(None, gt=0, description="The vendor's claimed CCT [K].")
@@ -326,11 +447,37 @@ class ProductRecord(BaseModel):
             unit = parse_spectral_unit(self.unit_text)
         except ValueError as exc:
             raise ValueError(str(exc)) from None
-        if unit.per_steradian != (self.quantity == "radiance"):
+        if self.quantity == "radiant_exposure":
+            if not unit.energy:
+                raise ValueError(
+                    f"unit {self.unit_text!r} is a power: the radiant exposure of a pulse is in J, "
+                    f"e.g. J/m2/nm, mJ/cm2/nm or J/m2/sr/nm"
+                )
+        elif unit.energy or unit.per_steradian != (self.quantity == "radiance"):
             raise ValueError(
                 f"unit {self.unit_text!r} does not fit quantity {self.quantity!r}: radiance units "
-                f"have /sr, irradiance units do not"
+                f"have /sr, irradiance units do not, and J is for quantity radiant_exposure"
             )
+        return self
+
+    @model_validator(mode="after")
+    def _emission_consistent(self) -> ProductRecord:
+        """Pulses described completely, exposures completely (method: pulsed sources, exposure scenarios)."""
+        pulsed = self.emission != "continuous"
+        if not pulsed and (self.pulse_duration_s is not None or self.pulse_rate_hz is not None):
+            raise ValueError(
+                'pulse_duration_s and pulse_rate_hz describe a pulsed source: set emission = "single_pulse" or '
+                '"pulse_train", or remove them'
+            )
+        if self.quantity == "radiant_exposure" and not pulsed:
+            raise ValueError(
+                'a radiant-exposure spectrum is the exposure of one pulse: set emission = "single_pulse" or '
+                '"pulse_train" and pulse_duration_s'
+            )
+        if pulsed:
+            _check_pulses(self)
+        if (self.exposure_distance_mm is None) != (self.exposure_duration_s is None):
+            raise ValueError("exposure_distance_mm and exposure_duration_s go together: give both")
         return self
 
     @property
@@ -343,6 +490,14 @@ class ProductRecord(BaseModel):
         )
 
     @property
+    def exposures(self) -> list[ExposureEntry]:
+        """Every daily exposure the record states: the flat fields first, then the [[exposure]] tables."""
+        flat = []
+        if self.exposure_distance_mm is not None and self.exposure_duration_s is not None:
+            flat.append(ExposureEntry(distance_mm=self.exposure_distance_mm, duration_s=self.exposure_duration_s))
+        return flat + list(self.exposure or [])
+
+    @property
     def effective_quantity(self) -> Literal["irradiance", "radiance"]:
         """What the spectrum is after anchoring.
 
@@ -351,6 +506,8 @@ class ProductRecord(BaseModel):
         """
         if self.quantity == "relative":
             return "radiance" if self.anchor is not None and self.anchor.is_radiance else "irradiance"
+        if self.quantity == "radiant_exposure":
+            return "radiance" if parse_spectral_unit(self.unit_text).per_steradian else "irradiance"
         return self.quantity
 
     @property

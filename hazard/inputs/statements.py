@@ -122,7 +122,9 @@ def resolve_unit(
         return parse_spectral_unit(record.unit_text), warnings
     stated, text, line, where = units[0]
     if record.unit is None:
-        if stated.per_steradian != (record.quantity == "radiance"):
+        exposure = record.quantity == "radiant_exposure"
+        radiance_differs = not exposure and stated.per_steradian != (record.quantity == "radiance")
+        if radiance_differs or stated.energy != exposure:
             raise InputError(
                 f"the file's {where} gives {text!r}, which does not fit quantity {record.quantity!r}",
                 "set quantity (and unit) to match the file",
@@ -140,7 +142,7 @@ def resolve_unit(
 
 
 def _same(a: SpectralUnit, b: SpectralUnit) -> bool:
-    return math.isclose(a.factor_to_si, b.factor_to_si) and a.per_steradian == b.per_steradian
+    return math.isclose(a.factor_to_si, b.factor_to_si) and (a.per_steradian, a.energy) == (b.per_steradian, b.energy)
 
 
 def file_metadata(metadata: dict) -> dict[str, str]:

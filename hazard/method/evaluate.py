@@ -6,6 +6,7 @@ Everything here works on many products at once (one row each), so that the singl
 
 from __future__ import annotations
 
+import dataclasses
 from dataclasses import dataclass
 
 import numpy as np
@@ -21,6 +22,7 @@ from hazard.method.geometry import (
     inverse_square_factor,
 )
 from hazard.method.photometry import K_M_LM_PER_W, VISIBLE_BAND_NM
+from hazard.method.pulses import PulseArrays, pulse_checks
 from hazard.standards import Hazard, LimitSet
 
 VISIBLE_RADIATION_NM = (380.0, 780.0)
@@ -112,6 +114,11 @@ class ProductArrays:
         peak, not the average [1]. Ones when not given.
     forced_distance_m : numpy.ndarray, optional
         (n,) assess at this distance instead of the standard's rule [m]; NaN (or not given) for the rule.
+    pulse_duration_s : numpy.ndarray, optional
+        (n,) half-peak width of each pulse of a pulsed source, whose ``raw`` integrals are then of its peak
+        (on-state) spectrum [s]; NaN (or not given) for a continuous source.
+    pulse_rate_hz : numpy.ndarray, optional
+        (n,) pulse rate of a pulse train [Hz]; NaN (or not given) for a single pulse or a continuous source.
     """
 
     raw: np.ndarray
@@ -124,6 +131,8 @@ class ProductArrays:
     luminous_intensity_cd: np.ndarray
     peak_to_mean: np.ndarray | None = None
     forced_distance_m: np.ndarray | None = None
+    pulse_duration_s: np.ndarray | None = None
+    pulse_rate_hz: np.ndarray | None = None
 
     def rows(self, index: np.ndarray) -> ProductArrays:
         """The products at ``index`` (repeats allowed), e.g. one product many times for a what-if sweep."""
@@ -142,6 +151,8 @@ class ProductArrays:
             luminous_intensity_cd=self.luminous_intensity_cd[index],
             peak_to_mean=pick(self.peak_to_mean),
             forced_distance_m=pick(self.forced_distance_m),
+            pulse_duration_s=pick(self.pulse_duration_s),
+            pulse_rate_hz=pick(self.pulse_rate_hz),
         )
 
 
@@ -150,7 +161,10 @@ class HazardArrays:
     """Results of one hazard for n products. Group indices: 0 Exempt … 3 RG3, −1 none.
 
     ``limits``, ``compared``, ``alpha_bounded`` are (n, 3) over Exempt, RG1, RG2; NaN where not defined.
-    ``raised_by_t_max`` marks groups raised to agree with t_max (:mod:`hazard.method.classify`).
+    ``raised_by_t_max`` marks groups raised to agree with t_max (:mod:`hazard.method.classify`). For pulsed
+    sources ``pulse`` holds the pulse check (:mod:`hazard.method.pulses`) and the values, limits and t_max are
+    those of the time-averaged spectrum of a train (of the peak of a single pulse, whose group comes from the
+    pulse check alone).
     """
 
     hazard: Hazard
@@ -163,6 +177,7 @@ class HazardArrays:
     compared: np.ndarray
     alpha_bounded: np.ndarray
     raised_by_t_max: np.ndarray
+    pulse: PulseArrays | None = None
 
 
 @dataclass(frozen=True)
@@ -189,6 +204,9 @@ class Evaluation:
     luminous_intensity_cd: np.ndarray
     threshold_distance_m: np.ndarray
     mainly_visible: np.ndarray
+    viewed: Viewed
+    pulsed: np.ndarray
+    single_pulse: np.ndarray
 
 
 def _assessment_distance_m(arrays: ProductArrays, v_raw: np.ndarray) -> np.ndarray:
@@ -219,7 +237,7 @@ def _applicable(hazard: Hazard, limit_set: LimitSet, alpha: np.ndarray, luminanc
 
 
 @dataclass(frozen=True)
-class _Viewed:
+class Viewed:
     """The products as seen at their assessment distance: what every hazard's comparison needs."""
 
     irradiance: dict[str, np.ndarray]
@@ -263,7 +281,7 @@ class _Viewed:
 
 
 def _hazard_arrays(
-    hazard: Hazard, limit_set: LimitSet, viewed: _Viewed, covered: np.ndarray, alpha: np.ndarray, luminance: np.ndarray
+    hazard: Hazard, limit_set: LimitSet, viewed: Viewed, covered: np.ndarray, alpha: np.ndarray, luminance: np.ndarray
 ) -> HazardArrays:
     n = alpha.size
     nan3 = np.full((n, 3), np.nan)
@@ -316,7 +334,13 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
         anchor_scale = np.where(
             np.isnan(arrays.anchor_photometric), 1.0, arrays.anchor_photometric / (K_M_LM_PER_W * arrays.raw[:, v])
         )
-    raw = arrays.raw * anchor_scale[:, None]
+    n = arrays.raw.shape[0]
+    pulse_duration = np.full(n, np.nan) if arrays.pulse_duration_s is None else arrays.pulse_duration_s
+    rate = np.full(n, np.nan) if arrays.pulse_rate_hz is None else arrays.pulse_rate_hz
+    pulsed = ~np.isnan(pulse_duration)
+    train = pulsed & ~np.isnan(rate)
+    peak_raw = arrays.raw * anchor_scale[:, None]  # a pulsed source's integrals are of its peak spectrum
+    raw = peak_raw * np.where(train, pulse_duration * np.nan_to_num(rate), 1.0)[:, None]  # a train: time average
     distance = _assessment_distance_m(arrays, raw[:, v])
     if arrays.forced_distance_m is not None:
         distance = np.where(np.isnan(arrays.forced_distance_m), distance, arrays.forced_distance_m)
@@ -337,7 +361,7 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
         limit_set.transfer_threshold_w_m2 or np.nan,
     )
     peak = np.ones(distance.size) if arrays.peak_to_mean is None else arrays.peak_to_mean
-    viewed = _Viewed(
+    viewed = Viewed(
         irradiance={h.symbol: irradiance[:, i] for i, h in enumerate(limit_set.hazards)},
         shape=arrays.shape,
         distance_m=distance,
@@ -348,6 +372,12 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
         h.symbol: _hazard_arrays(h, limit_set, viewed, arrays.covered[:, i], alpha, luminance)
         for i, h in enumerate(limit_set.hazards)
     }
+    if pulsed.any():
+        peak_viewed = dataclasses.replace(
+            viewed, irradiance={h.symbol: peak_raw[:, i] * scale for i, h in enumerate(limit_set.hazards)}
+        )
+        checks = pulse_checks(peak_viewed, limit_set, pulse_duration, rate)
+        hazards = {s: _with_pulses(h, checks[s], pulsed, train) for s, h in hazards.items()}
     group = np.max(np.column_stack([h.group_index for h in hazards.values()]), axis=1)
     complete = np.all(np.column_stack([h.assessed | ~h.applicable for h in hazards.values()]), axis=1)
     visible, total = raw[:, keys["VIS"]], raw[:, keys["ALL"]]
@@ -364,7 +394,29 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
         complete=complete,
         anchor_scale=anchor_scale,
         mainly_visible=visible >= MAINLY_VISIBLE_SHARE * total,
+        viewed=viewed,
+        pulsed=pulsed,
+        single_pulse=pulsed & ~train,
         **transfer,
+    )
+
+
+def _with_pulses(h: HazardArrays, check: PulseArrays, pulsed: np.ndarray, train: np.ndarray) -> HazardArrays:
+    """A hazard's groups with the pulse rules of :mod:`hazard.method.pulses`.
+
+    A pulse over its limit is RG3; a single pulse within every limit is Exempt (and has no continuous t_max); a
+    train within them keeps its group from the time-averaged spectrum.
+    """
+    over = check.fraction > 1
+    grouped = h.group_index >= 0
+    single = pulsed & ~train
+    group = np.where(grouped & over & pulsed, 3, np.where(grouped & single, 0, h.group_index))
+    return dataclasses.replace(
+        h,
+        group_index=group,
+        t_max_s=np.where(single, np.nan, h.t_max_s),
+        pulse=check,
+        raised_by_t_max=h.raised_by_t_max & ~single,
     )
 
 

@@ -12,6 +12,7 @@ t_max is the earliest time over all cuts, so it sees the same fields and α boun
 from __future__ import annotations
 
 from collections.abc import Callable
+from typing import Protocol
 
 import numpy as np
 
@@ -135,3 +136,56 @@ def time_to_limit_s(
             reach = _growing(exceeded, n, max(a, 1e-9), b)
         earliest = np.fmin(earliest, reach)
     return np.where(np.isfinite(earliest), earliest, np.nan)
+
+
+def piece_at(hazard: Hazard, t_s: float) -> LimitPiece | None:
+    """The piece of the exposure limit that covers duration ``t_s`` (after < t ≤ up to); None beyond them."""
+    return next((p for p in hazard.exposure_limit.pieces if p.after_s < t_s <= p.up_to_s), None)
+
+
+def limit_value(hazard: Hazard, t_s: float, alpha_rad: float | None = None) -> float:
+    """The exposure limit for duration ``t_s`` [the hazard's unit].
+
+    coefficient·t^exponent, over α when the piece says so; NaN where no piece covers ``t_s``.
+    """
+    piece = piece_at(hazard, t_s)
+    if piece is None:
+        return float("nan")
+    coefficient = piece.coefficient / alpha_rad if (piece.over_alpha and alpha_rad is not None) else piece.coefficient
+    return float(coefficient * t_s**piece.exponent)
+
+
+class Viewed(Protocol):
+    """What a duration's comparison needs of products seen at a distance (:class:`hazard.method.evaluate.Viewed`)."""
+
+    def value(self, symbol: str) -> np.ndarray: ...
+
+    def field_radiance(
+        self, symbol: str, fov_rad: np.ndarray | float, rows: np.ndarray | None = None
+    ) -> np.ndarray: ...
+
+    def alpha(self, bounds_rad: tuple[float, float]) -> np.ndarray: ...
+
+
+def limit_fraction(hazard: Hazard, viewed: Viewed, t_s: float, row: int) -> float:
+    """An exposure of duration ``t_s`` as a fraction of its limit, for product ``row`` of ``viewed`` [1].
+
+    Radiance is averaged over the field of view that belongs to the duration and α is bounded as the duration's
+    viewing rule says; NaN where the limit has no value for that duration.
+    """
+    piece = piece_at(hazard, t_s)
+    if piece is None:
+        return float("nan")
+    rule = hazard.viewing_at(t_s)
+    symbol = piece.quantity or hazard.symbol
+    rows = np.array([row])
+    if rule is None:
+        compared = float(viewed.value(symbol)[row])
+    else:
+        compared = float(viewed.field_radiance(symbol, rule.fov.at(t_s), rows)[0])
+    alpha = None
+    if piece.over_alpha:
+        if rule is None or rule.alpha_bounds_rad is None:
+            raise ValueError(f"{hazard.symbol}: a limit over α needs α bounds at {t_s:g} s")
+        alpha = float(viewed.alpha(rule.alpha_bounds_rad)[row])
+    return compared / limit_value(hazard, t_s, alpha)

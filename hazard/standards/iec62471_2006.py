@@ -18,6 +18,7 @@ Two readings the standard leaves open, taken on the safe side (method §1, §3):
 
 from __future__ import annotations
 
+import dataclasses
 import math
 
 from hazard.standards.model import (
@@ -47,6 +48,12 @@ _THERMAL_VIEWING = (
     Viewing(up_to_s=0.25, fov=FieldOfView(fixed_rad=1.7 * _MRAD), alpha_bounds_rad=(0.0017, 0.1)),
     Viewing(up_to_s=_INF, fov=FieldOfView(fixed_rad=11 * _MRAD), alpha_bounds_rad=(0.011, 0.1)),
 )
+_THERMAL_PIECE = {"coefficient": 50000.0, "exponent": -0.25, "over_alpha": True}  # 4.3.5: 50000/(α·t^0.25)
+# Below 10 µs, where 4.3.5 stops, the limit is held at its 10 µs value, 50000/(α·(10⁻⁵)^0.25) = 8.89·10⁵/α (as
+# ICNIRP and 2006/25/EC Annex I row i do); extrapolating the formula would allow more, not less.
+_HELD_BELOW_10_US = LimitPiece(
+    after_s=0.0, up_to_s=1e-5, coefficient=50000.0 / 1e-5**0.25, exponent=0.0, over_alpha=True
+)
 _UV = CautionTrigger(caution="uv", from_group="RG1")
 _BRIGHT = CautionTrigger(caution="bright", from_group="RG2")
 _HEAT = CautionTrigger(caution="infrared", from_group="RG1")
@@ -60,6 +67,7 @@ IEC_62471_2006 = LimitSet(
     hazards=(
         Hazard(
             symbol="E_S",
+            effect="photochemical",
             title="actinic UV, skin and eye",
             clause="IEC 62471:2006 4.3.1",
             family="E_S",
@@ -81,6 +89,7 @@ IEC_62471_2006 = LimitSet(
         ),
         Hazard(
             symbol="E_UVA",
+            effect="photochemical",
             title="near-UV, eye (lens)",
             clause="IEC 62471:2006 4.3.2",
             family="E_UVA",
@@ -102,6 +111,7 @@ IEC_62471_2006 = LimitSet(
         ),
         Hazard(
             symbol="L_B",
+            effect="photochemical",
             title="blue light, retina",
             clause="IEC 62471:2006 4.3.3",
             family="blue light",
@@ -124,6 +134,7 @@ IEC_62471_2006 = LimitSet(
         ),
         Hazard(
             symbol="E_B",
+            effect="photochemical",
             title="blue light, retina, small source",
             clause="IEC 62471:2006 4.3.4",
             family="blue light",
@@ -145,6 +156,7 @@ IEC_62471_2006 = LimitSet(
         ),
         Hazard(
             symbol="L_R",
+            effect="thermal",
             title="retinal thermal",
             clause="IEC 62471:2006 4.3.5",
             family="retinal thermal",
@@ -158,13 +170,13 @@ IEC_62471_2006 = LimitSet(
             limits_over_alpha=True,
             cautions=(_BRIGHT,),
             exposure_limit=ExposureLimit(
-                pieces=(LimitPiece(after_s=0.0, up_to_s=10.0, coefficient=50000.0, exponent=-0.25, over_alpha=True),),
-                text="L_R ≤ 50000/(α·t^0.25), 10 µs ≤ t ≤ 10 s",
-                valid_from_s=1e-5,
+                pieces=(_HELD_BELOW_10_US, LimitPiece(after_s=1e-5, up_to_s=10.0, **_THERMAL_PIECE)),
+                text="L_R ≤ 50000/(α·t^0.25), 10 µs ≤ t ≤ 10 s (held at its 10 µs value for shorter times)",
             ),
         ),
         Hazard(
             symbol="L_IR",
+            effect="thermal",
             title="retinal thermal, weak visual stimulus",
             clause="IEC 62471:2006 4.3.6",
             family="retinal thermal",
@@ -179,17 +191,16 @@ IEC_62471_2006 = LimitSet(
             cautions=(_HEAT,),
             exposure_limit=ExposureLimit(
                 pieces=(
-                    LimitPiece(
-                        after_s=0.0, up_to_s=10.0, coefficient=50000.0, exponent=-0.25, over_alpha=True, quantity="L_R"
-                    ),
+                    dataclasses.replace(_HELD_BELOW_10_US, quantity="L_R"),
+                    LimitPiece(after_s=1e-5, up_to_s=10.0, quantity="L_R", **_THERMAL_PIECE),
                     LimitPiece(after_s=10.0, up_to_s=_INF, coefficient=6000.0, exponent=0.0, over_alpha=True),
                 ),
-                text="L_R ≤ 50000/(α·t^0.25) (10 µs ≤ t ≤ 10 s); L_IR ≤ 6000/α (t > 10 s)",
-                valid_from_s=1e-5,
+                text="L_R ≤ 50000/(α·t^0.25) (10 µs ≤ t ≤ 10 s, held below); L_IR ≤ 6000/α (t > 10 s)",
             ),
         ),
         Hazard(
             symbol="E_IR",
+            effect="thermal",
             title="infrared, eye (cornea and lens)",
             clause="IEC 62471:2006 4.3.7",
             family="E_IR",
@@ -210,6 +221,7 @@ IEC_62471_2006 = LimitSet(
         ),
         Hazard(
             symbol="E_H",
+            effect="thermal",
             title="thermal, skin",
             clause="IEC 62471:2006 4.3.8",
             family="E_H",

@@ -127,13 +127,10 @@ class ExposureLimit:
         In rising duration.
     text : str
         The limit as formulas, for reports.
-    valid_from_s : float
-        Below this duration the formula is an extrapolation [s].
     """
 
     pieces: tuple[LimitPiece, ...]
     text: str
-    valid_from_s: float = 0.0
 
 
 @dataclass(frozen=True, kw_only=True)
@@ -201,6 +198,9 @@ class Hazard:
         Weighting table name in :mod:`hazard.weighting_tables`; None for an unweighted band.
     kind : str
         ``"irradiance"`` [W m⁻²] or ``"radiance"`` [W m⁻² sr⁻¹].
+    effect : str
+        ``"photochemical"``: the limit is a dose, exposures add up over a day; ``"thermal"``: tissue cools
+        between exposures, and pulses add up only within the limit's own durations.
     applies : str
         When the hazard is assessed: ``always``; ``large_source`` / ``small_source`` (α against
         :attr:`LimitSet.small_source_alpha_rad`); ``visual_stimulus`` / ``weak_visual_stimulus`` (luminance
@@ -233,6 +233,7 @@ class Hazard:
     band_nm: tuple[float, float]
     table: str | None
     kind: Literal["irradiance", "radiance"]
+    effect: Literal["photochemical", "thermal"]
     applies: Applies
     exposure_limit: ExposureLimit
     limits: tuple[float, float, float] | None = None
