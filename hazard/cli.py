@@ -19,6 +19,7 @@ from pathlib import Path
 import click
 
 from hazard._version import __version__
+from hazard.cli_options import record_options, record_overrides
 from hazard.exit_codes import EXIT_CONTRADICTED, EXIT_INPUT, EXIT_INTERNAL, EXIT_OK, EXIT_SOME_FAILED
 from hazard.output.atomic import remove_stale_temporaries, write_atomic
 
@@ -33,42 +34,6 @@ _ALLOW_OUTSIDE = click.option(
     help="Let records and manifests name spectra outside their own folder (absolute paths, '..'): only for "
     "files you trust.",
 )
-
-_RECORD_OPTIONS = [
-    click.option("--id", "id_", help="Product id (default: the spectrum file's stem)."),
-    click.option("--name", help="Product name."),
-    click.option("--quantity", type=click.Choice(["irradiance", "radiance"]), help="What the spectrum holds."),
-    click.option("--unit", help="Unit of the values, e.g. W/m2/nm, mW/m2/nm, uW/cm2/nm, W/m2/sr/nm."),
-    click.option("--column", help="Value column (header name or 1-based number) when the file has several."),
-    click.option("--distance-mm", type=float, help="Measurement distance [mm]."),
-    click.option("--source-diameter-mm", type=float, help="Diameter of a round source [mm]."),
-    click.option("--source-width-mm", type=float, help="Width of a rectangular source [mm]."),
-    click.option("--source-height-mm", type=float, help="Height of a rectangular source [mm]."),
-    click.option("--source-alpha-mrad", type=float, help="Angular subtense at --distance-mm [mrad]."),
-    click.option(
-        "--lamp-type",
-        type=click.Choice(["gls", "other"]),
-        help="gls: general lighting service (500 lx rule); other: 200 mm.",
-    ),
-    click.option(
-        "--no-emission-outside", is_flag=True, default=None, help="The source emits nothing outside the measured range."
-    ),
-    click.option("--measurement-fov-mrad", type=float, help="Field of view of a radiance measurement [mrad]."),
-]
-
-
-def _record_options(func):
-    for option in reversed(_RECORD_OPTIONS):
-        func = option(func)
-    return func
-
-
-def _overrides(options: dict) -> dict:
-    fields = {("id" if k == "id_" else k): v for k, v in options.items()}
-    column = fields.get("column")
-    if isinstance(column, str) and column.isascii() and column.isdecimal() and len(column) <= 7:
-        fields["column"] = int(column)
-    return {k: v for k, v in fields.items() if v is not None}
 
 
 class _Group(click.Group):
@@ -158,7 +123,7 @@ def main(ctx: click.Context, debug: bool) -> None:
 
 @main.command()
 @click.argument("product", type=click.Path(dir_okay=False, path_type=Path))
-@_record_options
+@record_options
 @click.option(
     "--format",
     "output_format",
@@ -189,7 +154,7 @@ def assess(
     from hazard.assessment.build import assess as run_assessment
     from hazard.inputs.loading import load_product
 
-    loaded = load_product(product, _overrides(options), allow_outside=allow_outside)
+    loaded = load_product(product, record_overrides(options), allow_outside=allow_outside)
     spectrum = (product.parent / loaded.record.spectrum) if loaded.record.spectrum else product
     _refuse_overwriting_inputs([output, pdf_path], [product, spectrum])
     assessment = run_assessment(loaded)

@@ -65,6 +65,11 @@ class PulseCheck(_Frozen):
         "thermal limits fraction^−4 (the N^−0.25 rule) [1]; null where a pulse alone exceeds it.",
     )
 
+    @property
+    def worst(self) -> float:
+        """The larger of the pulse's two fractions of its limit [1]: over 1, a pulse exceeds it."""
+        return max(self.fraction, self.fraction_in_train or 0.0)
+
 
 class Emission(_Frozen):
     """How the source emits: continuous, a single pulse or a pulse train, and which rule set the group."""
@@ -314,8 +319,18 @@ class ExposureFraction(_Frozen):
 
     criterion: str = Field(description="The family member that applies at the exposure's distance.")
     fraction: float = Field(description="The exposure as a fraction of its limit for that duration [1].")
+    pulse_fraction: float | None = Field(
+        None, description="A pulse train: its largest single pulse against its own limit there [1]; null otherwise."
+    )
+
+    @property
+    def worst(self) -> float:
+        """The larger of the dose's and a single pulse's fraction of the limit [1]: over 1 exceeds it."""
+        return max(self.fraction, self.pulse_fraction or 0.0)
+
     allowed_duration_s: float | None = Field(
-        description="Longest duration at that distance within the limit (t_max there) [s]; null when never reached."
+        description="Longest duration at that distance within the limit (t_max there) [s]; null when not reached "
+        "within a day."
     )
     shortest_distance_mm: float | None = Field(
         description="Least distance beyond which that duration stays within the limit [mm]; 0 when it does from "
@@ -337,6 +352,15 @@ class DayExposure(_Frozen):
     """A hazard family over the whole day."""
 
     fraction: float = Field(description="The day's exposure as a fraction of the limit [1]; over 1 exceeds it.")
+    pulse_fraction: float | None = Field(
+        None, description="A pulse train: the largest single pulse of the day against its own limit [1]."
+    )
+
+    @property
+    def worst(self) -> float:
+        """The larger of the dose's and a single pulse's fraction of the limit [1]: over 1 exceeds it."""
+        return max(self.fraction, self.pulse_fraction or 0.0)
+
     rule: str = Field(description="How the exposures were combined.")
 
 
@@ -346,6 +370,11 @@ class ExposureStudy(_Frozen):
     limit_set: str = Field(description="The exposure limits judged by.")
     exposures: list[ExposureResult]
     day: dict[str, DayExposure] = Field(description="Hazard family → the day as a fraction of its limit.")
+    curve_distance_mm: list[float] = Field(description="Distances of the allowed-stay curves, rising [mm].")
+    allowed_duration_s: dict[str, list[float | None]] = Field(
+        description="Hazard family → its longest stay within the limit at each curve distance (t_max there) [s]; "
+        "null when not reached within a day."
+    )
     most_family: str | None = Field(description="The family that uses most of the day's allowance.")
     most_exposure: str | None = Field(description="The exposure that uses most of that family's allowance.")
     within: bool = Field(description="Every family stays within its limit over the day.")
@@ -458,3 +487,8 @@ class Assessment(_Frozen):
         this one.
         """
         return self.standard_risk_group if self.basis == "what-if" else self.risk_group
+
+    @property
+    def pulse_exceeds(self) -> bool:
+        """A pulsed source with a pulse over its exposure limit (which makes it RG3)."""
+        return any(h.pulse is not None and h.pulse.worst > 1 for h in self.hazards.values())

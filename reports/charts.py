@@ -19,17 +19,26 @@ from collections.abc import Callable
 from itertools import pairwise
 
 import numpy as np
-from reportlab.graphics.shapes import Drawing, Group, Line, Polygon, PolyLine, Rect, String
+from reportlab.graphics.shapes import Drawing, Group, Line, Polygon, PolyLine, Rect
 from reportlab.lib import colors
 from reportlab.pdfbase.pdfmetrics import stringWidth
 
-from hazard.output.formatting import format_margin
+from hazard.output.formatting import hazard_margin_text
+from hazard.reports.chart_parts import (
+    TICK,
+    chart_text,
+    curve_lines,
+    dash_style,
+    family_line,
+    power_of_ten,
+    segments,
+)
 from hazard.reports.fonts import FontSet
 from hazard.reports.style import INK, MUTED, PANEL, RULE, SPECTRUM_EDGE, SPECTRUM_FILL, group_fill, group_ink
 from hazard.result import Assessment, HazardResult
 from hazard.weighting_tables import load_table
 
-__all__ = ["ACTION_SPECTRA", "FAMILY_LINES", "distance_chart", "margin_chart", "spectrum_chart"]
+__all__ = ["ACTION_SPECTRA", "distance_chart", "margin_chart", "spectrum_chart"]
 
 ACTION_SPECTRA = (
     ("s_uv", "S_UV(λ) actinic UV", None, 1.1),
@@ -39,57 +48,8 @@ ACTION_SPECTRA = (
 """Weighting table, legend text, dash pattern (None: solid) and line width of each overlaid action spectrum."""
 
 _Y_DECADES = (-4, 1)  # spectrum chart: 1e-4 … 10 (R peaks at 10)
-_X_DECADES = (-4, 6)  # margin chart: value ÷ Exempt limit from 1e-4 to 1e6
-_TICK = 6.5  # tick label size [pt]
 _ZONE_LABEL = 5.8  # group name inside a zone of the margin chart [pt]
-
-
-def _power_of_ten(x: float, y: float, exponent: int, fonts: FontSet, anchor: str = "middle") -> Group:
-    """'10' with a raised exponent, as a tick label; ``anchor`` is middle or end at ``x``."""
-    base, sup = "10", str(exponent)
-    w_base = stringWidth(base, fonts.regular, _TICK)
-    w_sup = stringWidth(sup, fonts.regular, _TICK - 1.5)
-    left = x - (w_base + w_sup) / 2 if anchor == "middle" else x - w_base - w_sup
-    return Group(
-        String(left, y, base, fontName=fonts.regular, fontSize=_TICK, fillColor=MUTED),
-        String(left + w_base + 0.3, y + 2.6, sup, fontName=fonts.regular, fontSize=_TICK - 1.5, fillColor=MUTED),
-    )
-
-
-def _text(
-    x: float,
-    y: float,
-    text: str,
-    fonts: FontSet,
-    size: float = 7,
-    bold: bool = False,
-    color: colors.Color = INK,
-    anchor: str = "start",
-) -> String:
-    return String(
-        x,
-        y,
-        fonts.clean(text),
-        fontName=fonts.bold if bold else fonts.regular,
-        fontSize=size,
-        fillColor=color,
-        textAnchor=anchor,
-    )
-
-
-def _segments(points: list[tuple[float, float]], keep: list[bool]) -> list[list[tuple[float, float]]]:
-    """Runs of consecutive points whose ``keep`` flag is set."""
-    runs: list[list[tuple[float, float]]] = []
-    current: list[tuple[float, float]] = []
-    for point, flag in zip(points, keep, strict=True):
-        if flag:
-            current.append(point)
-        elif current:
-            runs.append(current)
-            current = []
-    if current:
-        runs.append(current)
-    return [run for run in runs if len(run) > 1]
+_X_DECADES = (-4, 6)  # margin chart: value ÷ Exempt limit from 1e-4 to 1e6
 
 
 def _wavelength_range(assessment: Assessment) -> tuple[float, float, float]:
@@ -134,7 +94,7 @@ def spectrum_chart(assessment: Assessment, width: float, height: float, fonts: F
         if end > start:
             d.add(Rect(px(start), bottom, px(end) - px(start), ph, fillColor=PANEL, strokeColor=None))
             if px(end) - px(start) > 40:
-                d.add(_text(px(start) + 4, bottom + 3, "not measured", fonts, 6, color=MUTED))
+                d.add(chart_text(px(start) + 4, bottom + 3, "not measured", fonts, 6, color=MUTED))
     for decade in range(y0, y1 + 1):
         d.add(
             Line(
@@ -146,10 +106,10 @@ def spectrum_chart(assessment: Assessment, width: float, height: float, fonts: F
                 strokeWidth=0.3 if decade else 0.7,
             )
         )
-        d.add(_power_of_ten(left - 3, py(10.0**decade) - 2.2, decade, fonts, anchor="end"))
+        d.add(power_of_ten(left - 3, py(10.0**decade) - 2.2, decade, fonts, anchor="end"))
     for nm in np.arange(lo, hi + 0.5, step):
         d.add(Line(px(nm), bottom, px(nm), bottom - 2.5, strokeColor=INK, strokeWidth=0.5))
-        d.add(_text(px(nm), bottom - 10, f"{nm:.0f}", fonts, _TICK, color=MUTED, anchor="middle"))
+        d.add(chart_text(px(nm), bottom - 10, f"{nm:.0f}", fonts, TICK, color=MUTED, anchor="middle"))
     floor = 10.0**y0
     peak = max(s.preview_value_si, default=0.0)
     if peak > 0:
@@ -162,7 +122,7 @@ def spectrum_chart(assessment: Assessment, width: float, height: float, fonts: F
         grid = np.arange(table.range_nm[0], table.range_nm[1] + 0.5, 1.0)
         weights = table.at(grid)
         points = [(px(nm), py(max(w, floor))) for nm, w in zip(grid, weights, strict=True)]
-        for run in _segments(points, list(weights >= floor)):
+        for run in segments(points, list(weights >= floor)):
             d.add(
                 PolyLine(
                     [c for point in run for c in point],
@@ -173,10 +133,10 @@ def spectrum_chart(assessment: Assessment, width: float, height: float, fonts: F
                 )
             )
     d.add(Rect(left, bottom, pw, ph, fillColor=None, strokeColor=INK, strokeWidth=0.6))
-    d.add(_text(left + pw / 2, 2, "wavelength λ [nm]", fonts, 7, color=MUTED, anchor="middle"))
+    d.add(chart_text(left + pw / 2, 2, "wavelength λ [nm]", fonts, 7, color=MUTED, anchor="middle"))
     d.add(
         Group(
-            _text(0, 0, "relative (log)", fonts, 6.5, color=MUTED, anchor="middle"),
+            chart_text(0, 0, "relative (log)", fonts, 6.5, color=MUTED, anchor="middle"),
             transform=(0, 1, -1, 0, 6, bottom + ph / 2),
         )
     )
@@ -192,7 +152,7 @@ def _legend(x: float, y: float, width: float, fonts: FontSet) -> Group:
     size = 7 * min(1.0, width / natural)
     g = Group(
         Rect(x, y - 1, 14, 6, fillColor=SPECTRUM_FILL, strokeColor=SPECTRUM_EDGE, strokeWidth=0.6),
-        _text(x + 18, y, label, fonts, size),
+        chart_text(x + 18, y, label, fonts, size),
     )
     cursor = x + 18 + stringWidth(fonts.clean(label), fonts.regular, size) + 14
     for _, text, dash, line_width in ACTION_SPECTRA:
@@ -208,7 +168,7 @@ def _legend(x: float, y: float, width: float, fonts: FontSet) -> Group:
                 strokeLineCap=1 if dash and dash[0] < 1 else 0,
             )
         )
-        g.add(_text(cursor + 24, y, text, fonts, size))
+        g.add(chart_text(cursor + 24, y, text, fonts, size))
         cursor += 24 + stringWidth(fonts.clean(text), fonts.regular, size) + 14
     return g
 
@@ -239,8 +199,15 @@ def margin_chart(assessment: Assessment, width: float, fonts: FontSet) -> Drawin
     """
     rows = _chart_rows(assessment)
     if not rows:
+        single = assessment.emission is not None and assessment.emission.mode == "single_pulse"
+        text = (
+            "A single pulse has no continuous-wave group limits: its group comes from each pulse against its "
+            "exposure limit (Pulsed emission, page 2)."
+            if single
+            else "No hazard with risk groups could be assessed, so there is nothing to draw."
+        )
         d = Drawing(width, 14)
-        d.add(_text(0, 3, "No hazard with risk groups could be assessed, so there is nothing to draw.", fonts, 7.5))
+        d.add(chart_text(0, 3, text, fonts, 7.5))
         return d
     row_h, gap, label_w, result_w, bottom, top = 13.5, 1.5, 112.0, 126.0, 22.0, 10.0
     height = bottom + top + len(rows) * (row_h + gap)
@@ -254,21 +221,21 @@ def margin_chart(assessment: Assessment, width: float, fonts: FontSet) -> Drawin
     for decade in range(x0, x1 + 1):
         x = px(10.0**decade)
         d.add(Line(x, bottom, x, height - top, strokeColor=RULE, strokeWidth=0.3))
-        d.add(_power_of_ten(x, bottom - 10, decade, fonts))
+        d.add(power_of_ten(x, bottom - 10, decade, fonts))
     one = px(1.0)
     d.add(Line(one, bottom - 2, one, height - top + 2, strokeColor=INK, strokeWidth=0.9))
     for i, hazard in enumerate(rows):
         y = height - top - (i + 1) * (row_h + gap) + gap
         title = fonts.clean(hazard.title)
         title_size = min(6.3, (label_w - 4) / stringWidth(title, fonts.regular, 1))
-        d.add(_text(0, y + row_h / 2 + 1.5, hazard.symbol, fonts, 7.5, bold=True))
-        d.add(_text(0, y + row_h / 2 - 6, title, fonts, title_size, color=MUTED))
+        d.add(chart_text(0, y + row_h / 2 + 1.5, hazard.symbol, fonts, 7.5, bold=True))
+        d.add(chart_text(0, y + row_h / 2 - 6, title, fonts, title_size, color=MUTED))
         d.add(_row(hazard, assessment.limit_set.groups, left, y, pw, row_h, px, fonts))
         d.add(_result(hazard, left + pw + 8, y, row_h, fonts))
     lowest = assessment.limit_set.boundaries[0]
-    d.add(_text(one, height - top + 4, f"{lowest} limit", fonts, 6.5, bold=True, anchor="middle"))
+    d.add(chart_text(one, height - top + 4, f"{lowest} limit", fonts, 6.5, bold=True, anchor="middle"))
     d.add(
-        _text(
+        chart_text(
             left + pw / 2,
             2,
             f"value ÷ {lowest} limit (log scale); zones end where the value reaches each group's limit",
@@ -297,7 +264,7 @@ def _row(
     boundaries = list(margins)  # rising; the zone beyond the last is the next group
     if margins[boundaries[0]] <= 0:
         g.add(Rect(left, y, pw, row_h, fillColor=colors.white, strokeColor=RULE, strokeWidth=0.5))
-        g.add(_text(left + 6, y + row_h / 2 - 2.5, "value 0: nothing emitted in this band", fonts, 7, color=MUTED))
+        g.add(chart_text(left + 6, y + row_h / 2 - 2.5, "value 0: nothing emitted in this band", fonts, 7, color=MUTED))
         return g
     value = margins[boundaries[0]]
     edges = [px(10.0 ** _X_DECADES[0]), *(px(value / margins[b]) for b in boundaries), px(10.0 ** _X_DECADES[1])]
@@ -306,7 +273,9 @@ def _row(
             continue
         g.add(Rect(start, y, end - start, row_h, fillColor=group_fill(group), strokeColor=None))
         if end - start >= stringWidth(group, fonts.bold, _ZONE_LABEL) + 5:
-            g.add(_text(start + 2.5, y + row_h - 5.6, group, fonts, _ZONE_LABEL, bold=True, color=group_ink(group)))
+            g.add(
+                chart_text(start + 2.5, y + row_h - 5.6, group, fonts, _ZONE_LABEL, bold=True, color=group_ink(group))
+            )
     for edge in edges[1:-1]:
         g.add(Line(edge, y, edge, y + row_h, strokeColor=INK, strokeWidth=0.7))
     g.add(Rect(left, y, pw, row_h, fillColor=None, strokeColor=INK, strokeWidth=0.5))
@@ -334,39 +303,13 @@ def _result(hazard: HazardResult, x: float, y: float, row_h: float, fonts: FontS
     if group is None:  # excluded by _chart_rows: assessed hazards with risk groups
         raise ValueError(f"{hazard.symbol} has no risk group to draw")
     g.add(Rect(x, y + 2, 38, row_h - 4, fillColor=group_fill(group), strokeColor=INK, strokeWidth=0.5))
-    g.add(_text(x + 19, y + row_h / 2 - 2.5, group, fonts, 7, bold=True, color=group_ink(group), anchor="middle"))
-    margin = format_margin(group, hazard.margins)
-    g.add(_text(x + 42, y + row_h / 2 - 2.5, margin, fonts, 6.8))
+    g.add(chart_text(x + 19, y + row_h / 2 - 2.5, group, fonts, 7, bold=True, color=group_ink(group), anchor="middle"))
+    margin = hazard_margin_text(hazard)
+    g.add(chart_text(x + 42, y + row_h / 2 - 2.5, margin, fonts, 6.8))
     return g
 
 
-FAMILY_LINES = (
-    ((), 1.3),
-    ((4.5, 2.0), 1.1),
-    ((0.9, 1.9), 1.5),
-    ((6.0, 1.8, 1.2, 1.8), 1.0),
-    ((10.0, 2.5), 1.6),
-    ((2.0, 1.2, 2.0, 1.2, 0.6, 3.0), 0.7),
-)
-"""Dash pattern (empty: solid) and line width of the t_max curve of each family, in the limit set's order, in
-:func:`distance_chart`."""
-_FALLBACK_LINE = ((1.5, 1.5), 0.8)
-
-
-def _line_of(study, family: str) -> tuple[tuple[float, ...], float]:
-    order = list(study.t_max_s)
-    index = order.index(family)
-    return FAMILY_LINES[index] if index < len(FAMILY_LINES) else _FALLBACK_LINE
-
-
 _MAX_T_DECADES = 12  # distance chart: at most this many decades of t_max
-
-
-def _dash(pattern: tuple[float, ...]) -> dict:
-    """Line keywords for a dash pattern: solid when empty, round caps for dotted lines."""
-    if not pattern:
-        return {"strokeDashArray": None}
-    return {"strokeDashArray": list(pattern), "strokeLineCap": 1 if pattern[0] < 1 else 0}
 
 
 def _group_runs(
@@ -451,12 +394,12 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
         y = py(10.0**decade)
         d.add(Line(left, y, left + pw, y, strokeColor=RULE, strokeWidth=0.3))
         if (decade - t0) % step == 0:
-            d.add(_power_of_ten(left - 3, y - 2.2, decade, fonts, anchor="end"))
+            d.add(power_of_ten(left - 3, y - 2.2, decade, fonts, anchor="end"))
     for decade in range(math.ceil(x0), math.floor(x1) + 1):
         x = px(10.0**decade)
         d.add(Line(x, bottom, x, plot_top, strokeColor=RULE, strokeWidth=0.3))
         d.add(Line(x, bottom, x, bottom - 2.5, strokeColor=INK, strokeWidth=0.5))
-        d.add(_power_of_ten(x, bottom - 10, decade, fonts))
+        d.add(power_of_ten(x, bottom - 10, decade, fonts))
     if near > dmin:
         d.add(
             Line(
@@ -469,7 +412,7 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
                 strokeDashArray=[2, 1.5],
             )
         )
-    curves, labels = _curves(study, px, py, (left, bottom, pw, ph), fonts)
+    curves, labels = curve_lines(study.distance_mm, study.t_max_s, px, py, (left, bottom, pw, ph), fonts)
     d.add(curves)
     if not labels.contents:
         empty = (
@@ -477,7 +420,7 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
             if all(g is None for g in study.group)
             else "No exposure limit is reached at any distance studied (within each limit's time range)."
         )
-        d.add(_text(left + pw / 2, bottom + ph / 2 - 3, empty, fonts, 7.5, color=MUTED, anchor="middle"))
+        d.add(chart_text(left + pw / 2, bottom + ph / 2 - 3, empty, fonts, 7.5, color=MUTED, anchor="middle"))
     d.add(Rect(left, bottom, pw, ph, fillColor=None, strokeColor=INK, strokeWidth=0.6))
     at = assessment.assessment_distance_mm
     shown = dmin <= at <= dmax
@@ -489,8 +432,8 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
         x = px(at)
         d.add(Line(x, bottom, x, strip_top + 1, strokeColor=INK, strokeWidth=1.0))
         d.add(Polygon([x - 3.2, bottom - 0.5, x + 3.2, bottom - 0.5, x, bottom + 4.5], fillColor=INK, strokeColor=None))
-        d.add(_text(tx, strip_top + 2.5, text, fonts, 6.5, bold=True))
-    d.add(_text(left - 3, strip_bottom + strip_h / 2 - 2.2, "group", fonts, 6.5, bold=True, anchor="end"))
+        d.add(chart_text(tx, strip_top + 2.5, text, fonts, 6.5, bold=True))
+    d.add(chart_text(left - 3, strip_bottom + strip_h / 2 - 2.2, "group", fonts, 6.5, bold=True, anchor="end"))
     if near > dmin:  # over the assessment line, which passes behind it
         d.add(
             Rect(
@@ -507,7 +450,7 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
         size = 6.2
         y = plot_top + 2.8
         if px(near) - px(dmin) >= stringWidth(text, fonts.regular, size) + 8:
-            d.add(_text((px(dmin) + px(near)) / 2, y, text, fonts, size, color=INK, anchor="middle"))
+            d.add(chart_text((px(dmin) + px(near)) / 2, y, text, fonts, size, color=INK, anchor="middle"))
         else:
             tip = px(near) + 2.5  # a small triangle pointing at the band (a glyph the fonts lack)
             d.add(
@@ -521,10 +464,10 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
                 )
             )  # over the assessment line where it crosses
             d.add(Polygon([tip, y + 2.2, tip + 4, y + 4.4, tip + 4, y], fillColor=INK, strokeColor=None))
-            d.add(_text(tip + 6.5, y, text, fonts, size, color=INK))
+            d.add(chart_text(tip + 6.5, y, text, fonts, size, color=INK))
     d.add(labels)
     d.add(
-        _text(
+        chart_text(
             left + pw / 2,
             bottom - 19,
             "distance from the source [mm] (log scale; 10³ mm = 1 m)",
@@ -536,7 +479,7 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
     )
     d.add(
         Group(
-            _text(0, 0, "t_max [s] (log)", fonts, 6.5, color=MUTED, anchor="middle"),
+            chart_text(0, 0, "t_max [s] (log)", fonts, 6.5, color=MUTED, anchor="middle"),
             transform=(0, 1, -1, 0, 7, bottom + ph / 2),
         )
     )
@@ -561,7 +504,7 @@ def _strip(
         size = 7 if group else 6
         if w >= stringWidth(label, fonts.bold, size) + 4:
             g.add(
-                _text(
+                chart_text(
                     x + w / 2, y + h / 2 - 2.5, label, fonts, size, bold=True, color=group_ink(group), anchor="middle"
                 )
             )
@@ -572,7 +515,7 @@ def _strip(
             if lx < b + 3 and a - 3 < lx + width:
                 lx = a - 3 - width if x + w / 2 < (a + b) / 2 else b + 3
         taken.append((lx, lx + width))
-        g.add(_text(lx, y + h + 2.5, label, fonts, 6, bold=True))
+        g.add(chart_text(lx, y + h + 2.5, label, fonts, 6, bold=True))
         g.add(Line(x + w / 2, y + h, x + w / 2, y + h + 2, strokeColor=INK, strokeWidth=0.5))
     for _, start, _ in runs[1:]:
         g.add(Line(px(start), y, px(start), y + h, strokeColor=INK, strokeWidth=0.7))
@@ -590,57 +533,6 @@ def _strip(
     return g
 
 
-def _curves(
-    study,
-    px: Callable[[float], float],
-    py: Callable[[float], float],
-    box: tuple[float, float, float, float],
-    fonts: FontSet,
-) -> tuple[Group, Group]:
-    """Each family's t_max curve (gaps where it is None or off the axis), and its name at the curve's end."""
-    _, bottom, _, ph = box
-    g, labels = Group(), Group()
-    placed: list[tuple[float, float, float, float]] = []
-    for family, ts in study.t_max_s.items():
-        dash, line_width = _line_of(study, family)
-        points, keep = [], []
-        for mm, t in zip(study.distance_mm, ts, strict=True):
-            ok = t is not None and t > 0 and bottom - 0.01 <= py(t) <= bottom + ph + 0.01
-            points.append((px(mm), py(t) if ok else 0.0))
-            keep.append(ok)
-        runs = _segments(points, keep)
-        for run in runs:
-            g.add(PolyLine([c for point in run for c in point], strokeColor=INK, strokeWidth=line_width, **_dash(dash)))
-        if runs:
-            labels.add(_end_label(family, runs[-1][-1], box, placed, fonts))
-    return g, labels
-
-
-def _end_label(
-    family: str,
-    end: tuple[float, float],
-    box: tuple[float, float, float, float],
-    placed: list[tuple[float, float, float, float]],
-    fonts: FontSet,
-) -> Group:
-    """The family's name beside its curve's last point, moved down past labels already placed."""
-    left, bottom, pw, ph = box
-    size = 6.3
-    text = fonts.clean(family)
-    w = stringWidth(text, fonts.bold, size)
-    x = end[0] + 3 if end[0] + 3 + w <= left + pw - 2 else end[0] - 3 - w
-    y = min(max(end[1] - 2.2, bottom + 2), bottom + ph - 8)
-    for _ in range(12):
-        if not any(x < px2 and px1 < x + w and y < py2 and py1 < y + size for px1, py1, px2, py2 in placed):
-            break
-        y = y - size - 1 if y - size - 1 >= bottom + 2 else y + 2 * (size + 1)
-    placed.append((x, y, x + w, y + size))
-    return Group(
-        Rect(x - 1, y - 1.6, w + 2, size + 1.6, fillColor=colors.white, strokeColor=None),
-        String(x, y, text, fontName=fonts.bold, fontSize=size, fillColor=INK),
-    )
-
-
 def _family_legend(study, x: float, y: float, width: float, fonts: FontSet) -> Group:
     """One sample line and name per family drawn (those whose limit is reached somewhere)."""
     entries = [
@@ -653,8 +545,8 @@ def _family_legend(study, x: float, y: float, width: float, fonts: FontSet) -> G
     g = Group()
     cursor = x
     for family, text in entries:
-        dash, line_width = _line_of(study, family)
-        g.add(Line(cursor, y + 2.5, cursor + 20, y + 2.5, strokeColor=INK, strokeWidth=line_width, **_dash(dash)))
-        g.add(_text(cursor + 24, y, text, fonts, size))
+        dash, line_width = family_line(study.t_max_s, family)
+        g.add(Line(cursor, y + 2.5, cursor + 20, y + 2.5, strokeColor=INK, strokeWidth=line_width, **dash_style(dash)))
+        g.add(chart_text(cursor + 24, y, text, fonts, size))
         cursor += 24 + stringWidth(text, fonts.regular, size) + 12
     return g

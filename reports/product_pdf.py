@@ -19,11 +19,12 @@ from hazard.output.formatting import (
     UNIT_DISPLAY,
     format_duration_s,
     format_limit,
-    format_margin,
     format_value,
     group_words,
+    hazard_margin_text,
 )
 from hazard.reports.charts import margin_chart, spectrum_chart
+from hazard.reports.exposure_section import emission_block
 from hazard.reports.layout import FRAME_HEIGHT, FRAME_WIDTH, build_pdf, start_report
 from hazard.reports.ranking import tightest_margin
 from hazard.reports.studies import has_studies, studies_section, study_summary, uncertainty_summary
@@ -36,6 +37,7 @@ from hazard.reports.wording import (
     LOWER_BOUND_MEANING,
     NOT_DETERMINED_MEANING,
     NOT_DETERMINED_NAME,
+    PULSE_MEANING,
     WHAT_IF_MEANING,
 )
 from hazard.result import Assessment, BlueLightTransfer, HazardResult, Scaling
@@ -119,14 +121,24 @@ def _deciding(a: Assessment) -> tuple[str, str]:
         h = a.hazards[closest.symbol]
         return (
             "Closest to a boundary:",
-            f"{closest.symbol} ({h.title}, {format_margin(h.risk_group, h.margins)}); "
-            f"every assessed hazard is within its Exempt limit",
+            f"{closest.symbol} ({h.title}, {hazard_margin_text(h)}); every assessed hazard is within its Exempt limit",
         )
     parts = []
     for symbol in a.deciding_hazards:
         h = a.hazards[symbol]
-        parts.append(f"{symbol} ({h.title}, {format_margin(h.risk_group, h.margins)})")
+        parts.append(f"{symbol} ({h.title}, {hazard_margin_text(h)})")
     return "Decided by:", "; ".join(parts)
+
+
+def _meaning(a: Assessment, group: str) -> str:
+    """What the group means; for a pulsed lamp, what the pulse rules made of it."""
+    if a.emission is None:
+        return GROUP_MEANING[group]
+    if a.pulse_exceeds:
+        return PULSE_MEANING["over"]
+    if a.emission.mode == "single_pulse":
+        return PULSE_MEANING["single_within"]
+    return f"{GROUP_MEANING[group]} {PULSE_MEANING['train_within']}"
 
 
 class _PageMark(Flowable):
@@ -161,7 +173,7 @@ def _verdict(a: Assessment, st: Styles, studies_page: int) -> Flowable:
         lead = f"What-if group at {a.assessment_distance_mm:.0f} mm" if a.basis == "what-if" else "Overall risk group"
         text = [
             st.p(f"{lead}: {group} — {GROUP_NAME[group]}", st.verdict_head),
-            st.p(GROUP_MEANING[group] + ("" if a.complete else " " + LOWER_BOUND_MEANING)),
+            st.p(_meaning(a, group) + ("" if a.complete else " " + LOWER_BOUND_MEANING)),
         ]
     text.append(st.bold_lead(*_deciding(a), st.small))
     if group is not None and not a.complete:
@@ -241,7 +253,7 @@ def _hazard_row(h: HazardResult, boundaries: list[str]) -> list[str]:
         *(format_limit(h.limits.get(b)) for b in boundaries),
         format_duration_s(h.t_max_s),
         h.risk_group or "EL only",
-        format_margin(h.risk_group, h.margins),
+        hazard_margin_text(h),
     ]
 
 
@@ -676,6 +688,7 @@ def _story(
         *_claims_table(a, st),
         st.p("Hazard details (each triple: Exempt / RG1 / RG2)", st.h2),
         _detail_table(a, st),
+        *emission_block(a, st),
         st.p("Warnings and assumptions", st.h2),
         *_notes(a, st),
         *_method(a, st),

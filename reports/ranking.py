@@ -15,7 +15,7 @@ from __future__ import annotations
 
 from typing import NamedTuple
 
-from hazard.output.formatting import margin_to_next
+from hazard.output.formatting import PULSE_LIMIT, hazard_margin
 from hazard.result import Assessment
 
 __all__ = ["BORDERLINE_FACTOR", "Tightest", "is_borderline", "rank_assessments", "tightest_margin"]
@@ -47,7 +47,7 @@ def tightest_margin(assessment: Assessment) -> Tightest | None:
     found = []
     for symbol in assessment.deciding_hazards:
         hazard = assessment.hazards[symbol]
-        margin = margin_to_next(hazard.risk_group, hazard.margins)
+        margin = hazard_margin(hazard)
         if margin is not None:
             found.append(Tightest(symbol, *margin))
     return max(found, key=lambda t: (t.ratio, t.symbol), default=None)
@@ -75,6 +75,8 @@ def is_borderline(assessment: Assessment) -> bool:
     tightest = tightest_margin(assessment)
     if tightest is None:
         return False
+    if tightest.boundary == PULSE_LIMIT:  # one boundary: the pulse's own exposure limit
+        return 1 / BORDERLINE_FACTOR <= tightest.ratio <= BORDERLINE_FACTOR
     hazard = assessment.hazards[tightest.symbol]
     if hazard.risk_group is None:  # excluded by tightest_margin: only hazards with a group have a margin
         raise ValueError(f"{tightest.symbol} has a margin but no risk group")

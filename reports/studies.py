@@ -13,6 +13,7 @@ from reportlab.platypus import Flowable, Spacer, Table
 
 from hazard.output.formatting import UNIT_DISPLAY, dimming_percent, distance_beyond_mm, format_value, round_up
 from hazard.reports.charts import distance_chart
+from hazard.reports.exposure_section import exposure_blocks
 from hazard.reports.layout import FRAME_WIDTH
 from hazard.reports.style import INK, Styles, group_fill, group_ink, table_style
 from hazard.result import Assessment, BoundaryDistance, DistanceStudy, Remedies, Remedy, UncertaintyStudy
@@ -33,8 +34,8 @@ SECTION_TITLE = "Distance, uncertainty and remedies"
 
 
 def has_studies(a: Assessment) -> bool:
-    """The result carries at least one of the distance, uncertainty and remedies studies."""
-    return any(study is not None for study in (a.distances, a.uncertainty, a.remedies))
+    """The result carries at least one of the distance, uncertainty, remedies and daily-exposure studies."""
+    return any(study is not None for study in (a.distances, a.uncertainty, a.remedies, a.exposure))
 
 
 def beyond(distance_mm: float | None, study: DistanceStudy, metres: bool = True) -> str:
@@ -389,4 +390,4 @@ def studies_section(a: Assessment, st: Styles) -> list[list[Flowable]]:
         blocks.append(_uncertainty_block(a, a.uncertainty, st))
     if a.remedies is not None:
         blocks.append(_remedies_block(a, a.remedies, st))
-    return blocks
+    return blocks + exposure_blocks(a, st)

@@ -13,7 +13,7 @@ import datetime
 
 from reportlab.platypus import Flowable, Spacer, Table
 
-from hazard.output.formatting import format_margin, group_words
+from hazard.output.formatting import group_words, hazard_margin_text
 from hazard.reports.layout import FRAME_WIDTH, build_pdf, start_report
 from hazard.reports.ranking import BORDERLINE_FACTOR, is_borderline, rank_assessments, tightest_margin
 from hazard.reports.studies import minimum_text
@@ -128,7 +128,7 @@ def _ranked_table(assessments: list[Assessment], st: Styles) -> Flowable:
             margin = "—"
         else:
             h = a.hazards[tightest.symbol]
-            margin = f"{tightest.symbol}: {format_margin(h.risk_group, h.margins)}"
+            margin = f"{tightest.symbol}: {hazard_margin_text(h)}"
         rows.append(
             [
                 st.p(str(rank), st.cell),

@@ -14,6 +14,7 @@ __all__ = [
     "LOWER_BOUND_MEANING",
     "NOT_DETERMINED_MEANING",
     "NOT_DETERMINED_NAME",
+    "PULSE_MEANING",
     "WHAT_IF_MEANING",
 ]
 
@@ -37,6 +38,16 @@ GROUP_MEANING = {
     "the direct emission by design, guarding or enclosure.",
 }
 """One sentence per group: what it means for the user of the lamp."""
+
+PULSE_MEANING = {
+    "single_within": "A single pulse: each hazard's pulse stays within its exposure limit at the pulse duration, so "
+    "the lamp is Exempt by the single-pulse rule. Repeated flashes are a pulse train: state the rate to have them "
+    "assessed together.",
+    "over": "A pulse exceeds an exposure limit at its own duration: a pulsed lamp over an exposure limit is RG3, "
+    "whatever its time average.",
+    "train_within": "Every pulse stays within its own exposure limit; the group is that of the time-averaged values.",
+}
+"""What the pulse rules say about a pulsed lamp's group, shown with (or instead of) the group's meaning."""
 
 LOWER_BOUND = "LOWER BOUND — not all hazards assessed"
 """Shown prominently when ``Assessment.complete`` is false."""

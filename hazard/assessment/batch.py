@@ -4,7 +4,8 @@ Outputs in the output folder, all written atomically:
 
 - ``results.jsonl``: one assessment JSON per line (the contract of ``hazard assess --format json``), in
   manifest order;
-- ``summary.csv``: one row per product (id, status, group, completeness, per-hazard value, group and t_max,
+- ``summary.csv``: one row per product (id, status, group, completeness, per-hazard value, group and t_max, emission
+  and the largest pulse fraction, the day's exposure against the limit values,
   warning count, error, file stem), in manifest order;
 - with ``pdf``: one report per product and ``summary.pdf``, a ranked overview.
 
@@ -301,6 +302,11 @@ def summary_columns(limit_set: LimitSet = DEFAULT_LIMIT_SET) -> list[str]:
         "uncertainty",
         "group_range",
         "min_distance_exempt_mm",
+        "emission",
+        "pulse_max_fraction",
+        "day_within_limits",
+        "day_max_fraction",
+        "day_max_family",
         "error",
         "file_stem",
     ]
@@ -348,6 +354,16 @@ def summary_row(
         row["min_distance_exempt_mm"] = (
             repr(found) if found is not None else f"not within {a.distances.distance_mm[-1]:.0f}"
         )
+    if a.emission is not None:
+        worst = max((h.pulse.worst for h in a.hazards.values() if h.pulse is not None), default=None)
+        row.update(emission=a.emission.mode, pulse_max_fraction="" if worst is None else repr(worst))
+    else:
+        row["emission"] = "continuous"
+    x = a.exposure
+    if x is not None:
+        row["day_within_limits"] = str(x.within).lower()
+        if x.most_family is not None:
+            row.update(day_max_fraction=repr(x.day[x.most_family].worst), day_max_family=x.most_family)
     for symbol, h in a.hazards.items():
         row[f"{symbol}_value"] = "" if h.value is None else repr(h.value)
         row[f"{symbol}_group"] = h.risk_group or ("not assessed" if not h.assessed else "")

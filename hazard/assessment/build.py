@@ -27,20 +27,26 @@ from hazard.assessment.summaries import (
 )
 from hazard.inputs.loading import LoadedProduct, load_product, product_from_record
 from hazard.inputs.record import ProductRecord
-from hazard.method.evaluate import Evaluation, integral_index, share_key
+from hazard.method.evaluate import Evaluation, HazardArrays, integral_index, share_key
+from hazard.method.integrals import integrate_spectra
 from hazard.output.formatting import format_duration_s
 from hazard.result import (
     Assessment,
     DistanceStudy,
+    Emission,
+    ExposureStudy,
     Geometry,
     HazardResult,
     LimitSetInfo,
     Provenance,
+    PulseCheck,
     Remedies,
     UncertaintyStudy,
 )
 from hazard.standards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
+from hazard.standards.directive_2006_25 import DIRECTIVE_2006_25
 from hazard.studies.distances import distance_study
+from hazard.studies.exposure import Exposure, exposure_study
 from hazard.studies.remedies import remedies_study
 from hazard.studies.uncertainty import uncertainty_study
 from hazard.weighting_tables import TABLE_NAMES, load_table
@@ -115,6 +121,18 @@ def _hazard_results(
             )
         if h.assessed[i] and h.t_max_s[i] == 0:
             note += " The limit is exceeded from the first instant of exposure (t_max 0 s)."
+        pulse = _pulse_check(ev, h, i) if (h.pulse is not None and h.assessed[i]) else None
+        if pulse is not None and ev.single_pulse[i]:
+            # one pulse has no continuous exposure: its group comes from the pulse against the limit at its duration
+            limits, compared = {}, {}
+        if pulse is not None and grouped:
+            over = max(pulse.fraction, pulse.fraction_in_train or 0.0) > 1
+            note += (
+                " A pulse exceeds its exposure limit: RG3 (pulsed lamps)."
+                if over
+                else " Every pulse is within its exposure limit"
+                + (": Exempt (single pulse)." if ev.single_pulse[i] else "; the group is that of the time average.")
+            )
         results[symbol] = HazardResult(
             symbol=symbol,
             title=spec.title,
@@ -137,8 +155,79 @@ def _hazard_results(
             else {},
             exposure_limit=spec.exposure_limit.text,
             note=note,
+            pulse=pulse,
         )
     return results
+
+
+def _pulse_check(ev: Evaluation, h: HazardArrays, i: int) -> PulseCheck:
+    """One hazard's pulse check as it goes into the result (:mod:`hazard.method.pulses`)."""
+    check = h.pulse
+    if check is None:
+        raise ValueError("no pulse check")  # the caller asks only where there is one
+    duration = float(ev.pulse_duration_s[i])
+    duty = 1.0 if ev.single_pulse[i] else duration * float(ev.pulse_rate_hz[i])
+    peak = float(h.value[i]) / duty  # a train's values are of its time average
+    single = float(check.single[i])
+    thermal_train = h.hazard.effect == "thermal" and not ev.single_pulse[i]
+    if h.hazard.effect == "photochemical":
+        to_limit = 1 / single if 0 < single <= 1 else None
+    else:
+        to_limit = single**-4 if 0 < single <= 1 else None
+    return PulseCheck(
+        duration_s=duration,
+        dose_per_pulse=peak * duration,
+        fraction=single,
+        fraction_in_train=float(check.repeated[i]) if thermal_train else None,
+        pulses_in_window=float(check.pulses_in_window[i]) if thermal_train else None,
+        pulses_to_limit=to_limit,
+    )
+
+
+SINGLE_PULSE_RULE = (
+    "single pulse: each hazard's pulse against its exposure limit at the pulse duration; within every limit the lamp "
+    "is Exempt, over one it is RG3 (IEC 62471:2006 6.2, from memory)"
+)
+PULSE_TRAIN_RULE = (
+    "pulse train: each pulse against its exposure limit at the pulse duration (thermal limits × N^−0.25 for the "
+    "pulses within their window, as 2006/25/EC Annex II Table 2.6 does for lasers); over one it is RG3, within "
+    "every one the group is the continuous-wave group of the time-averaged spectrum (IEC 62471:2006 6.2, from "
+    "memory). Pulse-width-modulated lighting is thus assessed as continuous light on its time-averaged spectrum, "
+    "the approach IEC 62471-7:2023 takes for illumination sources."
+)
+
+
+def _emission(record: ProductRecord) -> Emission | None:
+    """The emission block of a pulsed source; None for a continuous one."""
+    if record.emission == "continuous" or record.pulse_duration_s is None:
+        return None
+    train = record.emission == "pulse_train"
+    rate = record.pulse_rate_hz if train else None
+    return Emission(
+        mode=record.emission,
+        pulse_duration_s=record.pulse_duration_s,
+        pulse_rate_hz=rate,
+        duty_cycle=None if rate is None else record.pulse_duration_s * rate,
+        rule=PULSE_TRAIN_RULE if train else SINGLE_PULSE_RULE,
+    )
+
+
+def _exposure(loaded: LoadedProduct, limit_set: LimitSet = DIRECTIVE_2006_25) -> ExposureStudy | None:
+    """The record's daily exposures against the workplace exposure limit values; None when it states none.
+
+    The spectrum is integrated again for ``limit_set`` (its bands and fields of view are its own).
+    """
+    record = loaded.record
+    if not record.exposures:
+        return None
+    spectrum = loaded.spectrum
+    integrated = integrate_spectra([spectrum.wavelength_nm], [spectrum.value], [record.no_emission_outside], limit_set)
+    arrays = product_arrays([record], integrated.raw, integrated.covered)
+    exposures = [
+        Exposure(label=e.label or f"exposure {k}", distance_m=e.distance_mm * 1e-3, duration_s=e.duration_s)
+        for k, e in enumerate(record.exposures, start=1)
+    ]
+    return exposure_study(arrays, limit_set, exposures)
 
 
 def _studies(
@@ -253,6 +342,8 @@ def build_assessment(
             spectrum=spectrum_summary(loaded, float(ev.anchor_scale[i])),
             blue_light_transfer=transfer_summary(ev, i, covered, keys, record, limit_set),
             scaling=scaling_summary(record, float(ev.anchor_scale[i])),
+            emission=_emission(record),
+            exposure=_exposure(loaded),
             **_studies(loaded, batch, i, studies),
             record=record.model_dump(exclude_none=True),
             warnings=warnings_for(loaded, ev, i, v_covered) + switch_warnings(ev, i, limit_set),

@@ -116,7 +116,8 @@ def transfer_summary(
 
     They are given where the spectrum covers both the blue-light band and V(λ), the source is mainly visible (the
     report's quantities are made for white-light sources) and they are finite (a source with next to no blue light has
-    no threshold worth printing).
+    no threshold worth printing). A single pulse has none: the quantities are made for continuous viewing (a
+    pulse train's are those of its time average).
     """
     blue = limit_set.transfer_quantity()
     finite = all(
@@ -130,6 +131,7 @@ def transfer_summary(
     )
     if not (
         blue
+        and not ev.single_pulse[i]
         and covered[keys[blue]]
         and covered[keys["V"]]
         and ev.mainly_visible[i]

@@ -21,7 +21,7 @@ from hazard.assessment.cautions import PRE_SCREEN, select_cautions
 from hazard.errors import InputError
 from hazard.method.classify import hazard_groups
 from hazard.method.geometry import MIN_ASSESSMENT_DISTANCE_M
-from hazard.result import Assessment
+from hazard.result import Assessment, Emission
 from hazard.standards import LIMIT_SETS, LimitSet
 
 __all__ = ["check_result"]
@@ -33,10 +33,26 @@ def _refuse(problem: str, path: str) -> InputError:
     return InputError(problem, _FIX, path)
 
 
-def _hazard_group(symbol: str, h, limit_set: LimitSet, path: str) -> str | None:
-    """The group the hazard's own numbers give."""
-    if not (h.assessed and h.limits):
+def _hazard_group(symbol: str, h, limit_set: LimitSet, emission: Emission | None, path: str) -> str | None:
+    """The group the hazard's own numbers give, with the pulse rules of :mod:`hazard.method.pulses`.
+
+    A single pulse: RG3 over its limit, else Exempt. A train: RG3 when a pulse exceeds its limit, else the group
+    of its time-averaged values.
+    """
+    if not (h.assessed and limit_set[symbol].grouped):
         return None
+    if emission is not None:
+        if h.pulse is None:
+            raise _refuse(f"hazard {symbol} of a pulsed source lacks its pulse check", path)
+        if max(h.pulse.fraction, h.pulse.fraction_in_train or 0.0) > 1:
+            return limit_set.groups[-1]
+        if emission.mode == "single_pulse":
+            return limit_set.groups[0]
+    return _continuous_group(symbol, h, limit_set, path)
+
+
+def _continuous_group(symbol: str, h, limit_set: LimitSet, path: str) -> str:
+    """The group of a hazard's compared values and limits (top-down, never safer than its t_max)."""
     try:
         compared = np.array([[h.compared[b] for b in limit_set.boundaries]], dtype=float)
         limits = np.array([[h.limits[b] for b in limit_set.boundaries]], dtype=float)
@@ -80,10 +96,13 @@ def check_result(assessment: Assessment, path: str) -> None:
             f"use a result made with one of: {', '.join(LIMIT_SETS)}",
             path,
         )
+    pulsed_record = assessment.record.get("emission", "continuous") != "continuous"
+    if pulsed_record != (assessment.emission is not None):
+        raise _refuse("its emission block does not match the record's emission", path)
     _check_against_set(assessment, limit_set, path)
     derived = {}
     for symbol, h in assessment.hazards.items():
-        derived[symbol] = _hazard_group(symbol, h, limit_set, path)
+        derived[symbol] = _hazard_group(symbol, h, limit_set, assessment.emission, path)
         if derived[symbol] != h.risk_group:
             shown = "the compared values and limits" if h.assessed else "its assessed flag"
             raise _refuse(
@@ -133,6 +152,10 @@ def _check_against_set(a: Assessment, limit_set: LimitSet, path: str) -> None:
                 f"hazard {symbol}: band, unit or assessed flag differ from the spectrum and {limit_set.name}", path
             )
         if spec.limits is None or spec.time_bases_s is None:  # no risk groups (both or neither: Hazard)
+            continue
+        if a.emission is not None and a.emission.mode == "single_pulse":
+            if h.limits or h.compared:  # a single pulse is grouped by its pulse check alone
+                raise _refuse(f"hazard {symbol}: a single pulse has no continuous-wave limits to compare", path)
             continue
         alpha_bounds = spec.alpha_bounds_rad or ()
         expected = {}

@@ -478,6 +478,11 @@ class ProductRecord(BaseModel):
             _check_pulses(self)
         if (self.exposure_distance_mm is None) != (self.exposure_duration_s is None):
             raise ValueError("exposure_distance_mm and exposure_duration_s go together: give both")
+        if self.emission == "single_pulse" and self.exposures:
+            raise ValueError(
+                'a single pulse has no daily duration: describe repeated flashes as emission = "pulse_train" with '
+                "pulse_rate_hz, or remove the exposures"
+            )
         return self
 
     @property

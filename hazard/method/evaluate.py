@@ -207,6 +207,8 @@ class Evaluation:
     viewed: Viewed
     pulsed: np.ndarray
     single_pulse: np.ndarray
+    pulse_duration_s: np.ndarray
+    pulse_rate_hz: np.ndarray
 
 
 def _assessment_distance_m(arrays: ProductArrays, v_raw: np.ndarray) -> np.ndarray:
@@ -377,7 +379,7 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
             viewed, irradiance={h.symbol: peak_raw[:, i] * scale for i, h in enumerate(limit_set.hazards)}
         )
         checks = pulse_checks(peak_viewed, limit_set, pulse_duration, rate)
-        hazards = {s: _with_pulses(h, checks[s], pulsed, train) for s, h in hazards.items()}
+        hazards = {s: _with_pulses(h, checks[s], pulsed, train, rate) for s, h in hazards.items()}
     group = np.max(np.column_stack([h.group_index for h in hazards.values()]), axis=1)
     complete = np.all(np.column_stack([h.assessed | ~h.applicable for h in hazards.values()]), axis=1)
     visible, total = raw[:, keys["VIS"]], raw[:, keys["ALL"]]
@@ -397,24 +399,32 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
         viewed=viewed,
         pulsed=pulsed,
         single_pulse=pulsed & ~train,
+        pulse_duration_s=pulse_duration,
+        pulse_rate_hz=rate,
         **transfer,
     )
 
 
-def _with_pulses(h: HazardArrays, check: PulseArrays, pulsed: np.ndarray, train: np.ndarray) -> HazardArrays:
+def _with_pulses(
+    h: HazardArrays, check: PulseArrays, pulsed: np.ndarray, train: np.ndarray, rate_hz: np.ndarray
+) -> HazardArrays:
     """A hazard's groups with the pulse rules of :mod:`hazard.method.pulses`.
 
     A pulse over its limit is RG3; a single pulse within every limit is Exempt (and has no continuous t_max); a
-    train within them keeps its group from the time-averaged spectrum.
+    train within them keeps its group from the time-averaged spectrum. A train's t_max is also never longer than
+    its pulses allow: 0 where one pulse exceeds its limit, and for thermal limits the time the N^−0.25 rule takes
+    to reach it (N = fraction^−4 pulses at ``rate_hz``).
     """
     over = check.fraction > 1
     grouped = h.group_index >= 0
     single = pulsed & ~train
     group = np.where(grouped & over & pulsed, 3, np.where(grouped & single, 0, h.group_index))
+    with np.errstate(divide="ignore", invalid="ignore"):
+        by_pulses = np.where(check.single > 1, 0.0, np.where(check.repeated > 1, check.single**-4.0 / rate_hz, np.nan))
     return dataclasses.replace(
         h,
         group_index=group,
-        t_max_s=np.where(single, np.nan, h.t_max_s),
+        t_max_s=np.where(single, np.nan, np.where(train, np.fmin(h.t_max_s, by_pulses), h.t_max_s)),
         pulse=check,
         raised_by_t_max=h.raised_by_t_max & ~single,
     )

@@ -7,6 +7,8 @@ remedies) evaluates variants of one product as rows of :func:`hazard.method.eval
 
 from __future__ import annotations
 
+import dataclasses
+
 import numpy as np
 
 from hazard.method.evaluate import Evaluation, ProductArrays, evaluate
@@ -85,16 +87,12 @@ def evaluate_rows(
     raw = (rows.raw if raw is None else raw) * factor[:, None]
     anchor = rows.anchor_photometric * factor  # a relative spectrum's anchor scales with it
     forced = rows.forced_distance_m if forced_distance_m is None else np.asarray(forced_distance_m, dtype=float)
-    variant = ProductArrays(
+    variant = dataclasses.replace(  # every other field (pulses, peak-to-mean) as the product has it
+        rows,
         raw=raw,
-        covered=rows.covered,
-        is_radiance=rows.is_radiance,
-        measurement_distance_m=rows.measurement_distance_m,
         shape=shape,
-        is_gls=rows.is_gls,
         anchor_photometric=anchor,
         luminous_intensity_cd=rows.luminous_intensity_cd * factor,
-        peak_to_mean=rows.peak_to_mean,
         forced_distance_m=forced,
     )
     return evaluate(variant, limit_set)

@@ -4,20 +4,30 @@ from __future__ import annotations
 
 import math
 
+from hazard.result import HazardResult
+
 __all__ = [
     "NOT_DETERMINED",
+    "PULSE_LIMIT",
     "UNIT_DISPLAY",
     "format_duration_s",
+    "format_fraction",
     "format_limit",
     "format_margin",
     "format_percent",
+    "format_pulse_count",
     "format_value",
     "group_words",
+    "hazard_margin",
+    "hazard_margin_text",
     "margin_to_next",
+    "pulse_decides",
 ]
 
 UNIT_DISPLAY = {"W/m2": "W/m²", "W/m2/sr": "W/(m²·sr)", "W/m2/nm": "W/(m²·nm)", "W/m2/sr/nm": "W/(m²·sr·nm)"}
 """How each SI unit code of the results is written for people (one spelling in every output)."""
+PULSE_LIMIT = "pulse limit"
+"""The boundary a pulsed hazard's margin is taken at when its pulse check sets the group."""
 NOT_DETERMINED = "not determined"
 """The overall group in words when no hazard with risk groups could be assessed."""
 _DURATION_UNITS = (
@@ -159,6 +169,28 @@ def format_percent(ratio: float) -> str:
     return f"{text} %"
 
 
+def format_pulse_count(count: float) -> str:
+    """A number of pulses, rounded down; "over a million" beyond.
+
+    Examples
+    --------
+    >>> format_pulse_count(438012.7), format_pulse_count(4.1e9)
+    ('438000', 'over a million')
+    """
+    return round_down(count) if count < 1e6 else "over a million"
+
+
+def format_fraction(ratio: float) -> str:
+    """An exposure as a share of its limit: a percentage up to the limit, a multiple (rounded up) beyond.
+
+    Examples
+    --------
+    >>> format_fraction(0.2164), format_fraction(5.832), format_fraction(1.00001)
+    ('21.6 % of limit', '5.84× limit', '1.01× limit')
+    """
+    return f"{format_percent(ratio)} of limit" if ratio <= 1 else f"{_times(ratio)} limit"
+
+
 def _times(ratio: float) -> str:
     """A ratio > 1 as a multiple, rounded up at three significant digits (never "1×"): ``'1.02×'``, ``'99.6×'``."""
     return f"{round_up(ratio)}×"
@@ -226,3 +258,25 @@ def group_words(
     if basis == "what-if":
         return f"what-if at {distance_mm:.0f} mm: {text}"
     return text
+
+
+def pulse_decides(h: HazardResult) -> bool:
+    """The hazard's group comes from its pulse check: a single pulse, or a pulse over its limit."""
+    return h.pulse is not None and h.risk_group is not None and (not h.limits or h.pulse.worst > 1)
+
+
+def hazard_margin(h: HazardResult) -> tuple[str, float] | None:
+    """The boundary that matters for a hazard and the ratio value/limit there (:func:`margin_to_next`).
+
+    Where the pulse check sets the group it is the pulse's own exposure limit (:data:`PULSE_LIMIT`).
+    """
+    if pulse_decides(h) and h.pulse is not None:
+        return PULSE_LIMIT, h.pulse.worst
+    return margin_to_next(h.risk_group, h.margins)
+
+
+def hazard_margin_text(h: HazardResult) -> str:
+    """A hazard's margin in words (:func:`format_margin`); a pulse's share of its own limit where it decides."""
+    if pulse_decides(h) and h.pulse is not None:
+        return f"a pulse at {format_fraction(h.pulse.worst)}"
+    return format_margin(h.risk_group, h.margins)

@@ -8,10 +8,12 @@ from hazard.output.formatting import (
     dimming_percent,
     distance_beyond_mm,
     format_duration_s,
+    format_fraction,
     format_limit,
-    format_margin,
+    format_pulse_count,
     format_value,
     group_words,
+    hazard_margin_text,
 )
 from hazard.result import Assessment
 
@@ -50,7 +52,7 @@ def _rows(assessment: Assessment) -> list[tuple[str, ...]]:
                 *limits,
                 format_duration_s(h.t_max_s),
                 h.risk_group or ("EL only" if h.assessed else "—"),
-                format_margin(h.risk_group, h.margins),
+                hazard_margin_text(h),
             )
         )
     return rows
@@ -109,7 +111,7 @@ def render_text(assessment: Assessment) -> str:
         ]
     if a.claims:
         lines += ["", *render_claims(a)]
-    lines += _studies(a)
+    lines += _emission_lines(a) + _exposure_lines(a) + _studies(a)
     for heading, items in (("Warnings", a.warnings), ("Assumptions", a.assumptions)):
         if items:
             lines += ["", f"{heading}:"] + [f"  - {item}" for item in items]
@@ -136,6 +138,14 @@ def overall_lines(a: Assessment) -> list[str]:
             if a.risk_group == "Exempt"
             else ""
         )
+        if a.emission is not None:
+            meaning = (
+                " — a pulse exceeds its exposure limit (a pulsed lamp over a limit is RG3)"
+                if a.pulse_exceeds
+                else " — each pulse within its exposure limit (single-pulse rule)"
+                if a.emission.mode == "single_pulse"
+                else meaning + " (time-averaged values; every pulse within its own limit)"
+            )
         head = [f"Overall risk group: {group_words(a.risk_group, a.complete)}{meaning}  ({status}{decided})"]
     if a.basis == "what-if":
         head.insert(
@@ -145,6 +155,85 @@ def overall_lines(a: Assessment) -> list[str]:
             f"{group_words(a.standard_risk_group, a.complete)}",
         )
     return head
+
+
+def _emission_lines(a: Assessment) -> list[str]:
+    """A pulsed source: its pulses, the rule that set the group, and each hazard's pulse against its limit."""
+    e = a.emission
+    if e is None:
+        return []
+    if e.pulse_rate_hz is None:
+        head = f"Emission: single pulse of {format_duration_s(e.pulse_duration_s)}; values are of the peak."
+    else:
+        head = (
+            f"Emission: pulse train, {format_duration_s(e.pulse_duration_s)} pulses at {e.pulse_rate_hz:.3g} Hz "
+            f"(duty cycle {e.duty_cycle:.3g}); values, limits and t_max are of the time average."
+        )
+    lines = ["", head, f"  Rule: {e.rule}"]
+    for symbol, h in a.hazards.items():
+        p = h.pulse
+        if p is None:
+            continue
+        unit = UNIT_DISPLAY.get(h.unit, h.unit).replace("W", "J", 1)
+        parts = [f"{format_value(p.dose_per_pulse)} {unit} per pulse, {format_fraction(p.fraction)} at its duration"]
+        if p.fraction_in_train is not None:
+            parts.append(f"{format_fraction(p.fraction_in_train)} with {p.pulses_in_window:.3g} pulses in the window")
+        if p.pulses_to_limit is not None:
+            parts.append(f"{format_pulse_count(p.pulses_to_limit)} pulses reach the limit")
+        lines.append(f"  {symbol}: " + "; ".join(parts))
+    return lines
+
+
+def _exposure_lines(a: Assessment) -> list[str]:
+    """The day's exposures: each against the limit values, the day's totals, and where the day goes wrong."""
+    x = a.exposure
+    if x is None:
+        return []
+    verdict = "within the limit values" if x.within else "EXCEEDS the limit values"
+    lines = ["", f"Daily exposure ({x.limit_set}): {verdict}"]
+    if x.most_family is not None:
+        lines[-1] += (
+            f"; most of the allowance: {x.most_family} ({format_fraction(x.day[x.most_family].worst)} over the "
+            f"day), mostly from {x.most_exposure!r}"
+        )
+    rows: list[tuple[str, ...]] = []
+    notes = []
+    for e in x.exposures:
+        for f in e.hazards.values():
+            farther = f.shortest_distance_mm is not None and f.shortest_distance_mm > e.distance_mm
+            flagged = farther and f.worst <= 1
+            if flagged:
+                notes.append(f"  * {f.criterion} at {e.label!r}: {f.note}")
+            rows.append(
+                (
+                    e.label,
+                    distance_beyond_mm(e.distance_mm),
+                    format_duration_s(e.duration_s),
+                    f.criterion,
+                    format_fraction(f.worst),
+                    format_duration_s(f.allowed_duration_s),
+                    "—"
+                    if f.shortest_distance_mm is None
+                    else "any"
+                    if f.shortest_distance_mm == 0
+                    else distance_beyond_mm(f.shortest_distance_mm) + ("*" if flagged else ""),
+                )
+            )
+    lines += [
+        "  " + line
+        for line in _table(
+            ("Exposure", "Distance", "Duration", "Hazard", "Share", "Allowed there", "Within beyond"), rows
+        )
+    ]
+    day = "; ".join(f"{family} {format_fraction(d.worst)}" for family, d in x.day.items())
+    lines += [
+        *notes,
+        f"  Over the day: {day}",
+        "  Allowed there: the longest stay at that distance (—: not reached in a day). Within beyond: the least "
+        "distance from which that duration stays within the limit (any: from 10 mm; —: not within 100 m).",
+        f"  {x.note}",
+    ]
+    return lines
 
 
 def _studies(a: Assessment) -> list[str]:
@@ -244,7 +333,7 @@ def render_batch_table(ids: list[str], assessments: dict[str, Assessment], error
         margin = ""
         if standard and a.deciding_hazards and a.risk_group != "Exempt":
             h = a.hazards[a.deciding_hazards[0]]
-            margin = format_margin(h.risk_group, h.margins)
+            margin = hazard_margin_text(h)
         flags = []
         if not standard:
             flags.append(

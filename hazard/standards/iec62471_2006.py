@@ -48,7 +48,9 @@ _THERMAL_VIEWING = (
     Viewing(up_to_s=0.25, fov=FieldOfView(fixed_rad=1.7 * _MRAD), alpha_bounds_rad=(0.0017, 0.1)),
     Viewing(up_to_s=_INF, fov=FieldOfView(fixed_rad=11 * _MRAD), alpha_bounds_rad=(0.011, 0.1)),
 )
-_THERMAL_PIECE = {"coefficient": 50000.0, "exponent": -0.25, "over_alpha": True}  # 4.3.5: 50000/(α·t^0.25)
+_THERMAL_PIECE = LimitPiece(
+    after_s=1e-5, up_to_s=10.0, coefficient=50000.0, exponent=-0.25, over_alpha=True
+)  # 4.3.5: 50000/(α·t^0.25), 10 µs ≤ t ≤ 10 s
 # Below 10 µs, where 4.3.5 stops, the limit is held at its 10 µs value, 50000/(α·(10⁻⁵)^0.25) = 8.89·10⁵/α (as
 # ICNIRP and 2006/25/EC Annex I row i do); extrapolating the formula would allow more, not less.
 _HELD_BELOW_10_US = LimitPiece(
@@ -170,7 +172,7 @@ IEC_62471_2006 = LimitSet(
             limits_over_alpha=True,
             cautions=(_BRIGHT,),
             exposure_limit=ExposureLimit(
-                pieces=(_HELD_BELOW_10_US, LimitPiece(after_s=1e-5, up_to_s=10.0, **_THERMAL_PIECE)),
+                pieces=(_HELD_BELOW_10_US, _THERMAL_PIECE),
                 text="L_R ≤ 50000/(α·t^0.25), 10 µs ≤ t ≤ 10 s (held at its 10 µs value for shorter times)",
             ),
         ),
@@ -192,7 +194,7 @@ IEC_62471_2006 = LimitSet(
             exposure_limit=ExposureLimit(
                 pieces=(
                     dataclasses.replace(_HELD_BELOW_10_US, quantity="L_R"),
-                    LimitPiece(after_s=1e-5, up_to_s=10.0, quantity="L_R", **_THERMAL_PIECE),
+                    dataclasses.replace(_THERMAL_PIECE, quantity="L_R"),
                     LimitPiece(after_s=10.0, up_to_s=_INF, coefficient=6000.0, exponent=0.0, over_alpha=True),
                 ),
                 text="L_R ≤ 50000/(α·t^0.25) (10 µs ≤ t ≤ 10 s, held below); L_IR ≤ 6000/α (t > 10 s)",

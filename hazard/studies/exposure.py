@@ -17,15 +17,18 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from hazard.method.evaluate import ProductArrays
+from hazard.inputs.record import DAY_S
+from hazard.method.evaluate import Evaluation, ProductArrays
 from hazard.method.exposure_time import limit_fraction, limit_value
-from hazard.method.families import evaluate_rows, family_member
+from hazard.method.families import evaluate_rows, family_member, family_t_max
 from hazard.method.search import log_search
 from hazard.result import DayExposure, ExposureFraction, ExposureResult, ExposureStudy
 from hazard.standards import LimitSet
 from hazard.studies.distances import CURVE_POINTS, SEARCH_RANGE_M
 
 __all__ = ["Exposure", "exposure_study"]
+CHART_POINTS = 61
+"""Distances per allowed-stay curve [1]."""
 
 
 @dataclass(frozen=True)
@@ -47,45 +50,93 @@ class Exposure:
     duration_s: float
 
 
-def _fractions(
-    arrays: ProductArrays, limit_set: LimitSet, distance_m: np.ndarray, duration_s: float, members: tuple[str, ...]
-) -> tuple[np.ndarray, list[str | None]]:
-    """(n,) fraction of the limit for ``duration_s`` at each distance, and the member that applies there.
+def _fractions(ev: Evaluation, limit_set: LimitSet, duration_s: float, members: tuple[str, ...]) -> np.ndarray:
+    """Each row's exposure of ``duration_s`` as a fraction of its limit, shape (n,) [1].
 
-    NaN and None where none applies or it was not assessed.
+    The family member that applies at the row is used (for a pulse train, the larger of the dose and a single
+    pulse's fraction); NaN where none applies or it was not assessed.
     """
-    ev = evaluate_rows(arrays, distance_m.size, limit_set, forced_distance_m=distance_m)
-    out = np.full(distance_m.size, np.nan)
-    used: list[str | None] = []
-    for row in range(distance_m.size):
+    out = np.full(ev.assessment_distance_m.size, np.nan)
+    for row in range(out.size):
         symbol = family_member(ev, members, row)
-        used.append(symbol)
-        if symbol is None or not ev.hazards[symbol].assessed[row]:
-            continue
-        out[row] = limit_fraction(limit_set[symbol], ev.viewed, duration_s, row)
-    return out, used
+        if symbol is not None and ev.hazards[symbol].assessed[row]:
+            out[row] = np.fmax(
+                limit_fraction(limit_set[symbol], ev.viewed, duration_s, row), _pulse_fraction(ev, symbol, row)
+            )
+    return out
 
 
-def _shortest_distance_m(
-    arrays: ProductArrays, limit_set: LimitSet, duration_s: float, members: tuple[str, ...]
-) -> tuple[float | None, str]:
-    """Least distance beyond which ``duration_s`` stays within the limit, and how it was found [m]."""
+def _pulse_fraction(ev: Evaluation, symbol: str, row: int) -> float:
+    """A pulse train's single pulse against its own limit at ``row`` [1]; NaN for continuous light.
+
+    The dose of the day is the time average's; a pulse may still exceed its own, shorter-duration limit
+    (:mod:`hazard.method.pulses`), so the larger of the two decides.
+    """
+    check = ev.hazards[symbol].pulse
+    return np.nan if check is None else float(check.fraction[row])
+
+
+def _shortest_distances_m(
+    arrays: ProductArrays, limit_set: LimitSet, duration_s: float
+) -> dict[str, tuple[float | None, str]]:
+    """Each family's least distance beyond which ``duration_s`` stays within the limit, and how it was found [m].
+
+    Bracketed on the distance grid of :mod:`hazard.studies.distances`, then every family's bracket narrowed
+    together (one evaluation of the product per round).
+    """
     grid = np.geomspace(*SEARCH_RANGE_M, CURVE_POINTS)
-    fractions, _ = _fractions(arrays, limit_set, grid, duration_s, members)
-    if np.all(np.isnan(fractions)):
-        return None, "not assessed"
-    over = np.flatnonzero(~(fractions <= 1))
-    if over.size == 0:
-        return 0.0, f"within the limit at every distance from {grid[0] * 1e3:.0f} mm"
-    if over[-1] == grid.size - 1:
-        return None, f"not within the limit up to {grid[-1]:.0f} m"
+    ev = evaluate_rows(arrays, grid.size, limit_set, forced_distance_m=grid)
+    found: dict[str, tuple[float | None, str]] = {}
+    jobs: list[tuple[str, tuple[str, ...], float, float]] = []
+    for family, members in limit_set.families:
+        fractions = _fractions(ev, limit_set, duration_s, members)
+        over = np.flatnonzero(~(fractions <= 1))
+        if np.all(np.isnan(fractions)):
+            found[family] = (None, "not assessed")
+        elif over.size == 0:
+            found[family] = (0.0, f"within the limit at every distance from {grid[0] * 1e3:.0f} mm")
+        elif over[-1] == grid.size - 1:
+            found[family] = (None, f"not within the limit up to {grid[-1]:.0f} m")
+        else:
+            jobs.append((family, members, grid[over[-1]], grid[over[-1] + 1]))
+    if jobs:
 
-    def within(distance: np.ndarray, jobs: np.ndarray) -> np.ndarray:
-        found, _ = _fractions(arrays, limit_set, distance.ravel(), duration_s, members)
-        return (found <= 1).reshape(distance.shape)
+        def within(distance: np.ndarray, index: np.ndarray) -> np.ndarray:
+            flat = evaluate_rows(arrays, distance.size, limit_set, forced_distance_m=distance.ravel())
+            ok = np.zeros(distance.size, dtype=bool)
+            for k, job in enumerate(index):
+                rows = slice(k * distance.shape[1], (k + 1) * distance.shape[1])
+                fractions = _fractions(flat, limit_set, duration_s, jobs[job][1])[rows]
+                ok[rows] = fractions <= 1
+            return ok.reshape(distance.shape)
 
-    _, above = log_search(within, np.array([grid[over[-1]]]), np.array([grid[over[-1] + 1]]))
-    return float(above[0]), "re-assessed to the limit"
+        _, above = log_search(within, np.array([j[2] for j in jobs]), np.array([j[3] for j in jobs]))
+        for (family, _, _, _), distance in zip(jobs, above, strict=True):
+            found[family] = (float(distance), "re-assessed to the limit")
+    return found
+
+
+def _within_day(t_s: float) -> float | None:
+    """An allowed stay, or None when it is not reached within a day (or at all) [s]."""
+    return t_s if np.isfinite(t_s) and t_s <= DAY_S else None
+
+
+def _curves(
+    arrays: ProductArrays, limit_set: LimitSet, exposures: list[Exposure]
+) -> tuple[list[float], dict[str, list[float | None]]]:
+    """Each family's allowed stay against distance [mm, s].
+
+    From a fifth of the nearest exposure to five times the farthest, clipped to the distance study's search range.
+    """
+    nearest = min(e.distance_m for e in exposures) / 5
+    farthest = max(e.distance_m for e in exposures) * 5
+    low, high = max(nearest, SEARCH_RANGE_M[0]), min(farthest, SEARCH_RANGE_M[1])
+    grid = np.geomspace(low, max(high, low * 10), CHART_POINTS)
+    ev = evaluate_rows(arrays, grid.size, limit_set, forced_distance_m=grid)
+    allowed = {
+        family: [_within_day(float(t)) for t in family_t_max(ev, members)] for family, members in limit_set.families
+    }
+    return [float(d) * 1e3 for d in grid], allowed
 
 
 def _day_fraction(values: list[float], durations: list[float], limit_set: LimitSet, symbol: str) -> float:
@@ -128,8 +179,12 @@ def exposure_study(arrays: ProductArrays, limit_set: LimitSet, exposures: list[E
     """
     distances = np.array([e.distance_m for e in exposures])
     ev = evaluate_rows(arrays, len(exposures), limit_set, forced_distance_m=distances)
+    shortest_by_duration = {
+        d: _shortest_distances_m(arrays, limit_set, d) for d in sorted({e.duration_s for e in exposures})
+    }
     results = []
     per_family: dict[str, list[tuple[float, float, str]]] = {}
+    pulses: dict[str, float] = {}
     for row, exposure in enumerate(exposures):
         fractions = {}
         for family, members in limit_set.families:
@@ -140,15 +195,25 @@ def exposure_study(arrays: ProductArrays, limit_set: LimitSet, exposures: list[E
             if not np.isfinite(fraction):
                 continue  # no limit for this duration (e.g. skin thermal beyond 10 s)
             t_max = float(ev.hazards[symbol].t_max_s[row])
-            shortest, how = _shortest_distance_m(arrays, limit_set, exposure.duration_s, members)
+            shortest, how = shortest_by_duration[exposure.duration_s][family]
+            pulse = _pulse_fraction(ev, symbol, row)
+            if shortest is not None and shortest > exposure.distance_m and np.fmax(fraction, pulse) <= 1:
+                how = (
+                    f"within the limit at this distance but exceeded farther out, up to {shortest * 1e3:.0f} mm: "
+                    f"there the source looks smaller and another member of the family applies (e.g. the "
+                    f"small-source limit of blue light)"
+                )
             fractions[family] = ExposureFraction(
                 criterion=symbol,
                 fraction=fraction,
-                allowed_duration_s=None if np.isnan(t_max) else t_max,
+                pulse_fraction=None if np.isnan(pulse) else pulse,
+                allowed_duration_s=_within_day(t_max),
                 shortest_distance_mm=None if shortest is None else shortest * 1e3,
                 note=how,
             )
             per_family.setdefault(family, []).append((fraction, exposure.duration_s, symbol))
+            if not np.isnan(pulse):
+                pulses[family] = max(pulses.get(family, 0.0), pulse)
         results.append(
             ExposureResult(
                 label=exposure.label,
@@ -160,30 +225,38 @@ def exposure_study(arrays: ProductArrays, limit_set: LimitSet, exposures: list[E
     day = {}
     for family, found in per_family.items():
         symbols = {s for _, _, s in found}
-        dose = all(limit_set[s].effect == "photochemical" for s in symbols) and len(symbols) == 1
-        if dose:
-            symbol = next(iter(symbols))
-            values = [f * limit_value(limit_set[symbol], t) for f, t, _ in found]  # the value each exposure holds
-            fraction = _day_fraction(values, [t for _, t, _ in found], limit_set, symbol)
-            how = "summed over the day (a dose): exposures back to back, the most intense first"
-        else:
+        if any(limit_set[s].effect != "photochemical" for s in symbols):
             fraction = max(f for f, _, _ in found)
             how = "the highest single exposure (thermal limits do not add up between separate exposures)"
-        day[family] = DayExposure(fraction=fraction, rule=how)
-    most = max(((family, d.fraction) for family, d in day.items()), key=lambda x: x[1], default=None)
-    worst_exposure = None
-    if most is not None:
-        worst_exposure = max(
-            range(len(results)),
-            key=lambda i: results[i].hazards.get(most[0]).fraction if most[0] in results[i].hazards else -1.0,
-        )
+        elif len(symbols) == 1:
+            symbol = next(iter(symbols))
+            rates = [f * limit_value(limit_set[symbol], t) for f, t, _ in found]  # each exposure's value
+            fraction = _day_fraction(rates, [t for _, t, _ in found], limit_set, symbol)
+            how = "summed over the day (a dose): exposures back to back, the most intense first"
+        else:
+            fraction = sum(f for f, _, _ in found)
+            how = (
+                "the exposures' fractions added (the family member differs between exposures, so their doses are "
+                "in different units; the sum cannot be lower than the day's true fraction)"
+            )
+        day[family] = DayExposure(fraction=fraction, pulse_fraction=pulses.get(family), rule=how)
+    most = max(day, key=lambda family: day[family].worst, default=None)
+
+    def share(result: ExposureResult) -> float:
+        found = result.hazards.get(most) if most is not None else None
+        return -1.0 if found is None else found.worst
+
+    worst_exposure = max(results, key=share) if most is not None else None
+    curve_distance_mm, allowed = _curves(arrays, limit_set, exposures)
     return ExposureStudy(
         limit_set=limit_set.name,
         exposures=results,
         day=day,
-        most_family=None if most is None else most[0],
-        most_exposure=None if worst_exposure is None else results[worst_exposure].label,
-        within=all(d.fraction <= 1 for d in day.values()),
+        curve_distance_mm=curve_distance_mm,
+        allowed_duration_s=allowed,
+        most_family=most,
+        most_exposure=None if worst_exposure is None else worst_exposure.label,
+        within=all(d.worst <= 1 for d in day.values()),
         note="A pre-screen of the exposure: whether a workplace meets the exposure limit values is the employer's "
         "assessment, confirmed by a laboratory or a competent person.",
     )
