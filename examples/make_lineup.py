@@ -11,6 +11,7 @@ Run from anywhere: ``python examples/make_lineup.py``. Only numpy and the standa
 
 from __future__ import annotations
 
+import dataclasses
 import inspect
 import math
 from collections.abc import Callable
@@ -54,7 +55,13 @@ class Product:
     wavelength_nm : numpy.ndarray
         Wavelength grid [nm].
     irradiance : numpy.ndarray
-        Spectral irradiance at ``distance_mm`` [W m⁻² nm⁻¹].
+        Spectral irradiance at ``distance_mm`` [W m⁻² nm⁻¹]; for a pulsed source with ``per_pulse``, the
+        radiant exposure of one pulse [J m⁻² nm⁻¹].
+    pulses : dict
+        Record fields of a pulsed source (``emission``, ``pulse_duration_s``, ``pulse_rate_hz``); empty for a
+        continuous one.
+    per_pulse : bool
+        The spectrum is one pulse's radiant exposure (``quantity = "radiant_exposure"``).
     """
 
     id: str
@@ -65,6 +72,8 @@ class Product:
     lamp_type: str
     wavelength_nm: np.ndarray
     irradiance: np.ndarray
+    pulses: dict[str, object] = dataclasses.field(default_factory=dict)
+    per_pulse: bool = False
 
     @property
     def stem(self) -> str:
@@ -396,6 +405,87 @@ def indicator_led(
     )
 
 
+def xenon_flash_shape(wl_nm: np.ndarray, temperature_k: float, lines: dict[float, float]) -> np.ndarray:
+    """A xenon flash spectrum: Planck continuum of the arc plasma at ``temperature_k`` [K] plus xenon lines.
+
+    ``lines`` maps line centre [nm] to its peak height relative to the continuum's maximum; each line is a
+    Gaussian of FWHM 3 nm (broadened in the dense arc). Returned relative to its own maximum [1].
+    """
+    continuum = planck_radiance(wl_nm, temperature_k)
+    continuum = continuum / continuum.max()
+    shape = continuum + sum(height * gaussian(wl_nm, centre, 3.0) for centre, height in lines.items())
+    return shape / shape.max()
+
+
+XENON_LINES = {823.2: 0.6, 828.0: 0.35, 881.9: 0.55, 904.5: 0.3, 916.3: 0.3, 980.0: 0.25, 992.3: 0.35}
+"""Xenon near-infrared lines (positions as commonly tabulated, e.g. NIST ASD) with invented relative heights."""
+
+
+def pulsed_xenon_disinfector(
+    temperature_k: float = 11000.0,
+    dose_per_pulse_j_m2: float = 0.6,
+    pulse_duration_s: float = 100e-6,
+    pulse_rate_hz: float = 2.0,
+    distance_mm: float = 1000.0,
+) -> Product:
+    """Pulsed-xenon UV disinfection unit, Corvel Flashguard X (room surfaces, used with the room cleared).
+
+    Physical model: a linear xenon flash tube in a UV-transmitting quartz envelope behind a 200 mm x 60 mm
+    window; the arc plasma radiates as Planck's law at temperature_k [K] with xenon near-infrared lines
+    (XENON_LINES). Each flash lasts pulse_duration_s [s] (half-peak width), pulse_rate_hz [Hz] flashes per
+    second. Level: radiant exposure of one flash, dose_per_pulse_j_m2 [J/m2] over 200-1100 nm, on the axis
+    at distance_mm [mm]. The spectrum is that of one flash, in J/m2/nm.
+    Grid 200-1100 nm, 1 nm step; the envelope and window pass nothing outside it.
+    """
+    wl = grid(200.0, 1100.0, 1.0)
+    shape = xenon_flash_shape(wl, temperature_k, XENON_LINES)
+    return Product(
+        "CL-XEN-UV",
+        "Corvel Flashguard X pulsed-xenon UV disinfection unit",
+        distance_mm,
+        {"source_width_mm": 60.0, "source_height_mm": 200.0},
+        "flash tube window, 60 mm x 200 mm",
+        "other",
+        wl,
+        scaled_to(wl, shape, 200.0, 1100.0, dose_per_pulse_j_m2),
+        {"emission": "pulse_train", "pulse_duration_s": pulse_duration_s, "pulse_rate_hz": pulse_rate_hz},
+        per_pulse=True,
+    )
+
+
+def photoflash(
+    temperature_k: float = 6500.0,
+    uv_edge_nm: float = 390.0,
+    dose_per_pulse_j_m2: float = 0.02,
+    pulse_duration_s: float = 1e-3,
+    distance_mm: float = 1000.0,
+) -> Product:
+    """Studio photoflash, Corvel Snapbright 400 (one flash per shot, a few seconds apart at most).
+
+    Physical model: a xenon flash tube behind a UV-absorbing dome; the arc radiates as Planck's law at
+    temperature_k [K] with the xenon near-infrared lines (XENON_LINES); the dome cuts the ultraviolet with a
+    logistic edge at uv_edge_nm [nm], 6 nm wide. One flash lasts pulse_duration_s [s] (half-peak width).
+    Level: radiant exposure of the flash, dose_per_pulse_j_m2 [J/m2] over 300-1100 nm, on the axis at
+    distance_mm [mm]. The spectrum is that of one flash, in J/m2/nm.
+    Grid 300-1100 nm, 1 nm step; the dome passes nothing outside it.
+    """
+    wl = grid(300.0, 1100.0, 1.0)
+    dome = 1.0 / (1.0 + np.exp(-(wl - uv_edge_nm) / 6.0))
+    shape = xenon_flash_shape(wl, temperature_k, XENON_LINES) * dome
+    return Product(
+        "CL-FLASH-400",
+        "Corvel Snapbright 400 studio photoflash",
+        distance_mm,
+        {"source_width_mm": 80.0, "source_height_mm": 80.0},
+        "flash dome, 80 mm across",
+        "other",
+        wl,
+        scaled_to(wl, shape, 300.0, 1100.0, dose_per_pulse_j_m2),
+        {"emission": "single_pulse", "pulse_duration_s": pulse_duration_s},
+        per_pulse=True,
+    )
+
+
 MODELS: tuple[Callable[..., Product], ...] = (
     desk_lamp,
     cool_spotlight,
@@ -406,6 +496,8 @@ MODELS: tuple[Callable[..., Product], ...] = (
     radiant_heater,
     grow_spotlight,
     indicator_led,
+    pulsed_xenon_disinfector,
+    photoflash,
 )
 
 
@@ -428,13 +520,16 @@ def write_csv(product: Product, model: Callable[..., Product], folder: Path) -> 
     header += [
         f"Parameters: {parameters_text(model)}",
         f"Measurement distance: {product.distance_mm:g} mm",
-        "Quantity: spectral irradiance, unit W/m2/nm",
+        "Quantity: radiant exposure of one flash, unit J/m2/nm"
+        if product.per_pulse
+        else "Quantity: spectral irradiance, unit W/m2/nm",
     ]
     values = np.where(product.irradiance >= FLOOR * product.irradiance.max(), product.irradiance, 0.0)
     rows = [f"{w:.1f},{v:.6g}" for w, v in zip(product.wavelength_nm, values, strict=True)]
     path = folder / f"{product.stem}.csv"
+    column = "radiant_exposure_J_m2_nm" if product.per_pulse else "irradiance_W_m2_nm"
     path.write_text(
-        "".join(f"# {line}\n" for line in header) + "wavelength_nm,irradiance_W_m2_nm\n" + "\n".join(rows) + "\n",
+        "".join(f"# {line}\n" for line in header) + f"wavelength_nm,{column}\n" + "\n".join(rows) + "\n",
         encoding="utf-8",
     )
     return path
@@ -449,10 +544,36 @@ CLAIMS = {
     "CL-DESK-30": {"claimed_risk_group": "Exempt", "claimed_cct_k": 3000.0},
 }
 """Invented datasheet claims, for the vendor-claim check in the demo (one of them does not hold)."""
+EXPOSURES = {
+    "CL-CURE-365": [
+        {"distance_mm": 1000.0, "duration_s": "2h", "label": "operator at the bench"},
+        {"distance_mm": 300.0, "duration_s": "10min", "label": "loading parts under the lamp"},
+    ],
+    "CL-HEAT-2K": [
+        {"distance_mm": 2000.0, "duration_s": "8h", "label": "workstation in the heated bay"},
+        {"distance_mm": 500.0, "duration_s": "2min", "label": "adjusting the heater"},
+    ],
+    "CL-XEN-UV": [{"distance_mm": 3000.0, "duration_s": "5min", "label": "walking past the open door"}],
+}
+"""Invented working days for the daily-exposure study of the demo."""
 
 
 def _toml_value(value) -> str:
-    return f'"{value}"' if isinstance(value, str) else f"{value:.1f}"
+    if isinstance(value, str):
+        return f'"{value}"'
+    return f"{value:.1f}" if abs(value) >= 1 else f"{value:g}"
+
+
+def _exposure_tables(product_id: str) -> str:
+    """The product's [[exposure]] tables (invented working day), or nothing."""
+    tables = EXPOSURES.get(product_id, [])
+    if not tables:
+        return ""
+    body = "".join(
+        "\n[[exposure]]\n" + "".join(f"{key} = {_toml_value(value)}\n" for key, value in table.items())
+        for table in tables
+    )
+    return "# A working day (invented):" + body
 
 
 def write_record(product: Product, folder: Path) -> Path:
@@ -467,9 +588,13 @@ def write_record(product: Product, folder: Path) -> Path:
         f'id = "{product.id}"\n'
         f'name = "{product.name}"\n'
         f'spectrum = "{product.stem}.csv"\n'
-        'quantity = "irradiance"\n'
-        'unit = "W/m2/nm"\n'
-        f"distance_mm = {product.distance_mm:.1f}\n"
+        + (
+            'quantity = "radiant_exposure"\nunit = "J/m2/nm"\n'
+            if product.per_pulse
+            else 'quantity = "irradiance"\nunit = "W/m2/nm"\n'
+        )
+        + "".join(f"{key} = {_toml_value(value)}\n" for key, value in product.pulses.items())
+        + f"distance_mm = {product.distance_mm:.1f}\n"
         f"{size}\n"
         f'lamp_type = "{product.lamp_type}"\n'
         "no_emission_outside = true\n"
@@ -477,6 +602,7 @@ def write_record(product: Product, folder: Path) -> Path:
         f"uncertainty_pct = {UNCERTAINTY_PCT:.1f}\n"
         f"wavelength_uncertainty_nm = {WAVELENGTH_UNCERTAINTY_NM:.1f}\n"
         + (f"# Datasheet claims (invented):\n{claims}" if claims else "")
+        + _exposure_tables(product.id)
     )
     path = folder / f"{product.stem}.toml"
     path.write_text(text, encoding="utf-8")

@@ -121,7 +121,7 @@ def _hazard_results(
             )
         if h.assessed[i] and h.t_max_s[i] == 0:
             note += " The limit is exceeded from the first instant of exposure (t_max 0 s)."
-        pulse = _pulse_check(ev, h, i) if (h.pulse is not None and h.assessed[i]) else None
+        pulse = _pulse_check(ev, h, i) if (ev.pulsed[i] and h.pulse is not None and h.assessed[i]) else None
         if pulse is not None and ev.single_pulse[i]:
             # one pulse has no continuous exposure: its group comes from the pulse against the limit at its duration
             limits, compared = {}, {}

@@ -1,0 +1,189 @@
+"""Pulsed sources checked by hand: each pulse against the exposure limit at its duration, trains, bad input.
+
+Exposure limits: IEC 62471:2006 §4.3 (the same ICNIRP values as 2006/25/EC Annex I). The group rules for pulsed
+lamps (a pulse over a limit is RG3, a single pulse within every limit Exempt, a train within them grouped by its
+time average) are IEC 62471:2006 6.2 # from memory.
+"""
+
+import math
+
+import numpy as np
+import pytest
+from click.testing import CliRunner
+from conftest import assess_arrays, triangle_line
+
+from hazard.cli import main
+from hazard.standards import GROUPS
+
+GRID = np.concatenate([np.arange(200.0, 400.0, 0.01), np.arange(400.0, 3000.5, 0.5)])
+MS = 1e-3
+
+
+def _pulse(tmp_path, line, *, dose=True, duration_s=MS, rate_hz=None, **fields):
+    """A pulsed source of ``line`` (one pulse's radiant exposure [J/m²/nm] or its peak irradiance [W/m²/nm])."""
+    record = {
+        "no_emission_outside": True,
+        "emission": "single_pulse" if rate_hz is None else "pulse_train",
+        "pulse_duration_s": duration_s,
+        **({"pulse_rate_hz": rate_hz} if rate_hz is not None else {}),
+        **({"quantity": "radiant_exposure", "unit": "J/m2/nm"} if dose else {}),
+        **fields,
+    }
+    return assess_arrays(tmp_path, GRID, line, **record)
+
+
+# (hazard, line centre [nm], dose limit at 1 ms [J/m² or J/(m²·sr)], source diameter [mm] at 200 mm, line
+# half-width [nm]: narrow on the 0.01 nm UV grid, 1 nm on the 0.5 nm grid)
+DOSE_LIMITS = [
+    pytest.param("E_S", 270.0, 30.0, 5.0, 0.05, id="E_S 30 J/m2 (4.3.1; S_UV(270) = 1, Table 4.1)"),
+    pytest.param("E_UVA", 365.0, 1e4, 5.0, 0.05, id="E_UVA 1e4 J/m2 (4.3.2, unweighted)"),
+    pytest.param("E_B", 437.5, 100.0, 2.0, 1.0, id="E_B 100 J/m2, small source (4.3.4; B = 1 at 435-440 nm)"),
+    pytest.param("E_IR", 1500.0, 18000 * MS**0.25, 5.0, 1.0, id="E_IR 18000 t^0.25 J/m2 (4.3.7, unweighted)"),
+]
+
+
+@pytest.mark.parametrize(("symbol", "centre", "limit", "diameter", "width"), DOSE_LIMITS)
+@pytest.mark.parametrize(("share", "group"), [(0.99, "Exempt"), (1.01, "RG3")])
+def test_single_pulse_just_under_and_over_a_dose_limit(tmp_path, symbol, centre, limit, diameter, width, share, group):
+    line = triangle_line(GRID, centre, share * limit / width, width)
+    a = _pulse(tmp_path, line, source_diameter_mm=diameter)
+    h = a.hazards[symbol]
+    assert h.pulse.fraction == pytest.approx(share, rel=1e-3)  # the line's weighting within 0.1 %
+    assert h.pulse.dose_per_pulse == pytest.approx(share * limit, rel=1e-3)
+    assert h.risk_group == group
+    # the overall group is never lower (the 100 J/m² blue pulse in 1 ms is also far over the retinal thermal limit)
+    assert GROUPS.index(a.risk_group) >= GROUPS.index(group)
+    assert h.limits == {} and h.t_max_s is None  # one pulse has no continuous-wave comparison
+
+
+@pytest.mark.parametrize(("share", "group"), [(0.99, "Exempt"), (1.01, "RG3")])
+def test_single_pulse_against_the_blue_light_radiance_dose(tmp_path, share, group):
+    # L_B·t ≤ 10⁶ J/(m²·sr) (4.3.3), a 10 mm disc at 200 mm: the 1.7 mrad field of a pulse (Table 6.1, t ≤ 0.25 s)
+    # lies inside the source, so the compared radiance dose is the source's own, H/Ω_s (method §4:
+    # Ω_s = 2π(1 − cos(atan(D/2d)))).
+    omega_s = 2 * math.pi * (1 - math.cos(math.atan(5 / 200)))
+    dose = share * 1e6 * omega_s  # J/m² at the eye
+    a = _pulse(tmp_path, triangle_line(GRID, 437.5, dose), source_diameter_mm=10.0)
+    assert a.hazards["L_B"].pulse.fraction == pytest.approx(share, rel=1e-9)
+    assert a.hazards["L_B"].risk_group == group
+
+
+def _retinal_pulse(tmp_path, share_of_limit, duration_s, held_at_s=None):
+    """A 600 nm pulse (R = 1 over 500-700 nm, IEC 62471:2006 Table 4.2) from a 10 mm disc at 200 mm, its peak
+    radiance ``share_of_limit`` × 50000/(α·t^0.25) at t = ``held_at_s`` (default: the pulse duration)."""
+    alpha = 10 / 200  # α = D/d (method §4), within the 1.7-100 mrad bounds of a pulse's limit (Table 6.1)
+    omega_s = 2 * math.pi * (1 - math.cos(math.atan(5 / 200)))
+    limit = 50000 / (alpha * (held_at_s or duration_s) ** 0.25)  # 4.3.5 [W/(m²·sr)]
+    peak_irradiance = share_of_limit * limit * omega_s
+    a = _pulse(
+        tmp_path, triangle_line(GRID, 600.0, peak_irradiance), dose=False, duration_s=duration_s, source_diameter_mm=10
+    )
+    assert a.alpha_rad == pytest.approx(alpha, rel=1e-9)
+    return a
+
+
+@pytest.mark.parametrize(("share", "group"), [(0.99, "Exempt"), (1.01, "RG3")])
+def test_retinal_thermal_pulse_at_1_ms(tmp_path, share, group):
+    a = _retinal_pulse(tmp_path, share, 1e-3)
+    assert a.hazards["L_R"].pulse.fraction == pytest.approx(share, rel=1e-3)
+    assert a.hazards["L_R"].risk_group == group
+
+
+@pytest.mark.parametrize(("share", "group"), [(0.99, "Exempt"), (1.01, "RG3"), (1.5, "RG3")])
+def test_retinal_thermal_pulse_at_1_us_uses_the_limit_held_at_10_us(tmp_path, share, group):
+    # Below 10 µs the limit is held at its 10 µs value (2006/25/EC Annex I row i: 8.89·10⁸/C_α); the formula
+    # extrapolated to 1 µs would allow (10/1)^0.25 = 1.78× more, so 1.5× the held limit must still be RG3.
+    a = _retinal_pulse(tmp_path, share, 1e-6, held_at_s=1e-5)
+    assert a.hazards["L_R"].pulse.fraction == pytest.approx(share, rel=1e-3)
+    assert a.hazards["L_R"].risk_group == group
+
+
+def test_train_of_safe_pulses_over_a_day_is_not_safe(tmp_path):
+    # 0.01 J/m² of E_S per pulse, 1 ms at 1 Hz: each pulse is 1/3000 of 30 J/m², its time average 0.01 W/m²
+    # (RG2, IEC 62471:2006 Table 6.1: 0.003 < 0.01 ≤ 0.03; t_max 3000 s). 8 h gather 288 J/m², 9.6× the limit.
+    line = triangle_line(GRID, 270.0, 0.01 / 0.05, 0.05)
+    a = _pulse(tmp_path, line, rate_hz=1.0, exposure=[{"distance_mm": 200, "duration_s": "8h"}])
+    e_s = a.hazards["E_S"]
+    assert e_s.pulse.fraction == pytest.approx(0.01 / 30, rel=1e-3)
+    assert e_s.pulse.pulses_to_limit == pytest.approx(3000, rel=1e-3)
+    assert e_s.value == pytest.approx(0.01, rel=1e-3) and e_s.risk_group == "RG2"
+    assert e_s.t_max_s == pytest.approx(3000, rel=1e-3)
+    assert a.exposure.exposures[0].hazards["E_S"].fraction == pytest.approx(9.6, rel=1e-3)
+    assert a.exposure.within is False
+
+
+def test_train_grouped_by_its_time_average(tmp_path):
+    # 0.002 J/m² per pulse at 1 Hz: the time average 0.002 W/m² is RG1 by the continuous-wave table
+    # (0.001 < 0.002 ≤ 0.003, IEC 62471:2006 Table 6.1); every pulse is far within its limit.
+    a = _pulse(tmp_path, triangle_line(GRID, 270.0, 0.002 / 0.05, 0.05), rate_hz=1.0)
+    assert a.risk_group == "RG1" and a.hazards["E_S"].risk_group == "RG1"
+    assert a.hazards["E_S"].value == pytest.approx(0.002, rel=1e-3)
+    assert a.emission.mode == "pulse_train" and "time-averaged" in a.emission.rule
+    assert a.emission.duty_cycle == pytest.approx(1e-3)
+
+
+def test_thermal_pulses_add_up_in_a_train(tmp_path):
+    # Each 600 nm pulse at half its L_R limit, 1000 per second: N = 10⁴ pulses within the 10 s window, and
+    # 0.5·N^0.25 = 5 > 1 (the N^−0.25 rule of 2006/25/EC Annex II Table 2.6, written for lasers and applied here by
+    # analogy: the reading that cannot call such a train safe). t_max: 0.5^−4 = 16 pulses, 16 ms.
+    alpha = 10 / 200  # α = D/d (method §4)
+    omega_s = 2 * math.pi * (1 - math.cos(math.atan(5 / 200)))
+    peak = 0.5 * 50000 / (alpha * 1e-5**0.25) * omega_s
+    a = _pulse(
+        tmp_path, triangle_line(GRID, 600.0, peak), dose=False, duration_s=1e-5, rate_hz=1000.0, source_diameter_mm=10
+    )
+    l_r = a.hazards["L_R"]
+    assert l_r.pulse.fraction == pytest.approx(0.5, rel=1e-3)
+    assert l_r.pulse.pulses_in_window == pytest.approx(1e4)
+    assert l_r.pulse.fraction_in_train == pytest.approx(5.0, rel=1e-3)
+    assert l_r.risk_group == "RG3" and a.pulse_exceeds
+    assert l_r.t_max_s == pytest.approx(16 / 1000, rel=1e-2)
+
+
+# --- bad input: one clear line each --------------------------------------------------------------------------
+BAD = [
+    pytest.param(["--emission", "single_pulse", "--pulse-duration-s", "0.3"], "0.3 s is not a pulse", id="long pulse"),
+    pytest.param(["--emission", "pulse_train", "--pulse-duration-s", "1ms"], "needs --pulse-rate-hz", id="no rate"),
+    pytest.param(
+        ["--quantity", "radiant_exposure", "--unit", "J/m2/nm"], "exposure of one pulse", id="dose, continuous"
+    ),
+    pytest.param(["--exposure-distance-mm", "500", "--exposure-duration-s", "0"], "within a day", id="zero duration"),
+    pytest.param(["--exposure-distance-mm", "500", "--exposure-duration-s", "-5min"], "not a duration", id="negative"),
+    pytest.param(["--exposure-distance-mm", "500", "--exposure-duration-s", "25h"], "within a day", id="over a day"),
+    pytest.param(["--exposure", "distance_mm=500,duration_s=2d"], "within a day", id="table over a day"),
+    pytest.param(["--exposure-duration-s", "2h"], "go together", id="duration without distance"),
+    pytest.param(
+        ["--emission", "single_pulse", "--pulse-duration-s", "1ms", "--exposure", "distance_mm=500,duration_s=1h"],
+        "single pulse has no daily duration",
+        id="a day of one pulse",
+    ),
+]
+
+
+@pytest.mark.parametrize(("options", "message"), BAD)
+def test_bad_pulse_and_exposure_input_is_one_line(tmp_path, options, message):
+    spectrum = tmp_path / "lamp.csv"
+    spectrum.write_text("wavelength_nm,value\n400,0.1\n500,0.2\n600,0.1\n", encoding="utf-8")
+    base = ["assess", str(spectrum), "--distance-mm", "200", "--source-diameter-mm", "5"]
+    result = CliRunner().invoke(main, [*base, *options])
+    assert result.exit_code == 2, result.output
+    lines = result.stderr.splitlines()
+    assert len(lines) == 1 and lines[0].startswith("hazard: error: ") and message in lines[0], result.stderr
+    assert "Traceback" not in result.stderr and result.stdout == ""
+
+
+@pytest.mark.parametrize("rate_hz", [None, 5.0], ids=["single pulse", "train"])
+def test_a_saved_pulsed_result_renders_after_its_check(tmp_path, rate_hz):
+    # `hazard report` re-derives the groups with the pulse rules before it renders (hazard.assessment.verify)
+    line = triangle_line(GRID, 270.0, 0.02 / 0.05, 0.05)
+    a = _pulse(
+        tmp_path,
+        line,
+        rate_hz=rate_hz,
+        exposure=None if rate_hz is None else [{"distance_mm": 500, "duration_s": "1h"}],
+    )
+    saved = tmp_path / "result.json"
+    saved.write_text(a.model_dump_json(), encoding="utf-8")
+    result = CliRunner().invoke(main, ["report", str(saved), "--output", str(tmp_path / "r.pdf")])
+    assert result.exit_code == 0, result.output
+    assert (tmp_path / "r.pdf").read_bytes().startswith(b"%PDF")
