@@ -19,8 +19,17 @@ from pydantic import BaseModel, BeforeValidator
 from pydantic.fields import FieldInfo
 
 from hazard.inputs.record import ProductRecord
+from hazard.result import ReportIdentity
 
-__all__ = ["option_name", "parse_table_option", "record_options", "record_overrides"]
+__all__ = [
+    "field_table",
+    "identity_options",
+    "option_name",
+    "parse_table_option",
+    "pop_identity",
+    "record_options",
+    "record_overrides",
+]
 
 POSITIONAL = frozenset({"spectrum"})
 """Record fields given otherwise on the command line (the product argument)."""
@@ -119,3 +128,39 @@ def record_overrides(options: dict[str, Any]) -> dict[str, Any]:
     if isinstance(column, str) and column.isascii() and column.isdecimal() and len(column) <= 7:
         fields["column"] = int(column)
     return fields
+
+
+def identity_options(func: Callable) -> Callable:
+    """Decorate a command with one option per report-identity field (``--organisation``, ``--document-number``…)."""
+    for field, info in reversed(list(ReportIdentity.model_fields.items())):
+        func = click.option(
+            option_name(field), field, help=f"{info.description} Replaces hazard.toml's [report] value."
+        )(func)
+    return func
+
+
+def pop_identity(options: dict[str, Any]) -> dict[str, str | None]:
+    """Take the report-identity options out of a command's options (the rest are record fields)."""
+    return {field: options.pop(field, None) for field in ReportIdentity.model_fields}
+
+
+def _default_text(field: str, info: FieldInfo) -> str:
+    if info.is_required():
+        return "required"
+    default = info.get_default()
+    if default is None or field in POSITIONAL:
+        return "—"
+    return f"`{str(default).lower() if isinstance(default, bool) else default}`"
+
+
+def field_table() -> str:
+    """The record's fields as a Markdown table (field, option, meaning, default), generated from the model.
+
+    The README's field table is this text (a test compares them), so a new field is documented the moment it exists.
+    """
+    lines = ["| field | option | meaning | default |", "|---|---|---|---|"]
+    for field, info in ProductRecord.model_fields.items():
+        option = "argument" if field in POSITIONAL else f"`{option_name(field)}`"
+        meaning = (info.description or "").replace("|", "\\|")
+        lines.append(f"| `{field}` | {option} | {meaning} | {_default_text(field, info)} |")
+    return "\n".join(lines) + "\n"

@@ -262,4 +262,5 @@ def render_summary_pdf(
         title="Photobiological safety pre-screen — batch summary",
         header="Photobiological safety pre-screen — batch summary",
         author=f"hazard {', '.join(versions) or '—'}",
+        identity=next((a.provenance.identity.header_text() for a in assessments if a.provenance.identity), ""),
     )

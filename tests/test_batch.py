@@ -89,7 +89,12 @@ def test_manifest_with_good_and_bad_rows(tmp_path):
     assert "text 'abc' in a number column" in rows["BROKEN"] and "broken.csv:3" in rows["BROKEN"]
     assert "distance_mm" in rows["NEGDIST"] and "manifest.csv:5" in rows["NEGDIST"]
     assert "missing source size" in rows["NOSIZE"]
-    lines = [json.loads(x) for x in (tmp_path / "out" / "results.jsonl").read_text().splitlines()]
+    every = [json.loads(x) for x in (tmp_path / "out" / "results.jsonl").read_text().splitlines()]
+    # README "Batch runs": a line per product in manifest order, a failed one with status "error" and its reason
+    assert [x["id"] for x in every] == [line.split(",")[0] for line in summary[1:]]
+    assert all((x.get("status") == "error") == (x["id"] not in ("DESK", "SPOT")) for x in every)
+    assert all(x["error"] in rows[x["id"]] for x in every if x.get("status") == "error")
+    lines = [x for x in every if x.get("status") != "error"]
     assert [x["id"] for x in lines] == ["DESK", "SPOT"]
     single = hazard.assess(
         folder / "cl-desk-30.csv",

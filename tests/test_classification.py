@@ -282,7 +282,7 @@ def test_what_if_is_never_mistaken_for_a_classification(tmp_path, monkeypatch):
     assert [r["basis"] for r in rows] == ["what-if", "standard"]
     # the classification column always holds the standard's group; the what-if has its own columns
     assert [r["risk_group"] for r in rows] == [far["risk_group"]] * 2
-    assert rows[0]["what_if_risk_group"] == "Exempt" and rows[0]["what_if_distance_mm"] == "5000.0"
+    assert rows[0]["what_if_risk_group"] == "Exempt" and rows[0]["what_if_distance [mm]"] == "5000"
 
 
 def test_claims_and_cautions_follow_the_standard_distance_not_the_what_if(tmp_path, monkeypatch):
