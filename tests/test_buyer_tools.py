@@ -237,3 +237,20 @@ def test_report_identity_from_settings_and_options(tmp_path, unit_scale, monkeyp
     (tmp_path / "hazard.toml").write_text("[report]\ncolour = 'teal'\n", encoding="utf-8")
     bad = CliRunner().invoke(main, args)
     assert bad.exit_code == 2 and "hazard.toml:2" in bad.output and "Traceback" not in bad.output
+
+
+def test_a_formula_in_a_manifest_never_reaches_the_spreadsheet_as_a_formula(tmp_path, unit_scale):
+    # OWASP "CSV injection": text starting with = + - @ is read as a formula by spreadsheet programs
+    inputs = tmp_path / "in"
+    inputs.mkdir()
+    _at_exempt_ratio(inputs, unit_scale, 0.5, "low")
+    common = {k: ("true" if v is True else v) for k, v in LARGE.items()}
+    manifest = _manifest(inputs, [{"id": "X1", "spectrum": "low.csv", "name": '=HYPERLINK("http://x","y")', **common}])
+    out = tmp_path / "out"
+    assert CliRunner().invoke(main, ["batch", str(manifest), "--output", str(out)]).exit_code == 0
+    row = next(csv.DictReader(open(out / "summary.csv", encoding="utf-8")))
+    assert row["name"].startswith("'=")
+    cell = openpyxl.load_workbook(out / "summary.xlsx")["products"]["C2"]
+    assert cell.data_type == "s" and cell.value.startswith("'=")
+    # the result keeps the name as given
+    assert json.loads((out / "results.jsonl").read_text(encoding="utf-8"))["name"].startswith("=HYPERLINK")

@@ -15,7 +15,15 @@ from hazard.output.formatting import NOT_DETERMINED, hazard_margin, hazard_margi
 from hazard.result import Assessment
 from hazard.standards import DEFAULT_LIMIT_SET, LimitSet
 
-__all__ = ["Cell", "csv_cell", "hazard_headers", "round_significant", "summary_columns", "summary_row"]
+__all__ = [
+    "Cell",
+    "csv_cell",
+    "hazard_headers",
+    "inert_text",
+    "round_significant",
+    "summary_columns",
+    "summary_row",
+]
 
 Cell = str | int | float | bool | None
 """A cell of the summary: text, a count, a number (already rounded), a yes/no, or empty."""
@@ -94,9 +102,31 @@ def round_significant(value: float | None, digits: int = SIGNIFICANT_DIGITS) -> 
     return round(value, digits - 1 - math.floor(math.log10(abs(value))))
 
 
+_FORMULA_STARTS = ("=", "+", "-", "@", "\t", "\r")
+"""First characters that make a spreadsheet read a text cell as a formula (OWASP, "CSV injection")."""
+
+
+def inert_text(value: Cell) -> Cell:
+    """Text that a spreadsheet shows as text: a leading ``'`` before a formula's first character.
+
+    A product name like ``=HYPERLINK(…)`` from a vendor's manifest must not run when a colleague opens the summary;
+    ``results.jsonl`` keeps the text as given.
+
+    Examples
+    --------
+    >>> inert_text("=1+1"), inert_text("Desk lamp"), inert_text(-2.5)
+    ("'=1+1", 'Desk lamp', -2.5)
+    """
+    if isinstance(value, str) and value.startswith(_FORMULA_STARTS):
+        return "'" + value
+    return value
+
+
 def csv_cell(value: Cell) -> str:
-    """A cell as CSV text: numbers to 3 significant digits in plain notation from 10⁻⁴ to 10⁹ (exponent notation
-    beyond), yes/no as ``true``/``false``, empty for None.
+    """A cell as CSV text: numbers to 3 significant digits, yes/no as ``true``/``false``, empty for None.
+
+    Numbers are in plain notation from 10⁻⁴ to 10⁹, in exponent notation beyond; text is made inert
+    (:func:`inert_text`).
 
     Examples
     --------
@@ -114,7 +144,7 @@ def csv_cell(value: Cell) -> str:
         if -4 <= exponent < 9:
             return f"{value:.{max(0, SIGNIFICANT_DIGITS - 1 - exponent)}f}"
         return f"{value:.{SIGNIFICANT_DIGITS - 1}e}"
-    return str(value)
+    return str(inert_text(value))
 
 
 def summary_row(

@@ -18,7 +18,7 @@ from openpyxl.styles import Alignment, Font, PatternFill
 from openpyxl.utils import get_column_letter
 
 from hazard.output.atomic import atomic_file
-from hazard.output.summary_table import Cell
+from hazard.output.summary_table import Cell, inert_text
 
 __all__ = ["FAILURE_COLUMNS", "SummaryWorkbook"]
 
@@ -72,23 +72,27 @@ class SummaryWorkbook:
 
     def _append(self, name: str, values: Sequence[Cell]) -> None:
         width, rows = self._counts[name]
-        self._sheets[name].append(list(values))
+        self._sheets[name].append(self._cells(name, values))
         self._counts[name] = (width, rows + 1)
 
-    def add_product(self, values: Sequence[Cell]) -> None:
-        """One product's row, in the order of the columns."""
-        sheet = self._sheets["products"]
+    def _cells(self, name: str, values: Sequence[Cell]) -> list[object]:
+        """The cells of one row: text kept as text (never a formula), group cells filled with their colour."""
+        sheet = self._sheets[name]
         cells: list[object] = []
         for k, value in enumerate(values):
-            if k in self._group_columns and value in self._fills:
-                cell = WriteOnlyCell(sheet, value=value)
-                cell.fill, cell.font = self._fills[str(value)], self._inks[str(value)]
+            if isinstance(value, str):
+                cell = WriteOnlyCell(sheet, value=inert_text(value))
+                cell.data_type = "s"
+                if name == "products" and k in self._group_columns and value in self._fills:
+                    cell.fill, cell.font = self._fills[value], self._inks[value]
                 cells.append(cell)
             else:
                 cells.append(value)
-        width, rows = self._counts["products"]
-        sheet.append(cells)
-        self._counts["products"] = (width, rows + 1)
+        return cells
+
+    def add_product(self, values: Sequence[Cell]) -> None:
+        """One product's row, in the order of the columns."""
+        self._append("products", values)
 
     def add_claim(self, values: Sequence[Cell]) -> None:
         """One vendor claim's row."""
