@@ -481,12 +481,13 @@ def check(
     contradicted (fails at every one) or not checkable. A count of each ends the output (on stderr for csv/json).
 
     Exit code 4 when any claim is contradicted (so a pipeline can gate on it; inconclusive claims do not), 3 when
-    a product could not be assessed, 2 for unusable input, 1 when the tool failed on a product, else 0.
+    a product of a manifest could not be assessed, 2 for unusable input (a single product's included), 1 when the tool
+    failed on a product, else 0.
     """
     from hazard.assessment.batch import failure_reason, load_row
     from hazard.assessment.build import assess as run_assessment
     from hazard.assessment.claims import ClaimTolerances
-    from hazard.errors import one_line
+    from hazard.errors import InputError, one_line
     from hazard.inputs.loading import load_product
     from hazard.inputs.manifest import ManifestRow, is_manifest, read_manifest
     from hazard.output.text import render_claims
@@ -495,7 +496,8 @@ def check(
     tolerances = ClaimTolerances(cct_tolerance_k, cct_tolerance_pct, illuminance_tolerance_pct, t_max_tolerance_pct)
     overrides = record_overrides(options)
     items: list[tuple[ManifestRow, Callable[[], Assessment]]]
-    if not is_manifest(source):
+    single = not is_manifest(source)
+    if single:
         items = [
             (
                 ManifestRow(str(source), {}, source.parent, {}),
@@ -525,6 +527,8 @@ def check(
         try:
             assessment = run()
         except Exception as exc:  # the boundary of one product: nothing it does stops the others
+            if single and isinstance(exc, InputError):  # one product's bad input is the command's (exit 2)
+                raise
             reason, defect = failure_reason(row, exc)
             failed, internal = True, internal or defect
             click.echo(
