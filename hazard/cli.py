@@ -15,6 +15,7 @@ import traceback
 from collections.abc import Callable
 from functools import partial
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 import click
 
@@ -23,8 +24,14 @@ from hazard.cli_options import record_options, record_overrides
 from hazard.exit_codes import EXIT_CONTRADICTED, EXIT_INPUT, EXIT_INTERNAL, EXIT_OK, EXIT_SOME_FAILED
 from hazard.output.atomic import remove_stale_temporaries, write_atomic
 
+if TYPE_CHECKING:
+    from hazard.inputs.manifest import ManifestRow
+    from hazard.result import Assessment
+
 SCREEN_PRODUCTS = 200
 """A batch table on screen lists at most this many products; summary.csv has them all [1]."""
+SCREEN_PLAN_ITEMS = 25
+"""``hazard plan`` shows at most this many items on screen; plan.csv and plan.xlsx have them all [1]."""
 MAX_RESULT_BYTES = 64 * 1024 * 1024
 """Largest saved result read by ``hazard report`` [bytes]."""
 
@@ -362,6 +369,37 @@ def demo(output: Path, jobs: int) -> None:
     sys.exit(outcome.exit_code)
 
 
+def _products(source: Path, allow_outside: bool, tolerances) -> list[tuple[ManifestRow, Callable[[], Assessment]]]:
+    """The products of a RECORD.toml, a CSV/.xlsx manifest or a folder of records, each with how to assess it.
+
+    Assessing is left to the caller, one product at a time, so that one failure never stops the others.
+    """
+    from hazard.assessment.batch import load_row
+    from hazard.assessment.build import assess as run_assessment
+    from hazard.inputs.loading import load_product
+    from hazard.inputs.manifest import ManifestRow, read_manifest
+
+    if source.suffix.lower() == ".toml":
+        return [
+            (
+                ManifestRow(str(source), {}, source.parent, {}),
+                lambda: run_assessment(load_product(source, allow_outside=allow_outside), tolerances=tolerances),
+            )
+        ]
+
+    def assess_row(row: ManifestRow) -> Assessment:
+        return run_assessment(load_row(row, allow_outside), tolerances=tolerances)
+
+    return [(row, partial(assess_row, row)) for row in read_manifest(source)]
+
+
+def _row_label(row: ManifestRow) -> str:
+    """A product in a message: its id, or the stem of its file when the id is not known."""
+    from hazard.errors import one_line
+
+    return one_line(row.product_id if row.fields else Path(row.origin).stem, 80)
+
+
 @main.command()
 @click.argument("source", type=click.Path(path_type=Path))
 @click.option(
@@ -407,40 +445,19 @@ def check(
     Exit code 4 when any claim is contradicted (so a pipeline can gate on it), 3 when a product could not be
     assessed, 2 for unusable input, 1 when the tool failed on a product, else 0.
     """
-    from hazard.assessment.batch import failure_reason, load_row
-    from hazard.assessment.build import assess as run_assessment
+    from hazard.assessment.batch import failure_reason
     from hazard.assessment.claims import ClaimTolerances
-    from hazard.errors import one_line
-    from hazard.inputs.loading import load_product
-    from hazard.inputs.manifest import ManifestRow, read_manifest
     from hazard.output.text import render_claims
-    from hazard.result import Assessment
 
     tolerances = ClaimTolerances(cct_tolerance_k, cct_tolerance_pct, illuminance_tolerance_pct, t_max_tolerance_pct)
-    items: list[tuple[ManifestRow, Callable[[], Assessment]]]
-    if source.suffix.lower() == ".toml":
-        items = [
-            (
-                ManifestRow(str(source), {}, source.parent, {}),
-                lambda: run_assessment(load_product(source, allow_outside=allow_outside), tolerances=tolerances),
-            )
-        ]
-    else:
-
-        def assess_row(row: ManifestRow) -> Assessment:
-            return run_assessment(load_row(row, allow_outside), tolerances=tolerances)
-
-        items = [(row, partial(assess_row, row)) for row in read_manifest(source)]
     contradicted = failed = internal = False
-    for row, run in items:
+    for row, run in _products(source, allow_outside, tolerances):
         try:
             assessment = run()
         except Exception as exc:  # the boundary of one product: nothing it does stops the others
             reason, defect = failure_reason(row, exc)
             failed, internal = True, internal or defect
-            click.echo(
-                f"{one_line(row.product_id if row.fields else Path(row.origin).stem, 80)}: error: {reason}", err=True
-            )
+            click.echo(f"{_row_label(row)}: error: {reason}", err=True)
             continue
         contradicted |= any(c.verdict == "contradicted" for c in assessment.claims)
         if output_format == "json":
@@ -467,6 +484,72 @@ def check(
     sys.exit(
         EXIT_INTERNAL if internal else EXIT_CONTRADICTED if contradicted else (EXIT_SOME_FAILED if failed else EXIT_OK)
     )
+
+
+@main.command()
+@click.argument("source", type=click.Path(path_type=Path))
+@click.option(
+    "--output",
+    type=click.Path(file_okay=False, path_type=Path),
+    required=True,
+    help="Folder for plan.csv and plan.xlsx (made if missing; earlier plan files there are replaced).",
+)
+@_ALLOW_OUTSIDE
+def plan(source: Path, output: Path, allow_outside: bool) -> None:
+    """What to ask the laboratory, ranked: for a RECORD.toml, a CSV/.xlsx manifest or a folder of records.
+
+    Per product: hazards not assessed and the wavelength range to add, borderline hazards and the uncertainty that
+    settles them, imaging radiance measurements for small or non-uniform sources, the assessment distance, and
+    vendor claims left open. Items that could raise a group come first. Writes plan.csv and plan.xlsx.
+
+    Exit code 3 when a product could not be assessed (it gets a "fix input" row), 2 for unusable input, 1 when the
+    tool failed on a product, else 0.
+    """
+    from hazard.assessment.batch import failure_reason
+    from hazard.assessment.cautions import PRE_SCREEN
+    from hazard.assessment.claims import DEFAULT_TOLERANCES
+    from hazard.assessment.lab_plan import rank_plan
+    from hazard.output.plan_files import PLAN_CSV, PLAN_XLSX, write_plan_items
+    from hazard.output.plan_text import render_plan_table
+
+    products = _products(source, allow_outside, DEFAULT_TOLERANCES)
+    inputs = _plan_inputs(source, products)
+    assessments: list[Assessment] = []
+    errors: list[tuple[str, str]] = []
+    internal = False
+    for row, run in products:
+        try:
+            assessment = run()
+        except Exception as exc:  # the boundary of one product: nothing it does stops the others
+            reason, defect = failure_reason(row, exc)
+            internal |= defect
+            errors.append((_row_label(row), reason))
+            click.echo(f"{_row_label(row)}: error: {reason}", err=True)
+            continue
+        assessments.append(assessment)
+        inputs.append(row.base_dir / assessment.spectrum.path)
+    _refuse_overwriting_inputs([output / PLAN_CSV, output / PLAN_XLSX], inputs)
+    items = rank_plan(assessments, errors)
+    written = write_plan_items(output, items)
+    click.echo(render_plan_table(items, SCREEN_PLAN_ITEMS), nl=False)
+    click.echo(
+        f"\n{len(items)} items for {len(assessments)} products assessed, {len(errors)} failed; wrote "
+        f"{', '.join(p.name for p in written)} in {output}"
+    )
+    click.echo(f"Caution: {PRE_SCREEN}")
+    sys.exit(EXIT_INTERNAL if internal else EXIT_SOME_FAILED if errors else EXIT_OK)
+
+
+def _plan_inputs(source: Path, products: list[tuple[ManifestRow, Callable[[], Assessment]]]) -> list[Path]:
+    """Every file the plan reads: the source (or each record of a folder) and the spectra the rows name."""
+    inputs = [source]
+    for row, _ in products:
+        if source.is_dir():
+            inputs.append(Path(row.origin))
+        spectrum = row.fields.get("spectrum")
+        if isinstance(spectrum, str) and spectrum and "\x00" not in spectrum:
+            inputs.append(row.base_dir / spectrum)
+    return inputs
 
 
 @main.command()
