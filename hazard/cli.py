@@ -17,7 +17,7 @@ import traceback
 from collections.abc import Callable
 from functools import partial
 from pathlib import Path
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 import click
 
@@ -26,10 +26,16 @@ from hazard.cli_options import identity_options, pop_identity, record_options, r
 from hazard.exit_codes import EXIT_CONTRADICTED, EXIT_INPUT, EXIT_INTERNAL, EXIT_OK, EXIT_SOME_FAILED
 from hazard.output.atomic import remove_stale_temporaries, write_atomic
 
+if TYPE_CHECKING:
+    from hazard.inputs.manifest import ManifestRow
+    from hazard.result import Assessment
+
 SCREEN_LEFTOVERS = 20
 """Leftover files of an earlier run named on screen (the rest are counted)."""
 SCREEN_PRODUCTS = 200
 """A batch table on screen lists at most this many products; summary.csv has them all [1]."""
+SCREEN_PLAN_ITEMS = 25
+"""``hazard plan`` shows at most this many items on screen; plan.csv and plan.xlsx have them all [1]."""
 MAX_RESULT_BYTES = 64 * 1024 * 1024
 """Largest saved result read by ``hazard report`` [bytes]."""
 
@@ -299,7 +305,9 @@ def _finish_batch(outcome, output: Path, pdf: bool) -> None:
     )
     if len(outcome.ids) > len(shown):
         click.echo(f"… and {len(outcome.ids) - len(shown)} more products: every one is in summary.csv")
-    written = "results.jsonl, summary.csv, summary.xlsx" + (", one PDF per product and summary.pdf" if pdf else "")
+    written = "results.jsonl, summary.csv, summary.xlsx"
+    written += ", plan.csv, plan.xlsx" if "plan.csv" in outcome.written else ""
+    written += ", one PDF per product and summary.pdf" if pdf else ""
     click.echo(
         f"\n{len(outcome.assessments)} assessed ({outcome.reused} reused), {len(outcome.errors)} failed; "
         f"wrote {written} in {output} (listed in outputs.json)"
@@ -350,6 +358,12 @@ def _finish_batch(outcome, output: Path, pdf: bool) -> None:
 )
 @click.option("--studies", is_flag=True, help="Also compute hazard distances and remedies (about 0.1 s per product).")
 @click.option(
+    "--plan",
+    "lab_plan",
+    is_flag=True,
+    help="Also write the laboratory test plan (plan.csv, plan.xlsx; a section of summary.pdf with --pdf).",
+)
+@click.option(
     "--clean",
     is_flag=True,
     help="Remove the files an earlier run wrote into the folder that this run did not (they are listed either way).",
@@ -363,6 +377,7 @@ def batch(
     jobs: int,
     resume: bool,
     studies: bool,
+    lab_plan: bool,
     clean: bool,
     allow_outside: bool,
     **options: str | None,
@@ -390,6 +405,7 @@ def batch(
         allow_outside=allow_outside,
         clean=clean,
         identity=report_identity(pop_identity(options)),
+        plan=lab_plan,
     )
     _finish_batch(outcome, output, pdf)
     sys.exit(outcome.exit_code)
@@ -429,6 +445,44 @@ def demo(output: Path, jobs: int, **options: str | None) -> None:
     outcome = run_batch(lineup, output, pdf=True, jobs=jobs, per_product_json=True, studies=True, identity=identity)
     _finish_batch(outcome, output, pdf=True)
     sys.exit(outcome.exit_code)
+
+
+def _products(
+    source: Path, allow_outside: bool, tolerances, overrides: dict | None = None
+) -> list[tuple[ManifestRow, Callable[[], Assessment]]]:
+    """The products of a record, a spectrum file, a manifest or a folder of records, each with its run.
+
+    ``overrides`` (record options) replace the record's values, or every row's. Assessing is left to the caller,
+    one product at a time, so that one failure never stops the others.
+    """
+    from hazard.assessment.batch import load_row
+    from hazard.assessment.build import assess as run_assessment
+    from hazard.inputs.loading import load_product
+    from hazard.inputs.manifest import ManifestRow, is_manifest, read_manifest
+
+    if not is_manifest(source):
+        return [
+            (
+                ManifestRow(str(source), {}, source.parent, {}),
+                lambda: run_assessment(
+                    load_product(source, overrides, allow_outside=allow_outside), tolerances=tolerances
+                ),
+            )
+        ]
+
+    def assess_row(row: ManifestRow) -> Assessment:
+        if overrides:  # the options replace every row's own values
+            row = dataclasses.replace(row, fields={**row.fields, **overrides})
+        return run_assessment(load_row(row, allow_outside), tolerances=tolerances)
+
+    return [(row, partial(assess_row, row)) for row in read_manifest(source)]
+
+
+def _row_label(row: ManifestRow) -> str:
+    """A product in a message: its id, or the stem of its file when the id is not known."""
+    from hazard.errors import one_line
+
+    return one_line(row.product_id if row.fields else Path(row.origin).stem, 80)
 
 
 @main.command()
@@ -484,36 +538,14 @@ def check(
     a product of a manifest could not be assessed, 2 for unusable input (a single product's included), 1 when the tool
     failed on a product, else 0.
     """
-    from hazard.assessment.batch import failure_reason, load_row
-    from hazard.assessment.build import assess as run_assessment
+    from hazard.assessment.batch import failure_reason
     from hazard.assessment.claims import ClaimTolerances
-    from hazard.errors import InputError, one_line
-    from hazard.inputs.loading import load_product
-    from hazard.inputs.manifest import ManifestRow, is_manifest, read_manifest
+    from hazard.errors import InputError
+    from hazard.inputs.manifest import is_manifest
     from hazard.output.text import render_claims
-    from hazard.result import Assessment
 
     tolerances = ClaimTolerances(cct_tolerance_k, cct_tolerance_pct, illuminance_tolerance_pct, t_max_tolerance_pct)
-    overrides = record_overrides(options)
-    items: list[tuple[ManifestRow, Callable[[], Assessment]]]
     single = not is_manifest(source)
-    if single:
-        items = [
-            (
-                ManifestRow(str(source), {}, source.parent, {}),
-                lambda: run_assessment(
-                    load_product(source, overrides, allow_outside=allow_outside), tolerances=tolerances
-                ),
-            )
-        ]
-    else:
-
-        def assess_row(row: ManifestRow) -> Assessment:
-            if overrides:  # the options replace every row's own values
-                row = dataclasses.replace(row, fields={**row.fields, **overrides})
-            return run_assessment(load_row(row, allow_outside), tolerances=tolerances)
-
-        items = [(row, partial(assess_row, row)) for row in read_manifest(source)]
     from hazard.assessment.claims import verdict_counts
     from hazard.output.claim_rows import CLAIM_COLUMNS, claim_rows
 
@@ -523,6 +555,7 @@ def check(
     if table is not None:
         table.writeheader()
     products = 0
+    items = _products(source, allow_outside, tolerances, record_overrides(options))
     for row, run in items:
         try:
             assessment = run()
@@ -531,9 +564,7 @@ def check(
                 raise
             reason, defect = failure_reason(row, exc)
             failed, internal = True, internal or defect
-            click.echo(
-                f"{one_line(row.product_id if row.fields else Path(row.origin).stem, 80)}: error: {reason}", err=True
-            )
+            click.echo(f"{_row_label(row)}: error: {reason}", err=True)
             continue
         products += 1
         claims += assessment.claims
@@ -577,6 +608,72 @@ def check(
         if counts["contradicted"]
         else (EXIT_SOME_FAILED if failed else EXIT_OK)
     )
+
+
+@main.command()
+@click.argument("source", type=click.Path(path_type=Path))
+@click.option(
+    "--output",
+    type=click.Path(file_okay=False, path_type=Path),
+    required=True,
+    help="Folder for plan.csv and plan.xlsx (made if missing; earlier plan files there are replaced).",
+)
+@_ALLOW_OUTSIDE
+def plan(source: Path, output: Path, allow_outside: bool) -> None:
+    """What to ask the laboratory, ranked: for a RECORD.toml, a CSV/.xlsx manifest or a folder of records.
+
+    Per product: hazards not assessed and the wavelength range to add, borderline hazards and the uncertainty that
+    settles them, imaging radiance measurements for small or non-uniform sources, the assessment distance, and
+    vendor claims left open. Items that could raise a group come first. Writes plan.csv and plan.xlsx.
+
+    Exit code 3 when a product could not be assessed (it gets a "fix input" row), 2 for unusable input, 1 when the
+    tool failed on a product, else 0.
+    """
+    from hazard.assessment.batch import failure_reason
+    from hazard.assessment.cautions import PRE_SCREEN
+    from hazard.assessment.claims import DEFAULT_TOLERANCES
+    from hazard.assessment.lab_plan import rank_plan
+    from hazard.output.plan_files import PLAN_CSV, PLAN_XLSX, write_plan_items
+    from hazard.output.plan_text import render_plan_table
+
+    products = _products(source, allow_outside, DEFAULT_TOLERANCES)
+    inputs = _plan_inputs(source, products)
+    assessments: list[Assessment] = []
+    errors: list[tuple[str, str]] = []
+    internal = False
+    for row, run in products:
+        try:
+            assessment = run()
+        except Exception as exc:  # the boundary of one product: nothing it does stops the others
+            reason, defect = failure_reason(row, exc)
+            internal |= defect
+            errors.append((_row_label(row), reason))
+            click.echo(f"{_row_label(row)}: error: {reason}", err=True)
+            continue
+        assessments.append(assessment)
+        inputs.append(row.base_dir / assessment.spectrum.path)
+    _refuse_overwriting_inputs([output / PLAN_CSV, output / PLAN_XLSX], inputs)
+    items = rank_plan(assessments, errors)
+    written = write_plan_items(output, items)
+    click.echo(render_plan_table(items, SCREEN_PLAN_ITEMS), nl=False)
+    click.echo(
+        f"\n{len(items)} items for {len(assessments)} products assessed, {len(errors)} failed; wrote "
+        f"{', '.join(p.name for p in written)} in {output}"
+    )
+    click.echo(f"Caution: {PRE_SCREEN}")
+    sys.exit(EXIT_INTERNAL if internal else EXIT_SOME_FAILED if errors else EXIT_OK)
+
+
+def _plan_inputs(source: Path, products: list[tuple[ManifestRow, Callable[[], Assessment]]]) -> list[Path]:
+    """Every file the plan reads: the source (or each record of a folder) and the spectra the rows name."""
+    inputs = [source]
+    for row, _ in products:
+        if source.is_dir():
+            inputs.append(Path(row.origin))
+        spectrum = row.fields.get("spectrum")
+        if isinstance(spectrum, str) and spectrum and "\x00" not in spectrum:
+            inputs.append(row.base_dir / spectrum)
+    return inputs
 
 
 @main.command()

@@ -254,3 +254,15 @@ def test_a_formula_in_a_manifest_never_reaches_the_spreadsheet_as_a_formula(tmp_
     assert cell.data_type == "s" and cell.value.startswith("'=")
     # the result keeps the name as given
     assert json.loads((out / "results.jsonl").read_text(encoding="utf-8"))["name"].startswith("=HYPERLINK")
+
+
+def test_batch_plan_for_the_laboratory(tmp_path, batch_inputs):
+    # the issue's test plan from a batch: failed products first (fix the input), every product has a row
+    out = tmp_path / "out"
+    result = CliRunner().invoke(main, ["batch", str(batch_inputs), "--output", str(out), "--plan"])
+    assert result.exit_code == 3 and "plan.csv, plan.xlsx" in result.output
+    rows = list(csv.DictReader(open(out / "plan.csv", encoding="utf-8")))
+    assert rows[0]["id"] == "BROKEN" and rows[0]["kind"] == "fix input"
+    assert {r["id"] for r in rows} == {"ABC/123", "ABC_123", "BROKEN"}
+    listed = {f["name"] for f in json.loads((out / "outputs.json").read_text(encoding="utf-8"))["files"]}
+    assert {"plan.csv", "plan.xlsx"} <= listed

@@ -37,6 +37,7 @@ from dataclasses import dataclass, field
 from pathlib import Path
 
 from hazard.assessment.build import build_assessment
+from hazard.assessment.lab_plan import PlanItem, rank_plan
 from hazard.assessment.outfolder import OutputFolder, file_stems
 from hazard.assessment.pipeline import evaluate_loaded
 from hazard.assessment.progress import Progress
@@ -50,6 +51,7 @@ from hazard.inputs.userfiles import read_user_file
 from hazard.method.photometry import import_colour
 from hazard.output.atomic import atomic_file, write_atomic
 from hazard.output.claim_rows import CLAIM_COLUMNS, claim_rows
+from hazard.output.plan_files import write_plan_items
 from hazard.output.summary_table import Cell, csv_cell, summary_columns, summary_row
 from hazard.output.workbook import FAILURE_COLUMNS, SummaryWorkbook
 from hazard.result import Assessment, ReportIdentity
@@ -457,7 +459,9 @@ def _render_one(job: tuple[str, int, int, str]) -> str | None:
     return None
 
 
-def _write_pdfs(folder: Path, outcome: BatchOutcome, assessed: LazyAssessments, jobs: int) -> None:
+def _write_pdfs(
+    folder: Path, outcome: BatchOutcome, assessed: LazyAssessments, jobs: int, plan: list[PlanItem] | None
+) -> None:
     from hazard.reports import render_summary_pdf, report_time
     from hazard.reports.fonts import report_fonts
 
@@ -483,7 +487,7 @@ def _write_pdfs(folder: Path, outcome: BatchOutcome, assessed: LazyAssessments, 
     # the summary's renderer takes whole results: it holds one per assessed product while it ranks them
     write_atomic(
         folder / "summary.pdf",
-        render_summary_pdf([assessed[i] for i in outcome.ids if i in assessed], errors, report_time()),
+        render_summary_pdf([assessed[i] for i in outcome.ids if i in assessed], errors, report_time(), plan),
     )
     outcome.written.append("summary.pdf")
 
@@ -501,6 +505,7 @@ def run_batch(
     limit_set: LimitSet = DEFAULT_LIMIT_SET,
     clean: bool = False,
     identity: ReportIdentity | None = None,
+    plan: bool = False,
 ) -> BatchOutcome:
     """Assess every product of a manifest or folder of records.
 
@@ -529,6 +534,8 @@ def run_batch(
         ``BatchOutcome.leftovers`` either way, and kept without ``clean``).
     identity : ReportIdentity, optional
         Who issues the reports: in every result's provenance and on every PDF page.
+    plan : bool
+        Also write the laboratory test plan (``plan.csv``, ``plan.xlsx``; a section of ``summary.pdf`` with ``pdf``).
 
     Returns
     -------
@@ -623,8 +630,13 @@ def run_batch(
                 pool.shutdown(cancel_futures=True)
             progress.close()
         outcome.assessments = assessed = LazyAssessments(folder / RESULTS_NAME, positions)
+        items = None
+        if plan:
+            errors = [(i, outcome.errors[i]) for i in outcome.ids if i in outcome.errors]
+            items = rank_plan((assessed[i] for i in outcome.ids if i in assessed), errors)
+            outcome.written += [p.name for p in write_plan_items(folder, items)]
         if pdf:
-            _write_pdfs(folder, outcome, assessed, jobs)
+            _write_pdfs(folder, outcome, assessed, jobs, items)
         partial.unlink(missing_ok=True)
         outcome.leftovers = claimed.leftovers(outcome.written)
         if clean:
