@@ -19,7 +19,7 @@ from pathlib import Path
 import click
 
 from hazard._version import __version__
-from hazard.cli_options import record_options, record_overrides
+from hazard.cli_options import RecordCommand, record_overrides
 from hazard.exit_codes import EXIT_CONTRADICTED, EXIT_INPUT, EXIT_INTERNAL, EXIT_OK, EXIT_SOME_FAILED
 from hazard.output.atomic import remove_stale_temporaries, write_atomic
 
@@ -121,9 +121,8 @@ def main(ctx: click.Context, debug: bool) -> None:
     ctx.obj = {"debug": debug}
 
 
-@main.command()
+@main.command(cls=RecordCommand)
 @click.argument("product", type=click.Path(dir_okay=False, path_type=Path))
-@record_options
 @click.option(
     "--format",
     "output_format",

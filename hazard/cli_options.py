@@ -5,6 +5,9 @@ description, its choices the field's literal values. A list of tables (``[[expos
 that may be repeated, each value ``key=value`` pairs joined by commas. Values go to the record as text or numbers
 and the record's own validation reads them (human durations like ``15min`` included), so the options and a TOML
 record can never disagree.
+
+The options are made from the model when a command first needs them (its help or its arguments), by
+:class:`RecordCommand`: the record model, and with it pydantic, is not imported to print ``hazard --help``.
 """
 
 from __future__ import annotations
@@ -15,12 +18,12 @@ from collections.abc import Callable
 from typing import Any, Literal
 
 import click
-from pydantic import BaseModel, BeforeValidator
-from pydantic.fields import FieldInfo
 
-from hazard.inputs.record import ProductRecord
+if typing.TYPE_CHECKING:
+    from pydantic import BaseModel
+    from pydantic.fields import FieldInfo
 
-__all__ = ["option_name", "parse_table_option", "record_options", "record_overrides"]
+__all__ = ["RecordCommand", "option_name", "parse_table_option", "record_options", "record_overrides"]
 
 POSITIONAL = frozenset({"spectrum"})
 """Record fields given otherwise on the command line (the product argument)."""
@@ -43,6 +46,8 @@ def _members(annotation: Any) -> list[Any]:
 
 def _table_model(annotation: Any) -> type[BaseModel] | None:
     """The model of a list-of-tables field (``list[ExposureEntry]``), else None."""
+    from pydantic import BaseModel
+
     for member in _members(annotation):
         if typing.get_origin(member) is list:
             (item,) = typing.get_args(member)
@@ -92,6 +97,8 @@ def _option(field: str, info: FieldInfo) -> Callable:
 
 def _reads_text(annotation: Any) -> bool:
     """The field parses text itself before validating it (a duration like ``15min``)."""
+    from pydantic import BeforeValidator
+
     origin = typing.get_origin(annotation)
     if origin in (typing.Union, types.UnionType):
         return any(_reads_text(arg) for arg in typing.get_args(annotation))
@@ -100,16 +107,48 @@ def _reads_text(annotation: Any) -> bool:
     return False
 
 
+def _record_options() -> list[Callable]:
+    """One option decorator per record field (in the record's order)."""
+    from hazard.inputs.record import ProductRecord
+
+    return [_option(f, info) for f, info in ProductRecord.model_fields.items() if f not in POSITIONAL]
+
+
 def record_options(func: Callable) -> Callable:
     """Decorate a command with one option per record field (in the record's order)."""
-    options = [_option(f, info) for f, info in ProductRecord.model_fields.items() if f not in POSITIONAL]
-    for option in reversed(options):
+    for option in reversed(_record_options()):
         func = option(func)
     return func
 
 
+class RecordCommand(click.Command):
+    """A command with one option per record field, made from the record model when first needed.
+
+    The options follow the command's arguments, before its own options, as :func:`record_options` would place
+    them; they are made on the first call of :meth:`get_params` (help, parsing, completion).
+    """
+
+    _record_params_added = False
+
+    def get_params(self, ctx: click.Context) -> list[click.Parameter]:
+        """The command's parameters, the record options among them."""
+        if not self._record_params_added:
+            self._record_params_added = True
+
+            def collect() -> None:
+                """A stand-in for a callback, only to collect the options' parameters."""
+
+            record_options(collect)
+            made: list[click.Parameter] = getattr(collect, "__click_params__", [])
+            after = max((k + 1 for k, p in enumerate(self.params) if isinstance(p, click.Argument)), default=0)
+            self.params[after:after] = list(reversed(made))
+        return super().get_params(ctx)
+
+
 def record_overrides(options: dict[str, Any]) -> dict[str, Any]:
     """The record fields the user gave as options (tables parsed, a numeric column number made an int)."""
+    from hazard.inputs.record import ProductRecord
+
     fields = {k: v for k, v in options.items() if v is not None and v != ()}
     for field, values in list(fields.items()):
         table = _table_model(ProductRecord.model_fields[field].annotation)
