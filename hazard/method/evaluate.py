@@ -18,7 +18,6 @@ from hazard.method.geometry import (
     MIN_ASSESSMENT_DISTANCE_M,
     FieldGeometry,
     SourceShape,
-    cone_solid_angle_sr,
     inverse_square_factor,
 )
 from hazard.method.photometry import K_M_LM_PER_W, VISIBLE_BAND_NM
@@ -286,8 +285,8 @@ class Viewed:
 
     def _seen_share(self, seen: FieldGeometry, take: slice | np.ndarray, fov_rad: np.ndarray | float) -> np.ndarray:
         """min(p·f, Ω_s/Ω_γ) of :meth:`field_radiance` for the products ``take`` seen as ``seen`` [1]."""
-        ceiling = seen.omega_s / cone_solid_angle_sr(fov_rad)
-        return np.minimum(self.peak_to_mean[take] * seen.fraction(fov_rad), ceiling)
+        fraction, omega_g = seen.fraction_and_cone(fov_rad)  # Ω_γ once, for the share and for the ceiling
+        return np.minimum(self.peak_to_mean[take] * fraction, seen.omega_s / omega_g)
 
     def alpha(self, bounds_rad: tuple[float, float]) -> np.ndarray:
         """α with each side bounded first, then averaged (method §4) [rad]; kept per pair of bounds."""

@@ -141,13 +141,16 @@ def integrate_matrix(
     flags = np.asarray(no_emission_outside, dtype=bool)
     out = _empty(values.shape[0], limit_set)
     peak, lowest = np.empty(values.shape[0]), np.empty(values.shape[0])
-    for start in range(0, values.shape[0], chunk_rows):
-        rows = slice(start, start + chunk_rows)
-        chunk = values[rows]
-        peak[rows], lowest[rows] = chunk.max(axis=1), chunk.min(axis=1)
-        if lowest[rows].min() < 0:
-            chunk = np.maximum(chunk, 0)
-        _fill(out, rows, chunk.astype(dtype, copy=False) @ matrix, grid_nm, flags[rows], limit_set)
+    from threadpoolctl import threadpool_limits
+
+    with threadpool_limits(limits=1, user_api="blas"):  # a chunk is too small to share: threads wait on each other
+        for start in range(0, values.shape[0], chunk_rows):
+            rows = slice(start, start + chunk_rows)
+            chunk = values[rows]
+            peak[rows], lowest[rows] = chunk.max(axis=1), chunk.min(axis=1)
+            if lowest[rows].min() < 0:
+                chunk = np.maximum(chunk, 0)
+            _fill(out, rows, chunk.astype(dtype, copy=False) @ matrix, grid_nm, flags[rows], limit_set)
     if factor_to_si is not None:
         out.raw[:] *= factor_to_si[:, None]
         out.xyz[:] *= factor_to_si[:, None]
