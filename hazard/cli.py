@@ -22,7 +22,7 @@ from typing import TYPE_CHECKING, Any
 import click
 
 from hazard._version import __version__
-from hazard.cli_options import identity_options, pop_identity, record_options, record_overrides
+from hazard.cli_options import ModelOptionsCommand, pop_identity, record_overrides
 from hazard.exit_codes import EXIT_CONTRADICTED, EXIT_INPUT, EXIT_INTERNAL, EXIT_OK, EXIT_SOME_FAILED
 from hazard.output.atomic import remove_stale_temporaries, write_atomic
 
@@ -132,10 +132,8 @@ def main(ctx: click.Context, debug: bool) -> None:
     ctx.obj = {"debug": debug}
 
 
-@main.command()
+@main.command(cls=ModelOptionsCommand, record=True, identity=True)
 @click.argument("product", type=click.Path(dir_okay=False, path_type=Path))
-@record_options
-@identity_options
 @click.option(
     "--format",
     "output_format",
@@ -200,11 +198,10 @@ def _write_report(assessment, pdf_path: Path) -> None:
     click.echo(f"wrote {pdf_path}", err=True)
 
 
-@main.command()
+@main.command(cls=ModelOptionsCommand, identity=True)
 @click.argument("result", type=click.Path(dir_okay=False, path_type=Path))
 @click.option("--output", type=click.Path(dir_okay=False, path_type=Path), required=True, help="PDF file to write.")
 @click.option("--id", "product_id", help="With a results.jsonl of 'hazard batch': the product to render.")
-@identity_options
 def report(result: Path, output: Path, product_id: str | None, **options: str | None) -> None:
     """Render the PDF report of a saved result, without recomputing it.
 
@@ -335,7 +332,7 @@ def _finish_batch(outcome, output: Path, pdf: bool) -> None:
     click.echo(f"Caution: {PRE_SCREEN}")
 
 
-@main.command()
+@main.command(cls=ModelOptionsCommand, identity=True)
 @click.argument("manifest", type=click.Path(path_type=Path))
 @click.option(
     "--output",
@@ -369,7 +366,6 @@ def _finish_batch(outcome, output: Path, pdf: bool) -> None:
     help="Remove the files an earlier run wrote into the folder that this run did not (they are listed either way).",
 )
 @_ALLOW_OUTSIDE
-@identity_options
 def batch(
     manifest: Path,
     output: Path,
@@ -418,7 +414,7 @@ def _lineup_folder() -> Path:
     return Path(str(resources.files("hazard.lineup")))
 
 
-@main.command()
+@main.command(cls=ModelOptionsCommand, identity=True)
 @click.option(
     "--output",
     type=click.Path(file_okay=False, path_type=Path),
@@ -429,7 +425,6 @@ def _lineup_folder() -> Path:
 @click.option(
     "--jobs", type=click.IntRange(min=1), default=1, show_default=True, help="Worker processes for rendering PDFs."
 )
-@identity_options
 def demo(output: Path, jobs: int, **options: str | None) -> None:
     """Assess the bundled line-up of invented products (Corvel Lightworks, a made-up company).
 
@@ -485,7 +480,7 @@ def _row_label(row: ManifestRow) -> str:
     return one_line(row.product_id if row.fields else Path(row.origin).stem, 80)
 
 
-@main.command()
+@main.command(cls=ModelOptionsCommand, record=True)
 @click.argument("source", type=click.Path(path_type=Path))
 @click.option(
     "--format",
@@ -514,7 +509,6 @@ def _row_label(row: ManifestRow) -> str:
     help="A claimed t_max longer than computed by more than this fails [%].",
 )
 @_ALLOW_OUTSIDE
-@record_options
 def check(
     source: Path,
     output_format: str,

@@ -227,7 +227,10 @@ def test_assess_many_equals_assess(tmp_path, items):
     frame = hazard.assess_many(records, GRID, spectra)
     for i, (values, fields) in enumerate(items):
         path = tmp_path / f"p{i}.csv"
-        path.write_text("wavelength_nm,value\n" + "".join(f"{w!r},{v!r}\n" for w, v in zip(GRID, values, strict=True)))
+        path.write_text(
+            "wavelength_nm,value\n"
+            + "".join(f"{w!r},{v!r}\n" for w, v in zip(GRID.tolist(), values.tolist(), strict=True))
+        )
         loaded = hazard.load_product(path, {"id": f"P{i}", **fields})  # hazard.assess without the studies
         single = build_assessment(loaded, evaluate_loaded([loaded]), 0, studies=False)
         row = frame.iloc[i]

@@ -47,9 +47,8 @@ from hazard.result import (
 )
 from hazard.standards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
 from hazard.standards.directive_2006_25 import DIRECTIVE_2006_25
-from hazard.studies.distances import distance_study
 from hazard.studies.exposure import Exposure, exposure_study
-from hazard.studies.remedies import remedies_study
+from hazard.studies.joint import distances_and_remedies
 from hazard.studies.uncertainty import uncertainty_study
 from hazard.weighting_tables import TABLE_NAMES, load_table
 
@@ -233,7 +232,7 @@ def _exposure(loaded: LoadedProduct, limit_set: LimitSet = DIRECTIVE_2006_25) ->
 
 
 def _studies(
-    loaded: LoadedProduct, batch: BatchEvaluation, i: int, distances_and_remedies: bool
+    loaded: LoadedProduct, batch: BatchEvaluation, i: int, with_distances: bool
 ) -> dict[str, UncertaintyStudy | DistanceStudy | Remedies]:
     """Uncertainty (when the record states one), hazard distances and remedies of product ``i``.
 
@@ -247,16 +246,20 @@ def _studies(
         return out
     if record.uncertainty_pct or record.wavelength_uncertainty_nm:
         out["uncertainty"] = _variants(loaded, arrays, limit_set)
-    if distances_and_remedies:
-        out["distances"] = distance_study(arrays, limit_set, record.largest_dimension_mm)
+    if with_distances:
         d_a = float(ev.assessment_distance_m[i])
         if record.effective_quantity == "radiance":
             geometric = float(ev.source_solid_angle_sr[i])
         else:
             geometric = (record.irradiance_distance_mm * 1e-3 / d_a) ** 2
         assessed = {symbol for symbol, h in ev.hazards.items() if h.assessed[i]}
-        out["remedies"] = remedies_study(
-            arrays, loaded.spectrum, float(ev.anchor_scale[i]) * geometric, limit_set, assessed
+        out["distances"], out["remedies"] = distances_and_remedies(
+            arrays,
+            loaded.spectrum,
+            float(ev.anchor_scale[i]) * geometric,
+            limit_set,
+            assessed,
+            record.largest_dimension_mm,
         )
     return out
 
