@@ -48,7 +48,6 @@ from hazard.inputs.manifest import ManifestRow, read_manifest
 from hazard.inputs.readers.common import current_limits
 from hazard.inputs.record import record_from_fields
 from hazard.inputs.userfiles import read_user_file
-from hazard.method.photometry import import_colour
 from hazard.output.atomic import atomic_file, write_atomic
 from hazard.output.claim_rows import CLAIM_COLUMNS, claim_rows
 from hazard.output.plan_files import write_plan_items
@@ -576,7 +575,6 @@ def run_batch(
         progress = Progress(len(rows), "products")
         pool = None
         if jobs > 1 and len(rows) > CHUNK_PRODUCTS:
-            import_colour()  # once here, inherited by the workers instead of imported by each
             pool = ProcessPoolExecutor(max_workers=jobs)
         columns = summary_columns(limit_set)
         workbook = SummaryWorkbook(columns, CLAIM_COLUMNS, [c for c in columns if c.endswith(("risk_group", " group"))])
