@@ -11,7 +11,8 @@ that other work on the machine disturbs them less; wall times are marked):
    of the same array with the weight matrix, the floor (target ≤ 2×), and the peak memory against the input plus
    1 KiB per product. Each size runs in its own process, so its peak resident memory is its own.
 4. PDF reports per second, two worker processes rendering the line-up's reports (wall time; target ≥ 20/s).
-5. ``hazard batch`` figures: :func:`batch_rows`, the hook for the batch runner's own figures.
+5. ``hazard batch`` on 2000 CSV files (300-830 nm and 300-3000 nm): CPU of the whole run against reading the same
+   files with ``numpy.loadtxt`` (target ≤ 2×), and wall time with ``--jobs 2`` against ``--jobs 1`` (target ≥ 1.6×).
 
 The spectra and records made here are invented (random mixtures of Gaussian bands), only for timing.
 Sizes: ``--sizes 100000,1000000`` (the 10⁶ run needs about 12 GiB of memory), ``--repeats``, ``--skip``.
@@ -320,10 +321,72 @@ def pdf_rows(rounds: int) -> list[Row]:
 # ---------------------------------------------------------------- 5. hazard batch (hook)
 
 
-def batch_rows() -> list[Row]:
-    """The ``hazard batch`` figures (products/s with ``--jobs``, start-up included): filled by the batch runner's
-    benchmark; none yet."""
-    return []
+def _batch_corpus(folder: Path, n: int, grid_nm: np.ndarray) -> Path:
+    """``n`` invented spectrum files on ``grid_nm`` and their manifest (200 mm, 5 mm sources)."""
+    values = _spectra(n)[:, : grid_nm.size] if grid_nm.size <= GRID_NM.size else None
+    assert values is not None
+    lines = ["id,spectrum,distance_mm,source_diameter_mm,no_emission_outside"]
+    for k in range(n):
+        table = np.column_stack([grid_nm, values[k]])
+        np.savetxt(folder / f"s{k}.csv", table, delimiter=",", fmt="%.6g", header="wavelength_nm,value", comments="")
+        lines.append(f"P{k},s{k}.csv,200,5,true")
+    manifest = folder / "manifest.csv"
+    manifest.write_text("\n".join(lines) + "\n")
+    return manifest
+
+
+def _loadtxt_cpu_s(folder: Path, n: int) -> float:
+    start = time.process_time()
+    for k in range(n):
+        np.loadtxt(folder / f"s{k}.csv", delimiter=",", skiprows=1)
+    return time.process_time() - start
+
+
+def _batch_run(manifest: Path, jobs: int) -> tuple[float, float]:
+    """Wall and CPU time (all processes) of ``hazard batch`` on ``manifest`` with ``jobs`` workers [s]."""
+    out = manifest.parent / f"out-{jobs}"
+    before = resource.getrusage(resource.RUSAGE_CHILDREN)
+    start = time.perf_counter()
+    command = [sys.executable, "-m", "hazard.cli", "batch", str(manifest), "--output", str(out), "--jobs", str(jobs)]
+    subprocess.run(command, check=False, stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
+    wall = time.perf_counter() - start
+    after = resource.getrusage(resource.RUSAGE_CHILDREN)
+    subprocess.run(["rm", "-rf", str(out)], check=True)
+    return wall, after.ru_utime - before.ru_utime + after.ru_stime - before.ru_stime
+
+
+def batch_rows(n: int = 2000, repeats: int = 2) -> list[Row]:
+    """``hazard batch`` on ``n`` CSV files of two grid lengths: CPU against reading the same files with
+    ``numpy.loadtxt`` (target ≤ 2×), and wall time with ``--jobs 2`` against ``--jobs 1`` (target ≥ 1.6×)."""
+    rows: list[Row] = []
+    for label, grid in (("300-830 nm", np.arange(300.0, 831.0)), ("300-3000 nm", np.arange(300.0, 3001.0))):
+        with tempfile.TemporaryDirectory() as tmp:
+            manifest = _batch_corpus(Path(tmp), n, grid)
+            floor = min(_loadtxt_cpu_s(Path(tmp), n) for _ in range(repeats))
+            one = [_batch_run(manifest, 1) for _ in range(repeats)]
+            two = [_batch_run(manifest, 2) for _ in range(repeats)]
+        cpu = min(c for _, c in one)
+        wall_one, wall_two = min(w for w, _ in one), min(w for w, _ in two)
+        rows.append(
+            (
+                f"hazard batch, {n} files {label}, --jobs 1 (CPU)",
+                f"{cpu:.2f} s ({n / cpu:.0f}/s)",
+                f"numpy.loadtxt {floor:.2f} s",
+                "≤ 2× loadtxt",
+                f"{cpu / floor:.2f}× {_verdict(cpu <= 2 * floor)}",
+            )
+        )
+        speedup = wall_one / wall_two
+        rows.append(
+            (
+                f"hazard batch, {n} files {label}, --jobs 2 (wall)",
+                f"{wall_two:.2f} s ({n / wall_two:.0f}/s)",
+                f"--jobs 1 {wall_one:.2f} s",
+                "≥ 1.6× --jobs 1",
+                f"{speedup:.2f}× {_verdict(speedup >= 1.6)}",
+            )
+        )
+    return rows
 
 
 # ---------------------------------------------------------------- table
@@ -352,7 +415,7 @@ def main() -> None:
         "studies": lambda: studies_rows(args.repeats, 100),
         "many": lambda: many_rows([int(s) for s in args.sizes.split(",") if s], args.repeats),
         "pdf": lambda: pdf_rows(4),
-        "batch": batch_rows,
+        "batch": lambda: batch_rows(repeats=max(1, args.repeats - 1)),
     }
     for name, part in parts.items():
         if name not in skip:

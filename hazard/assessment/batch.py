@@ -577,7 +577,7 @@ def run_batch(
         if jobs > 1 and len(rows) > CHUNK_PRODUCTS:
             pool = ProcessPoolExecutor(max_workers=jobs)
         columns = summary_columns(limit_set)
-        workbook = SummaryWorkbook(columns, CLAIM_COLUMNS, [c for c in columns if c.endswith(("risk_group", " group"))])
+        workbook = SummaryWorkbook(columns, CLAIM_COLUMNS, [c for c in columns if c.endswith("risk_group")])
         try:
             with (
                 atomic_file(folder / RESULTS_NAME) as results,

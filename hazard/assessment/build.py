@@ -407,7 +407,9 @@ def build_assessment(
                 bool(ev.complete[i]),
                 determined=overall is not None or standard_overall is not None,
             ),
-            claims=check_claims(record, _claim_basis(loaded, batch, i, own_variants, v_covered), tolerances),
+            claims=check_claims(record, _claim_basis(loaded, batch, i, own_variants, v_covered), tolerances)
+            if record.makes_claims
+            else [],
             provenance=Provenance(
                 tool_version=__version__,
                 limit_set=limit_set.name,

@@ -548,6 +548,12 @@ class ProductRecord(BaseModel):
         """Claimed t_max per hazard symbol [s]."""
         return {s: v for s in CLAIMABLE if (v := getattr(self, claim_field(s))) is not None}
 
+    @property
+    def makes_claims(self) -> bool:
+        """The record states at least one vendor claim (a claimed group, CCT, illuminance or t_max)."""
+        claimed = (self.claimed_risk_group, self.claimed_cct_k, self.claimed_illuminance_lx)
+        return any(v is not None for v in claimed) or bool(self.claimed_t_max_s)
+
     @cached_property
     def source(self) -> SourceSize:
         """The source size as one typed value (the validator has made sure exactly one form is given)."""

@@ -1,9 +1,9 @@
 """``summary.xlsx``: the batch summary as a workbook a colleague can sort, filter and read (openpyxl, streamed).
 
 Three sheets: ``products`` (the columns of :mod:`hazard.output.summary_table`, numbers as numbers rounded to 3
-significant digits, each group cell filled with the project's group colour and the group written in it), ``claims``
-(one row per vendor claim, :mod:`hazard.output.claim_rows`) and ``failures`` (the products that could not be
-assessed, with the reason and the fix). Every sheet has a frozen header row and filters. Rows are streamed
+significant digits, the overall group cells filled with the project's group colour and the group written in them),
+``claims`` (one row per vendor claim, :mod:`hazard.output.claim_rows`) and ``failures`` (the products that could
+not be assessed, with the reason and the fix). Every sheet has a frozen header row and filters. Rows are streamed
 (openpyxl's write-only mode), so a batch of any size holds only a row at a time; the file is written atomically.
 """
 
@@ -76,18 +76,18 @@ class SummaryWorkbook:
         self._counts[name] = (width, rows + 1)
 
     def _cells(self, name: str, values: Sequence[Cell]) -> list[object]:
-        """The cells of one row: text kept as text (never a formula), group cells filled with their colour."""
-        sheet = self._sheets[name]
-        cells: list[object] = []
-        for k, value in enumerate(values):
-            if isinstance(value, str):
-                cell = WriteOnlyCell(sheet, value=inert_text(value))
-                cell.data_type = "s"
-                if name == "products" and k in self._group_columns and value in self._fills:
+        """The cells of one row: text made inert (never a formula), group cells filled with their colour.
+
+        Plain values cost openpyxl far less than styled cells, so only the group cells carry a style.
+        """
+        cells: list[object] = [inert_text(v) for v in values]
+        if name == "products":
+            for k in self._group_columns:
+                value = values[k]
+                if isinstance(value, str) and value in self._fills:
+                    cell = WriteOnlyCell(self._sheets[name], value=value)
                     cell.fill, cell.font = self._fills[value], self._inks[value]
-                cells.append(cell)
-            else:
-                cells.append(value)
+                    cells[k] = cell
         return cells
 
     def add_product(self, values: Sequence[Cell]) -> None:
