@@ -164,9 +164,11 @@ def exposure_chart(x: ExposureStudy, width: float, height: float, fonts: FontSet
     for family, ts in x.allowed_duration_s.items():
         if all(t is None for t in ts):
             continue
-        dash, line_width = family_line(x.allowed_duration_s, family)
+        dash, line_width, colour = family_line(x.allowed_duration_s, family)
         y = height - 8
-        d.add(Line(cursor, y + 2.5, cursor + 18, y + 2.5, strokeColor=INK, strokeWidth=line_width, **dash_style(dash)))
+        d.add(
+            Line(cursor, y + 2.5, cursor + 18, y + 2.5, strokeColor=colour, strokeWidth=line_width, **dash_style(dash))
+        )
         d.add(chart_text(cursor + 21, y, family, fonts, 6.5))
         cursor += 21 + stringWidth(fonts.clean(family), fonts.regular, 6.5) + 10
     return d

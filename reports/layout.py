@@ -13,14 +13,24 @@ from functools import partial
 from reportlab.lib.pagesizes import A4
 from reportlab.lib.units import mm
 from reportlab.pdfgen.canvas import Canvas
-from reportlab.platypus import Flowable, SimpleDocTemplate
+from reportlab.platypus import Flowable, KeepInFrame, SimpleDocTemplate
 
 from hazard.reports.fonts import FontSet, report_fonts
 from hazard.reports.style import INK, MUTED, RULE, Styles
 from hazard.reports.timestamp import report_time
 from hazard.reports.wording import FOOTER
 
-__all__ = ["FRAME_HEIGHT", "FRAME_WIDTH", "MARGIN", "PAGE_HEIGHT", "PAGE_WIDTH", "build_pdf"]
+__all__ = [
+    "FRAME_HEIGHT",
+    "FRAME_WIDTH",
+    "LEAST_SCALE",
+    "MARGIN",
+    "PAGE_HEIGHT",
+    "PAGE_WIDTH",
+    "build_pdf",
+    "fit_page",
+    "start_report",
+]
 
 PAGE_WIDTH, PAGE_HEIGHT = A4
 MARGIN = 14 * mm
@@ -35,8 +45,11 @@ _HEADER_Y = PAGE_HEIGHT - 8 * mm
 class _FramedCanvas(Canvas):
     """A canvas that adds the running header (from page 2) and the footer to every page on save."""
 
-    def __init__(self, *args, fonts: FontSet, header: str, **kwargs) -> None:
+    def __init__(self, *args, fonts: FontSet, header: str, moment: datetime.datetime | None = None, **kwargs) -> None:
         super().__init__(*args, **kwargs)
+        if moment is not None:  # the metadata's date is the report's, not reportlab's fixed one
+            stamp = moment.astimezone(datetime.UTC).strftime("D:%Y%m%d%H%M%S+00'00'")
+            self.setDateFormatter(lambda *_: stamp)
         self._fonts = fonts
         self._header = fonts.clean(header)
         self._pages: list[dict] = []
@@ -71,7 +84,14 @@ class _FramedCanvas(Canvas):
         self.restoreState()
 
 
-def build_pdf(flowables: list[Flowable], fonts: FontSet, title: str, header: str, author: str) -> bytes:
+def build_pdf(
+    flowables: list[Flowable],
+    fonts: FontSet,
+    title: str,
+    header: str,
+    author: str,
+    moment: datetime.datetime | None = None,
+) -> bytes:
     """Lay ``flowables`` out on A4 pages and return the PDF.
 
     Parameters
@@ -86,11 +106,14 @@ def build_pdf(flowables: list[Flowable], fonts: FontSet, title: str, header: str
         Running header printed from page 2 on.
     author : str
         Producer named in the metadata, e.g. ``"hazard 0.1.0"``.
+    moment : datetime.datetime, optional
+        Timezone-aware time recorded as the PDF's creation and modification date (the report's date); without it
+        reportlab's fixed date of its invariant mode.
 
     Returns
     -------
     bytes
-        The PDF; identical for identical input (reportlab's invariant mode fixes dates and ids).
+        The PDF; identical for identical input (reportlab's invariant mode fixes the document id).
     """
     buffer = io.BytesIO()
     doc = SimpleDocTemplate(
@@ -106,7 +129,7 @@ def build_pdf(flowables: list[Flowable], fonts: FontSet, title: str, header: str
         subject="Photobiological safety pre-screen",
         invariant=1,
     )
-    doc.build(flowables, canvasmaker=partial(_FramedCanvas, fonts=fonts, header=header))
+    doc.build(flowables, canvasmaker=partial(_FramedCanvas, fonts=fonts, header=header, moment=moment))
     return buffer.getvalue()
 
 
@@ -117,3 +140,19 @@ def start_report(rendered_at: datetime.datetime | None) -> tuple[datetime.dateti
     """
     fonts = report_fonts()
     return rendered_at or report_time(), fonts, Styles(fonts)
+
+
+LEAST_SCALE = 0.88
+"""Pages after the first are shrunk to fit their page down to this scale; longer, they run onto the next page."""
+
+
+def fit_page(content: list[Flowable], least_scale: float = 0.0) -> list[Flowable]:
+    """``content`` on one page, shrunk when it runs long.
+
+    Unless that needs a scale below ``least_scale``: then as it is, to flow on.
+    """
+    if least_scale:  # measuring lays the content out once more: only when it may run on
+        height = sum(f.wrap(FRAME_WIDTH, FRAME_HEIGHT)[1] + f.getSpaceBefore() + f.getSpaceAfter() for f in content)
+        if height * least_scale > FRAME_HEIGHT:
+            return content
+    return [KeepInFrame(FRAME_WIDTH, FRAME_HEIGHT, content, mode="shrink")]

@@ -11,10 +11,10 @@ from __future__ import annotations
 
 import datetime
 
-from reportlab.platypus import Flowable, Spacer, Table
+from reportlab.platypus import Flowable, KeepTogether, Spacer, Table
 
 from hazard.output.formatting import group_words, hazard_margin_text
-from hazard.reports.layout import FRAME_WIDTH, build_pdf, start_report
+from hazard.reports.layout import FRAME_WIDTH, LEAST_SCALE, build_pdf, fit_page, start_report
 from hazard.reports.ranking import BORDERLINE_FACTOR, is_borderline, rank_assessments, tightest_margin
 from hazard.reports.studies import minimum_text
 from hazard.reports.style import INK, NEUTRAL, Styles, group_fill, group_ink, table_style
@@ -253,13 +253,14 @@ def render_summary_pdf(
         ),
         st.p("Products that could not be assessed", st.h2),
         _failed_table(errors, st),
-        st.p("Cautions", st.h2),
-        *_cautions(assessments, st),
     ]
+    cautions = [st.p("Cautions", st.h2), *_cautions(assessments, st)]
+    fitted = fit_page([*story, *cautions], LEAST_SCALE)  # slightly long: shrunk onto one page
     return build_pdf(
-        story,
+        fitted if len(fitted) == 1 else [*story, KeepTogether(cautions)],  # else never a lone bullet on a page
         fonts,
         title="Photobiological safety pre-screen — batch summary",
         header="Photobiological safety pre-screen — batch summary",
         author=f"hazard {', '.join(versions) or '—'}",
+        moment=moment,
     )
