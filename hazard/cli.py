@@ -312,7 +312,14 @@ def _finish_batch(outcome, output: Path, pdf: bool) -> None:
 )
 @click.option("--studies", is_flag=True, help="Also compute hazard distances and remedies (about 0.1 s per product).")
 @_ALLOW_OUTSIDE
-def batch(manifest: Path, output: Path, pdf: bool, jobs: int, resume: bool, studies: bool, allow_outside: bool) -> None:
+@click.option(
+    "--html",
+    is_flag=True,
+    help="Also write summary.html, a self-contained page for the browser, and one JSON per product.",
+)
+def batch(
+    manifest: Path, output: Path, pdf: bool, jobs: int, resume: bool, studies: bool, allow_outside: bool, html: bool
+) -> None:
     """Assess every product of a CSV/.xlsx manifest or a folder of TOML records.
 
     The output folder must be new, empty, or written by an earlier run of the same manifest; it may not hold
@@ -324,10 +331,26 @@ def batch(manifest: Path, output: Path, pdf: bool, jobs: int, resume: bool, stud
     from hazard.assessment.batch import run_batch
 
     outcome = run_batch(
-        manifest, output, pdf=pdf, jobs=jobs, resume=resume, studies=studies, allow_outside=allow_outside
+        manifest,
+        output,
+        pdf=pdf,
+        jobs=jobs,
+        resume=resume,
+        studies=studies,
+        allow_outside=allow_outside,
+        per_product_json=html,
     )
+    _write_html(outcome, output, html)
     _finish_batch(outcome, output, pdf)
     sys.exit(outcome.exit_code)
+
+
+def _write_html(outcome, output: Path, html: bool) -> None:
+    """With ``html``, the batch's summary.html beside its other outputs."""
+    if html:
+        from hazard.reports.html_summary import write_summary_html
+
+        click.echo(f"wrote {write_summary_html(outcome, output)}", err=True)
 
 
 def _lineup_folder() -> Path:
@@ -348,7 +371,8 @@ def _lineup_folder() -> Path:
 @click.option(
     "--jobs", type=click.IntRange(min=1), default=1, show_default=True, help="Worker processes for rendering PDFs."
 )
-def demo(output: Path, jobs: int) -> None:
+@click.option("--html", is_flag=True, help="Also write summary.html, a self-contained page for the browser.")
+def demo(output: Path, jobs: int, html: bool) -> None:
     """Assess the bundled line-up of invented products (Corvel Lightworks, a made-up company).
 
     One PDF and one JSON per product, a summary CSV and summary.pdf.
@@ -358,6 +382,7 @@ def demo(output: Path, jobs: int) -> None:
     lineup = _lineup_folder()
     click.echo("Demo: invented products of Corvel Lightworks, a made-up company; no real product or measurement.\n")
     outcome = run_batch(lineup, output, pdf=True, jobs=jobs, per_product_json=True, studies=True)
+    _write_html(outcome, output, html)
     _finish_batch(outcome, output, pdf=True)
     sys.exit(outcome.exit_code)
 

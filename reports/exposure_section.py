@@ -45,8 +45,8 @@ def emission_block(a: Assessment, st: Styles) -> list[Flowable]:
         how = f"a single pulse of {format_duration_s(e.pulse_duration_s)}; the hazard table holds its peak values"
     else:
         how = (
-            f"a pulse train, {format_duration_s(e.pulse_duration_s)} pulses at {e.pulse_rate_hz:.3g} Hz (duty cycle "
-            f"{e.duty_cycle:.3g}); the hazard table holds its time-averaged values"
+            f"a pulse train, {format_duration_s(e.pulse_duration_s)} pulses at {format_value(e.pulse_rate_hz)} Hz "
+            f"(duty cycle {format_value(e.duty_cycle)}); the hazard table holds its time-averaged values"
         )
     head = ["Hazard", "Dose per pulse", "Unit", "Pulse vs its limit", "In the train (N^−0.25)", "Pulses to limit"]
     body = []
@@ -57,18 +57,18 @@ def emission_block(a: Assessment, st: Styles) -> list[Flowable]:
         unit = UNIT_DISPLAY.get(h.unit, h.unit).replace("W", "J", 1)
         in_train = "—"
         if p.fraction_in_train is not None:
-            in_train = f"{format_fraction(p.fraction_in_train)}, N = {p.pulses_in_window:.3g}"
+            in_train = f"{format_fraction(p.fraction_in_train)}, N = {format_value(p.pulses_in_window)}"
         to_limit = "—" if p.pulses_to_limit is None else format_pulse_count(p.pulses_to_limit)
         body.append([symbol, format_value(p.dose_per_pulse), unit, format_fraction(p.fraction), in_train, to_limit])
     widths = fit_widths(head, body, st.fonts, FRAME_WIDTH, flexible=4, size=st.cell.fontSize, bold={0})
-    rows = [[st.p(x, st.head) for x in head]]
+    rows = [[st.formula(x, st.head) for x in head]]
     rows += [[st.p(x, st.cell_bold if c == 0 else st.cell) for c, x in enumerate(row)] for row in body]
     table = Table(rows, colWidths=widths, repeatRows=1)
     table.setStyle(table_style())
     return [
         st.p("Pulsed emission", st.h2),
         st.bold_lead("Emission:", how + ".", st.body),
-        st.bold_lead("Rule:", e.rule + ".", st.small),
+        st.formula(e.rule + ".", st.small, lead="Rule:"),
         Spacer(1, 3),
         table,
         Spacer(1, 2),

@@ -173,9 +173,8 @@ def _answer(a: Assessment, st: Styles, pages: Pages) -> list[Flowable]:
             )
         )
     text.append(st.bold_lead(*_set_by(a), st.small))
-    text.append(
-        st.bold_lead("Assessed at:", f"{at} — {rule}. Values, limits and formulas: page {pages.details}.", st.small)
-    )
+    where = rule if rule.startswith(at) else f"{at} — {rule}"
+    text.append(st.bold_lead("Assessed at:", f"{where}. Values, limits and formulas: page {pages.details}.", st.small))
     side = 160
     table = Table([[text, _staircase(a, st.fonts, side)]], colWidths=[FRAME_WIDTH - side, side])
     table.setStyle(

@@ -12,7 +12,6 @@ Everything printed comes from the :class:`~hazard.result.Assessment`; numbers ar
 from __future__ import annotations
 
 import datetime
-import re
 from collections.abc import Callable
 
 from reportlab.pdfbase.pdfmetrics import stringWidth
@@ -44,16 +43,10 @@ _ANCHOR = {
     "luminous_intensity_cd": ("luminous intensity", "cd"),
     "luminance_cd_m2": ("luminance", "cd/m²"),
 }
-_EXPONENT = re.compile(r"\^([−-]?[0-9.]+)")
 
 
 def _unit(unit: str) -> str:
     return UNIT_DISPLAY.get(unit, unit)
-
-
-def _formula(text: str, st: Styles) -> str:
-    """An exposure-limit formula as Paragraph markup: ``t^0.25`` with its exponent raised."""
-    return _EXPONENT.sub(r"<super>\1</super>", st.text(text))
 
 
 def _triple(values: dict[str, float], fmt: Callable[[float], str], scale: float = 1.0) -> str:
@@ -314,10 +307,7 @@ def _detail_table(a: Assessment, st: Styles) -> Flowable:
         )
     rows = [[st.p(x, st.head) for x in head]]
     rows += [
-        [
-            st.p("", st.cell, markup=_formula(x, st)) if c == 2 else st.p(x, st.cell_bold if c == 0 else st.cell)
-            for c, x in enumerate(row)
-        ]
+        [st.formula(x, st.cell) if c == 2 else st.p(x, st.cell_bold if c == 0 else st.cell) for c, x in enumerate(row)]
         for row in cells
     ]
     one_line = [[*row[:1], "", "", *row[3:6], ""] for row in cells]  # band, limit and compared values wrap

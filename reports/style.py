@@ -8,6 +8,7 @@ Text and lines are slate ink on white.
 
 from __future__ import annotations
 
+import re
 from xml.sax.saxutils import escape
 
 from reportlab.lib import colors
@@ -37,6 +38,8 @@ __all__ = [
     "group_ink",
     "table_style",
 ]
+
+_EXPONENT = re.compile(r"\^([−-]?[0-9.]+)")
 
 INK = colors.HexColor("#1F2A36")
 """Text, axes and the action-spectrum lines."""
@@ -160,6 +163,14 @@ class Styles:
             Already-formed Paragraph markup put before ``text`` (e.g. a bold lead-in).
         """
         return Paragraph(markup + self.text(text), style or self.body)
+
+    def formula(self, text: str, style: ParagraphStyle | None = None, lead: str = "") -> Paragraph:
+        """A Paragraph of a formula or rule whose ``^`` marks an exponent (``t^0.25``): the exponent raised.
+
+        ``lead``, when given, goes first in bold.
+        """
+        markup = f"<b>{self.text(lead)}</b> " if lead else ""
+        return Paragraph(markup + _EXPONENT.sub(r"<super>\1</super>", self.text(text)), style or self.body)
 
     def bold_width(self, text: str) -> float:
         """Width of a table cell holding ``text`` in bold cell type on one line, padding included [pt]."""
