@@ -326,7 +326,8 @@ def _contributions(a: Assessment, st: Styles) -> list[Flowable]:
         contribution_chart(a, FRAME_WIDTH, st.fonts),
         st.p(
             "Top: the measured spectrum relative to its peak. Under it, each hazard's value split by wavelength "
-            "band (5 nm for the UV and blue-light hazards, 10 nm for the others), each strip scaled to its largest "
+            "band (5 nm for the UV and blue-light hazards, 10 nm for retinal thermal, 20 nm for the infrared and skin "
+            "hazards), each strip scaled to its largest "
             "band; pale: the hazard's wavelength range.",
             st.caption,
         ),

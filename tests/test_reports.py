@@ -463,6 +463,17 @@ def test_uncertainty_study_sets_borderline_and_ranks_it_first(lineup):
     assert "BORDERLINE" not in safe_row  # 0.95 of its RG1 limit, but the study says robust
 
 
+def test_summary_cautions_are_never_split_from_their_heading(lineup):
+    # project contract (issue: "one orphan bullet alone on page 2 of a batch summary"): the cautions stay together
+    # with their heading, on one page, however long the ranked table runs (two copies of the line-up here)
+    products = [*lineup.values(), *(a.model_copy(update={"id": a.id + "-B"}) for a in lineup.values())]
+    pages = _pages(render_summary_pdf(products, [], RENDERED_AT))
+    holding = [page for page in pages if "Cautions" in page]
+    assert len(pages) >= 2 and len(holding) == 1
+    for caution in {c for a in products for c in a.cautions}:
+        assert _normalise(caution) in holding[0]
+
+
 def test_summary_without_failures_says_so_in_a_sentence(lineup):
     # project contract: issue "Beyond the label", with no failed product one sentence instead of an empty table
     text = " ".join(_pages(render_summary_pdf(list(lineup.values()), [], RENDERED_AT)))

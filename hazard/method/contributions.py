@@ -10,28 +10,45 @@ is what a chart needs, and the result stays small (at most a few hundred numbers
 
 from __future__ import annotations
 
+from functools import lru_cache
+
 import numpy as np
 
 from hazard.method.weighting import quadrature_weights
 from hazard.standards import LimitSet
 from hazard.weighting_tables import load_table
 
-__all__ = ["NARROW_BAND_NM", "SHARE_FLOOR", "band_step_nm", "spectral_shares"]
+__all__ = ["BAND_STEPS_NM", "SHARE_FLOOR", "band_step_nm", "spectral_shares"]
 
-NARROW_BAND_NM = 400.0
-"""Hazard bands up to this width are split into 5 nm bands, wider ones into 10 nm bands [nm]."""
+BAND_STEPS_NM = ((400.0, 5.0), (1100.0, 10.0), (float("inf"), 20.0))
+"""(widest hazard band, width of its parts): the steps a hazard's value is split into, by its band's width [nm]."""
 SHARE_FLOOR = 1e-5
 """Shares below this are written as 0, which keeps the result compact [1]."""
 
 
 def band_step_nm(band_nm: tuple[float, float]) -> float:
     """Width of the bands a hazard's value is split into [nm]."""
-    return 5.0 if band_nm[1] - band_nm[0] <= NARROW_BAND_NM else 10.0
+    return next(step for widest, step in BAND_STEPS_NM if band_nm[1] - band_nm[0] <= widest)
 
 
 def _three_digits(values: np.ndarray) -> list[float]:
-    """Shares rounded to three significant digits, those under :data:`SHARE_FLOOR` as 0."""
-    return [0.0 if v < SHARE_FLOOR else float(f"{v:.3g}") for v in values]
+    """Shares (≤ 1) rounded to three significant digits, those under :data:`SHARE_FLOOR` as 0.
+
+    An integer over an exact power of ten, so each is the float nearest its three-digit decimal.
+    """
+    kept = np.where(values >= SHARE_FLOOR, values, 0.0)
+    with np.errstate(divide="ignore"):
+        scale = 10.0 ** (2 - np.floor(np.log10(np.where(kept > 0, kept, 1.0))))
+    return (np.round(kept * scale) / scale).tolist()
+
+
+@lru_cache(maxsize=64)
+def _matrix(grid: bytes, bands: tuple[tuple[tuple[float, float], str | None], ...]) -> np.ndarray:
+    """Quadrature vectors (hazards, grid) of bands and weightings on a grid (its float64 bytes), once per grid."""
+    spectrum_grid = np.frombuffer(grid)
+    return np.vstack(
+        [quadrature_weights(spectrum_grid, band, None if table is None else load_table(table)) for band, table in bands]
+    )
 
 
 def spectral_shares(
@@ -66,24 +83,35 @@ def spectral_shares(
     >>> start, step, len(share), share[0], round(sum(share), 6)
     (315.0, 5.0, 17, 0.0588, 0.9996)
     """
-    grid = np.asarray(wavelength_nm, dtype=float)
-    samples = np.maximum(np.asarray(value, dtype=float), 0.0)
+    grid = np.ascontiguousarray(wavelength_nm, dtype=float)
+    hazards = [limit_set[symbol] for symbol in symbols]
+    if not hazards:
+        return {}
+    matrix = _matrix(grid.tobytes(), tuple((tuple(h.band_nm), h.table) for h in hazards))
+    terms = matrix * np.maximum(np.asarray(value, dtype=float), 0.0)  # (hazards, grid), each row contiguous
+    totals = terms.sum(axis=1)
+    cumulative = np.zeros((len(hazards), grid.size + 1))  # at the cells' edges
+    np.cumsum(terms, axis=1, out=cumulative[:, 1:])
+    cells = np.concatenate([grid[:1], (grid[:-1] + grid[1:]) / 2, grid[-1:]])
+    steps = [band_step_nm(h.band_nm) for h in hazards]
+    counts = [int(np.ceil((h.band_nm[1] - h.band_nm[0]) / step)) for h, step in zip(hazards, steps, strict=True)]
+    inner = [h.band_nm[0] + step * np.arange(1, n) for h, step, n in zip(hazards, steps, counts, strict=True)]
+    edges = np.concatenate(inner)
+    column = np.repeat(np.arange(len(hazards)), [n - 1 for n in counts])
+    place = np.interp(edges, cells, np.arange(cells.size, dtype=float))  # fractional row of ``cumulative``
+    row = np.minimum(place.astype(int), cells.size - 2)
+    below = cumulative[column, row]
+    at_edges = below + (place - row) * (cumulative[column, row + 1] - below)
     out = {}
-    for symbol in symbols:
-        hazard = limit_set[symbol]
-        weight = None if hazard.table is None else load_table(hazard.table)
-        terms = quadrature_weights(grid, hazard.band_nm, weight) * samples
-        total = terms.sum()
+    offset = 0
+    for k, (symbol, hazard, step, n) in enumerate(zip(symbols, hazards, steps, counts, strict=True)):
+        cut = at_edges[offset : offset + n - 1]
+        offset += n - 1
+        total = totals[k]
         if not total > 0:
             continue
-        low, high = hazard.band_nm
-        step = band_step_nm(hazard.band_nm)
-        count = int(np.ceil((high - low) / step))
-        cells = np.concatenate([grid[:1], (grid[:-1] + grid[1:]) / 2, grid[-1:]])
-        cumulative = np.concatenate([[0.0], np.cumsum(terms)])
-        inner = np.interp(low + step * np.arange(1, count), cells, cumulative)
-        shares = np.diff(np.concatenate([[0.0], inner, [total]])) / total
+        shares = np.diff(np.concatenate([[0.0], cut, [total]])) / total
         filled = np.flatnonzero(shares >= SHARE_FLOOR)
         first, last = int(filled[0]), int(filled[-1])
-        out[symbol] = (low + first * step, step, _three_digits(shares[first : last + 1]))
+        out[symbol] = (hazard.band_nm[0] + first * step, step, _three_digits(shares[first : last + 1]))
     return out
