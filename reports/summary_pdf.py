@@ -11,11 +11,11 @@ from __future__ import annotations
 
 import datetime
 
-from reportlab.platypus import Flowable, Spacer, Table
+from reportlab.platypus import Flowable, KeepTogether, Spacer, Table
 
 from hazard.assessment.lab_plan import PlanItem
 from hazard.output.formatting import group_words, hazard_margin_text
-from hazard.reports.layout import FRAME_WIDTH, build_pdf, start_report
+from hazard.reports.layout import FRAME_WIDTH, LEAST_SCALE, build_pdf, fit_page, start_report
 from hazard.reports.plan_section import plan_section
 from hazard.reports.ranking import BORDERLINE_FACTOR, is_borderline, rank_assessments, tightest_margin
 from hazard.reports.studies import minimum_text
@@ -262,14 +262,15 @@ def render_summary_pdf(
         st.p("Products that could not be assessed", st.h2),
         _failed_table(errors, st),
         *(plan_section(plan, st) if plan is not None else []),
-        st.p("Cautions", st.h2),
-        *_cautions(assessments, st),
     ]
+    cautions = [st.p("Cautions", st.h2), *_cautions(assessments, st)]
+    fitted = fit_page([*story, *cautions], LEAST_SCALE)  # slightly long: shrunk onto one page
     return build_pdf(
-        story,
+        fitted if len(fitted) == 1 else [*story, KeepTogether(cautions)],  # else never a lone bullet on a page
         fonts,
         title="Photobiological safety pre-screen — batch summary",
         header="Photobiological safety pre-screen — batch summary",
         author=f"hazard {', '.join(versions) or '—'}",
         identity=next((a.provenance.identity.header_text() for a in assessments if a.provenance.identity), ""),
+        moment=moment,
     )
