@@ -40,6 +40,7 @@ _FLAG_NAMES = {
     "borderline": "borderline",
     "incomplete": "incomplete (lower bound)",
     "contradicted": "vendor claim contradicted",
+    "inconclusive": "vendor claim inconclusive",
     "what-if": "what-if distance",
 }
 
@@ -71,8 +72,9 @@ def _flags(a: Assessment) -> list[str]:
         flags.append("borderline")
     if not a.complete:
         flags.append("incomplete")
-    if any(c.verdict == "contradicted" for c in a.claims):
-        flags.append("contradicted")
+    for verdict in ("contradicted", "inconclusive"):
+        if any(c.verdict == verdict for c in a.claims):
+            flags.append(verdict)
     if a.basis == "what-if":
         flags.append("what-if")
     return flags
@@ -234,6 +236,8 @@ def render_summary_html(
     groups = list(assessments[0].limit_set.groups) if assessments else ["Exempt", "RG1", "RG2", "RG3"]
     tools = ", ".join(sorted({f"hazard {a.provenance.tool_version}" for a in assessments})) or "—"
     limit_sets = ", ".join(sorted({a.provenance.limit_set for a in assessments})) or "—"
+    identity = next((a.provenance.identity for a in assessments if a.provenance.identity is not None), None)
+    issuer = "" if identity is None else f" · {identity.header_text()}"
     counts = [(g, sum(a.classification_group == g for a in assessments)) for g in reversed(groups)]
     undetermined = sum(a.classification_group is None for a in assessments)
     cautions: dict[str, list[str]] = {}
@@ -258,7 +262,7 @@ def render_summary_html(
         '<p class="kicker">Photobiological safety pre-screen · batch summary</p>',
         f"<h1>{len(assessments)} products assessed, {len(errors)} failed</h1>",
         f'<p class="meta">Report date {e(format_report_time(moment))} · Tool {e(tools)} · '
-        f"Limit set {e(limit_sets)}</p>",
+        f"Limit set {e(limit_sets)}{e(issuer)}</p>",
         "</header>",
         "<main>",
         '<section class="cautions" aria-labelledby="cautions-h">',

@@ -86,8 +86,9 @@ def _counts(assessments: list[Assessment], st: Styles) -> Flowable:
 
 
 def _flags(a: Assessment, st: Styles) -> Flowable:
-    """BORDERLINE and contradicted vendor claims, in words; an em dash when there is neither."""
+    """BORDERLINE, contradicted and inconclusive vendor claims, in words; an em dash when there is none."""
     contradicted = sum(c.verdict == "contradicted" for c in a.claims)
+    inconclusive = sum(c.verdict == "inconclusive" for c in a.claims)
     by_study = (
         ""
         if a.uncertainty is None
@@ -104,6 +105,11 @@ def _flags(a: Assessment, st: Styles) -> Flowable:
         + (
             [f"<b>{contradicted}</b> vendor claim{'s' if contradicted > 1 else ''} <b>CONTRADICTED</b>"]
             if contradicted
+            else []
+        )
+        + (
+            [f"<b>{inconclusive}</b> vendor claim{'s' if inconclusive > 1 else ''} <b>INCONCLUSIVE</b>"]
+            if inconclusive
             else []
         )
     )
@@ -250,7 +256,8 @@ def render_summary_pdf(
             f"a modest measurement error could change its group. An INCOMPLETE product's group is a lower bound; "
             f"'not determined': no hazard with risk groups could be assessed, nothing is known. WHAT-IF: assessed "
             f"at a distance the record asks for, not a classification; the standard's group is named beside it. "
-            f"CONTRADICTED: a vendor claim in the record that the result does not bear out (see its report)."
+            f"CONTRADICTED: a vendor claim in the record that the result does not bear out at any variant of its "
+            f"stated uncertainty; INCONCLUSIVE: it holds at some variants and fails at others (see its report)."
             + (
                 " Min. distance to Exempt: beyond it the product is Exempt (its report's distance study; —: none "
                 "in the result)."
