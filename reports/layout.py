@@ -12,6 +12,7 @@ from functools import partial
 
 from reportlab.lib.pagesizes import A4
 from reportlab.lib.units import mm
+from reportlab.pdfbase.pdfmetrics import stringWidth
 from reportlab.pdfgen.canvas import Canvas
 from reportlab.platypus import Flowable, KeepInFrame, SimpleDocTemplate
 
@@ -75,6 +76,16 @@ class _FramedCanvas(Canvas):
             super().showPage()
         super().save()
 
+    def _draw_identity(self, y: float) -> None:
+        """The issuer's line, right-aligned; smaller type (down to 5.5 pt), then cut with "…", so it fits the width."""
+        text, size = self._identity, 7.5
+        while size > 5.5 and stringWidth(text, self._fonts.regular, size) > FRAME_WIDTH:
+            size -= 0.5
+        while stringWidth(text, self._fonts.regular, size) > FRAME_WIDTH:
+            text = text[: len(text) - 2] + "…"
+        self.setFont(self._fonts.regular, size)
+        self.drawRightString(PAGE_WIDTH - MARGIN, y, text)
+
     def _decorate(self, total: int) -> None:
         number = self.getPageNumber()
         self.saveState()
@@ -91,7 +102,7 @@ class _FramedCanvas(Canvas):
             self.drawString(MARGIN, _HEADER_Y, self._header)
             self.line(MARGIN, _HEADER_Y - 4, PAGE_WIDTH - MARGIN, _HEADER_Y - 4)
         if self._identity:
-            self.drawRightString(PAGE_WIDTH - MARGIN, _HEADER_Y + (9 if number > 1 else 0), self._identity)
+            self._draw_identity(_HEADER_Y + (9 if number > 1 else 0))
         self.restoreState()
 
 

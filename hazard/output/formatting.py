@@ -345,7 +345,11 @@ def hazard_margin_text(h: HazardResult) -> str:
 def computed_text(claim: ClaimCheck) -> str:
     """A claim's computed value, with its range across the stated uncertainty when there is one."""
     text = claim.computed or "—"
-    return f"{text} ({claim.computed_range} within the uncertainty)" if claim.computed_range else text
+    if not claim.computed_range:
+        return text
+    if claim.computed_range.endswith("at every variant"):
+        return f"{text} (at every variant of the uncertainty)"
+    return f"{text} ({claim.computed_range} within the uncertainty)"
 
 
 def source_size_text(record: dict) -> str | None:
