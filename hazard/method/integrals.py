@@ -148,7 +148,7 @@ def integrate_matrix(
             rows = slice(start, start + chunk_rows)
             chunk = values[rows]
             peak[rows], lowest[rows] = chunk.max(axis=1), chunk.min(axis=1)
-            if lowest[rows].min() < 0:
+            if (lowest[rows] < 0).any():  # not .min(): a NaN row (refused later) must not spare its neighbours
                 chunk = np.maximum(chunk, 0)
             _fill(out, rows, chunk.astype(dtype, copy=False) @ matrix, grid_nm, flags[rows], limit_set)
     if factor_to_si is not None:
