@@ -1,8 +1,17 @@
-"""Shared test helpers."""
+"""Shared test helpers and the folders the tests read from (the same at any depth of tests/)."""
+
+from pathlib import Path
 
 import pytest
 
 from hazard.method.photometry import import_colour
+
+REPO = Path(__file__).resolve().parents[1]
+"""The repository's root folder."""
+DATA = REPO / "tests" / "data"
+"""The export corpus: one invented spectrum in ten dialects (tests/data)."""
+LINEUP = REPO / "examples" / "lineup"
+"""The invented demo line-up: a TOML record and a spectrum per product (examples/lineup)."""
 
 
 @pytest.fixture(scope="session")

@@ -11,6 +11,7 @@ from pathlib import Path
 import numpy as np
 import pytest
 from click.testing import CliRunner
+from conftest import LINEUP
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
@@ -20,8 +21,6 @@ from hazard.assessment.build import build_assessment
 from hazard.assessment.pipeline import evaluate_loaded
 from hazard.cli import main
 from hazard.errors import InputError
-
-LINEUP = Path(__file__).parents[1] / "examples" / "lineup"
 
 
 def _copy_lineup(folder: Path) -> Path:

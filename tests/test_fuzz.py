@@ -12,12 +12,11 @@ import signal
 from pathlib import Path
 
 import pytest
+from conftest import DATA, LINEUP
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 from mutations import exercise, mutate, mutate_workbook
 
-DATA = Path(__file__).parent / "data"
-LINEUP = Path(__file__).parents[1] / "examples" / "lineup"
 EXAMPLES = int(os.environ.get("HAZARD_FUZZ_EXAMPLES", "12"))
 TIME_BOUND_S = 20
 """A hang detector, not a speed target: the slowest legitimate example takes well under a second."""

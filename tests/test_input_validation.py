@@ -12,18 +12,16 @@ import re
 import subprocess
 import sys
 import warnings
-from pathlib import Path
 
 import numpy as np
 import pytest
 from click.testing import CliRunner
-from conftest import write_spectrum
+from conftest import REPO, write_spectrum
 
 import hazard
 from hazard import InputError
 from hazard.cli import main
 
-REPO = Path(__file__).resolve().parents[1]
 SIZE = {"distance_mm": 200.0, "source_diameter_mm": 5.0}
 SIZE_OPTIONS = ["--distance-mm", "200", "--source-diameter-mm", "5"]
 HEADER = "wavelength_nm,value\n"

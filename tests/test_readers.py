@@ -3,18 +3,16 @@
 import shutil
 import subprocess
 import sys
-from pathlib import Path
 
 import numpy as np
 import pytest
-from conftest import write_spectrum
+from conftest import DATA, LINEUP, write_spectrum
 
 import hazard
 from hazard.errors import InputError
 from hazard.inputs.loading import product_from_record
 from hazard.inputs.record import ProductRecord
 
-DATA = Path(__file__).parent / "data"
 REFERENCE = np.loadtxt(DATA / "reference.txt")  # invented test spectrum, W/m2/nm (tests/data, our own)
 SIZE = {"distance_mm": 500.0, "source_diameter_mm": 20.0}
 
@@ -152,9 +150,6 @@ def test_relative_spectrum_needs_one_anchor(tmp_path):
 
 
 # --- vendor claims --------------------------------------------------------------------------------------
-LINEUP = Path(__file__).parents[1] / "examples" / "lineup"
-
-
 def _claim_record(tmp_path, stem, **claims):
     shutil.copy(LINEUP / f"{stem}.csv", tmp_path / f"{stem}.csv")  # beside the record: spectra stay in its folder
     text = (LINEUP / f"{stem}.toml").read_text()

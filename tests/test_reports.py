@@ -8,9 +8,9 @@ import io
 import math
 import re
 from itertools import pairwise
-from pathlib import Path
 
 import pytest
+from conftest import LINEUP
 from pypdf import PdfReader
 
 import hazard
@@ -26,7 +26,6 @@ from hazard.reports.fonts import register_fonts
 from hazard.reports.ranking import is_borderline, tightest_margin
 from hazard.result import Assessment, UncertaintyStudy
 
-LINEUP = Path(__file__).parents[1] / "examples" / "lineup"
 RENDERED_AT = datetime.datetime(2024, 6, 1, 12, 0, tzinfo=datetime.UTC)
 
 # examples/README.md: "the line-up spans the groups: Exempt (desk lamp, indicator), RG1 (spotlight, IR

@@ -1,16 +1,14 @@
 """Hazard distances, uncertainty, remedies and source uniformity, against analytic expectations."""
 
 import math
-from pathlib import Path
 
 import numpy as np
 import pytest
-from conftest import assess_arrays, triangle_line, write_spectrum
+from conftest import LINEUP, assess_arrays, triangle_line, write_spectrum
 
 import hazard
 
 GRID = np.concatenate([np.arange(200.0, 500.0, 0.01), np.arange(500.0, 3000.5, 0.5)])
-LINEUP = Path(__file__).parents[1] / "examples" / "lineup"
 
 
 def _boundary(a, family, group):
