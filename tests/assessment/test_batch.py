@@ -1,7 +1,6 @@
 """Batch runs: manifests with good and bad rows, resume after a kill, and assess_many against assess."""
 
 import json
-import shutil
 import signal
 import subprocess
 import sys
@@ -11,7 +10,7 @@ from pathlib import Path
 import numpy as np
 import pytest
 from click.testing import CliRunner
-from conftest import LINEUP
+from conftest import LINEUP, copy_lineup, run_process
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
@@ -21,17 +20,6 @@ from hazard.assessment.build import build_assessment
 from hazard.assessment.pipeline import evaluate_loaded
 from hazard.cli import main
 from hazard.errors import InputError
-
-
-def _copy_lineup(folder: Path) -> Path:
-    folder.mkdir(parents=True, exist_ok=True)
-    for path in LINEUP.glob("cl-*"):
-        shutil.copy(path, folder / path.name)
-    return folder
-
-
-def _cli(*args, cwd=None):
-    return subprocess.run([sys.executable, "-m", "hazard.cli", *args], capture_output=True, text=True, cwd=cwd)
 
 
 def _without_record_input(result: dict) -> dict:
@@ -46,7 +34,7 @@ def _without_record_input(result: dict) -> dict:
 
 def test_folder_of_records_gives_the_same_json_as_assess(tmp_path):
     # project contract (issue: batch): good products are assessed exactly as `hazard assess` would
-    folder = _copy_lineup(tmp_path / "records")
+    folder = copy_lineup(tmp_path / "records")
     outcome = run_batch(folder, tmp_path / "out", studies=True)  # hazard assess includes the studies
     assert outcome.exit_code == 0 and len(outcome.assessments) == len(list(LINEUP.glob("*.toml")))
     lines = (tmp_path / "out" / "results.jsonl").read_text().splitlines()
@@ -59,7 +47,7 @@ def test_folder_of_records_gives_the_same_json_as_assess(tmp_path):
 
 
 def test_manifest_with_good_and_bad_rows(tmp_path):
-    folder = _copy_lineup(tmp_path)
+    folder = copy_lineup(tmp_path)
     (folder / "broken.csv").write_text("wavelength_nm,value\n400,1\n410,abc\n")
     manifest = folder / "manifest.csv"
     manifest.write_text(
@@ -71,7 +59,7 @@ def test_manifest_with_good_and_bad_rows(tmp_path):
         "NOSIZE,cl-desk-30.csv,500,,gls,true\n"
         "SPOT,cl-spot-65.csv,1000,60,other,true\n"
     )
-    result = _cli("batch", str(manifest), "--output", str(tmp_path / "out"), "--studies")
+    result = run_process("batch", str(manifest), "--output", str(tmp_path / "out"), "--studies")
     assert result.returncode == 3  # project contract: 3 when some products failed
     summary = (tmp_path / "out" / "summary.csv").read_text().splitlines()
     assert [line.split(",")[0] for line in summary[1:]] == [
@@ -100,7 +88,7 @@ def test_manifest_with_good_and_bad_rows(tmp_path):
 
 
 def test_duplicate_ids_make_the_manifest_unusable(tmp_path):
-    folder = _copy_lineup(tmp_path)
+    folder = copy_lineup(tmp_path)
     manifest = folder / "m.csv"
     manifest.write_text(
         "id,spectrum,distance_mm,source_diameter_mm\nA,cl-desk-30.csv,500,30\n"
@@ -108,21 +96,21 @@ def test_duplicate_ids_make_the_manifest_unusable(tmp_path):
     )
     with pytest.raises(InputError, match=r"m.csv:4: duplicate id 'A' \(also at .*m.csv:2\)"):
         run_batch(manifest, tmp_path / "out")
-    result = _cli("batch", str(manifest), "--output", str(tmp_path / "out"))
+    result = run_process("batch", str(manifest), "--output", str(tmp_path / "out"))
     assert result.returncode == 2 and result.stderr.count("\n") == 1 and "duplicate id" in result.stderr
 
 
 def test_unknown_column_is_named_with_a_suggestion(tmp_path):
     manifest = tmp_path / "m.csv"
     manifest.write_text("id,spectrum,distance,source_diameter_mm\nA,a.csv,500,30\n")
-    result = _cli("batch", str(manifest), "--output", str(tmp_path / "out"))
+    result = run_process("batch", str(manifest), "--output", str(tmp_path / "out"))
     assert result.returncode == 2 and "unknown column 'distance'" in result.stderr
     assert "distance_mm" in result.stderr
 
 
 def test_xlsx_manifest(tmp_path):
     openpyxl = pytest.importorskip("openpyxl")
-    folder = _copy_lineup(tmp_path)
+    folder = copy_lineup(tmp_path)
     book = openpyxl.Workbook()
     sheet = book.active
     sheet.append(["id", "spectrum", "distance_mm", "source_diameter_mm", "lamp_type", "no_emission_outside"])
@@ -142,7 +130,7 @@ def _manifest_for(folder: Path, rows: list[str]) -> Path:
 
 
 def _big_manifest(folder: Path, count: int) -> Path:
-    _copy_lineup(folder)
+    copy_lineup(folder)
     rows = [f"P{i:04d},cl-heat-2k.csv,{1250 + i % 50},{1.6 + (i % 7) * 0.1:.1f},other,true" for i in range(count)]
     return _manifest_for(folder, rows)
 
@@ -152,7 +140,7 @@ def test_resume_after_a_kill_gives_the_same_summary(tmp_path, how):
     # project contract (issue: batch): killed half-way, --resume continues and ends with the same summary
     manifest = _big_manifest(tmp_path / "in", 400)
     clean = tmp_path / "clean"
-    assert _cli("batch", str(manifest), "--output", str(clean)).returncode == 0
+    assert run_process("batch", str(manifest), "--output", str(clean)).returncode == 0
     cut = tmp_path / "cut"
     # a shell without job control starts background jobs with SIGINT ignored; give the child the default
     process = subprocess.Popen(
@@ -171,7 +159,7 @@ def test_resume_after_a_kill_gives_the_same_summary(tmp_path, how):
     killed = process.returncode != 0
     assert killed, "the run finished before it could be interrupted; raise the product count"
     assert not (cut / "summary.csv").exists()  # nothing final was written by the interrupted run
-    resumed = _cli("batch", str(manifest), "--output", str(cut), "--resume")
+    resumed = run_process("batch", str(manifest), "--output", str(cut), "--resume")
     assert resumed.returncode == 0
     reused = int(resumed.stdout.split("assessed (")[1].split(" reused")[0])
     assert 0 < reused < 400
@@ -181,7 +169,7 @@ def test_resume_after_a_kill_gives_the_same_summary(tmp_path, how):
 
 
 def test_resume_reassesses_a_changed_input(tmp_path):
-    folder = _copy_lineup(tmp_path / "in")
+    folder = copy_lineup(tmp_path / "in")
     manifest = _manifest_for(folder, ["A,cl-desk-30.csv,500,30,gls,true", "B,cl-spot-65.csv,1000,60,other,true"])
     run_batch(manifest, tmp_path / "out")
     spectrum = folder / "cl-spot-65.csv"

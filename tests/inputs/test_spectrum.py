@@ -6,7 +6,6 @@ Rules checked: method §5 (project design) and the CLI contract in
 ``hazard/cli.py`` and DEVELOPERS.md ("exit 2, one line on stderr").
 """
 
-import hashlib
 import os
 import re
 import subprocess
@@ -16,7 +15,16 @@ import warnings
 import numpy as np
 import pytest
 from click.testing import CliRunner
-from conftest import REPO, write_spectrum
+from conftest import (
+    REPO,
+    assert_error_line,
+    file_hashes,
+    same_result,
+    white_lamp,
+    write_file,
+    write_spectrum,
+    write_toml,
+)
 
 import hazard
 from hazard import InputError
@@ -28,38 +36,7 @@ HEADER = "wavelength_nm,value\n"
 VISIBLE_NM = np.arange(380.0, 781.0, 1.0)
 
 
-def _lamp(wavelength_nm):
-    """A bright white-ish lamp: two broad Gaussians [W m⁻² nm⁻¹] (invented test data)."""
-    wl = np.asarray(wavelength_nm, dtype=float)
-    return 0.02 * np.exp(-0.5 * ((wl - 450) / 12) ** 2) + 0.03 * np.exp(-0.5 * ((wl - 570) / 60) ** 2)
-
-
-def _write(path, content):
-    if isinstance(content, bytes):
-        path.write_bytes(content)
-    else:
-        path.write_text(content, encoding="utf-8")
-    return path
-
-
-def _hashes(folder):
-    """SHA-256 of every file below ``folder``: shows a file changed, appeared or vanished."""
-    return {
-        str(p.relative_to(folder)): hashlib.sha256(p.read_bytes()).hexdigest()
-        for p in sorted(folder.rglob("*"))
-        if p.is_file()
-    }
-
-
-def _toml(path, **fields):
-    lines = [
-        f"{k} = {v!r}" if isinstance(v, str) else f"{k} = {str(v).lower() if isinstance(v, bool) else v}"
-        for k, v in fields.items()
-    ]
-    return _write(path, "\n".join(lines) + "\n")
-
-
-def _cli(args, cwd):
+def _assess_in_a_process(args, cwd):
     """The real command in a fresh interpreter, as a user runs it."""
     env = {**os.environ, "PYTHONPATH": os.pathsep.join(filter(None, [str(REPO), os.environ.get("PYTHONPATH")]))}
     return subprocess.run(
@@ -70,19 +47,6 @@ def _cli(args, cwd):
         env=env,
         timeout=120,
     )
-
-
-def _assert_one_line_error(exit_code, stdout, stderr, *fragments):
-    # hazard/cli.py and DEVELOPERS.md: bad input → exit 2 and one line 'hazard: error: FILE:LINE: problem; fix'
-    assert exit_code == 2, stderr
-    assert stdout == ""
-    lines = stderr.splitlines()
-    assert len(lines) == 1, stderr
-    assert lines[0].startswith("hazard: error: ")
-    assert "Traceback" not in stderr
-    for fragment in fragments:
-        assert fragment in lines[0]
-    return lines[0]
 
 
 # --- bad spectrum files ------------------------------------------------------------------------------------
@@ -161,7 +125,7 @@ SPECTRUM_CASES = [
 
 @pytest.mark.parametrize(("name", "content", "pattern", "line"), SPECTRUM_CASES)
 def test_bad_spectrum_file_raises_input_error(tmp_path, name, content, pattern, line):
-    path = _write(tmp_path / name, content)
+    path = write_file(tmp_path / name, content)
     with pytest.raises(InputError, match=pattern) as caught:
         hazard.assess(path, SIZE)
     # errors.py: the message starts 'FILE:LINE: ' (or 'FILE: ' where no line applies) and ends with the fix
@@ -173,54 +137,54 @@ def test_bad_spectrum_file_raises_input_error(tmp_path, name, content, pattern, 
 
 @pytest.mark.parametrize(("name", "content", "pattern", "line"), SPECTRUM_CASES)
 def test_bad_spectrum_file_on_the_command_line(tmp_path, monkeypatch, name, content, pattern, line):
-    _write(tmp_path / name, content)
+    write_file(tmp_path / name, content)
     monkeypatch.chdir(tmp_path)
     result = CliRunner().invoke(main, ["assess", name, *SIZE_OPTIONS])
     where = f"{name}:{line}: " if line is not None else f"{name}: "
-    message = _assert_one_line_error(result.exit_code, result.stdout, result.stderr, where)
+    message = assert_error_line(result.exit_code, result.stdout, result.stderr, where)
     assert re.search(pattern, message)
 
 
 @pytest.mark.parametrize(("name", "content", "pattern", "line"), SPECTRUM_CASES)
 def test_bad_input_never_modifies_the_input_file(tmp_path, monkeypatch, name, content, pattern, line):
     # The tool reads its inputs and writes nothing beside them (common practice, no published source)
-    _write(tmp_path / name, content)
-    _toml(tmp_path / "record.toml", id="x", spectrum=name, distance_mm=200.0, source_diameter_mm=5.0)
-    before = _hashes(tmp_path)
+    write_file(tmp_path / name, content)
+    write_toml(tmp_path / "record.toml", id="x", spectrum=name, distance_mm=200.0, source_diameter_mm=5.0)
+    before = file_hashes(tmp_path)
     with pytest.raises(InputError):
         hazard.assess(tmp_path / name, SIZE)
     with pytest.raises(InputError):
         hazard.load_product(tmp_path / "record.toml")
     monkeypatch.chdir(tmp_path)
     assert CliRunner().invoke(main, ["assess", "record.toml"]).exit_code == 2
-    assert _hashes(tmp_path) == before
+    assert file_hashes(tmp_path) == before
 
 
 def test_real_process_exit_code_and_one_line(tmp_path):
     # A fresh interpreter: the exit status and stderr a shell script sees (hazard/cli.py: exit 2, one line)
-    _write(tmp_path / "text.csv", HEADER + "500,0.1\n501,0.2\n502,abc\n503,0.1\n")
-    before = _hashes(tmp_path)
-    result = _cli(["text.csv", *SIZE_OPTIONS], tmp_path)
-    _assert_one_line_error(result.returncode, result.stdout, result.stderr, "text.csv:4: text 'abc' in a number column")
-    assert _hashes(tmp_path) == before
+    write_file(tmp_path / "text.csv", HEADER + "500,0.1\n501,0.2\n502,abc\n503,0.1\n")
+    before = file_hashes(tmp_path)
+    result = _assess_in_a_process(["text.csv", *SIZE_OPTIONS], tmp_path)
+    assert_error_line(result.returncode, result.stdout, result.stderr, "text.csv:4: text 'abc' in a number column")
+    assert file_hashes(tmp_path) == before
 
 
 def test_real_process_missing_file(tmp_path):
-    result = _cli(["missing.csv", *SIZE_OPTIONS], tmp_path)
-    _assert_one_line_error(result.returncode, result.stdout, result.stderr, "missing.csv", "file not found")
+    result = _assess_in_a_process(["missing.csv", *SIZE_OPTIONS], tmp_path)
+    assert_error_line(result.returncode, result.stdout, result.stderr, "missing.csv", "file not found")
 
 
 def test_real_process_invalid_toml_names_the_line(tmp_path):
-    write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, _lamp(VISIBLE_NM))
-    _write(tmp_path / "record.toml", 'id = "x"\nspectrum = "lamp.csv"\ndistance_mm = 200\nsource_diameter_mm 5\n')
-    result = _cli(["record.toml"], tmp_path)
-    _assert_one_line_error(result.returncode, result.stdout, result.stderr, "record.toml:4: not valid TOML")
+    write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, white_lamp(VISIBLE_NM))
+    write_file(tmp_path / "record.toml", 'id = "x"\nspectrum = "lamp.csv"\ndistance_mm = 200\nsource_diameter_mm 5\n')
+    result = _assess_in_a_process(["record.toml"], tmp_path)
+    assert_error_line(result.returncode, result.stdout, result.stderr, "record.toml:4: not valid TOML")
 
 
 def test_spectrum_file_not_found(tmp_path):
     with pytest.raises(InputError, match=r"missing\.csv: file not found"):
         hazard.assess(tmp_path / "missing.csv", SIZE)
-    _toml(tmp_path / "record.toml", id="x", spectrum="nope.csv", distance_mm=200.0, source_diameter_mm=5.0)
+    write_toml(tmp_path / "record.toml", id="x", spectrum="nope.csv", distance_mm=200.0, source_diameter_mm=5.0)
     # the record's spectrum path is named as the record gives it (relative to the record's folder)
     with pytest.raises(InputError, match=r"^nope\.csv: spectrum file not found; fix: check the 'spectrum' path"):
         hazard.load_product(tmp_path / "record.toml")
@@ -272,7 +236,7 @@ RECORD_CASES = [
 
 @pytest.mark.parametrize(("fields", "pattern"), RECORD_CASES)
 def test_bad_record_fields_from_options(tmp_path, fields, pattern):
-    path = write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, _lamp(VISIBLE_NM))
+    path = write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, white_lamp(VISIBLE_NM))
     # on the command line, multi-word fields are named as their options (distance_mm → --distance-mm)
     pattern = re.sub(r"\b([a-z]+(?:_[a-z]+)+)\b", lambda m: "--" + m.group(1).replace("_", "-"), pattern)
     with pytest.raises(InputError, match=pattern) as caught:
@@ -283,29 +247,29 @@ def test_bad_record_fields_from_options(tmp_path, fields, pattern):
 
 @pytest.mark.parametrize(("fields", "pattern"), RECORD_CASES)
 def test_bad_record_fields_in_a_toml_record(tmp_path, monkeypatch, fields, pattern):
-    write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, _lamp(VISIBLE_NM))
-    record = _toml(tmp_path / "record.toml", id="x", spectrum="lamp.csv", **fields)
-    before = _hashes(tmp_path)
+    write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, white_lamp(VISIBLE_NM))
+    record = write_toml(tmp_path / "record.toml", id="x", spectrum="lamp.csv", **fields)
+    before = file_hashes(tmp_path)
     with pytest.raises(InputError, match=pattern) as caught:
         hazard.load_product(record)
     assert str(caught.value).startswith(str(record))
     monkeypatch.chdir(tmp_path)
     result = CliRunner().invoke(main, ["assess", "record.toml"])
-    message = _assert_one_line_error(result.exit_code, result.stdout, result.stderr, "record.toml")
+    message = assert_error_line(result.exit_code, result.stdout, result.stderr, "record.toml")
     assert re.search(pattern, message)
-    assert _hashes(tmp_path) == before
+    assert file_hashes(tmp_path) == before
 
 
 def test_unknown_unit_on_the_command_line_names_the_option_value(tmp_path, monkeypatch):
-    write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, _lamp(VISIBLE_NM))
+    write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, white_lamp(VISIBLE_NM))
     monkeypatch.chdir(tmp_path)
     result = CliRunner().invoke(main, ["assess", "lamp.csv", *SIZE_OPTIONS, "--unit", "lux"])
-    _assert_one_line_error(result.exit_code, result.stdout, result.stderr, "command line", "unknown unit 'lux'")
+    assert_error_line(result.exit_code, result.stdout, result.stderr, "command line", "unknown unit 'lux'")
 
 
 def test_unknown_toml_field_suggests_the_close_name(tmp_path, monkeypatch):
-    write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, _lamp(VISIBLE_NM))
-    record = _write(
+    write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, white_lamp(VISIBLE_NM))
+    record = write_file(
         tmp_path / "record.toml", 'id = "x"\nspectrum = "lamp.csv"\ndistance = 200\nsource_diameter_mm = 5\n'
     )
     # record.py: extra fields are refused, with the closest field name (difflib) and the line of the key
@@ -317,12 +281,12 @@ def test_unknown_toml_field_suggests_the_close_name(tmp_path, monkeypatch):
         hazard.load_product(record)
     monkeypatch.chdir(tmp_path)
     result = CliRunner().invoke(main, ["assess", "record.toml"])
-    _assert_one_line_error(result.exit_code, result.stdout, result.stderr, "record.toml:3:", "'distance_mm'")
+    assert_error_line(result.exit_code, result.stdout, result.stderr, "record.toml:3:", "'distance_mm'")
 
 
 def test_invalid_toml_names_the_line(tmp_path):
-    write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, _lamp(VISIBLE_NM))
-    record = _write(
+    write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, white_lamp(VISIBLE_NM))
+    record = write_file(
         tmp_path / "record.toml", 'id = "x"\nspectrum = "lamp.csv"\n\ndistance_mm = 200 mm\nsource_diameter_mm = 5\n'
     )
     with pytest.raises(InputError, match=r"record\.toml:4: not valid TOML") as caught:
@@ -331,14 +295,14 @@ def test_invalid_toml_names_the_line(tmp_path):
 
 
 def test_record_without_spectrum(tmp_path):
-    record = _toml(tmp_path / "record.toml", id="x", distance_mm=200.0, source_diameter_mm=5.0)
+    record = write_toml(tmp_path / "record.toml", id="x", distance_mm=200.0, source_diameter_mm=5.0)
     with pytest.raises(InputError, match=r"record\.toml: the record names no spectrum file"):
         hazard.load_product(record)
 
 
 def test_unknown_unit_in_a_toml_record_names_its_line(tmp_path):
-    write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, _lamp(VISIBLE_NM))
-    record = _write(
+    write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, white_lamp(VISIBLE_NM))
+    record = write_file(
         tmp_path / "record.toml",
         'id = "x"\nspectrum = "lamp.csv"\ndistance_mm = 200\nsource_diameter_mm = 5\nunit = "lux"\n',
     )
@@ -349,8 +313,8 @@ def test_unknown_unit_in_a_toml_record_names_its_line(tmp_path):
 
 @pytest.mark.parametrize("field", ["distance_mm", "source_diameter_mm"])
 def test_infinite_record_numbers_are_refused(tmp_path, field):
-    write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, _lamp(VISIBLE_NM))
-    record = _write(
+    write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, white_lamp(VISIBLE_NM))
+    record = write_file(
         tmp_path / "record.toml",
         f'id = "x"\nspectrum = "lamp.csv"\nno_emission_outside = true\n'
         f"{'distance_mm = 200' if field != 'distance_mm' else ''}\n"
@@ -380,7 +344,9 @@ def test_infinite_record_numbers_are_refused(tmp_path, field):
 )
 def test_unit_in_the_header_that_contradicts_the_record(tmp_path, header, fields, pattern):
     # method §5: units are converted, never guessed; a header and a record that disagree are refused
-    path = write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, 1000 * _lamp(VISIBLE_NM), header=f"wavelength_nm,{header}")
+    path = write_spectrum(
+        tmp_path / "lamp.csv", VISIBLE_NM, 1000 * white_lamp(VISIBLE_NM), header=f"wavelength_nm,{header}"
+    )
     with pytest.raises(InputError, match=pattern) as caught:
         hazard.assess(path, fields)
     assert "lamp.csv" in str(caught.value)
@@ -389,22 +355,16 @@ def test_unit_in_the_header_that_contradicts_the_record(tmp_path, header, fields
 @pytest.mark.parametrize("with_header", [True, False])
 def test_mistyped_first_data_row_is_not_taken_for_a_header(tmp_path, with_header):
     rows = "5OO,0.1\n501,0.2\n502,0.3\n"
-    path = _write(tmp_path / "typo.csv", (HEADER if with_header else "") + rows)
+    path = write_file(tmp_path / "typo.csv", (HEADER if with_header else "") + rows)
     # style.md habit 8: no silent fallbacks; the row is data (its value cell is a number), so it is bad data
     with pytest.raises(InputError, match=r"5OO"):
         hazard.assess(path, SIZE)
 
 
 # --- tolerated input ---------------------------------------------------------------------------------------
-def _same_result(a, b):
-    """Two assessments agree apart from warnings, the input files' hashes (the files' bytes differ) and the seal."""
-    strip = {"warnings": True, "provenance": {"inputs", "result_sha256"}}
-    return a.model_dump(exclude=strip) == b.model_dump(exclude=strip)
-
-
 def test_small_negatives_are_set_to_zero_with_a_warning(tmp_path):
     wl = VISIBLE_NM
-    clean = _lamp(wl)
+    clean = white_lamp(wl)
     clean[[10, 300]] = 0.0
     noisy = clean.copy()
     peak = clean.max()
@@ -416,18 +376,18 @@ def test_small_negatives_are_set_to_zero_with_a_warning(tmp_path):
     assert len(notes) == 1 and "2 small negative value(s)" in notes[0] and "set to zero" in notes[0]
     assert "lamp.csv" in notes[0]
     assert not any("negative" in w for w in a_clean.warnings)
-    assert _same_result(a_noisy, a_clean)  # the negatives became exactly zero
+    assert same_result(a_noisy, a_clean)  # the negatives became exactly zero
 
 
 def test_descending_wavelengths_equal_ascending(tmp_path):
     wl = np.arange(300.0, 1101.0, 1.0)
     (tmp_path / "up").mkdir(), (tmp_path / "down").mkdir()
-    up = write_spectrum(tmp_path / "up" / "lamp.csv", wl, _lamp(wl))
-    down = write_spectrum(tmp_path / "down" / "lamp.csv", wl[::-1], _lamp(wl)[::-1])
+    up = write_spectrum(tmp_path / "up" / "lamp.csv", wl, white_lamp(wl))
+    down = write_spectrum(tmp_path / "down" / "lamp.csv", wl[::-1], white_lamp(wl)[::-1])
     fields = {**SIZE, "no_emission_outside": True}
     a_up, a_down = hazard.assess(up, fields), hazard.assess(down, fields)
     # method §5: descending input is reversed (and the reversal noted); the result is otherwise the same
-    assert _same_result(a_up, a_down)
+    assert same_result(a_up, a_down)
     added = [w for w in a_down.warnings if w not in a_up.warnings]
     assert len(added) == 1 and "descending" in added[0] and "reversed" in added[0]
 
@@ -447,7 +407,7 @@ _MISSING_FROM_380_780 = {
 @pytest.mark.parametrize(("diameter_mm", "blue"), [(5.0, "L_B"), (1.0, "E_B")])
 def test_band_not_covered_is_not_assessed(tmp_path, monkeypatch, diameter_mm, blue):
     # α = D/200 mm: 0.025 rad → L_B, 0.005 rad → E_B (IEC 62471:2006 Table 6.1, α < 0.011 rad)
-    path = write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, _lamp(VISIBLE_NM))
+    path = write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, white_lamp(VISIBLE_NM))
     a = hazard.assess(path, {"distance_mm": 200.0, "source_diameter_mm": diameter_mm})
     expected = {"E_S", "E_UVA", blue, "L_R", "E_IR", "E_H"}
     # method §5: a hazard is assessed only when the spectrum spans its band; method §3: with no hazard that has
@@ -472,7 +432,7 @@ def test_band_not_covered_is_not_assessed(tmp_path, monkeypatch, diameter_mm, bl
 
 
 def test_band_gap_assumed_empty_with_no_emission_outside(tmp_path, monkeypatch):
-    path = write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, _lamp(VISIBLE_NM))
+    path = write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, white_lamp(VISIBLE_NM))
     a = hazard.assess(path, {**SIZE, "no_emission_outside": True})
     # method §5: the gap counts as zero and the assumption is printed in every output
     assert a.complete is True and a.not_assessed == []
@@ -491,7 +451,7 @@ def test_band_gap_assumed_empty_with_no_emission_outside(tmp_path, monkeypatch):
 
 def test_decimal_comma_with_semicolons_equals_decimal_point(tmp_path):
     # readers/delimited.py: decimal comma is read (European instrument exports); the numbers are the same
-    wl, values = VISIBLE_NM, _lamp(VISIBLE_NM)
+    wl, values = VISIBLE_NM, white_lamp(VISIBLE_NM)
     (tmp_path / "comma").mkdir(), (tmp_path / "point").mkdir()
     comma = tmp_path / "comma" / "lamp.csv"
     comma.write_text(
@@ -499,13 +459,13 @@ def test_decimal_comma_with_semicolons_equals_decimal_point(tmp_path):
         + "".join(f"{w!r};{v!r}\n".replace(".", ",") for w, v in zip(map(float, wl), map(float, values), strict=True))
     )
     point = write_spectrum(tmp_path / "point" / "lamp.csv", wl, values)
-    assert _same_result(hazard.assess(comma, SIZE), hazard.assess(point, SIZE))
+    assert same_result(hazard.assess(comma, SIZE), hazard.assess(point, SIZE))
 
 
 # --- several value columns ---------------------------------------------------------------------------------
 def _columns_file(tmp_path):
     wl = VISIBLE_NM
-    a, b = _lamp(wl), 3.0 * _lamp(wl)[::-1]
+    a, b = white_lamp(wl), 3.0 * white_lamp(wl)[::-1]
     path = tmp_path / "columns.csv"
     path.write_text(
         "wavelength_nm,a,b\n"

@@ -8,107 +8,35 @@ the others"). Bounds: hazard/record.py MAGNITUDE_BOUNDS and hazard/spectrum.py (
 source).
 """
 
-import contextlib
-import io
 import json
 import os
 import re
-import signal
-import zipfile
-from pathlib import Path
 
-import numpy as np
 import pytest
-from click.testing import CliRunner
-from conftest import write_spectrum
+from conftest import (
+    LAMP_FIELDS,
+    LAMP_NM,
+    MANIFEST_HEAD,
+    assert_exit_2,
+    assert_one_line,
+    bounded,
+    run_cli,
+    white_lamp,
+    write_lamp,
+    write_manifest,
+    write_spectrum,
+    write_xlsx,
+)
 
 import hazard
-from hazard.cli import main
 from hazard.errors import InputError
 from hazard.inputs.loading import load_product
 from hazard.inputs.manifest import read_manifest
 from hazard.inputs.readers import read_spectrum
 from hazard.inputs.readers.headers import header_statement, wavelength_scale
 
-GRID = np.arange(380.0, 781.0, 5.0)
-SIZE = {"distance_mm": 500.0, "source_diameter_mm": 30.0, "no_emission_outside": True}
-MANIFEST_HEAD = "id,spectrum,distance_mm,source_diameter_mm,no_emission_outside\n"
-
-
-def _lamp(grid=GRID):
-    """An invented white-ish lamp [W m⁻² nm⁻¹] (test data)."""
-    return 0.02 * np.exp(-0.5 * ((grid - 450) / 12) ** 2) + 0.03 * np.exp(-0.5 * ((grid - 570) / 60) ** 2)
-
-
-def _spectrum(folder: Path, name: str = "lamp.csv") -> Path:
-    return write_spectrum(folder / name, GRID, _lamp())
-
-
-@contextlib.contextmanager
-def _bounded(seconds: float):
-    """Fail instead of hanging: a case that once took minutes (or forever) must end; 10× margin and more."""
-
-    def expire(*_):
-        raise TimeoutError(f"still running after {seconds} s")
-
-    previous = signal.signal(signal.SIGALRM, expire)
-    signal.setitimer(signal.ITIMER_REAL, seconds)
-    try:
-        yield
-    finally:
-        signal.setitimer(signal.ITIMER_REAL, 0)
-        signal.signal(signal.SIGALRM, previous)
-
-
-def _one_line(exc: InputError, *fragments: str) -> str:
-    text = str(exc)
-    assert "\n" not in text and "\r" not in text and len(text) < 1200
-    for fragment in fragments:
-        assert fragment in text, text
-    return text
-
-
-def _cli(args, cwd: Path):
-    """The command in this process (CliRunner), run from ``cwd``."""
-    old = os.getcwd()
-    os.chdir(cwd)
-    try:
-        return CliRunner().invoke(main, args)
-    finally:
-        os.chdir(old)
-
-
-def _assert_exit_2(result, *fragments: str) -> str:
-    assert result.exit_code == 2, (result.exit_code, result.stderr, result.exception)
-    lines = result.stderr.splitlines()
-    assert len(lines) == 1 and lines[0].startswith("hazard: error: "), result.stderr
-    for fragment in fragments:
-        assert fragment in lines[0], lines[0]
-    return lines[0]
-
 
 # --- readers: input that escaped as an exception ------------------------------------------------------------
-def _xlsx(path: Path, rows, sheet_xml_edit=None) -> Path:
-    import openpyxl
-
-    book = openpyxl.Workbook()
-    for row in rows:
-        book.active.append(row)
-    buffer = io.BytesIO()
-    book.save(buffer)
-    if sheet_xml_edit is None:
-        path.write_bytes(buffer.getvalue())
-        return path
-    source = zipfile.ZipFile(io.BytesIO(buffer.getvalue()))
-    with zipfile.ZipFile(path, "w", zipfile.ZIP_DEFLATED) as out:
-        for item in source.infolist():
-            data = source.read(item.filename)
-            if item.filename == "xl/worksheets/sheet1.xml":
-                data = sheet_xml_edit(data)
-            out.writestr(item, data)
-    return path
-
-
 @pytest.mark.parametrize(
     ("edit", "fragment"),
     [
@@ -120,28 +48,28 @@ def _xlsx(path: Path, rows, sheet_xml_edit=None) -> Path:
 )
 def test_damaged_workbook_is_one_input_error(tmp_path, edit, fragment):
     # the workbook is read lazily: damage shows while rows are read, and must still be an input error
-    path = _xlsx(tmp_path / "w.xlsx", [["wavelength_nm", "value"], [400, 0.1], [410, 0.2], [420, 0.1]], edit)
+    path = write_xlsx(tmp_path / "w.xlsx", [["wavelength_nm", "value"], [400, 0.1], [410, 0.2], [420, 0.1]], edit)
     with pytest.raises(InputError) as caught:
         read_spectrum(str(path), display_path="w.xlsx")
-    _one_line(caught.value, "w.xlsx", fragment)
+    assert_one_line(caught.value, "w.xlsx", fragment)
 
 
 def test_workbook_claiming_millions_of_rows_is_refused_while_streaming(tmp_path):
     # one cell in row 3 000 000: the reader would create every empty row before it; the row limit stops it
-    path = _xlsx(
+    path = write_xlsx(
         tmp_path / "w.xlsx",
         [["wavelength_nm", "value"], [400, 0.1], [410, 0.2]],
         lambda xml: xml.replace(b"</sheetData>", b'<row r="3000000"><c r="A3000000"><v>1</v></c></row></sheetData>'),
     )
-    with _bounded(30), pytest.raises(InputError) as caught:
+    with bounded(30), pytest.raises(InputError) as caught:
         read_spectrum(str(path), display_path="w.xlsx")
-    _one_line(caught.value, "more than 100,000 rows")
+    assert_one_line(caught.value, "more than 100,000 rows")
 
 
 def test_workbook_that_unpacks_huge_is_refused_before_parsing(tmp_path):
     # 60 MB of sheet XML compresses to a small file (a zip bomb); the unpacked size is checked first
     padding = b"<!--" + b" " * (60 * 2**20) + b"-->"
-    path = _xlsx(
+    path = write_xlsx(
         tmp_path / "w.xlsx",
         [["wavelength_nm", "value"], [400, 0.1], [410, 0.2]],
         lambda xml: xml.replace(b"<sheetData>", padding + b"<sheetData>"),
@@ -149,16 +77,16 @@ def test_workbook_that_unpacks_huge_is_refused_before_parsing(tmp_path):
     assert path.stat().st_size < 2**20
     with pytest.raises(InputError) as caught:
         read_spectrum(str(path), display_path="w.xlsx")
-    _one_line(caught.value, "unpacks to")
+    assert_one_line(caught.value, "unpacks to")
 
 
 def test_workbook_date_and_bool_cells_are_named(tmp_path):
     import datetime
 
-    path = _xlsx(tmp_path / "w.xlsx", [["wavelength_nm", "value"], [400, 0.1], [410, datetime.date(2024, 1, 2)]])
+    path = write_xlsx(tmp_path / "w.xlsx", [["wavelength_nm", "value"], [400, 0.1], [410, datetime.date(2024, 1, 2)]])
     with pytest.raises(InputError) as caught:
         read_spectrum(str(path), display_path="w.xlsx")
-    _one_line(caught.value, "w.xlsx:3", "in a number column")
+    assert_one_line(caught.value, "w.xlsx:3", "in a number column")
 
 
 @pytest.mark.parametrize(
@@ -178,8 +106,8 @@ def test_json_decoder_limits_are_input_errors(tmp_path, content, fragment):
         assert raw.value.tolist() == [1.0, 2.0]
         return
     with pytest.raises(InputError) as caught:
-        load_product(path, SIZE)
-    _one_line(caught.value, fragment)
+        load_product(path, LAMP_FIELDS)
+    assert_one_line(caught.value, fragment)
 
 
 @pytest.mark.parametrize(("column", "fragment"), [(0, "count from 1"), (-1, "count from 1"), (3, "does not exist")])
@@ -188,39 +116,41 @@ def test_json_pairs_column_never_picks_the_wavelength(tmp_path, column, fragment
     path = tmp_path / "s.json"
     path.write_text(json.dumps([[400 + 10 * i, 0.01] for i in range(20)]))
     with pytest.raises(InputError) as caught:
-        load_product(path, {**SIZE, "column": column})
-    _one_line(caught.value, fragment)
+        load_product(path, {**LAMP_FIELDS, "column": column})
+    assert_one_line(caught.value, fragment)
 
 
 def test_json_with_an_unknown_unit_is_named(tmp_path):
     path = tmp_path / "s.json"
-    path.write_text(json.dumps({"wavelength_nm": GRID.tolist(), "value": _lamp().tolist(), "unit": "furlongs"}))
+    path.write_text(
+        json.dumps({"wavelength_nm": LAMP_NM.tolist(), "value": white_lamp(LAMP_NM).tolist(), "unit": "furlongs"})
+    )
     with pytest.raises(InputError) as caught:
-        load_product(path, SIZE)
-    _one_line(caught.value, "'furlongs'", "a unit this tool does not read")
+        load_product(path, LAMP_FIELDS)
+    assert_one_line(caught.value, "'furlongs'", "a unit this tool does not read")
 
 
 @pytest.mark.parametrize("column", ["²", "١", "9" * 5000])
 def test_column_that_looks_like_a_number_but_is_not(tmp_path, column):
     # "²".isdigit() is True but int("²") fails; a 5000-digit number exceeds int()'s limit
-    path = _spectrum(tmp_path)
+    path = write_lamp(tmp_path)
     with pytest.raises(InputError) as caught:
-        load_product(path, {**SIZE, "column": column})
-    _one_line(caught.value, "column")
+        load_product(path, {**LAMP_FIELDS, "column": column})
+    assert_one_line(caught.value, "column")
 
 
 def test_linear_time_header_and_number_patterns(tmp_path):
     # a 7 KB header cell once took 68 s (the bracketed-unit pattern) and a 21 KB cell 9.5 s (the number
     # pattern); both are now linear, and over-long cells are refused
-    with _bounded(10):
+    with bounded(10):
         assert header_statement("(" + " " * 7000 + "x(").unit is None
         with pytest.raises(InputError):  # not a unit this tool reads: refused, in bounded time
             wavelength_scale("(" + " " * 7000 + "µm(")
     path = tmp_path / "long.csv"
     path.write_text("wavelength_nm,value\n400,0.1\n410," + "1" * 21_000 + "x\n420,0.1\n")
-    with _bounded(10), pytest.raises(InputError) as caught:
+    with bounded(10), pytest.raises(InputError) as caught:
         read_spectrum(str(path), display_path="long.csv")
-    _one_line(caught.value, "long.csv:3", "cell of 21,001 characters")
+    assert_one_line(caught.value, "long.csv:3", "cell of 21,001 characters")
 
 
 @pytest.mark.parametrize(
@@ -244,7 +174,7 @@ def test_long_message_excerpts_are_short_and_printable(tmp_path):
     path.write_text("wavelength_nm,value\n400,0.1\n410,abc\x1b[2J" + "z" * 900 + "\n")
     with pytest.raises(InputError) as caught:
         read_spectrum(str(path), display_path="t.csv")
-    text = _one_line(caught.value, "t.csv:3")
+    text = assert_one_line(caught.value, "t.csv:3")
     assert "\x1b" not in text and "zzzz" in text and "z" * 100 not in text
 
 
@@ -252,26 +182,26 @@ def test_long_message_excerpts_are_short_and_printable(tmp_path):
 def test_fifo_record_manifest_and_check_input_are_refused_without_blocking(tmp_path):
     for name in ("r.toml", "m.csv"):
         os.mkfifo(tmp_path / name)
-    with _bounded(20):
+    with bounded(20):
         with pytest.raises(InputError) as caught:
             load_product(tmp_path / "r.toml")
-        _one_line(caught.value, "named pipe (FIFO)")
+        assert_one_line(caught.value, "named pipe (FIFO)")
         with pytest.raises(InputError) as caught:
             read_manifest(tmp_path / "m.csv")
-        _one_line(caught.value, "named pipe (FIFO)")
-        _assert_exit_2(_cli(["check", "m.csv"], tmp_path), "named pipe")
+        assert_one_line(caught.value, "named pipe (FIFO)")
+        assert_exit_2(run_cli(["check", "m.csv"], tmp_path), "named pipe")
 
 
 def test_device_behind_a_symlink_is_refused(tmp_path):
     (tmp_path / "zero.csv").symlink_to("/dev/zero")
     (tmp_path / "r.toml").symlink_to("/dev/zero")
-    with _bounded(20):
+    with bounded(20):
         with pytest.raises(InputError) as caught:
-            load_product(tmp_path / "zero.csv", SIZE)
-        _one_line(caught.value, "a device")
+            load_product(tmp_path / "zero.csv", LAMP_FIELDS)
+        assert_one_line(caught.value, "a device")
         with pytest.raises(InputError) as caught:
             load_product(tmp_path / "r.toml")
-        _one_line(caught.value, "a device")
+        assert_one_line(caught.value, "a device")
 
 
 def test_symlink_loop_nul_byte_long_name_and_folder(tmp_path):
@@ -285,14 +215,14 @@ def test_symlink_loop_nul_byte_long_name_and_folder(tmp_path):
     ]
     for path, fragment in cases:
         with pytest.raises(InputError) as caught:
-            load_product(path, SIZE)
-        _one_line(caught.value, fragment)
+            load_product(path, LAMP_FIELDS)
+        assert_one_line(caught.value, fragment)
     record = tmp_path / "r.toml"
     record.write_text('id = "x"\nspectrum = "a\\u0000b.csv"\ndistance_mm = 500\nsource_diameter_mm = 5\n')
     with pytest.raises(InputError) as caught:
         load_product(record)
-    _one_line(caught.value, "NUL byte")
-    _assert_exit_2(_cli(["assess", "x.toml"], tmp_path), "x.toml")
+    assert_one_line(caught.value, "NUL byte")
+    assert_exit_2(run_cli(["assess", "x.toml"], tmp_path), "x.toml")
 
 
 def test_folder_of_records_with_a_folder_named_like_a_record(tmp_path):
@@ -300,7 +230,7 @@ def test_folder_of_records_with_a_folder_named_like_a_record(tmp_path):
 
     records = tmp_path / "records"
     records.mkdir()
-    _spectrum(records)
+    write_lamp(records)
     (records / "good.toml").write_text('id = "G"\nspectrum = "lamp.csv"\ndistance_mm = 500\nsource_diameter_mm = 30\n')
     (records / "x.toml").mkdir()
     outcome = run_batch(records, tmp_path / "out")
@@ -309,12 +239,12 @@ def test_folder_of_records_with_a_folder_named_like_a_record(tmp_path):
 
 
 def test_invalid_size_limit_variable(tmp_path, monkeypatch):
-    path = _spectrum(tmp_path)
+    path = write_lamp(tmp_path)
     for value in ("abc", "-1", "nan", "inf", "0"):
         monkeypatch.setenv("HAZARD_MAX_FILE_MB", value)
         with pytest.raises(InputError) as caught:
-            load_product(path, SIZE)
-        _one_line(caught.value, "HAZARD_MAX_FILE_MB")
+            load_product(path, LAMP_FIELDS)
+        assert_one_line(caught.value, "HAZARD_MAX_FILE_MB")
 
 
 # --- records: numbers that overflowed the geometry or the parser --------------------------------------------
@@ -333,10 +263,10 @@ def test_invalid_size_limit_variable(tmp_path, monkeypatch):
     ],
 )
 def test_absurd_record_magnitudes_are_refused_with_the_bound(tmp_path, field, value):
-    path = _spectrum(tmp_path)
+    path = write_lamp(tmp_path)
     with pytest.raises(InputError) as caught:
-        load_product(path, {**SIZE, field: value})
-    _one_line(caught.value, f"{value:g}", "is not a usable", "give ")
+        load_product(path, {**LAMP_FIELDS, field: value})
+    assert_one_line(caught.value, f"{value:g}", "is not a usable", "give ")
 
 
 @pytest.mark.parametrize(
@@ -351,21 +281,21 @@ def test_toml_parser_limits_are_input_errors(tmp_path, text, fragment):
     record.write_text('id = "x"\n' + text)
     with pytest.raises(InputError) as caught:
         load_product(record)
-    _one_line(caught.value, "r.toml", fragment)
+    assert_one_line(caught.value, "r.toml", fragment)
 
 
 def test_spectral_values_near_the_float_limit_are_refused(tmp_path):
     # values near 1e305 once overflowed to infinity, were written as null and did not read back
-    path = write_spectrum(tmp_path / "big.csv", GRID, _lamp() * 1e307)
+    path = write_spectrum(tmp_path / "big.csv", LAMP_NM, white_lamp(LAMP_NM) * 1e307)
     with pytest.raises(InputError) as caught:
-        load_product(path, SIZE)
-    _one_line(caught.value, "big.csv", "not a plausible measurement")
+        load_product(path, LAMP_FIELDS)
+    assert_one_line(caught.value, "big.csv", "not a plausible measurement")
 
 
 def test_a_result_that_overflowed_never_leaves_the_engine(tmp_path):
     from hazard.assessment.guard import require_finite
 
-    good = hazard.assess(_spectrum(tmp_path), {**SIZE, "id": "P"})
+    good = hazard.assess(write_lamp(tmp_path), {**LAMP_FIELDS, "id": "P"})
     assert require_finite(good) is good
     hazards = dict(good.hazards)
     hazards["E_B" if "E_B" in hazards else "L_B"] = next(iter(hazards.values())).model_copy(
@@ -373,12 +303,12 @@ def test_a_result_that_overflowed_never_leaves_the_engine(tmp_path):
     )
     with pytest.raises(InputError) as caught:
         require_finite(good.model_copy(update={"hazards": hazards}))
-    _one_line(caught.value, "product 'P'", "came out as inf")
+    assert_one_line(caught.value, "product 'P'", "came out as inf")
 
 
 # --- manifests ------------------------------------------------------------------------------------------------
 def test_manifest_dialects_that_crashed(tmp_path):
-    _spectrum(tmp_path)
+    write_lamp(tmp_path)
     cases = {
         "cr.csv": MANIFEST_HEAD.replace("\n", "\r") + "A,lamp.csv,500,30,true\r",  # old spreadsheet exports
         "one.csv": "id\nA\n",  # a one-column header (the delimiter sniffer failed on it)
@@ -393,7 +323,7 @@ def test_manifest_dialects_that_crashed(tmp_path):
     big.write_text(MANIFEST_HEAD + "A,lamp.csv,500,30,true\n" + "B," + "x" * 140_000 + ",500,30,true\n")
     with pytest.raises(InputError) as caught:
         read_manifest(big)
-    _one_line(caught.value, "big.csv:3", "not a readable CSV row")
+    assert_one_line(caught.value, "big.csv:3", "not a readable CSV row")
 
 
 def test_xlsx_manifest_with_a_date_cell(tmp_path):
@@ -401,8 +331,8 @@ def test_xlsx_manifest_with_a_date_cell(tmp_path):
 
     from hazard.assessment.batch import run_batch
 
-    _spectrum(tmp_path)
-    path = _xlsx(
+    write_lamp(tmp_path)
+    path = write_xlsx(
         tmp_path / "m.xlsx",
         [
             ["id", "spectrum", "distance_mm", "source_diameter_mm", "name"],
@@ -416,13 +346,6 @@ def test_xlsx_manifest_with_a_date_cell(tmp_path):
 
 
 # --- one bad product never loses the batch --------------------------------------------------------------------
-def _manifest(folder: Path, ids, spectrum="lamp.csv") -> Path:
-    _spectrum(folder)
-    path = folder / "m.csv"
-    path.write_text(MANIFEST_HEAD + "".join(f"{i},{spectrum},500,30,true\n" for i in ids))
-    return path
-
-
 @pytest.mark.parametrize(("raised", "status"), [(OverflowError("math range error"), 3), (RuntimeError("a defect"), 1)])
 def test_a_failure_after_loading_is_that_products_error(tmp_path, monkeypatch, raised, status):
     import hazard.assessment.batch as batch
@@ -435,7 +358,7 @@ def test_a_failure_after_loading_is_that_products_error(tmp_path, monkeypatch, r
         return real(loaded, *args, **kwargs)
 
     monkeypatch.setattr(batch, "build_assessment", failing)
-    manifest = _manifest(tmp_path, ["A", "BAD", "C"])
+    manifest = write_manifest(tmp_path, ["A", "BAD", "C"])
     outcome = batch.run_batch(manifest, tmp_path / "out")
     assert outcome.exit_code == status and list(outcome.assessments) == ["A", "C"]
     summary = (tmp_path / "out" / "summary.csv").read_text().splitlines()
@@ -457,7 +380,7 @@ def test_a_report_that_fails_to_render_does_not_stop_the_others(tmp_path, monkey
         return real(assessment, *args, **kwargs)
 
     monkeypatch.setattr(hazard.reports, "render_assessment_pdf", failing)
-    outcome = run_batch(_manifest(tmp_path, ["A", "BAD"]), tmp_path / "out", pdf=True)
+    outcome = run_batch(write_manifest(tmp_path, ["A", "BAD"]), tmp_path / "out", pdf=True)
     assert outcome.exit_code == 1 and "a defect" in outcome.report_failures["BAD"]
     assert (tmp_path / "out" / "A.pdf").exists() and (tmp_path / "out" / "summary.pdf").exists()
     assert not (tmp_path / "out" / "BAD.pdf").exists()
@@ -474,39 +397,39 @@ def test_check_goes_on_after_a_failing_product(tmp_path, monkeypatch):
         return real(loaded, *args, **kwargs)
 
     monkeypatch.setattr(engine, "build_assessment", failing)
-    _manifest(tmp_path, ["A", "BAD", "C"])
-    result = _cli(["check", "m.csv"], tmp_path)
+    write_manifest(tmp_path, ["A", "BAD", "C"])
+    result = run_cli(["check", "m.csv"], tmp_path)
     assert result.exit_code == 3
     assert result.stdout.count(": computed ") == 2 and "BAD: error:" in result.stderr
 
 
 # --- outputs never touch inputs -------------------------------------------------------------------------------
 def test_assess_refuses_to_write_over_its_input(tmp_path):
-    path = _spectrum(tmp_path)
+    path = write_lamp(tmp_path)
     before = path.read_bytes()
     for option in ("--output", "--pdf"):
-        result = _cli(
+        result = run_cli(
             ["assess", "lamp.csv", "--distance-mm", "500", "--source-diameter-mm", "30", option, "lamp.csv"], tmp_path
         )
-        _assert_exit_2(result, "would replace an input file")
+        assert_exit_2(result, "would replace an input file")
     assert path.read_bytes() == before
 
 
 def test_batch_refuses_the_input_folder_and_foreign_folders(tmp_path):
     from hazard.assessment.batch import run_batch
 
-    manifest = _manifest(tmp_path, ["A"])
+    manifest = write_manifest(tmp_path, ["A"])
     (tmp_path / "summary.csv").write_text("the user's own file\n")
     with pytest.raises(InputError) as caught:
         run_batch(manifest, tmp_path)
-    _one_line(caught.value, "holds this run's input", "new sub-folder")
+    assert_one_line(caught.value, "holds this run's input", "new sub-folder")
     assert (tmp_path / "summary.csv").read_text() == "the user's own file\n"
     elsewhere = tmp_path / "mine"
     elsewhere.mkdir()
     (elsewhere / "notes.txt").write_text("keep me\n")
     with pytest.raises(InputError) as caught:
         run_batch(manifest, elsewhere)
-    _one_line(caught.value, "files that hazard did not write")
+    assert_one_line(caught.value, "files that hazard did not write")
     assert run_batch(manifest, tmp_path / "new" / "out").exit_code == 0  # a new sub-folder is fine
 
 
@@ -514,7 +437,7 @@ def test_colliding_ids_get_files_of_their_own(tmp_path):
     from hazard.assessment.batch import run_batch
 
     ids = ["lamp 1", "lamp_1", "a/b", "a_b", "summary", "...", "product", "Desk", "desk"]
-    manifest = _manifest(tmp_path, [f'"{i}"' for i in ids])
+    manifest = write_manifest(tmp_path, [f'"{i}"' for i in ids])
     outcome = run_batch(manifest, tmp_path / "out", per_product_json=True)
     assert outcome.exit_code == 0
     files = sorted(p.name for p in (tmp_path / "out").glob("*.json"))
@@ -532,24 +455,24 @@ def test_one_run_at_a_time_and_one_batch_per_folder(tmp_path):
     from hazard.assessment.batch import run_batch
     from hazard.assessment.outfolder import OutputFolder
 
-    manifest = _manifest(tmp_path, ["A"])
+    manifest = write_manifest(tmp_path, ["A"])
     out = tmp_path / "out"
     with OutputFolder(out, manifest, []):
         with pytest.raises(InputError) as caught:
             run_batch(manifest, out)
-        _one_line(caught.value, "another hazard run is writing into this folder", f"process {os.getpid()}")
+        assert_one_line(caught.value, "another hazard run is writing into this folder", f"process {os.getpid()}")
     assert run_batch(manifest, out).exit_code == 0
     other = tmp_path / "other.csv"
     other.write_text(manifest.read_text())
     with pytest.raises(InputError) as caught:
         run_batch(other, out)
-    _one_line(caught.value, "outputs of another batch")
+    assert_one_line(caught.value, "outputs of another batch")
 
 
 def test_resume_survives_a_torn_utf8_tail_and_removes_stale_temporaries(tmp_path):
     from hazard.assessment.batch import run_batch
 
-    manifest = _manifest(tmp_path, ["A", "B", "C"])
+    manifest = write_manifest(tmp_path, ["A", "B", "C"])
     out = tmp_path / "out"
     run_batch(manifest, out)
     clean = (out / "results.jsonl").read_bytes()
@@ -569,18 +492,18 @@ def test_full_disk_and_read_only_folder_are_one_line(tmp_path, monkeypatch):
 
     import hazard.output.atomic as atomic
 
-    _spectrum(tmp_path)
+    write_lamp(tmp_path)
     for code in (errno.ENOSPC, errno.EROFS):
 
         def refuse(*args, code=code, **kwargs):
             raise OSError(code, os.strerror(code), str(tmp_path / "out.json"))
 
         monkeypatch.setattr(atomic.tempfile, "mkstemp", refuse)
-        result = _cli(
+        result = run_cli(
             ["assess", "lamp.csv", "--distance-mm", "500", "--source-diameter-mm", "30", "--output", "out.json"],
             tmp_path,
         )
-        _assert_exit_2(result, "cannot write", os.strerror(code))
+        assert_exit_2(result, "cannot write", os.strerror(code))
         assert not (tmp_path / "out.json").exists()
 
 
@@ -593,7 +516,7 @@ def test_spectrum_paths_outside_the_manifest_folder_are_refused(tmp_path):
     (secret / "s.csv").write_text("wavelength_nm,value\n400,SECRET-CONTENT\n")
     vendor = tmp_path / "vendor"
     vendor.mkdir()
-    _spectrum(vendor)
+    write_lamp(vendor)
     (vendor / "link.csv").symlink_to(secret / "s.csv")
     manifest = vendor / "m.csv"
     manifest.write_text(
@@ -611,7 +534,7 @@ def test_spectrum_paths_outside_the_manifest_folder_are_refused(tmp_path):
 
 
 def test_report_refuses_a_result_that_does_not_read_back(tmp_path):
-    good = hazard.assess(_spectrum(tmp_path), {**SIZE, "id": "P"}).model_dump_json()
+    good = hazard.assess(write_lamp(tmp_path), {**LAMP_FIELDS, "id": "P"}).model_dump_json()
     cases = {
         "deep.json": "[" * 100_000,
         "torn.json": good[:300],
@@ -619,7 +542,7 @@ def test_report_refuses_a_result_that_does_not_read_back(tmp_path):
     }
     for name, text in cases.items():
         (tmp_path / name).write_text(text)
-        _assert_exit_2(_cli(["report", name, "--output", "r.pdf"], tmp_path), name)
+        assert_exit_2(run_cli(["report", name, "--output", "r.pdf"], tmp_path), name)
     (tmp_path / "good.json").write_text(good)
-    _assert_exit_2(_cli(["report", "good.json", "--output", "good.json"], tmp_path), "would replace an input")
+    assert_exit_2(run_cli(["report", "good.json", "--output", "good.json"], tmp_path), "would replace an input")
     assert not (tmp_path / "r.pdf").exists()

@@ -11,7 +11,7 @@ import math
 import numpy as np
 import pytest
 from click.testing import CliRunner
-from conftest import triangle_line, write_spectrum
+from conftest import gaussians, rank, triangle_line, write_spectrum
 from hypothesis import HealthCheck, assume, given, settings
 from hypothesis import strategies as st
 
@@ -39,10 +39,6 @@ def _assess(values, **fields):
     )
     loaded = LoadedProduct(record=record, spectrum=spectrum, inputs={"mem.csv": "0" * 64}, metadata={})
     return build_assessment(loaded, evaluate_loaded([loaded]), 0, studies=False)
-
-
-def _rank(group):
-    return -1 if group is None else GROUPS.index(group)
 
 
 def _top_down(compared, limits):
@@ -81,13 +77,6 @@ SHAPES = st.one_of(
 """Discs and rectangles of 0.05-100 mm (the issue's range)."""
 
 
-def _spectrum(lines):
-    out = np.zeros_like(GRID)
-    for centre, width, peak in lines:
-        out += peak * np.exp(-0.5 * ((GRID - centre) / width) ** 2)
-    return out
-
-
 @SETTINGS
 @given(
     lines=LINES,
@@ -96,7 +85,7 @@ def _spectrum(lines):
     peak_to_mean=st.sampled_from([1.0, 1.0, 3.0]),
 )
 def test_groups_agree_with_their_values_limits_and_t_max(lines, shape, distance_mm, peak_to_mean):
-    a = _assess(_spectrum(lines), distance_mm=distance_mm, peak_to_mean_radiance=peak_to_mean, **shape)
+    a = _assess(gaussians(GRID, lines), distance_mm=distance_mm, peak_to_mean_radiance=peak_to_mean, **shape)
     grouped = []
     for symbol, h in a.hazards.items():
         if h.risk_group is None:
@@ -105,7 +94,7 @@ def test_groups_agree_with_their_values_limits_and_t_max(lines, shape, distance_
         # (a) the group is the top-down reading of its own compared values and limits (method §3); only a t_max
         # that reaches the limit before the group's time base may raise it, and the note then says so
         reading = _top_down(h.compared, h.limits)
-        assert _rank(h.risk_group) >= _rank(reading), symbol
+        assert rank(h.risk_group) >= rank(reading), symbol
         if h.risk_group != reading:
             assert "raised" in h.note, (symbol, h.note)
         # (b) group and t_max agree with the time bases (IEC 62471:2006 Table 6.1; 3 % for its rounding): t_max
@@ -113,14 +102,14 @@ def test_groups_agree_with_their_values_limits_and_t_max(lines, shape, distance_
         # (the value is within 3 % of the boundary below) or from L_IR, whose limit holds beyond 10 s, the time
         # base of its RG2 boundary (IEC 62471:2006 4.3.6)
         implied = _group_from_t_max(h.t_max_s, h.time_bases_s, ROUNDING)
-        assert _rank(implied) <= _rank(h.risk_group), (symbol, h.t_max_s, h.risk_group)
-        if _rank(h.risk_group) > _rank(_group_from_t_max(h.t_max_s, h.time_bases_s, -ROUNDING)):
-            below = GROUPS[_rank(h.risk_group) - 1]
+        assert rank(implied) <= rank(h.risk_group), (symbol, h.t_max_s, h.risk_group)
+        if rank(h.risk_group) > rank(_group_from_t_max(h.t_max_s, h.time_bases_s, -ROUNDING)):
+            below = GROUPS[rank(h.risk_group) - 1]
             within_rounding = h.margins[below] <= 1 + ROUNDING
             weak_stimulus_step = symbol == "L_IR" and h.t_max_s is not None and h.t_max_s <= 10.0
             assert within_rounding or weak_stimulus_step, (symbol, h.t_max_s, h.risk_group, h.margins)
     # (c) the overall group is the highest (method §3), null when none was determined
-    assert a.risk_group == (GROUPS[max(map(_rank, grouped))] if grouped else None)
+    assert a.risk_group == (GROUPS[max(map(rank, grouped))] if grouped else None)
 
 
 @SETTINGS
@@ -129,12 +118,12 @@ def test_scaling_a_spectrum_up_never_lowers_a_group(lines, shape, scale):
     # (d) every compared value grows with the spectrum (non-negative weights, method §2); the limits depend on
     # the geometry only. The weak-visual-stimulus switch (10 cd/m2, IEC 62471:2006 4.3.6) is a documented
     # exception (tests/test_invariants.py), so the luminance class is held fixed.
-    values = _spectrum(lines)
+    values = gaussians(GRID, lines)
     base, grown = _assess(values, **shape), _assess(values * scale, **shape)
     assume(base.geometry.weak_visual_stimulus == grown.geometry.weak_visual_stimulus)
     for symbol, h in base.hazards.items():
-        assert _rank(grown.hazards[symbol].risk_group) >= _rank(h.risk_group), symbol
-    assert _rank(grown.risk_group) >= _rank(base.risk_group)
+        assert rank(grown.hazards[symbol].risk_group) >= rank(h.risk_group), symbol
+    assert rank(grown.risk_group) >= rank(base.risk_group)
 
 
 def test_small_red_emitter_is_rg3_not_exempt():
@@ -407,5 +396,5 @@ def test_blue_light_transfer_only_for_mainly_visible_sources():
     # gets none
     visible_trace = triangle_line(GRID, 555.0, 1e-4, 5.0)
     ir = _assess(triangle_line(GRID, 940.0, 5.0, 20.0) + visible_trace, source_diameter_mm=5.0)
-    white = _assess(_spectrum([(450.0, 10.0, 0.5), (580.0, 60.0, 0.4)]), source_diameter_mm=5.0)
+    white = _assess(gaussians(GRID, [(450.0, 10.0, 0.5), (580.0, 60.0, 0.4)]), source_diameter_mm=5.0)
     assert ir.blue_light_transfer is None and white.blue_light_transfer is not None

@@ -11,41 +11,23 @@ import math
 
 import numpy as np
 import pytest
-from conftest import assess_arrays, triangle_line
+from conftest import assess_arrays, gaussians, log_uniform, rank, triangle_line
 from hypothesis import HealthCheck, assume, given, settings
 from hypothesis import strategies as st
-
-from hazard.standards import GROUPS
 
 FAST = settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 GRID = np.arange(200.0, 3000.5, 1.0)
 """200–3000 nm at 1 nm: spans every hazard band (method §1), so coverage never decides."""
 
 
-def _gaussians(wavelength_nm, lines):
-    wl = np.asarray(wavelength_nm, dtype=float)
-    out = np.zeros_like(wl)
-    for centre, sigma, amplitude in lines:
-        out += amplitude * np.exp(-0.5 * ((wl - centre) / sigma) ** 2)
-    return out
-
-
-def _log_uniform(lo, hi):
-    return st.floats(math.log10(lo), math.log10(hi)).map(lambda x: 10.0**x)
-
-
 LINES = st.lists(
-    st.tuples(st.floats(200.0, 3000.0), st.floats(1.0, 300.0), _log_uniform(1e-6, 10.0)), min_size=1, max_size=4
+    st.tuples(st.floats(200.0, 3000.0), st.floats(1.0, 300.0), log_uniform(1e-6, 10.0)), min_size=1, max_size=4
 )
 """Gaussian lines anywhere in 200–3000 nm, narrow (1 nm) to broad, over seven decades [nm, nm, W m⁻² nm⁻¹]."""
 
 
 def _folder(tmp_path_factory, name):
     return tmp_path_factory.mktemp(name, numbered=True)
-
-
-def _rank(group):
-    return GROUPS.index(group)  # Exempt < RG1 < RG2 < RG3 (IEC 62471:2006 §6.1)
 
 
 # --- scaling by k ------------------------------------------------------------------------------------------
@@ -69,17 +51,17 @@ IR_FLOOR = 20.0
 
 def _floor(wavelength_nm):
     wl = np.asarray(wavelength_nm, dtype=float)
-    return _gaussians(wl, FLOOR_LINES) + np.where(wl >= 780.0, IR_FLOOR, 0.0)
+    return gaussians(wl, FLOOR_LINES) + np.where(wl >= 780.0, IR_FLOOR, 0.0)
 
 
 @FAST
 @given(
-    extra=st.lists(st.tuples(st.floats(200.0, 3000.0), st.floats(1.0, 300.0), _log_uniform(1e-4, 10.0)), max_size=3),
+    extra=st.lists(st.tuples(st.floats(200.0, 3000.0), st.floats(1.0, 300.0), log_uniform(1e-4, 10.0)), max_size=3),
     k=st.floats(0.5, 4.0),
     diameter_mm=st.floats(0.5, 8.0),
 )
 def test_scaling_scales_values_by_k_and_t_max_by_a_power_of_k(tmp_path_factory, extra, k, diameter_mm):
-    values = _floor(GRID) + _gaussians(GRID, extra)
+    values = _floor(GRID) + gaussians(GRID, extra)
     folder = _folder(tmp_path_factory, "scaling")
     base = assess_arrays(folder, GRID, values, name="base", source_diameter_mm=diameter_mm)
     scaled = assess_arrays(folder, GRID, k * values, name="scaled", source_diameter_mm=diameter_mm)
@@ -115,11 +97,11 @@ def _assert_never_improves(base, grown):
         g = grown.hazards[symbol]
         assert g.value >= b.value * (1 - 1e-12), symbol  # non-negative weights (method §2)
         if b.risk_group is not None:
-            assert _rank(g.risk_group) >= _rank(b.risk_group), symbol
+            assert rank(g.risk_group) >= rank(b.risk_group), symbol
         # t_max falls as the value rises; None means the limit is never reached (method §1)
         if b.t_max_s is not None:
             assert g.t_max_s is not None and g.t_max_s <= b.t_max_s * (1 + 1e-12), symbol
-    assert _rank(grown.risk_group) >= _rank(base.risk_group)
+    assert base.risk_group is not None and rank(grown.risk_group) >= rank(base.risk_group)
 
 
 @FAST
@@ -128,8 +110,8 @@ def test_group_never_improves_when_the_spectrum_grows(tmp_path_factory, first, a
     """Non-GLS lamps only: a GLS lamp is assessed where it gives 500 lx, so more light moves it further away
     and can lower its group (method §4; see the GLS tests below)."""
     folder = _folder(tmp_path_factory, "grows")
-    a = _gaussians(GRID, first)
-    b = _gaussians(GRID, added)
+    a = gaussians(GRID, first)
+    b = gaussians(GRID, added)
     fields = {"source_diameter_mm": diameter_mm, "distance_mm": distance_mm, "lamp_type": "other"}
     base = assess_arrays(folder, GRID, a, name="base", **fields)
     grown = assess_arrays(folder, GRID, a + b, name="grown", **fields)
@@ -147,8 +129,8 @@ def test_group_can_improve_when_the_source_stops_being_a_weak_visual_stimulus(tm
     71000/α (IEC 62471:2006 Table 6.1; method §1, §3). The group then falls although the spectrum only grew.
     """
     folder = _folder(tmp_path_factory, "weak")
-    ir = _gaussians(GRID, [(1000.0, 50.0, 20.0)])
-    trace = _gaussians(GRID, [(555.0, 20.0, 1e-4)])
+    ir = gaussians(GRID, [(1000.0, 50.0, 20.0)])
+    trace = gaussians(GRID, [(555.0, 20.0, 1e-4)])
     fields = {"source_diameter_mm": 10.0}  # α = 10/200 = 0.05 rad
     base = assess_arrays(folder, GRID, ir, name="ir", **fields)
     grown = assess_arrays(folder, GRID, ir + trace, name="ir_trace", **fields)
@@ -159,7 +141,7 @@ def test_group_can_improve_when_the_source_stops_being_a_weak_visual_stimulus(tm
     assert 6000 / 0.05 < l_ir.value < 28000 / 0.05  # chosen so: above the L_IR limit, below L_R's Exempt
     assert l_r.value == pytest.approx(l_ir.value, rel=1e-3)  # the visible trace adds almost nothing
     assert l_ir.risk_group == "RG3" and l_r.risk_group == "Exempt"
-    assert base.risk_group == "RG3" and _rank(grown.risk_group) < _rank(base.risk_group)
+    assert base.risk_group == "RG3" and grown.risk_group is not None and rank(grown.risk_group) < rank(base.risk_group)
 
 
 @FAST
@@ -169,8 +151,8 @@ def test_gls_distance_never_shrinks_when_the_spectrum_grows(tmp_path_factory, fi
     §4). More light moves that point further away, which lowers the irradiance there, so the group of a GLS
     lamp may legitimately improve as its spectrum grows (next test); what must hold is the distance rule."""
     folder = _folder(tmp_path_factory, "gls")
-    a = _gaussians(GRID, first)
-    b = _gaussians(GRID, added)
+    a = gaussians(GRID, first)
+    b = gaussians(GRID, added)
     fields = {"source_diameter_mm": diameter_mm, "distance_mm": 500.0, "lamp_type": "gls"}
     base = assess_arrays(folder, GRID, a, name="base", **fields)
     grown = assess_arrays(folder, GRID, a + b, name="grown", **fields)
@@ -185,8 +167,8 @@ def test_gls_distance_never_shrinks_when_the_spectrum_grows(tmp_path_factory, fi
 
 def test_gls_group_can_improve_when_the_spectrum_grows(tmp_path_factory):
     folder = _folder(tmp_path_factory, "gls_example")
-    uv = _gaussians(GRID, [(300.0, 15.0, 1e-4)])
-    light = _gaussians(GRID, [(555.0, 30.0, 1.0)])  # no UV to speak of: its 300 nm tail is e^-36
+    uv = gaussians(GRID, [(300.0, 15.0, 1e-4)])
+    light = gaussians(GRID, [(555.0, 30.0, 1.0)])  # no UV to speak of: its 300 nm tail is e^-36
     fields = {"source_diameter_mm": 10.0, "distance_mm": 200.0, "lamp_type": "gls"}
     base = assess_arrays(folder, GRID, uv, name="uv", **fields)
     grown = assess_arrays(folder, GRID, uv + light, name="uv_light", **fields)
@@ -195,7 +177,7 @@ def test_gls_group_can_improve_when_the_spectrum_grows(tmp_path_factory):
     ratio = (base.assessment_distance_mm / grown.assessment_distance_mm) ** 2
     assert grown.hazards["E_S"].value == pytest.approx(base.hazards["E_S"].value * ratio, rel=1e-6)
     assert base.hazards["E_S"].value > 0.001  # above the Exempt limit at 200 mm (Table 6.1)
-    assert _rank(grown.risk_group) < _rank(base.risk_group)
+    assert grown.risk_group is not None and rank(grown.risk_group) < rank(base.risk_group)
 
 
 # --- descending input equals ascending input ---------------------------------------------------------------
@@ -255,8 +237,8 @@ def _resampled_pair(folder, lines, fine_step_nm, diameter_mm):
     coarse_nm = np.arange(300.0, 1100.5, 1.0)
     fine_nm = 300.0 + fine_step_nm * np.arange(round(800 / fine_step_nm) + 1)
     fields = {"source_diameter_mm": diameter_mm, "no_emission_outside": True}
-    coarse = assess_arrays(folder, coarse_nm, _gaussians(coarse_nm, lines), name="coarse", **fields)
-    fine = assess_arrays(folder, fine_nm, _gaussians(fine_nm, lines), name="fine", **fields)
+    coarse = assess_arrays(folder, coarse_nm, gaussians(coarse_nm, lines), name="coarse", **fields)
+    fine = assess_arrays(folder, fine_nm, gaussians(fine_nm, lines), name="fine", **fields)
     return coarse, fine
 
 
@@ -320,7 +302,7 @@ def _record(quantity, diameter_mm):
 
 
 @FAST
-@given(case=st.sampled_from(CONSTANT_WEIGHT), data=st.data(), peak=_log_uniform(10.0, 1e4))
+@given(case=st.sampled_from(CONSTANT_WEIGHT), data=st.data(), peak=log_uniform(10.0, 1e4))
 def test_narrow_line_where_the_weight_is_constant(tmp_path_factory, case, data, peak):
     symbol, quantity, diameter_mm, (lo, hi), weight = case
     centre = data.draw(st.floats(lo + 1.0, hi - 1.0))  # the line's base stays inside the stretch

@@ -4,14 +4,12 @@ the fonts and the report time behave as documented."""
 
 import datetime
 import doctest
-import io
 import math
 import re
 from itertools import pairwise
 
 import pytest
-from conftest import LINEUP
-from pypdf import PdfReader
+from conftest import EXPECTED_GROUP, FOOTER, LINEUP, RENDERED_AT, normalise, pdf_pages, with_tightest
 
 import hazard
 import hazard.reports.fonts
@@ -26,42 +24,12 @@ from hazard.reports.fonts import register_fonts
 from hazard.reports.ranking import is_borderline, tightest_margin
 from hazard.result import Assessment, UncertaintyStudy
 
-RENDERED_AT = datetime.datetime(2024, 6, 1, 12, 0, tzinfo=datetime.UTC)
-
-# examples/README.md: "the line-up spans the groups: Exempt (desk lamp, indicator), RG1 (spotlight, IR
-# illuminator), RG2 (far-UV-C lamp, horticulture spotlight), RG3 (curing lamp, germicidal lamp, heater)"
-EXPECTED_GROUP = {
-    "cl-desk-30": "Exempt",
-    "cl-pip-470": "Exempt",
-    "cl-spot-65": "RG1",
-    "cl-ir-940": "RG1",
-    "cl-far-222": "RG2",
-    "cl-grow-30": "RG2",
-    "cl-cure-365": "RG3",
-    "cl-germ-254": "RG3",
-    "cl-heat-2k": "RG3",
-}
-FOOTER = "Pre-screen only — not a certification"  # project contract: README "a pre-screen, not a certification"
 SECTION = "Distance, uncertainty and remedies"  # project contract: issue "Beyond the label", the section's title
-
-
-def _normalise(text: str) -> str:
-    return re.sub(r"\s+", " ", text).strip()
-
-
-def _pages(pdf: bytes) -> list[str]:
-    """Whitespace-normalised text of each page (pypdf breaks lines where the layout wraps them)."""
-    return [_normalise(page.extract_text()) for page in PdfReader(io.BytesIO(pdf)).pages]
 
 
 def _row_pattern(symbol: str, title: str, value: str, unit: str) -> str:
     """A hazard-table row as extracted: symbol, title (possibly wrapped), value, unit, in that order."""
     return r"\s".join(re.escape(part) for part in (symbol, *title.split(), value, unit))
-
-
-@pytest.fixture(scope="module")
-def lineup() -> dict[str, Assessment]:
-    return {stem: hazard.assess(LINEUP / f"{stem}.toml") for stem in EXPECTED_GROUP}
 
 
 @pytest.fixture(scope="module")
@@ -71,7 +39,7 @@ def lineup_pdfs(lineup) -> dict[str, bytes]:
 
 @pytest.mark.parametrize("stem", sorted(EXPECTED_GROUP))
 def test_product_report_pages_hold_their_facts(stem, lineup, lineup_pdfs):
-    a, pages = lineup[stem], _pages(lineup_pdfs[stem])
+    a, pages = lineup[stem], pdf_pages(lineup_pdfs[stem])
     # hazard/assessment: hazard.assess computes distances and remedies by default; project contract
     # (reports/__init__.py): page 1 at a glance, page 2 input and method, then the studies from page 3 (a
     # pulsed emission table or a daily exposure section may carry them onto further pages)
@@ -89,7 +57,7 @@ def test_product_report_pages_hold_their_facts(stem, lineup, lineup_pdfs):
         ), h.symbol
     for caution in a.cautions:
         # project contract: hazard/cautions.py, every chosen caution on page 1 and in full at the end
-        assert _normalise(caution) in first and _normalise(caution) in pages[-1]
+        assert normalise(caution) in first and normalise(caution) in pages[-1]
     for digest in (*a.provenance.inputs.values(), *(t["sha256"] for t in a.provenance.tables.values())):
         assert digest in text  # project contract: README "full provenance" (input and table SHA-256)
     assert "2024-06-01 12:00 UTC" in first  # the date shown is rendered_at, in UTC
@@ -102,12 +70,12 @@ def test_incomplete_report_says_lower_bound_and_why(tmp_path):
     # without the record's no-emission statement E_S is not assessed (design/method.md §5, coverage)
     a = hazard.assess(LINEUP / "cl-heat-2k.toml", {"no_emission_outside": False})
     assert a.not_assessed == ["E_S"] and not a.complete
-    pages = _pages(render_assessment_pdf(a, RENDERED_AT))
+    pages = pdf_pages(render_assessment_pdf(a, RENDERED_AT))
     # project contract: reports/__init__.py, three pages with the studies, and one more for the record's
     # daily exposures (examples/lineup/cl-heat-2k.toml states some)
     assert a.exposure is not None and len(pages) == 4
     assert "LOWER BOUND — not all hazards assessed" in pages[0]  # project brief: shown prominently
-    assert _normalise(a.hazards["E_S"].note) in pages[0]  # the reason, from the result's own note
+    assert normalise(a.hazards["E_S"].note) in pages[0]  # the reason, from the result's own note
     assert "INCOMPLETE" in pages[0]
 
 
@@ -117,10 +85,10 @@ def test_contradicted_vendor_claim_is_named_on_page_one(lineup, lineup_pdfs):
     # claim (the CCT claim is checked with its own tolerance, consistent here)
     a = lineup["cl-spot-65"]
     assert [(c.claim, c.verdict) for c in a.claims] == [("risk group", "contradicted"), ("CCT", "consistent")]
-    pages = _pages(lineup_pdfs["cl-spot-65"])
+    pages = pdf_pages(lineup_pdfs["cl-spot-65"])
     assert "1 CONTRADICTED (risk group: claimed Exempt, computed RG1), 1 consistent" in pages[0]
-    assert _normalise(a.claims[0].reason) in pages[1]
-    summary = " ".join(_pages(render_summary_pdf([a], [], RENDERED_AT)))
+    assert normalise(a.claims[0].reason) in pages[1]
+    summary = " ".join(pdf_pages(render_summary_pdf([a], [], RENDERED_AT)))
     assert "1 vendor claim CONTRADICTED" in summary
 
 
@@ -130,10 +98,10 @@ def test_without_studies_the_report_has_two_pages(lineup):
     bare = lineup["cl-heat-2k"].model_copy(
         update={"distances": None, "uncertainty": None, "remedies": None, "exposure": None}
     )
-    pages = _pages(render_assessment_pdf(bare, RENDERED_AT))
+    pages = pdf_pages(render_assessment_pdf(bare, RENDERED_AT))
     assert len(pages) == 2 and SECTION not in " ".join(pages)
     for caution in bare.cautions:
-        assert _normalise(caution) in pages[-1]  # hazard/cautions.py: every caution in full at the end
+        assert normalise(caution) in pages[-1]  # hazard/cautions.py: every caution in full at the end
 
 
 def test_page_one_names_the_page_the_studies_start_on(lineup):
@@ -143,14 +111,14 @@ def test_page_one_names_the_page_the_studies_start_on(lineup):
     long = a.model_copy(
         update={"assumptions": a.assumptions + [f"Assumption {i}: " + "an invented line. " * 12 for i in range(25)]}
     )
-    pages = _pages(render_assessment_pdf(long, RENDERED_AT))
+    pages = pdf_pages(render_assessment_pdf(long, RENDERED_AT))
     assert [number for number, page in enumerate(pages, start=1) if page.startswith(SECTION)] == [4]
     assert "— page 4" in pages[0] and "(page 4)" in pages[0] and "page 3" not in pages[0]
 
 
 def test_heater_distances_and_remedies_are_printed(lineup, lineup_pdfs):
     a = lineup["cl-heat-2k"]
-    first, third = _pages(lineup_pdfs["cl-heat-2k"])[0], _pages(lineup_pdfs["cl-heat-2k"])[2]
+    first, third = pdf_pages(lineup_pdfs["cl-heat-2k"])[0], pdf_pages(lineup_pdfs["cl-heat-2k"])[2]
     e_ir = a.hazards["E_IR"]
     # IEC 62471:2006 Table 6.1: the E_IR Exempt limit is 100 W/m2; examples/README.md: the heater is RG3 by E_IR,
     # the last family to reach Exempt (its blue light is only RG1)
@@ -186,19 +154,19 @@ def test_uncertainty_verdict_is_printed_on_page_one_and_three(lineup, lineup_pdf
     edge = hazard.assess(LINEUP / "cl-spot-65.toml", {"at_distance_mm": 2700.0})
     assert edge.risk_group == "RG1" and 1.0 < edge.hazards["L_B"].margins["Exempt"] < 1 / 0.9
     assert edge.uncertainty.verdict == "borderline"
-    pages = _pages(render_assessment_pdf(edge, RENDERED_AT))
+    pages = pdf_pages(render_assessment_pdf(edge, RENDERED_AT))
     assert len(pages) == 3
     # project contract: issue "Beyond the label", "borderline" next to the overall group on page 1
     assert re.search(r"what-if at 2700 mm RG1 BORDERLINE WHAT-IF at 2700 mm", pages[0])  # issue: what-if
     assert "What-if group at 2700 mm: RG1" in pages[0] and "Overall risk group" not in pages[0]
-    assert f"Uncertainty: BORDERLINE — {_normalise(edge.uncertainty.note)}" in pages[0]
-    assert f"BORDERLINE — overall group Exempt to RG1: {_normalise(edge.uncertainty.note)}" in pages[2]
+    assert f"Uncertainty: BORDERLINE — {normalise(edge.uncertainty.note)}" in pages[0]
+    assert f"BORDERLINE — overall group Exempt to RG1: {normalise(edge.uncertainty.note)}" in pages[2]
     assert "blue light (L_B)" in pages[2] and "Exempt to RG1 (changes)" in pages[2]
     # the heater's deciding E_IR is 2x its RG2 limit (examples/README.md, the result's margin): ±10 % cannot
     # move it out of RG3
     robust = lineup["cl-heat-2k"]
     assert robust.uncertainty.verdict == "robust"
-    pages = _pages(lineup_pdfs["cl-heat-2k"])
+    pages = pdf_pages(lineup_pdfs["cl-heat-2k"])
     assert "Uncertainty: ROBUST" in pages[0] and "ROBUST — overall group RG3" in pages[2]
     assert "BORDERLINE" not in pages[0] and "(borderline)" not in pages[1]  # page 1; the running header
 
@@ -245,25 +213,10 @@ def test_without_dejavu_greek_is_spelled_out(tmp_path, monkeypatch, lineup):
     fallback = register_fonts(tmp_path)  # an empty folder: DejaVu Sans is not there
     assert (fallback.regular, fallback.greek) == ("Vera", False)
     monkeypatch.setattr(hazard.reports.layout, "report_fonts", lambda: fallback)
-    text = " ".join(_pages(render_assessment_pdf(lineup["cl-pip-470"], RENDERED_AT)))
+    text = " ".join(pdf_pages(render_assessment_pdf(lineup["cl-pip-470"], RENDERED_AT)))
     assert "alpha" in text and "lambda" in text and "gamma" in text
     assert not {"α", "λ", "γ"} & set(text)
     assert "Ω_s" in text and "µs" in text  # Vera has Ω and µ, so they stay
-
-
-def _with_tightest(a: Assessment, new_id: str, group: str, margins: dict[str, float]) -> Assessment:
-    """``a`` re-labelled: one deciding hazard (E_UVA) in ``group`` with the given value/limit ratios, and no
-    uncertainty study (the line-up records state an uncertainty), so the margin rule flags it."""
-    hazard_result = a.hazards["E_UVA"].model_copy(update={"risk_group": group, "margins": margins})
-    return a.model_copy(
-        update={
-            "id": new_id,
-            "risk_group": group,
-            "deciding_hazards": ["E_UVA"],
-            "hazards": {**a.hazards, "E_UVA": hazard_result},
-            "uncertainty": None,
-        }
-    )
 
 
 def test_rank_orders_groups_then_headroom(lineup):
@@ -273,13 +226,13 @@ def test_rank_orders_groups_then_headroom(lineup):
     # group's upper boundary first
     base = lineup["cl-cure-365"]
     products = [
-        _with_tightest(base, "E-LOW", "Exempt", {"Exempt": 0.1, "RG1": 0.03, "RG2": 0.01}),
-        _with_tightest(base, "RG2-TIGHT", "RG2", {"Exempt": 90.0, "RG1": 27.0, "RG2": 0.9}),
-        _with_tightest(base, "RG3-FAR", "RG3", {"Exempt": 500.0, "RG1": 150.0, "RG2": 50.0}),
-        _with_tightest(base, "RG1-LOOSE", "RG1", {"Exempt": 2.0, "RG1": 0.6, "RG2": 0.2}),
-        _with_tightest(base, "RG2-LOOSE", "RG2", {"Exempt": 10.0, "RG1": 3.0, "RG2": 0.1}),
-        _with_tightest(base, "RG3-NEAR", "RG3", {"Exempt": 12.0, "RG1": 4.0, "RG2": 1.2}),
-        _with_tightest(base, "E-HIGH", "Exempt", {"Exempt": 0.7, "RG1": 0.2, "RG2": 0.07}),
+        with_tightest(base, "E-LOW", "Exempt", {"Exempt": 0.1, "RG1": 0.03, "RG2": 0.01}),
+        with_tightest(base, "RG2-TIGHT", "RG2", {"Exempt": 90.0, "RG1": 27.0, "RG2": 0.9}),
+        with_tightest(base, "RG3-FAR", "RG3", {"Exempt": 500.0, "RG1": 150.0, "RG2": 50.0}),
+        with_tightest(base, "RG1-LOOSE", "RG1", {"Exempt": 2.0, "RG1": 0.6, "RG2": 0.2}),
+        with_tightest(base, "RG2-LOOSE", "RG2", {"Exempt": 10.0, "RG1": 3.0, "RG2": 0.1}),
+        with_tightest(base, "RG3-NEAR", "RG3", {"Exempt": 12.0, "RG1": 4.0, "RG2": 1.2}),
+        with_tightest(base, "E-HIGH", "Exempt", {"Exempt": 0.7, "RG1": 0.2, "RG2": 0.07}),
     ]
     assert [a.id for a in rank_assessments(products)] == [
         "RG3-NEAR",
@@ -321,7 +274,7 @@ def test_rank_of_the_lineup(lineup):
 def test_borderline_within_a_factor_of_a_boundary(lineup, group, margins, expected):
     # project contract (summary brief): borderline when the tightest hazard's value/limit lies in 0.8-1.25
     # for the limit above or below it
-    assert is_borderline(_with_tightest(lineup["cl-cure-365"], "X", group, margins)) is expected
+    assert is_borderline(with_tightest(lineup["cl-cure-365"], "X", group, margins)) is expected
 
 
 def test_summary_ranks_flags_and_lists_failures(tmp_path, lineup):
@@ -334,9 +287,9 @@ def test_summary_ranks_flags_and_lists_failures(tmp_path, lineup):
         hazard.assess(bad)
     reason = f"{failure.value}\nsecond line, not shown"
     incomplete = hazard.assess(LINEUP / "cl-heat-2k.toml", {"no_emission_outside": False, "id": "CL-HEAT-RAW"})
-    borderline = _with_tightest(lineup["cl-cure-365"], "CL-EDGE", "RG2", {"Exempt": 9.0, "RG1": 2.7, "RG2": 0.9})
+    borderline = with_tightest(lineup["cl-cure-365"], "CL-EDGE", "RG2", {"Exempt": 9.0, "RG1": 2.7, "RG2": 0.9})
     products = [*lineup.values(), incomplete, borderline]
-    pages = _pages(render_summary_pdf(products, [("CL-BAD-1", reason)], RENDERED_AT))
+    pages = pdf_pages(render_summary_pdf(products, [("CL-BAD-1", reason)], RENDERED_AT))
     text = " ".join(pages)
     positions = [text.index(a.id + " ") for a in rank_assessments(products)]
     assert positions == sorted(positions)  # rows in rank order (project contract: reports/ranking.py)
@@ -346,9 +299,9 @@ def test_summary_ranks_flags_and_lists_failures(tmp_path, lineup):
     assert "incomplete: 1" in text and "borderline: 1" in text
     # CL-EDGE keeps the curing lamp's distance study: its minimum distance to Exempt sits between margin and flag
     assert re.search(r"CL-EDGE .* E_UVA: 2.7× RG1 limit; 90 % of RG2 limit \d+ mm BORDERLINE", text)
-    assert _normalise(str(failure.value)) in text and "second line, not shown" not in text
+    assert normalise(str(failure.value)) in text and "second line, not shown" not in text
     for caution in {c for a in products for c in a.cautions}:
-        assert _normalise(caution) in text  # project contract: hazard/cautions.py, every caution shown
+        assert normalise(caution) in text  # project contract: hazard/cautions.py, every caution shown
     for number, page in enumerate(pages, start=1):
         assert FOOTER in page and f"page {number} of {len(pages)}" in page
 
@@ -371,15 +324,15 @@ def test_uncertainty_study_sets_borderline_and_ranks_it_first(lineup):
     base = lineup["cl-cure-365"]
     # project contract: issue "Beyond the label": with an uncertainty study its verdict is the BORDERLINE flag
     # (else the margin rule of reports/ranking.py), and borderline products rank first within their group
-    study_edge = _with_tightest(base, "RG1-STUDY-EDGE", "RG1", {"Exempt": 2.0, "RG1": 0.3, "RG2": 0.01}).model_copy(
+    study_edge = with_tightest(base, "RG1-STUDY-EDGE", "RG1", {"Exempt": 2.0, "RG1": 0.3, "RG2": 0.01}).model_copy(
         update={"uncertainty": _study("borderline")}
     )
-    study_safe = _with_tightest(base, "RG1-STUDY-SAFE", "RG1", {"Exempt": 3.0, "RG1": 0.95, "RG2": 0.1}).model_copy(
+    study_safe = with_tightest(base, "RG1-STUDY-SAFE", "RG1", {"Exempt": 3.0, "RG1": 0.95, "RG2": 0.1}).model_copy(
         update={"uncertainty": _study("robust")}
     )
-    margin_edge = _with_tightest(base, "RG1-MARGIN-EDGE", "RG1", {"Exempt": 2.8, "RG1": 0.85, "RG2": 0.1})
-    loose = _with_tightest(base, "RG1-LOOSE", "RG1", {"Exempt": 1.6, "RG1": 0.5, "RG2": 0.05})
-    rg2 = _with_tightest(base, "RG2-LOOSE", "RG2", {"Exempt": 10.0, "RG1": 3.0, "RG2": 0.1})
+    margin_edge = with_tightest(base, "RG1-MARGIN-EDGE", "RG1", {"Exempt": 2.8, "RG1": 0.85, "RG2": 0.1})
+    loose = with_tightest(base, "RG1-LOOSE", "RG1", {"Exempt": 1.6, "RG1": 0.5, "RG2": 0.05})
+    rg2 = with_tightest(base, "RG2-LOOSE", "RG2", {"Exempt": 10.0, "RG1": 3.0, "RG2": 0.1})
     # 0.3 and 2.0 of the RG1 and Exempt limits lie outside 0.8-1.25, 0.95 inside: the studies decide here
     assert [is_borderline(a) for a in (study_edge, study_safe, margin_edge, loose)] == [True, False, True, False]
     products = [loose, study_safe, rg2, study_edge, margin_edge]
@@ -390,7 +343,7 @@ def test_uncertainty_study_sets_borderline_and_ranks_it_first(lineup):
         "RG1-STUDY-SAFE",
         "RG1-LOOSE",
     ]
-    text = " ".join(_pages(render_summary_pdf(products, [], RENDERED_AT)))
+    text = " ".join(pdf_pages(render_summary_pdf(products, [], RENDERED_AT)))
     assert "borderline: 2" in text
     assert re.search(r"RG1-STUDY-EDGE .* BORDERLINE \(within ±10 %, ±1 nm\)", text)  # the study's flag, in words
     safe_row = text.split("RG1-STUDY-SAFE ")[1].split("RG1-LOOSE ")[0]  # ranked just before RG1-LOOSE
@@ -399,7 +352,7 @@ def test_uncertainty_study_sets_borderline_and_ranks_it_first(lineup):
 
 def test_summary_without_failures_says_so_in_a_sentence(lineup):
     # project contract: issue "Beyond the label", with no failed product one sentence instead of an empty table
-    text = " ".join(_pages(render_summary_pdf(list(lineup.values()), [], RENDERED_AT)))
+    text = " ".join(pdf_pages(render_summary_pdf(list(lineup.values()), [], RENDERED_AT)))
     assert "Products that could not be assessed None: every product was assessed." in text
     assert "Why it could not be assessed" not in text
 
@@ -409,10 +362,10 @@ def test_summary_shows_the_minimum_distance_to_exempt(lineup):
     # the heater is Exempt beyond 1590 mm (test_heater_distances_and_remedies_are_printed); its E_IR is 1.974× the
     # RG2 limit, printed rounded up (hazard.output.formatting: a multiple over a limit is never printed smaller)
     heater = lineup["cl-heat-2k"]
-    text = " ".join(_pages(render_summary_pdf([heater, lineup["cl-desk-30"]], [], RENDERED_AT)))
+    text = " ".join(pdf_pages(render_summary_pdf([heater, lineup["cl-desk-30"]], [], RENDERED_AT)))
     assert "Min. distance to Exempt" in text and re.search(r"CL-HEAT-2K .* 1.98× RG2 limit 1590 mm", text)
     bare = heater.model_copy(update={"distances": None})
-    assert "Min. distance to Exempt" not in " ".join(_pages(render_summary_pdf([bare], [], RENDERED_AT)))
+    assert "Min. distance to Exempt" not in " ".join(pdf_pages(render_summary_pdf([bare], [], RENDERED_AT)))
 
 
 @pytest.mark.parametrize("module", [hazard.reports.fonts, hazard.reports.timestamp, hazard.reports.studies])

@@ -1,12 +1,11 @@
 """Spectrometer export dialects, relative spectra with photometric anchors, vendor claims, malformed files."""
 
-import shutil
 import subprocess
 import sys
 
 import numpy as np
 import pytest
-from conftest import DATA, LINEUP, write_spectrum
+from conftest import DATA, claim_record, write_spectrum
 
 import hazard
 from hazard.errors import InputError
@@ -149,24 +148,13 @@ def test_relative_spectrum_needs_one_anchor(tmp_path):
         hazard.assess(path, {"illuminance_lx": 5.0, "distance_mm": 200.0, "source_diameter_mm": 5.0})
 
 
-# --- vendor claims --------------------------------------------------------------------------------------
-def _claim_record(tmp_path, stem, **claims):
-    shutil.copy(LINEUP / f"{stem}.csv", tmp_path / f"{stem}.csv")  # beside the record: spectra stay in its folder
-    text = (LINEUP / f"{stem}.toml").read_text()
-    text = "".join(line for line in text.splitlines(keepends=True) if not line.startswith("claimed_"))
-    text += "".join(f"{k} = {v!r}\n".replace("'", '"') for k, v in claims.items())
-    path = tmp_path / f"{stem}.toml"
-    path.write_text(text)
-    return path
-
-
 def _verdicts(path):
     return {c.field: c.verdict for c in hazard.assess(path).claims}
 
 
 def test_claims_verdicts(tmp_path):
     # The spotlight computes as RG1 by L_B (IEC 62471:2006 Table 6.1) with CCT ≈ 6500 K
-    spot = _claim_record(
+    spot = claim_record(
         tmp_path, "cl-spot-65", claimed_risk_group="Exempt", claimed_cct_k=6400.0, claimed_t_max_s_E_B=50.0
     )
     assert _verdicts(spot) == {
@@ -174,7 +162,7 @@ def test_claims_verdicts(tmp_path):
         "claimed_cct_k": "consistent",
         "claimed_t_max_s_E_B": "not checkable",
     }
-    desk = _claim_record(tmp_path, "cl-desk-30", claimed_risk_group="RG1", claimed_cct_k=4000.0)
+    desk = claim_record(tmp_path, "cl-desk-30", claimed_risk_group="RG1", claimed_cct_k=4000.0)
     assert _verdicts(desk) == {
         "claimed_risk_group": "consistent",  # Exempt is within a claim of RG1
         "claimed_cct_k": "contradicted",
@@ -182,8 +170,8 @@ def test_claims_verdicts(tmp_path):
 
 
 def test_check_exit_codes(tmp_path):
-    bad = _claim_record(tmp_path, "cl-spot-65", claimed_risk_group="Exempt")
-    good = _claim_record(tmp_path, "cl-desk-30", claimed_risk_group="Exempt")
+    bad = claim_record(tmp_path, "cl-spot-65", claimed_risk_group="Exempt")
+    good = claim_record(tmp_path, "cl-desk-30", claimed_risk_group="Exempt")
 
     def run(p):
         return subprocess.run([sys.executable, "-m", "hazard.cli", "check", str(p)], capture_output=True, text=True)
