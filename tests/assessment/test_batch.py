@@ -1,4 +1,5 @@
-"""Batch runs: manifests with good and bad rows, resume after a kill, and assess_many against assess."""
+"""Batch runs (hazard.assessment.batch): manifests with good and bad rows, resume after a kill, one bad product
+never stopping the others."""
 
 import json
 import signal
@@ -7,19 +8,19 @@ import sys
 import time
 from pathlib import Path
 
-import numpy as np
 import pytest
 from click.testing import CliRunner
-from conftest import LINEUP, copy_lineup, run_process
-from hypothesis import HealthCheck, given, settings
-from hypothesis import strategies as st
+from conftest import (
+    DATA,
+    LINEUP,
+    copy_lineup,
+    run_process,
+    write_manifest,
+)
 
 import hazard
 from hazard.assessment.batch import run_batch
-from hazard.assessment.build import build_assessment
-from hazard.assessment.pipeline import evaluate_loaded
 from hazard.cli import main
-from hazard.errors import InputError
 
 
 def _without_record_input(result: dict) -> dict:
@@ -85,27 +86,6 @@ def test_manifest_with_good_and_bad_rows(tmp_path):
     expected = _without_record_input(json.loads(single.model_dump_json()))
     assert _without_record_input(lines[0]) == expected
     assert "Traceback" not in result.stderr
-
-
-def test_duplicate_ids_make_the_manifest_unusable(tmp_path):
-    folder = copy_lineup(tmp_path)
-    manifest = folder / "m.csv"
-    manifest.write_text(
-        "id,spectrum,distance_mm,source_diameter_mm\nA,cl-desk-30.csv,500,30\n"
-        "B,cl-desk-30.csv,500,30\nA,cl-spot-65.csv,1000,60\n"
-    )
-    with pytest.raises(InputError, match=r"m.csv:4: duplicate id 'A' \(also at .*m.csv:2\)"):
-        run_batch(manifest, tmp_path / "out")
-    result = run_process("batch", str(manifest), "--output", str(tmp_path / "out"))
-    assert result.returncode == 2 and result.stderr.count("\n") == 1 and "duplicate id" in result.stderr
-
-
-def test_unknown_column_is_named_with_a_suggestion(tmp_path):
-    manifest = tmp_path / "m.csv"
-    manifest.write_text("id,spectrum,distance,source_diameter_mm\nA,a.csv,500,30\n")
-    result = run_process("batch", str(manifest), "--output", str(tmp_path / "out"))
-    assert result.returncode == 2 and "unknown column 'distance'" in result.stderr
-    assert "distance_mm" in result.stderr
 
 
 def test_xlsx_manifest(tmp_path):
@@ -178,68 +158,85 @@ def test_resume_reassesses_a_changed_input(tmp_path):
     assert outcome.reused == 1  # only A is unchanged (its inputs' SHA-256 match)
 
 
-# --- assess_many against assess -------------------------------------------------------------------------
-GRID = np.arange(250.0, 1500.5, 2.5)
+# --- malformed files ------------------------------------------------------------------------------------
+def test_malformed_files_in_a_batch_do_not_stop_the_others(tmp_path, monkeypatch):
+    from hazard.assessment.batch import run_batch
 
-
-@st.composite
-def products(draw):
-    """A random smooth spectrum with lines, and random geometry."""
-    bands = draw(
-        st.lists(st.tuples(st.floats(260, 1450), st.floats(5, 200), st.floats(1e-4, 5)), min_size=1, max_size=4)
+    (tmp_path / "truncated.csv").write_text("wavelength_nm,value\n400,0.1\n401,0.2\n402,")
+    (tmp_path / "binary.csv").write_bytes(b"\x00\x01\x02PK\x03\x04" * 20)
+    (tmp_path / "huge.csv").write_text(
+        "wavelength_nm,value\n" + "".join(f"{400 + i * 1e-3:.3f},1\n" for i in range(30000))
     )
-    values = sum(a * np.exp(-0.5 * ((GRID - c) / w) ** 2) for c, w, a in bands)
-    fields = {
-        "distance_mm": draw(st.floats(100, 2000)),
-        "source_diameter_mm": draw(st.floats(0.3, 80)),
-        "lamp_type": draw(st.sampled_from(["gls", "other"])),
-        "no_emission_outside": draw(st.booleans()),
-    }
-    return values, fields
-
-
-@settings(max_examples=30, deadline=None, suppress_health_check=[HealthCheck.function_scoped_fixture])
-@given(st.lists(products(), min_size=5, max_size=15))
-def test_assess_many_equals_assess(tmp_path, items):
-    # project contract (issue: batch): assess_many and assess share one implementation of the method
-    import pandas as pd
-
-    records = pd.DataFrame([{"id": f"P{i}", **fields} for i, (_, fields) in enumerate(items)])
-    spectra = np.vstack([values for values, _ in items])
-    frame = hazard.assess_many(records, GRID, spectra)
-    for i, (values, fields) in enumerate(items):
-        path = tmp_path / f"p{i}.csv"
-        path.write_text("wavelength_nm,value\n" + "".join(f"{w!r},{v!r}\n" for w, v in zip(GRID, values, strict=True)))
-        loaded = hazard.load_product(path, {"id": f"P{i}", **fields})  # hazard.assess without the studies
-        single = build_assessment(loaded, evaluate_loaded([loaded]), 0, studies=False)
-        row = frame.iloc[i]
-        assert row["risk_group"] == single.risk_group and row["complete"] == single.complete
-        missing = pd.isna
-        assert row["assessment_distance_mm"] == pytest.approx(single.assessment_distance_mm, rel=1e-9)
-        assert row["illuminance_lx"] == pytest.approx(single.illuminance_lx, rel=1e-9, abs=1e-300)
-        for symbol, h in single.hazards.items():
-            group = row[f"{symbol}_group"]
-            assert missing(group) if h.risk_group is None else group == h.risk_group
-            assert row[f"{symbol}_assessed"] == h.assessed
-            for got, want in ((row[f"{symbol}_value"], h.value), (row[f"{symbol}_t_max_s"], h.t_max_s)):
-                if want is None:
-                    assert missing(got)
-                else:
-                    assert got == pytest.approx(want, rel=1e-9, abs=1e-300)
-        if single.photometry.cct_k is None:
-            assert missing(row["cct_k"])
-        else:
-            assert row["cct_k"] == pytest.approx(single.photometry.cct_k, rel=1e-9)
-
-
-def test_assess_many_reports_bad_products_without_stopping(tmp_path):
-    import pandas as pd
-
-    spectra = np.ones((3, GRID.size))
-    spectra[1, 10] = np.nan
-    records = pd.DataFrame(
-        {"id": ["A", "B", "C"], "distance_mm": [200.0, 200.0, -1.0], "source_diameter_mm": [5.0, 5.0, 5.0]}
+    (tmp_path / "good.csv").write_text((DATA / "comma.csv").read_text())
+    manifest = tmp_path / "m.csv"
+    manifest.write_text(
+        "id,spectrum,distance_mm,source_diameter_mm,no_emission_outside,column\n"
+        "T,truncated.csv,500,20,true,\nB,binary.csv,500,20,true,\nH,huge.csv,500,20,true,\n"
+        "W,good.csv,500,20,true,power\nG,good.csv,500,20,true,\n"
     )
-    frame = hazard.assess_many(records, GRID, spectra)
-    assert frame["status"].tolist() == ["ok", "error", "error"]
-    assert "not finite" in frame.loc[1, "error"] and "distance_mm" in frame.loc[2, "error"]
+    monkeypatch.setenv("HAZARD_MAX_FILE_MB", "0.2")  # the size limit is configurable (method: resource limits)
+    outcome = run_batch(manifest, tmp_path / "out")
+    assert set(outcome.assessments) == {"G"}
+    assert "binary file" in outcome.errors["B"]
+    assert "above the 0.20 MB limit" in outcome.errors["H"]
+    assert "no value column named 'power'" in outcome.errors["W"]
+    assert "truncated.csv:4: empty cell in a number column (the file may be truncated)" in outcome.errors["T"]
+
+
+# --- one bad product never loses the batch --------------------------------------------------------------------
+@pytest.mark.parametrize(("raised", "status"), [(OverflowError("math range error"), 3), (RuntimeError("a defect"), 1)])
+def test_a_failure_after_loading_is_that_products_error(tmp_path, monkeypatch, raised, status):
+    import hazard.assessment.batch as batch
+
+    real = batch.build_assessment
+
+    def failing(loaded, *args, **kwargs):
+        if loaded.record.id == "BAD":
+            raise raised
+        return real(loaded, *args, **kwargs)
+
+    monkeypatch.setattr(batch, "build_assessment", failing)
+    manifest = write_manifest(tmp_path, ["A", "BAD", "C"])
+    outcome = batch.run_batch(manifest, tmp_path / "out")
+    assert outcome.exit_code == status and list(outcome.assessments) == ["A", "C"]
+    summary = (tmp_path / "out" / "summary.csv").read_text().splitlines()
+    assert [line.split(",")[:2] for line in summary[1:]] == [["A", "ok"], ["BAD", "error"], ["C", "ok"]]
+    assert ("internal error" in outcome.errors["BAD"]) == (status == 1)
+    for line in (tmp_path / "out" / "results.jsonl").read_text().splitlines():
+        hazard.Assessment.model_validate_json(line)  # every written result reads back
+
+
+def test_a_report_that_fails_to_render_does_not_stop_the_others(tmp_path, monkeypatch):
+    import hazard.reports
+    from hazard.assessment.batch import run_batch
+
+    real = hazard.reports.render_assessment_pdf
+
+    def failing(assessment, *args, **kwargs):
+        if assessment.id == "BAD":
+            raise ValueError("a defect")
+        return real(assessment, *args, **kwargs)
+
+    monkeypatch.setattr(hazard.reports, "render_assessment_pdf", failing)
+    outcome = run_batch(write_manifest(tmp_path, ["A", "BAD"]), tmp_path / "out", pdf=True)
+    assert outcome.exit_code == 1 and "a defect" in outcome.report_failures["BAD"]
+    assert (tmp_path / "out" / "A.pdf").exists() and (tmp_path / "out" / "summary.pdf").exists()
+    assert not (tmp_path / "out" / "BAD.pdf").exists()
+
+
+def test_resume_survives_a_torn_utf8_tail_and_removes_stale_temporaries(tmp_path):
+    from hazard.assessment.batch import run_batch
+
+    manifest = write_manifest(tmp_path, ["A", "B", "C"])
+    out = tmp_path / "out"
+    run_batch(manifest, out)
+    clean = (out / "results.jsonl").read_bytes()
+    first = clean.split(b"\n")[0]
+    (out / "results.jsonl").unlink()
+    (out / "summary.csv").unlink()
+    (out / "results.jsonl.partial").write_bytes(first + b"\n" + "é".encode()[:1] + first[:50])  # a full disk
+    stale = out / ".summary.csv.4194304-abcdefgh.hazard.tmp"  # a killed run's (no such process id)
+    stale.write_text("half")
+    outcome = run_batch(manifest, out, resume=True)
+    assert outcome.reused == 1 and (out / "results.jsonl").read_bytes() == clean
+    assert not stale.exists() and not (out / "results.jsonl.partial").exists()

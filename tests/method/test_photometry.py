@@ -50,20 +50,3 @@ def test_chromaticity_of_illuminant_a_matches_colour_science(colour, tmp_path):
     a = assess_arrays(tmp_path, wl, values * 1e-3, no_emission_outside=True)
     x, y = a.photometry.chromaticity_xy
     assert (x, y) == (pytest.approx(0.44757, abs=2e-5), pytest.approx(0.40745, abs=2e-5))
-
-
-def test_led_b_series_is_not_uv_or_ir_hazardous_at_office_levels(colour, tmp_path):
-    # A white LED spectrum (CIE 15:2018 LED-B1..B5) scaled to 500 lx at 200 mm has no UV or IR emission in
-    # its data, so E_S, E_UVA and E_IR are far below Exempt (IEC 62471:2006 Table 6.1), and its blue-light
-    # hazard ratio K_B,v = L_B/L_v lies in the range reported for white LEDs, 0.2-1.2 mW/lm
-    # (IEC TR 62778:2014 Annex C, from memory).
-    for name in ("LED-B1", "LED-B3", "LED-B5"):
-        wl, values = _illuminant(colour, name)
-        probe = assess_arrays(tmp_path, wl, values, name=name, no_emission_outside=True, source_diameter_mm=20.0)
-        scaled = values * 500 / probe.illuminance_lx
-        a = assess_arrays(tmp_path, wl, scaled, name=name, no_emission_outside=True, source_diameter_mm=20.0)
-        assert a.illuminance_lx == pytest.approx(500)
-        for symbol in ("E_S", "E_UVA", "E_IR"):
-            assert a.hazards[symbol].risk_group == "Exempt"
-        k_bv = a.hazards["L_B"].value / a.photometry.luminance_cd_m2
-        assert 0.2e-3 < k_bv < 1.2e-3

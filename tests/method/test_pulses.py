@@ -9,13 +9,13 @@ import math
 
 import numpy as np
 import pytest
-from click.testing import CliRunner
 from conftest import assess_arrays, triangle_line
 
-from hazard.cli import main
 from hazard.standards import GROUPS
 
 GRID = np.concatenate([np.arange(200.0, 400.0, 0.01), np.arange(400.0, 3000.5, 0.5)])
+
+
 MS = 1e-3
 
 
@@ -138,52 +138,3 @@ def test_thermal_pulses_add_up_in_a_train(tmp_path):
     assert l_r.pulse.fraction_in_train == pytest.approx(5.0, rel=1e-3)
     assert l_r.risk_group == "RG3" and a.pulse_exceeds
     assert l_r.t_max_s == pytest.approx(16 / 1000, rel=1e-2)
-
-
-# --- bad input: one clear line each --------------------------------------------------------------------------
-BAD = [
-    pytest.param(["--emission", "single_pulse", "--pulse-duration-s", "0.3"], "0.3 s is not a pulse", id="long pulse"),
-    pytest.param(["--emission", "pulse_train", "--pulse-duration-s", "1ms"], "needs --pulse-rate-hz", id="no rate"),
-    pytest.param(
-        ["--quantity", "radiant_exposure", "--unit", "J/m2/nm"], "exposure of one pulse", id="dose, continuous"
-    ),
-    pytest.param(["--exposure-distance-mm", "500", "--exposure-duration-s", "0"], "within a day", id="zero duration"),
-    pytest.param(["--exposure-distance-mm", "500", "--exposure-duration-s", "-5min"], "not a duration", id="negative"),
-    pytest.param(["--exposure-distance-mm", "500", "--exposure-duration-s", "25h"], "within a day", id="over a day"),
-    pytest.param(["--exposure", "distance_mm=500,duration_s=2d"], "within a day", id="table over a day"),
-    pytest.param(["--exposure-duration-s", "2h"], "go together", id="duration without distance"),
-    pytest.param(
-        ["--emission", "single_pulse", "--pulse-duration-s", "1ms", "--exposure", "distance_mm=500,duration_s=1h"],
-        "single pulse has no daily duration",
-        id="a day of one pulse",
-    ),
-]
-
-
-@pytest.mark.parametrize(("options", "message"), BAD)
-def test_bad_pulse_and_exposure_input_is_one_line(tmp_path, options, message):
-    spectrum = tmp_path / "lamp.csv"
-    spectrum.write_text("wavelength_nm,value\n400,0.1\n500,0.2\n600,0.1\n", encoding="utf-8")
-    base = ["assess", str(spectrum), "--distance-mm", "200", "--source-diameter-mm", "5"]
-    result = CliRunner().invoke(main, [*base, *options])
-    assert result.exit_code == 2, result.output
-    lines = result.stderr.splitlines()
-    assert len(lines) == 1 and lines[0].startswith("hazard: error: ") and message in lines[0], result.stderr
-    assert "Traceback" not in result.stderr and result.stdout == ""
-
-
-@pytest.mark.parametrize("rate_hz", [None, 5.0], ids=["single pulse", "train"])
-def test_a_saved_pulsed_result_renders_after_its_check(tmp_path, rate_hz):
-    # `hazard report` re-derives the groups with the pulse rules before it renders (hazard.assessment.verify)
-    line = triangle_line(GRID, 270.0, 0.02 / 0.05, 0.05)
-    a = _pulse(
-        tmp_path,
-        line,
-        rate_hz=rate_hz,
-        exposure=None if rate_hz is None else [{"distance_mm": 500, "duration_s": "1h"}],
-    )
-    saved = tmp_path / "result.json"
-    saved.write_text(a.model_dump_json(), encoding="utf-8")
-    result = CliRunner().invoke(main, ["report", str(saved), "--output", str(tmp_path / "r.pdf")])
-    assert result.exit_code == 0, result.output
-    assert (tmp_path / "r.pdf").read_bytes().startswith(b"%PDF")

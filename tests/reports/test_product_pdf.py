@@ -1,15 +1,13 @@
-"""PDF reports: every line-up product renders to three pages that carry its facts (the third its distance,
-uncertainty and remedies studies), identically each time; the batch summary ranks, flags and lists failures;
-the fonts and the report time behave as documented."""
+"""Product reports (hazard.reports.product_pdf): every line-up product renders to three pages that carry its facts
+(the third its distance, uncertainty and remedies studies), identically each time."""
 
 import datetime
 import doctest
 import math
 import re
-from itertools import pairwise
 
 import pytest
-from conftest import EXPECTED_GROUP, FOOTER, LINEUP, RENDERED_AT, normalise, pdf_pages, with_tightest
+from conftest import EXPECTED_GROUP, FOOTER, LINEUP, RENDERED_AT, normalise, pdf_pages
 
 import hazard
 import hazard.reports.fonts
@@ -17,12 +15,9 @@ import hazard.reports.layout
 import hazard.reports.product_pdf
 import hazard.reports.studies
 import hazard.reports.timestamp
-from hazard.errors import InputError
 from hazard.output.formatting import UNIT_DISPLAY, format_value
-from hazard.reports import rank_assessments, render_assessment_pdf, render_summary_pdf, report_time
-from hazard.reports.fonts import register_fonts
-from hazard.reports.ranking import is_borderline, tightest_margin
-from hazard.result import Assessment, UncertaintyStudy
+from hazard.reports import render_assessment_pdf, render_summary_pdf
+from hazard.result import Assessment
 
 SECTION = "Distance, uncertainty and remedies"  # project contract: issue "Beyond the label", the section's title
 
@@ -193,179 +188,6 @@ def test_naive_rendered_at_is_refused(lineup):
     # project habit (style.md): a time without a zone would print a guessed UTC time, so it is an error
     with pytest.raises(ValueError, match="timezone-aware"):
         render_assessment_pdf(lineup["cl-desk-30"], datetime.datetime(2024, 6, 1, 12, 0))
-
-
-def test_report_time_reads_source_date_epoch(monkeypatch):
-    # reproducible-builds.org SOURCE_DATE_EPOCH specification: whole seconds since 1970-01-01 00:00 UTC
-    monkeypatch.setenv("SOURCE_DATE_EPOCH", "1700000000")
-    assert report_time() == datetime.datetime(2023, 11, 14, 22, 13, 20, tzinfo=datetime.UTC)
-    monkeypatch.setenv("SOURCE_DATE_EPOCH", "yesterday")
-    with pytest.raises(ValueError, match="SOURCE_DATE_EPOCH"):
-        report_time()
-    monkeypatch.delenv("SOURCE_DATE_EPOCH")
-    before = datetime.datetime.now(datetime.UTC)
-    now = report_time()
-    assert now.tzinfo == datetime.UTC and before <= now <= datetime.datetime.now(datetime.UTC)
-
-
-def test_without_dejavu_greek_is_spelled_out(tmp_path, monkeypatch, lineup):
-    # reportlab's bundled Vera.ttf has no U+03B1 α, U+03BB λ, U+03B3 γ (its character map)
-    fallback = register_fonts(tmp_path)  # an empty folder: DejaVu Sans is not there
-    assert (fallback.regular, fallback.greek) == ("Vera", False)
-    monkeypatch.setattr(hazard.reports.layout, "report_fonts", lambda: fallback)
-    text = " ".join(pdf_pages(render_assessment_pdf(lineup["cl-pip-470"], RENDERED_AT)))
-    assert "alpha" in text and "lambda" in text and "gamma" in text
-    assert not {"α", "λ", "γ"} & set(text)
-    assert "Ω_s" in text and "µs" in text  # Vera has Ω and µ, so they stay
-
-
-def test_rank_orders_groups_then_headroom(lineup):
-    # IEC 62471:2006 6.1: Exempt < RG1 < RG2 < RG3; project contract (issue "Beyond the label"): within a group
-    # borderline products first (RG3-NEAR at 1.2x its RG2 limit, RG2-TIGHT at 0.9: within the 1.25 factor of
-    # reports/ranking.py); then (reports/ranking.py) the deciding hazard with the largest value/limit at its
-    # group's upper boundary first
-    base = lineup["cl-cure-365"]
-    products = [
-        with_tightest(base, "E-LOW", "Exempt", {"Exempt": 0.1, "RG1": 0.03, "RG2": 0.01}),
-        with_tightest(base, "RG2-TIGHT", "RG2", {"Exempt": 90.0, "RG1": 27.0, "RG2": 0.9}),
-        with_tightest(base, "RG3-FAR", "RG3", {"Exempt": 500.0, "RG1": 150.0, "RG2": 50.0}),
-        with_tightest(base, "RG1-LOOSE", "RG1", {"Exempt": 2.0, "RG1": 0.6, "RG2": 0.2}),
-        with_tightest(base, "RG2-LOOSE", "RG2", {"Exempt": 10.0, "RG1": 3.0, "RG2": 0.1}),
-        with_tightest(base, "RG3-NEAR", "RG3", {"Exempt": 12.0, "RG1": 4.0, "RG2": 1.2}),
-        with_tightest(base, "E-HIGH", "Exempt", {"Exempt": 0.7, "RG1": 0.2, "RG2": 0.07}),
-    ]
-    assert [a.id for a in rank_assessments(products)] == [
-        "RG3-NEAR",
-        "RG3-FAR",
-        "RG2-TIGHT",
-        "RG2-LOOSE",
-        "RG1-LOOSE",
-        "E-HIGH",
-        "E-LOW",
-    ]
-
-
-def test_rank_of_the_lineup(lineup):
-    # examples/README.md groups; within a group by the deciding hazard's value/limit as each result reports
-    # it (germicidal E_S far over RG2 before the curing lamp's E_UVA and the heater's E_IR, both about 2x)
-    ranked = rank_assessments(list(lineup.values()))
-    assert [a.risk_group for a in ranked] == sorted(
-        (a.risk_group for a in ranked), key=["RG3", "RG2", "RG1", "Exempt"].index
-    )
-    assert not any(is_borderline(a) for a in ranked)  # by the values in each result (see the summary test)
-    ratios = [(a.risk_group, tightest_margin(a).ratio) for a in ranked]
-    assert all(r1 >= r2 for (g1, r1), (g2, r2) in pairwise(ratios) if g1 == g2)
-    assert ranked[0].id == "CL-GERM-254"
-
-
-@pytest.mark.parametrize(
-    ("group", "margins", "expected"),
-    [
-        ("RG1", {"Exempt": 3.0, "RG1": 0.8, "RG2": 0.1}, True),  # 0.8 of the RG1 limit: at the edge
-        ("RG1", {"Exempt": 2.9, "RG1": 0.79, "RG2": 0.1}, False),  # just beyond the factor
-        ("RG1", {"Exempt": 1.25, "RG1": 0.3, "RG2": 0.01}, True),  # just over the Exempt limit, the other side
-        ("RG1", {"Exempt": 1.26, "RG1": 0.3, "RG2": 0.01}, False),
-        ("RG3", {"Exempt": 40.0, "RG1": 12.0, "RG2": 1.2}, True),  # RG3 within 1.25x of the RG2 limit
-        ("RG3", {"Exempt": 50.0, "RG1": 15.0, "RG2": 1.3}, False),
-        ("Exempt", {"Exempt": 0.95, "RG1": 0.3, "RG2": 0.1}, True),
-        ("Exempt", {"Exempt": 0.5, "RG1": 0.15, "RG2": 0.05}, False),
-    ],
-)
-def test_borderline_within_a_factor_of_a_boundary(lineup, group, margins, expected):
-    # project contract (summary brief): borderline when the tightest hazard's value/limit lies in 0.8-1.25
-    # for the limit above or below it
-    assert is_borderline(with_tightest(lineup["cl-cure-365"], "X", group, margins)) is expected
-
-
-def test_summary_ranks_flags_and_lists_failures(tmp_path, lineup):
-    bad = tmp_path / "cl-bad-1.toml"
-    (tmp_path / "cl-bad-1.csv").write_text("wavelength_nm,value\n0.38,1\n0.39,2\n0.40,1\n", encoding="utf-8")
-    bad.write_text(
-        'id = "CL-BAD-1"\nspectrum = "cl-bad-1.csv"\ndistance_mm = 200.0\nsource_diameter_mm = 5.0\n', encoding="utf-8"
-    )
-    with pytest.raises(InputError) as failure:  # design/method.md §5: a wavelength column in µm is an error
-        hazard.assess(bad)
-    reason = f"{failure.value}\nsecond line, not shown"
-    incomplete = hazard.assess(LINEUP / "cl-heat-2k.toml", {"no_emission_outside": False, "id": "CL-HEAT-RAW"})
-    borderline = with_tightest(lineup["cl-cure-365"], "CL-EDGE", "RG2", {"Exempt": 9.0, "RG1": 2.7, "RG2": 0.9})
-    products = [*lineup.values(), incomplete, borderline]
-    pages = pdf_pages(render_summary_pdf(products, [("CL-BAD-1", reason)], RENDERED_AT))
-    text = " ".join(pages)
-    positions = [text.index(a.id + " ") for a in rank_assessments(products)]
-    assert positions == sorted(positions)  # rows in rank order (project contract: reports/ranking.py)
-    assert re.search(r"CL-HEAT-RAW .* INCOMPLETE", text)  # the incomplete product flagged in text
-    # one incomplete product (CL-HEAT-RAW), one borderline (CL-EDGE at 0.9 of its RG2 limit; no line-up
-    # product lies within 1.25x of a boundary by the values in its result)
-    assert "incomplete: 1" in text and "borderline: 1" in text
-    # CL-EDGE keeps the curing lamp's distance study: its minimum distance to Exempt sits between margin and flag
-    assert re.search(r"CL-EDGE .* E_UVA: 2.7× RG1 limit; 90 % of RG2 limit \d+ mm BORDERLINE", text)
-    assert normalise(str(failure.value)) in text and "second line, not shown" not in text
-    for caution in {c for a in products for c in a.cautions}:
-        assert normalise(caution) in text  # project contract: hazard/cautions.py, every caution shown
-    for number, page in enumerate(pages, start=1):
-        assert FOOTER in page and f"page {number} of {len(pages)}" in page
-
-
-def _study(verdict: str) -> UncertaintyStudy:
-    """An uncertainty study of ±10 % (k = 2) and ±1 nm with the given verdict."""
-    low, high = ("RG1", "RG1") if verdict == "robust" else ("Exempt", "RG1")
-    return UncertaintyStudy(
-        uncertainty_pct=10.0,
-        wavelength_uncertainty_nm=1.0,
-        hazards=[],
-        risk_group_low=low,
-        risk_group_high=high,
-        verdict=verdict,
-        note=f"{verdict} by construction",
-    )
-
-
-def test_uncertainty_study_sets_borderline_and_ranks_it_first(lineup):
-    base = lineup["cl-cure-365"]
-    # project contract: issue "Beyond the label": with an uncertainty study its verdict is the BORDERLINE flag
-    # (else the margin rule of reports/ranking.py), and borderline products rank first within their group
-    study_edge = with_tightest(base, "RG1-STUDY-EDGE", "RG1", {"Exempt": 2.0, "RG1": 0.3, "RG2": 0.01}).model_copy(
-        update={"uncertainty": _study("borderline")}
-    )
-    study_safe = with_tightest(base, "RG1-STUDY-SAFE", "RG1", {"Exempt": 3.0, "RG1": 0.95, "RG2": 0.1}).model_copy(
-        update={"uncertainty": _study("robust")}
-    )
-    margin_edge = with_tightest(base, "RG1-MARGIN-EDGE", "RG1", {"Exempt": 2.8, "RG1": 0.85, "RG2": 0.1})
-    loose = with_tightest(base, "RG1-LOOSE", "RG1", {"Exempt": 1.6, "RG1": 0.5, "RG2": 0.05})
-    rg2 = with_tightest(base, "RG2-LOOSE", "RG2", {"Exempt": 10.0, "RG1": 3.0, "RG2": 0.1})
-    # 0.3 and 2.0 of the RG1 and Exempt limits lie outside 0.8-1.25, 0.95 inside: the studies decide here
-    assert [is_borderline(a) for a in (study_edge, study_safe, margin_edge, loose)] == [True, False, True, False]
-    products = [loose, study_safe, rg2, study_edge, margin_edge]
-    assert [a.id for a in rank_assessments(products)] == [
-        "RG2-LOOSE",
-        "RG1-MARGIN-EDGE",
-        "RG1-STUDY-EDGE",
-        "RG1-STUDY-SAFE",
-        "RG1-LOOSE",
-    ]
-    text = " ".join(pdf_pages(render_summary_pdf(products, [], RENDERED_AT)))
-    assert "borderline: 2" in text
-    assert re.search(r"RG1-STUDY-EDGE .* BORDERLINE \(within ±10 %, ±1 nm\)", text)  # the study's flag, in words
-    safe_row = text.split("RG1-STUDY-SAFE ")[1].split("RG1-LOOSE ")[0]  # ranked just before RG1-LOOSE
-    assert "BORDERLINE" not in safe_row  # 0.95 of its RG1 limit, but the study says robust
-
-
-def test_summary_without_failures_says_so_in_a_sentence(lineup):
-    # project contract: issue "Beyond the label", with no failed product one sentence instead of an empty table
-    text = " ".join(pdf_pages(render_summary_pdf(list(lineup.values()), [], RENDERED_AT)))
-    assert "Products that could not be assessed None: every product was assessed." in text
-    assert "Why it could not be assessed" not in text
-
-
-def test_summary_shows_the_minimum_distance_to_exempt(lineup):
-    # project contract: issue "Beyond the label", a "min. distance to Exempt" column when distances are present;
-    # the heater is Exempt beyond 1590 mm (test_heater_distances_and_remedies_are_printed); its E_IR is 1.974× the
-    # RG2 limit, printed rounded up (hazard.output.formatting: a multiple over a limit is never printed smaller)
-    heater = lineup["cl-heat-2k"]
-    text = " ".join(pdf_pages(render_summary_pdf([heater, lineup["cl-desk-30"]], [], RENDERED_AT)))
-    assert "Min. distance to Exempt" in text and re.search(r"CL-HEAT-2K .* 1.98× RG2 limit 1590 mm", text)
-    bare = heater.model_copy(update={"distances": None})
-    assert "Min. distance to Exempt" not in " ".join(pdf_pages(render_summary_pdf([bare], [], RENDERED_AT)))
 
 
 @pytest.mark.parametrize("module", [hazard.reports.fonts, hazard.reports.timestamp, hazard.reports.studies])

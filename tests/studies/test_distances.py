@@ -1,10 +1,10 @@
-"""Hazard distances, uncertainty, remedies and source uniformity, against analytic expectations."""
+"""Hazard distances (hazard.studies.distances), against analytic expectations."""
 
 import math
 
 import numpy as np
 import pytest
-from conftest import LINEUP, assess_arrays, triangle_line, write_spectrum
+from conftest import LINEUP, assess_arrays, triangle_line
 
 import hazard
 
@@ -56,73 +56,3 @@ def test_boundary_distances_reassess_to_the_boundary(tmp_path, stem):
         again = hazard.assess(LINEUP / f"{stem}.toml", {"at_distance_mm": b.distance_mm})
         h = next(again.hazards[s] for s in families[b.family] if s in again.hazards)
         assert h.margins[b.group] == pytest.approx(1.0, abs=0.005), (b.family, b.group)
-
-
-def test_uncertainty_makes_a_near_boundary_product_borderline(tmp_path):
-    # E_S = 0.98 × the Exempt limit 0.001 W/m2 (IEC 62471:2006 Table 6.1): +10 % crosses it, +1 % does not.
-    values = triangle_line(GRID, 270.0, 0.98e-3 / 0.05, 0.05)  # S_UV(270) = 1.0, Table 4.1
-    wide = assess_arrays(tmp_path, GRID, values, name="wide", no_emission_outside=True, uncertainty_pct=10.0)
-    narrow = assess_arrays(tmp_path, GRID, values, name="narrow", no_emission_outside=True, uncertainty_pct=1.0)
-    assert wide.risk_group == "Exempt" and wide.uncertainty.verdict == "borderline"
-    assert (wide.uncertainty.risk_group_low, wide.uncertainty.risk_group_high) == ("Exempt", "RG1")
-    assert narrow.uncertainty.verdict == "robust"
-
-
-def test_wavelength_shift_of_a_300_nm_line_follows_s_uv(tmp_path):
-    # A line at 300 nm read 1 nm long or short: E_S scales by S_UV(301)/S_UV(300) and S_UV(299)/S_UV(300),
-    # with S_UV log-linear between the IEC 62471:2006 Table 4.1 points 297 nm (0.46), 300 nm (0.30) and
-    # 303 nm (0.12).
-    values = triangle_line(GRID, 300.0, 1e-3 / 0.05, 0.05)
-    a = assess_arrays(tmp_path, GRID, values, no_emission_outside=True, wavelength_uncertainty_nm=1.0)
-    e_s = next(h for h in a.uncertainty.hazards if h.family == "E_S")
-    s_299, s_301 = 0.30 * (0.46 / 0.30) ** (1 / 3), 0.30 * (0.12 / 0.30) ** (1 / 3)
-    nominal = a.hazards["E_S"].value
-    assert e_s.value_shift_plus / nominal == pytest.approx(s_301 / 0.30, rel=2e-3)
-    assert e_s.value_shift_minus / nominal == pytest.approx(s_299 / 0.30, rel=2e-3)
-
-
-@pytest.mark.parametrize("stem", ["cl-heat-2k", "cl-spot-65", "cl-germ-254", "cl-grow-30"])
-def test_dimming_factor_reassesses_to_the_target_boundary(tmp_path, stem):
-    # project contract (issue: beyond the label): applying the reported dimming factor and reassessing
-    # gives the target group, at its boundary
-    a = hazard.assess(LINEUP / f"{stem}.toml")
-    product = [r for r in a.remedies.remedies if r.target == "product"]
-    assert product, "every line-up product above Exempt has product remedies"
-    raw = hazard.load_product(LINEUP / f"{stem}.toml")
-    for remedy in product:
-        path = write_spectrum(
-            tmp_path / f"{stem}-{remedy.group}.csv",
-            raw.spectrum.wavelength_nm,
-            raw.spectrum.value * remedy.dimming_factor,
-        )
-        fields = raw.record.model_dump(exclude_none=True, exclude={"id", "spectrum", "unit"})
-        again = hazard.assess(path, {**fields, "unit": "W/m2/nm"})
-        assert again.risk_group == remedy.group
-        deciding = [again.hazards[s] for s in again.deciding_hazards]
-        ratio = max(h.margins[remedy.group] for h in deciding if h.margins)
-        assert ratio == pytest.approx(1.0, rel=1e-6)
-
-
-def test_uv_band_contributions_name_the_mercury_line(tmp_path):
-    # The germicidal lamp's E_S is dominated by the 253.7 nm mercury line (common practice / NIST ASD line
-    # position), i.e. the 250-255 nm band
-    a = hazard.assess(LINEUP / "cl-germ-254.toml")
-    top = a.remedies.uv_bands["E_S"][0]
-    assert top.band_nm == (250.0, 255.0) and top.share > 0.5
-    assert sum(b.share for b in a.remedies.uv_bands["E_S"]) == pytest.approx(1.0, abs=0.01)
-
-
-def test_peak_to_mean_multiplies_radiance_in_small_fields(tmp_path):
-    # method §4: a non-uniform source exceeds the average radiance E/Ω_s; the record's peak-to-mean ratio
-    # multiplies the radiance seen by fields of view smaller than the source (project design, issue 6).
-    values = triangle_line(GRID, 437.5, 5.0)
-    uniform = assess_arrays(tmp_path, GRID, values, name="u", source_diameter_mm=15.0, no_emission_outside=True)
-    hot = assess_arrays(
-        tmp_path, GRID, values, name="h", source_diameter_mm=15.0, no_emission_outside=True, peak_to_mean_radiance=3.0
-    )
-    u, h = uniform.hazards["L_B"], hot.hazards["L_B"]
-    assert h.value == pytest.approx(3 * u.value)
-    for group in ("RG1", "RG2"):  # 0.011 and 0.0017 rad fields are inside a 15 mm source at 200 mm (α = 0.075)
-        assert h.compared[group] == pytest.approx(3 * u.compared[group])
-    assert h.compared["Exempt"] == pytest.approx(u.compared["Exempt"])  # the 0.1 rad field is wider than it
-    assert h.t_max_s == pytest.approx(u.t_max_s / 3)  # §4.3.3: t = 10^6 / L_B

@@ -5,18 +5,15 @@ IEC 62471:2006 §4.3 also prints: E_S·t ≤ 30 J/m² (row a), E_UVA·t ≤ 10�
 10⁴ s (row d).
 """
 
-import json
 import math
 
 import numpy as np
 import pytest
-from click.testing import CliRunner
-from conftest import assess_arrays, triangle_line, write_spectrum
-
-import hazard
-from hazard.cli import main
+from conftest import assess_arrays, triangle_line
 
 GRID = np.concatenate([np.arange(200.0, 400.0, 0.01), np.arange(400.0, 3000.5, 0.5)])
+
+
 # S_UV(270 nm) = 1.0 (IEC 62471:2006 Table 4.1): a 270 nm line of 0.001 W/m² gives E_S = 0.001 W/m².
 UV_LINE = triangle_line(GRID, 270.0, 0.001 / 0.05, 0.05)
 
@@ -118,45 +115,3 @@ def test_thermal_exposures_do_not_add_up(tmp_path):
     one = a.exposure.exposures[0].hazards["E_IR"].fraction
     assert one == pytest.approx(50 / 100, rel=1e-6)  # beyond 1000 s E_IR ≤ 100 W/m² (row n, IEC §4.3.7)
     assert a.exposure.day["E_IR"].fraction == pytest.approx(one)
-
-
-def test_the_flat_fields_and_a_manifest_row_give_the_same_exposure(tmp_path):
-    spectrum = write_spectrum(tmp_path / "uv.csv", GRID, UV_LINE)
-    fields = {"distance_mm": 1000.0, "source_diameter_mm": 5.0, "no_emission_outside": True}
-    flat = hazard.assess(spectrum, {**fields, "exposure_distance_mm": 700.0, "exposure_duration_s": "90min"})
-    table = hazard.assess(spectrum, {**fields, "exposure": [{"distance_mm": 700.0, "duration_s": 5400}]})
-    assert flat.exposure.exposures[0].hazards == table.exposure.exposures[0].hazards
-    manifest = tmp_path / "products.csv"
-    manifest.write_text(
-        "id,spectrum,distance_mm,source_diameter_mm,no_emission_outside,exposure_distance_mm,exposure_duration_s\n"
-        "UV-1,uv.csv,1000,5,true,700,90min\n",
-        encoding="utf-8",
-    )
-    result = CliRunner().invoke(main, ["batch", str(manifest), "--output", str(tmp_path / "out")])
-    assert result.exit_code == 0, result.output
-    line = json.loads((tmp_path / "out" / "results.jsonl").read_text(encoding="utf-8").splitlines()[0])
-    assert line["exposure"]["exposures"][0]["hazards"]["E_S"]["fraction"] == pytest.approx(
-        flat.exposure.exposures[0].hazards["E_S"].fraction
-    )
-    summary = (tmp_path / "out" / "summary.csv").read_text(encoding="utf-8")
-    assert "day_max_fraction" in summary.splitlines()[0] and ",E_S," in summary.splitlines()[1]
-
-
-def test_cli_reads_repeated_exposures_and_human_durations(tmp_path):
-    spectrum = write_spectrum(tmp_path / "uv.csv", GRID, UV_LINE)
-    args = ["assess", str(spectrum), "--distance-mm", "1000", "--source-diameter-mm", "5", "--no-emission-outside"]
-    args += ["--exposure", "distance_mm=1000,duration_s=2h,label=bench", "--exposure", "distance_mm=500,duration_s=600"]
-    result = CliRunner().invoke(main, [*args, "--format", "json"])
-    assert result.exit_code == 0, result.output
-    data = json.loads(result.output)
-    assert [e["label"] for e in data["exposure"]["exposures"]] == ["bench", "exposure 2"]
-    assert data["exposure"]["day"]["E_S"]["fraction"] == pytest.approx(0.32, rel=1e-3)
-    text = CliRunner().invoke(main, args)
-    assert "Daily exposure (Directive 2006/25/EC Annex I): within the limit values" in text.output
-
-
-def test_schema_describes_the_exposure_and_the_pulses():
-    result = CliRunner().invoke(main, ["schema", "result"])
-    schema = json.loads(result.output)
-    assert "exposure" in schema["properties"] and "emission" in schema["properties"]
-    assert {"ExposureStudy", "PulseCheck", "Emission"} <= set(schema["$defs"])
