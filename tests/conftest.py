@@ -51,13 +51,64 @@ def write_spectrum(path, wavelength_nm, values, header="wavelength_nm,value"):
     return path
 
 
-def assess_arrays(folder, wavelength_nm, values, name="spectrum", **fields):
-    """Assess an in-memory spectrum: written to ``folder/name.csv`` and assessed with ``fields``."""
-    import hazard
+DEFAULT_FIELDS = {"distance_mm": 200.0, "source_diameter_mm": 5.0}
+"""Record fields of :func:`load_spectrum` unless a test gives its own: ``None`` removes one, as an option not given
+does, and any source size replaces the default disc."""
+SOURCE_SIZES = ("source_diameter_mm", "source_width_mm", "source_height_mm", "source_alpha_mrad")
 
-    path = write_spectrum(folder / f"{name}.csv", wavelength_nm, values)
-    defaults = {"distance_mm": 200.0, "source_diameter_mm": 5.0}
-    return hazard.assess(path, {**defaults, **fields})
+
+def load_spectrum(wavelength_nm, values, product_id="spectrum", **fields):
+    """The product ``hazard.load_product(f"{product_id}.csv", fields)`` gives for a CSV file of these numbers, without
+    the file.
+
+    Only the reader is replaced by the arrays (rows numbered as in a file with a header line; the SHA-256 is that of
+    the arrays' bytes): the record is made from ``fields`` as command-line options make it, and the unit, the file's
+    statements, validation (method §5) and the band checks run as for a file. For checks that only need the engine to
+    see a spectrum; what files say and how they are read is tested on real files (tests/inputs).
+    """
+    from unittest import mock
+
+    from hazard.inputs import loading
+    from hazard.inputs.readers import RawSpectrum
+    from hazard.inputs.record import record_from_fields
+
+    wl, value = np.asarray(wavelength_nm, dtype=float), np.asarray(values, dtype=float)
+    defaults = {k: v for k, v in DEFAULT_FIELDS.items() if not (k in SOURCE_SIZES and set(SOURCE_SIZES) & set(fields))}
+    given = {k: v for k, v in {**defaults, **fields}.items() if v is not None}
+    record = record_from_fields(
+        {"id": product_id, **given, "spectrum": f"{product_id}.csv"}, path="command line", option_names=True
+    )
+    raw = RawSpectrum(wl, value, np.arange(wl.size) + 2, f"{product_id}.csv")
+    digest = hashlib.sha256(np.stack([wl, value]).tobytes()).hexdigest()
+    with mock.patch.object(loading, "read_spectrum", lambda *args, **kwargs: (raw, {"sha256": digest})):
+        return loading.product_from_record(record, Path.cwd(), f"{product_id}.csv")
+
+
+def assess_spectrum(wavelength_nm, values, *, studies=False, product_id="spectrum", **fields):
+    """``hazard.assess`` of a spectrum held in memory (:func:`load_spectrum`).
+
+    With ``studies``, hazard distances and remedies too, as ``hazard.assess`` computes them; without, the result has
+    none (the uncertainty and daily-exposure studies run whenever the record asks for them, as in ``hazard.assess``).
+    """
+    from hazard.assessment.build import build_assessment
+    from hazard.assessment.pipeline import evaluate_loaded
+
+    loaded = load_spectrum(wavelength_nm, values, product_id, **fields)
+    return build_assessment(loaded, evaluate_loaded([loaded]), 0, studies=studies)
+
+
+def assess_pulsed(wavelength_nm, line, *, dose=True, duration_s=1e-3, rate_hz=None, studies=False, **fields):
+    """A pulsed source of ``line``: one pulse's radiant exposure [J m⁻² nm⁻¹], or with ``dose=False`` its peak
+    irradiance [W m⁻² nm⁻¹]; a single pulse, or a train at ``rate_hz`` [Hz], of ``duration_s`` [s]."""
+    record = {
+        "no_emission_outside": True,
+        "emission": "single_pulse" if rate_hz is None else "pulse_train",
+        "pulse_duration_s": duration_s,
+        **({"pulse_rate_hz": rate_hz} if rate_hz is not None else {}),
+        **({"quantity": "radiant_exposure", "unit": "J/m2/nm"} if dose else {}),
+        **fields,
+    }
+    return assess_spectrum(wavelength_nm, line, studies=studies, **record)
 
 
 def triangle_line(grid_nm, centre_nm, peak, half_width_nm=1.0):
@@ -284,11 +335,47 @@ def pdf_pages(pdf: bytes) -> list[str]:
 
 
 @pytest.fixture(scope="session")
-def lineup():
-    """The results of the line-up products of :data:`EXPECTED_GROUP`, as ``hazard.assess`` gives them."""
+def lineup_all():
+    """The result of every line-up record (file stem → result), as ``hazard.assess`` gives it: computed once."""
     import hazard
 
-    return {stem: hazard.assess(LINEUP / f"{stem}.toml") for stem in EXPECTED_GROUP}
+    return {path.stem: hazard.assess(path) for path in sorted(LINEUP.glob("*.toml"))}
+
+
+@pytest.fixture(scope="session")
+def lineup(lineup_all):
+    """The results of the line-up products of :data:`EXPECTED_GROUP`."""
+    return {stem: lineup_all[stem] for stem in EXPECTED_GROUP}
+
+
+def lineup_product(stem: str, spectrum_factor: float = 1.0, **fields):
+    """A line-up product (an irradiance spectrum) held in memory, its spectrum times ``spectrum_factor``, ``fields``
+    replacing its record's.
+
+    Without its daily exposures and its measurement uncertainty: they say nothing of its values, groups and margins,
+    and their studies (which ``hazard.assess`` runs whenever a record states them) are tested on their own.
+    """
+    import hazard
+
+    loaded = hazard.load_product(LINEUP / f"{stem}.toml")
+    assert loaded.record.effective_quantity == "irradiance", stem  # its values are then in W/m2/nm
+    own = loaded.record.model_dump(exclude_none=True, exclude={"id", "spectrum", "unit", *NOT_FOR_GROUPS})
+    return load_spectrum(
+        loaded.spectrum.wavelength_nm,
+        loaded.spectrum.value * spectrum_factor,
+        loaded.record.id,
+        **{**own, "unit": "W/m2/nm", **fields},
+    )
+
+
+NOT_FOR_GROUPS = (
+    "exposure",
+    "exposure_distance_mm",
+    "exposure_duration_s",
+    "uncertainty_pct",
+    "wavelength_uncertainty_nm",
+)
+"""Record fields that ask for studies beside the groups (daily exposures, measurement uncertainty)."""
 
 
 def with_tightest(a, new_id: str, group: str, margins: dict[str, float]):

@@ -14,6 +14,7 @@ from conftest import (
     DATA,
     LINEUP,
     copy_lineup,
+    run_cli,
     run_process,
     write_manifest,
 )
@@ -33,18 +34,18 @@ def _without_record_input(result: dict) -> dict:
     return result
 
 
-def test_folder_of_records_gives_the_same_json_as_assess(tmp_path):
+def test_folder_of_records_gives_the_same_json_as_assess(tmp_path, lineup_all):
     # project contract (issue: batch): good products are assessed exactly as `hazard assess` would
     folder = copy_lineup(tmp_path / "records")
     outcome = run_batch(folder, tmp_path / "out", studies=True)  # hazard assess includes the studies
-    assert outcome.exit_code == 0 and len(outcome.assessments) == len(list(LINEUP.glob("*.toml")))
-    lines = (tmp_path / "out" / "results.jsonl").read_text().splitlines()
+    assert outcome.exit_code == 0 and len(outcome.assessments) == len(lineup_all) == len(list(LINEUP.glob("*.toml")))
+    lines = [json.loads(line) for line in (tmp_path / "out" / "results.jsonl").read_text().splitlines()]
     for line in lines:
-        product_id = json.loads(line)["id"]
-        record = folder / f"{product_id.lower()}.toml"
-        single = CliRunner().invoke(main, ["assess", str(record), "--format", "json"])  # the command, in-process
-        assert single.exit_code == 0
-        assert json.loads(line) == json.loads(single.stdout)
+        assert line == json.loads(lineup_all[line["id"].lower()].model_dump_json())  # hazard.assess of the record
+    # and the command prints what hazard.assess returns (the command, in-process)
+    single = CliRunner().invoke(main, ["assess", str(folder / "cl-desk-30.toml"), "--format", "json"])
+    assert single.exit_code == 0
+    assert json.loads(single.stdout) == next(line for line in lines if line["id"] == "CL-DESK-30")
 
 
 def test_manifest_with_good_and_bad_rows(tmp_path):
@@ -115,12 +116,20 @@ def _big_manifest(folder: Path, count: int) -> Path:
     return _manifest_for(folder, rows)
 
 
+@pytest.fixture(scope="module")
+def big_batch(tmp_path_factory):
+    """A manifest of 400 products and the outputs of an uninterrupted run of it (the command, in-process)."""
+    folder = tmp_path_factory.mktemp("big")
+    manifest = _big_manifest(folder / "in", 400)
+    clean = folder / "clean"
+    assert run_cli(["batch", str(manifest), "--output", str(clean)], folder).exit_code == 0
+    return manifest, clean
+
+
 @pytest.mark.parametrize("how", [signal.SIGKILL, signal.SIGINT])
-def test_resume_after_a_kill_gives_the_same_summary(tmp_path, how):
+def test_resume_after_a_kill_gives_the_same_summary(tmp_path, big_batch, how):
     # project contract (issue: batch): killed half-way, --resume continues and ends with the same summary
-    manifest = _big_manifest(tmp_path / "in", 400)
-    clean = tmp_path / "clean"
-    assert run_process("batch", str(manifest), "--output", str(clean)).returncode == 0
+    manifest, clean = big_batch
     cut = tmp_path / "cut"
     # a shell without job control starts background jobs with SIGINT ignored; give the child the default
     process = subprocess.Popen(
@@ -139,8 +148,8 @@ def test_resume_after_a_kill_gives_the_same_summary(tmp_path, how):
     killed = process.returncode != 0
     assert killed, "the run finished before it could be interrupted; raise the product count"
     assert not (cut / "summary.csv").exists()  # nothing final was written by the interrupted run
-    resumed = run_process("batch", str(manifest), "--output", str(cut), "--resume")
-    assert resumed.returncode == 0
+    resumed = run_cli(["batch", str(manifest), "--output", str(cut), "--resume"], tmp_path)
+    assert resumed.exit_code == 0
     reused = int(resumed.stdout.split("assessed (")[1].split(" reused")[0])
     assert 0 < reused < 400
     assert (cut / "summary.csv").read_bytes() == (clean / "summary.csv").read_bytes()

@@ -2,26 +2,21 @@
 
 import numpy as np
 import pytest
-from conftest import write_spectrum
-
-import hazard
+from conftest import assess_spectrum
 
 
-# --- relative spectra with a photometric anchor ------------------------------------------------------
-def test_illuminant_a_scaled_to_1000_lx(colour, tmp_path):
+def test_illuminant_a_scaled_to_1000_lx(colour):
     # colour-science's CIE illuminant A (relative) anchored to 1000 lx at 500 mm: the scale factor is
     # 1000 / (683 ∫S V dλ), with colour-science's own photometry giving 683 ∫S V dλ (CIE S 010, K_m = 683).
     sd = colour.SDS_ILLUMINANTS["A"]
-    path = write_spectrum(tmp_path / "a.csv", sd.wavelengths, sd.values)
-    a = hazard.assess(
-        path,
-        {
-            "quantity": "relative",
-            "illuminance_lx": 1000.0,
-            "distance_mm": 500.0,
-            "source_diameter_mm": 10.0,
-            "no_emission_outside": True,
-        },
+    a = assess_spectrum(
+        sd.wavelengths,
+        sd.values,
+        quantity="relative",
+        illuminance_lx=1000.0,
+        distance_mm=500.0,
+        source_diameter_mm=10.0,
+        no_emission_outside=True,
     )
     expected_scale = 1000.0 / colour.luminous_flux(sd)
     assert a.scaling.scale_factor == pytest.approx(expected_scale, rel=1e-3)
@@ -38,19 +33,18 @@ def test_illuminant_a_scaled_to_1000_lx(colour, tmp_path):
     assert any("scaled by" in text for text in a.assumptions)
 
 
-def test_led_b3_with_luminous_intensity(colour, tmp_path):
+def test_led_b3_with_luminous_intensity(colour):
     # CIE LED-B3 (CIE 15:2018, via colour-science) with I_v = 250 cd: E_v at 200 mm = I/d² = 6250 lx
     # (inverse-square law)
     sd = colour.SDS_ILLUMINANTS["LED-B3"]
-    path = write_spectrum(tmp_path / "b3.csv", sd.wavelengths, sd.values)
-    a = hazard.assess(
-        path,
-        {
-            "quantity": "relative",
-            "luminous_intensity_cd": 250.0,
-            "source_diameter_mm": 5.0,
-            "no_emission_outside": True,
-        },
+    a = assess_spectrum(
+        sd.wavelengths,
+        sd.values,
+        quantity="relative",
+        luminous_intensity_cd=250.0,
+        distance_mm=None,  # an intensity needs no measurement distance
+        source_diameter_mm=5.0,
+        no_emission_outside=True,
     )
     assert a.illuminance_lx == pytest.approx(250.0 / 0.2**2, rel=1e-9)
     assert a.blue_light_transfer.luminous_intensity_cd == 250.0
@@ -59,10 +53,10 @@ def test_led_b3_with_luminous_intensity(colour, tmp_path):
     assert t.threshold_distance_mm == pytest.approx(1e3 * np.sqrt(250.0 * t.k_bv_w_per_lm), rel=1e-9)
 
 
-def test_relative_spectrum_short_of_a_band_follows_the_coverage_rule(tmp_path):
+def test_relative_spectrum_short_of_a_band_follows_the_coverage_rule():
     wl = np.arange(400.0, 701.0, 1.0)
-    path = write_spectrum(tmp_path / "rel.csv", wl, np.exp(-0.5 * ((wl - 550) / 60) ** 2))
-    a = hazard.assess(
-        path, {"quantity": "relative", "illuminance_lx": 500.0, "distance_mm": 500.0, "source_diameter_mm": 20.0}
+    relative = np.exp(-0.5 * ((wl - 550) / 60) ** 2)
+    a = assess_spectrum(
+        wl, relative, quantity="relative", illuminance_lx=500.0, distance_mm=500.0, source_diameter_mm=20.0
     )
     assert not a.complete and "E_S" in a.not_assessed  # method §5 coverage

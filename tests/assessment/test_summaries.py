@@ -2,26 +2,15 @@
 sources."""
 
 import numpy as np
-from conftest import gaussians, triangle_line
-
-from hazard.assessment.build import build_assessment
-from hazard.assessment.pipeline import evaluate_loaded
-from hazard.inputs.loading import LoadedProduct
-from hazard.inputs.record import ProductRecord
-from hazard.inputs.spectrum import validate_spectrum
+from conftest import assess_spectrum, gaussians, triangle_line
 
 GRID = np.arange(200.0, 3000.5, 0.5)
 """Spans every hazard band (method §1) at 0.5 nm."""
 
 
 def _assess(values, **fields):
-    """Assess an in-memory spectral irradiance on GRID (no studies)."""
-    record = ProductRecord(id="p", spectrum="mem.csv", **{"distance_mm": 200.0, "no_emission_outside": True, **fields})
-    spectrum = validate_spectrum(
-        GRID, np.asarray(values, dtype=float), np.arange(GRID.size) + 2, "mem.csv", 1.0, "irradiance"
-    )
-    loaded = LoadedProduct(record=record, spectrum=spectrum, inputs={"mem.csv": "0" * 64}, metadata={})
-    return build_assessment(loaded, evaluate_loaded([loaded]), 0, studies=False)
+    """An irradiance on GRID assessed in memory at 200 mm, nothing emitted outside it (no studies)."""
+    return assess_spectrum(GRID, values, **{"no_emission_outside": True, "source_diameter_mm": None, **fields})
 
 
 def test_blue_light_transfer_only_for_mainly_visible_sources():

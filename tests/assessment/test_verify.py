@@ -5,7 +5,7 @@ import json
 import numpy as np
 import pytest
 from click.testing import CliRunner
-from conftest import assess_arrays, triangle_line, write_spectrum
+from conftest import assess_pulsed, triangle_line, write_spectrum
 
 from hazard.cli import main
 
@@ -69,32 +69,12 @@ def test_report_refuses_a_result_whose_groups_do_not_follow_from_its_numbers(tmp
 GRID_FINE_UV = np.concatenate([np.arange(200.0, 400.0, 0.01), np.arange(400.0, 3000.5, 0.5)])
 
 
-MS = 1e-3
-
-
-def _pulse(tmp_path, line, *, dose=True, duration_s=MS, rate_hz=None, **fields):
-    """A pulsed source of ``line`` (one pulse's radiant exposure [J/m²/nm] or its peak irradiance [W/m²/nm])."""
-    record = {
-        "no_emission_outside": True,
-        "emission": "single_pulse" if rate_hz is None else "pulse_train",
-        "pulse_duration_s": duration_s,
-        **({"pulse_rate_hz": rate_hz} if rate_hz is not None else {}),
-        **({"quantity": "radiant_exposure", "unit": "J/m2/nm"} if dose else {}),
-        **fields,
-    }
-    return assess_arrays(tmp_path, GRID_FINE_UV, line, **record)
-
-
 @pytest.mark.parametrize("rate_hz", [None, 5.0], ids=["single pulse", "train"])
 def test_a_saved_pulsed_result_renders_after_its_check(tmp_path, rate_hz):
     # `hazard report` re-derives the groups with the pulse rules before it renders (hazard.assessment.verify)
     line = triangle_line(GRID_FINE_UV, 270.0, 0.02 / 0.05, 0.05)
-    a = _pulse(
-        tmp_path,
-        line,
-        rate_hz=rate_hz,
-        exposure=None if rate_hz is None else [{"distance_mm": 500, "duration_s": "1h"}],
-    )
+    exposure = None if rate_hz is None else [{"distance_mm": 500, "duration_s": "1h"}]
+    a = assess_pulsed(GRID_FINE_UV, line, rate_hz=rate_hz, exposure=exposure, studies=True)
     saved = tmp_path / "result.json"
     saved.write_text(a.model_dump_json(), encoding="utf-8")
     result = CliRunner().invoke(main, ["report", str(saved), "--output", str(tmp_path / "r.pdf")])

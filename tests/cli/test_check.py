@@ -1,11 +1,9 @@
 """``hazard check``: the exit code of contradicted claims, and a failing product does not stop the others."""
 
-import subprocess
-import sys
-
 from conftest import (
     claim_record,
     run_cli,
+    run_process,
     write_manifest,
 )
 
@@ -14,12 +12,10 @@ def test_check_exit_codes(tmp_path):
     bad = claim_record(tmp_path, "cl-spot-65", claimed_risk_group="Exempt")
     good = claim_record(tmp_path, "cl-desk-30", claimed_risk_group="Exempt")
 
-    def run(p):
-        return subprocess.run([sys.executable, "-m", "hazard.cli", "check", str(p)], capture_output=True, text=True)
-
-    contradicted, consistent = run(bad), run(good)
+    contradicted = run_process("check", str(bad))  # a real process: its exit code is what scripts see
     assert contradicted.returncode == 4 and "CONTRADICTED" in contradicted.stdout  # project contract: exit 4
-    assert consistent.returncode == 0 and "consistent" in consistent.stdout
+    consistent = run_cli(["check", str(good)], tmp_path)  # in-process
+    assert consistent.exit_code == 0 and "consistent" in consistent.stdout
 
 
 def test_check_goes_on_after_a_failing_product(tmp_path, monkeypatch):

@@ -2,9 +2,8 @@
 
 import csv
 import json
-import subprocess
-import sys
 
+from conftest import run_cli
 from pypdf import PdfReader
 
 
@@ -12,10 +11,8 @@ def test_demo_writes_consistent_outputs(tmp_path):
     # project contract (issue: demo line-up): one PDF and one JSON per product, summary.csv, summary.pdf,
     # and a one-screen table; every risk group appears in the invented line-up (examples/README.md)
     out = tmp_path / "demo"
-    run = subprocess.run(
-        [sys.executable, "-m", "hazard.cli", "demo", "--output", str(out)], capture_output=True, text=True, cwd=tmp_path
-    )
-    assert run.returncode == 0, run.stderr
+    run = run_cli(["demo", "--output", str(out)], tmp_path)  # the command, in-process
+    assert run.exit_code == 0, run.stderr
     assert "invented" in run.stdout and "Pre-screen only" in run.stdout
     results = {p.stem: json.loads(p.read_text()) for p in out.glob("CL-*.json")}
     assert len(results) >= 8 and len(list(out.glob("CL-*.pdf"))) == len(results)

@@ -16,8 +16,8 @@ from conftest import (
     LAMP_NM,
     assert_error_line,
     assert_one_line,
-    assess_arrays,
     file_hashes,
+    load_spectrum,
     same_result,
     white_lamp,
     write_file,
@@ -28,6 +28,8 @@ from hypothesis import HealthCheck, assume, given, settings
 from hypothesis import strategies as st
 
 import hazard
+from hazard.assessment.build import build_assessment
+from hazard.assessment.pipeline import evaluate_loaded
 from hazard.cli import main
 from hazard.errors import InputError
 from hazard.inputs.loading import load_product
@@ -191,10 +193,6 @@ def test_descending_wavelengths_equal_ascending(tmp_path):
 FAST = settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 
 
-def _folder(tmp_path_factory, name):
-    return tmp_path_factory.mktemp(name, numbered=True)
-
-
 # --- descending input equals ascending input ---------------------------------------------------------------
 @FAST
 # start ≥ 200 nm: the spectrum overlaps 200-3000 nm (hazard/inputs.py refuses one wholly outside the bands)
@@ -206,17 +204,17 @@ def _folder(tmp_path_factory, name):
     no_emission_outside=st.booleans(),
     lamp_type=st.sampled_from(["gls", "other"]),
 )
-def test_descending_input_equals_ascending(
-    tmp_path_factory, steps, start, data, diameter_mm, no_emission_outside, lamp_type
-):
+def test_descending_input_equals_ascending(steps, start, data, diameter_mm, no_emission_outside, lamp_type):
     wl = start + np.concatenate([[0.0], np.cumsum(steps)])
     values = np.array(data.draw(st.lists(st.floats(0.0, 100.0), min_size=wl.size, max_size=wl.size)))
     assume(values.max() > 0)  # a spectrum needs a positive value (method §5)
-    up, down = _folder(tmp_path_factory, "up"), _folder(tmp_path_factory, "down")
     fields = {"source_diameter_mm": diameter_mm, "no_emission_outside": no_emission_outside, "lamp_type": lamp_type}
-    a_up = assess_arrays(up, wl, values, **fields)
-    a_down = assess_arrays(down, wl[::-1], values[::-1], **fields)
-    # method §5: descending input is reversed; only the note of the reversal and the file's hash differ
+    up, down = load_spectrum(wl, values, **fields), load_spectrum(wl[::-1], values[::-1], **fields)
+    # method §5: descending input is reversed into the very same validated spectrum, so everything computed from it
+    # (the studies too) is the same; in the results only the note of the reversal and the input's hash differ
+    assert np.array_equal(down.spectrum.wavelength_nm, up.spectrum.wavelength_nm)
+    assert np.array_equal(down.spectrum.value, up.spectrum.value)
+    a_up, a_down = (build_assessment(p, evaluate_loaded([p]), 0, studies=False) for p in (up, down))
     strip = {"warnings": True, "provenance": {"inputs", "result_sha256"}}
     assert a_down.model_dump(exclude=strip) == a_up.model_dump(exclude=strip)
     assert len(a_down.warnings) == len(a_up.warnings) + 1

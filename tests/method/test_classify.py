@@ -1,7 +1,7 @@
 """Risk groups (hazard.method.classify): the top-down reading of compared values and limits, its agreement with
 t_max, and groups that never improve as the spectrum grows (hypothesis), with the documented exceptions.
 
-Spectra are assessed in memory (a validated spectrum and a record, the same path as a file) so that hypothesis
+Spectra are assessed in memory (conftest.assess_spectrum: everything but the reading of a file) so that hypothesis
 can try many sources.
 """
 
@@ -9,15 +9,10 @@ import math
 
 import numpy as np
 import pytest
-from conftest import assess_arrays, gaussians, log_uniform, rank, triangle_line
+from conftest import assess_spectrum, gaussians, log_uniform, rank, triangle_line
 from hypothesis import HealthCheck, assume, given, settings
 from hypothesis import strategies as st
 
-from hazard.assessment.build import build_assessment
-from hazard.assessment.pipeline import evaluate_loaded
-from hazard.inputs.loading import LoadedProduct
-from hazard.inputs.record import ProductRecord
-from hazard.inputs.spectrum import validate_spectrum
 from hazard.standards import GROUPS
 
 GRID = np.arange(200.0, 3000.5, 0.5)
@@ -32,13 +27,8 @@ ROUNDING = 0.03
 
 
 def _assess(values, **fields):
-    """Assess an in-memory spectral irradiance on GRID (no studies)."""
-    record = ProductRecord(id="p", spectrum="mem.csv", **{"distance_mm": 200.0, "no_emission_outside": True, **fields})
-    spectrum = validate_spectrum(
-        GRID, np.asarray(values, dtype=float), np.arange(GRID.size) + 2, "mem.csv", 1.0, "irradiance"
-    )
-    loaded = LoadedProduct(record=record, spectrum=spectrum, inputs={"mem.csv": "0" * 64}, metadata={})
-    return build_assessment(loaded, evaluate_loaded([loaded]), 0, studies=False)
+    """An irradiance on GRID assessed in memory at 200 mm, nothing emitted outside it (no studies)."""
+    return assess_spectrum(GRID, values, **{"no_emission_outside": True, "source_diameter_mm": None, **fields})
 
 
 def _top_down(compared, limits):
@@ -135,10 +125,10 @@ GRID_FINE_UV = np.concatenate([np.arange(200.0, 400.0, 0.01), np.arange(400.0, 3
 @pytest.mark.parametrize(
     ("irradiance", "group"), [(0.999e-3, "Exempt"), (1.001e-3, "RG1"), (0.0299, "RG2"), (0.0301, "RG3")]
 )
-def test_group_boundaries_at_or_below(tmp_path, irradiance, group):
+def test_group_boundaries_at_or_below(irradiance, group):
     # IEC 62471:2006 §6.1: a value at or below a group's limit is in that group; above RG2 is RG3
-    a = assess_arrays(
-        tmp_path, GRID_FINE_UV, triangle_line(GRID_FINE_UV, 270.0, irradiance / 0.05, 0.05), no_emission_outside=True
+    a = assess_spectrum(
+        GRID_FINE_UV, triangle_line(GRID_FINE_UV, 270.0, irradiance / 0.05, 0.05), no_emission_outside=True
     )
     assert a.hazards["E_S"].risk_group == group and a.risk_group == group
 
@@ -154,10 +144,6 @@ WIDE_LINES = st.lists(
     st.tuples(st.floats(200.0, 3000.0), st.floats(1.0, 300.0), log_uniform(1e-6, 10.0)), min_size=1, max_size=4
 )
 """Gaussian lines anywhere in 200–3000 nm, narrow (1 nm) to broad, over seven decades [nm, nm, W m⁻² nm⁻¹]."""
-
-
-def _folder(tmp_path_factory, name):
-    return tmp_path_factory.mktemp(name, numbered=True)
 
 
 # --- the group never improves when the spectrum grows --------------------------------------------------------
@@ -182,34 +168,32 @@ def _assert_never_improves(base, grown):
     diameter_mm=st.floats(0.5, 30.0),
     distance_mm=st.sampled_from([100.0, 200.0, 500.0]),
 )
-def test_group_never_improves_when_the_spectrum_grows(tmp_path_factory, first, added, diameter_mm, distance_mm):
+def test_group_never_improves_when_the_spectrum_grows(first, added, diameter_mm, distance_mm):
     """Non-GLS lamps only: a GLS lamp is assessed where it gives 500 lx, so more light moves it further away
     and can lower its group (method §4; see the GLS tests in tests/method/test_evaluate.py)."""
-    folder = _folder(tmp_path_factory, "grows")
     a = gaussians(GRID_1_NM, first)
     b = gaussians(GRID_1_NM, added)
     fields = {"source_diameter_mm": diameter_mm, "distance_mm": distance_mm, "lamp_type": "other"}
-    base = assess_arrays(folder, GRID_1_NM, a, name="base", **fields)
-    grown = assess_arrays(folder, GRID_1_NM, a + b, name="grown", **fields)
+    base = assess_spectrum(GRID_1_NM, a, **fields)
+    grown = assess_spectrum(GRID_1_NM, a + b, **fields)
     # Crossing 10 cd/m2 swaps L_IR for L_R (IEC 62471:2006 §4.3.6): a documented exception, tested below.
     assume(base.geometry.weak_visual_stimulus == grown.geometry.weak_visual_stimulus)
     assert grown.assessment_distance_mm == base.assessment_distance_mm == 200.0  # method §4: 200 mm
     _assert_never_improves(base, grown)
 
 
-def test_group_can_improve_when_the_source_stops_being_a_weak_visual_stimulus(tmp_path_factory):
+def test_group_can_improve_when_the_source_stops_being_a_weak_visual_stimulus():
     """The one exception for non-GLS lamps, and why the property above holds the luminance class fixed.
 
     An IR source below 10 cd/m2 is judged by L_IR against 6000/α for every group, so exceeding it is RG3; a
     trace of visible light lifts the luminance over 10 cd/m2 and L_R is judged instead, against 28000/α and
     71000/α (IEC 62471:2006 Table 6.1; method §1, §3). The group then falls although the spectrum only grew.
     """
-    folder = _folder(tmp_path_factory, "weak")
     ir = gaussians(GRID_1_NM, [(1000.0, 50.0, 20.0)])
     trace = gaussians(GRID_1_NM, [(555.0, 20.0, 1e-4)])
     fields = {"source_diameter_mm": 10.0}  # α = 10/200 = 0.05 rad
-    base = assess_arrays(folder, GRID_1_NM, ir, name="ir", **fields)
-    grown = assess_arrays(folder, GRID_1_NM, ir + trace, name="ir_trace", **fields)
+    base = assess_spectrum(GRID_1_NM, ir, **fields)
+    grown = assess_spectrum(GRID_1_NM, ir + trace, **fields)
     assert base.geometry.weak_visual_stimulus and not grown.geometry.weak_visual_stimulus
     l_ir, l_r = base.hazards["L_IR"], grown.hazards["L_R"]
     assert l_ir.limits["RG2"] == pytest.approx(6000 / 0.05)  # Table 6.1: 6000/α

@@ -6,55 +6,48 @@ import math
 
 import numpy as np
 import pytest
-from conftest import assess_arrays, gaussians, log_uniform, rank, triangle_line
+from conftest import assess_spectrum, gaussians, log_uniform, rank, triangle_line
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
-import hazard
-from hazard.assessment.build import build_assessment
-from hazard.assessment.pipeline import evaluate_loaded
-from hazard.inputs.loading import LoadedProduct
-from hazard.inputs.record import ProductRecord
-from hazard.inputs.spectrum import validate_spectrum
 from hazard.method.geometry import cone_solid_angle_sr
 
 GRID = np.concatenate([np.arange(200.0, 400.0, 0.01), np.arange(400.0, 3000.5, 0.5)])
 
 
 # --- narrow lines: weight × irradiance, and t_max -------------------------------------------------------
-def test_actinic_line_gives_weight_times_irradiance_and_t_max(tmp_path):
+def test_actinic_line_gives_weight_times_irradiance_and_t_max():
     # A 270 nm line of 0.01 W/m2: S_UV(270) = 1.0 (IEC 62471:2006 Table 4.1), so E_S = 0.01 W/m2,
     # t_max = 30/E_S = 3000 s (IEC 62471:2006 §4.3.1), group RG2 (0.003 < 0.01 ≤ 0.03, Table 6.1).
-    a = assess_arrays(tmp_path, GRID, triangle_line(GRID, 270.0, 0.01 / 0.05, 0.05), no_emission_outside=True)
+    a = assess_spectrum(GRID, triangle_line(GRID, 270.0, 0.01 / 0.05, 0.05), no_emission_outside=True)
     e_s = a.hazards["E_S"]
     assert e_s.value == pytest.approx(0.01, rel=1e-3)
     assert e_s.t_max_s == pytest.approx(3000, rel=1e-3)
     assert e_s.risk_group == "RG2"
 
 
-def test_254_nm_line(tmp_path):
+def test_254_nm_line():
     # S_UV(254) = 0.5 (IEC 62471:2006 Table 4.1): a 0.002 W/m2 line at 254 nm gives E_S = 0.001 W/m2
-    a = assess_arrays(tmp_path, GRID, triangle_line(GRID, 254.0, 0.002 / 0.05, 0.05), no_emission_outside=True)
+    a = assess_spectrum(GRID, triangle_line(GRID, 254.0, 0.002 / 0.05, 0.05), no_emission_outside=True)
     assert a.hazards["E_S"].value == pytest.approx(0.001, rel=1e-3)
 
 
-def test_blue_line_small_source_e_b_and_t_max(tmp_path):
+def test_blue_line_small_source_e_b_and_t_max():
     # B = 1.0 over 435-440 nm (Table 4.2): a line at 437.5 nm sits on that plateau. A 2 mm source at 200 mm
     # has α = 0.01 rad < 0.011: E_B applies (Table 6.1). E_B = 2 W/m2 → t_max = 100/E_B = 50 s (§4.3.4);
     # 1 < 2 ≤ 400 → RG2.
-    a = assess_arrays(tmp_path, GRID, triangle_line(GRID, 437.5, 2.0), source_diameter_mm=2.0, no_emission_outside=True)
+    a = assess_spectrum(GRID, triangle_line(GRID, 437.5, 2.0), source_diameter_mm=2.0, no_emission_outside=True)
     assert "E_B" in a.hazards and "L_B" not in a.hazards
     assert a.hazards["E_B"].value == pytest.approx(2.0, rel=1e-9)
     assert a.hazards["E_B"].t_max_s == pytest.approx(50, rel=1e-3)
     assert a.hazards["E_B"].risk_group == "RG2"
 
 
-def test_blue_line_large_source_l_b_with_fov_averaging(tmp_path):
+def test_blue_line_large_source_l_b_with_fov_averaging():
     # A 10 mm disc at 200 mm: α = 0.05 rad ≥ 0.011, so L_B applies. Source radiance L = E_B/Ω_s with
     # Ω_s = 2π(1 − cos(atan(D/2d))) (method §4); at the Exempt boundary the 0.1 rad field is larger than the
     # source, so the compared radiance is E_B/Ω(0.1 rad) (IEC 62471:2006 Table 6.1 fields of view).
-    a = assess_arrays(
-        tmp_path,
+    a = assess_spectrum(
         GRID,
         triangle_line(GRID, 437.5, 10.0),
         source_diameter_mm=10.0,  # B = 1 plateau
@@ -69,83 +62,73 @@ def test_blue_line_large_source_l_b_with_fov_averaging(tmp_path):
     assert l_b.t_max_s == pytest.approx(1e6 / l_b.value, rel=1e-9)  # §4.3.3: t = 10^6 / L_B
 
 
-def test_retinal_thermal_alpha_bounds(tmp_path):
+def test_retinal_thermal_alpha_bounds():
     # A 1 mm source at 200 mm: α = 0.005 rad. Exempt/RG1 limits use α bounded to ≥ 0.011 rad, RG2 to
     # ≥ 0.0017 rad (IEC 62471:2006 Table 6.1): 28000/0.011 and 71000/0.005 W/(m2 sr).
-    a = assess_arrays(tmp_path, GRID, triangle_line(GRID, 600.0, 1.0), source_diameter_mm=1.0, no_emission_outside=True)
+    a = assess_spectrum(GRID, triangle_line(GRID, 600.0, 1.0), source_diameter_mm=1.0, no_emission_outside=True)
     l_r = a.hazards["L_R"]
     assert l_r.limits["Exempt"] == pytest.approx(28000 / 0.011)
     assert l_r.limits["RG2"] == pytest.approx(71000 / 0.005)
     assert l_r.alpha_rad == {"Exempt": pytest.approx(0.011), "RG1": pytest.approx(0.011), "RG2": pytest.approx(0.005)}
 
 
-def test_weak_visual_stimulus_switches_to_l_ir(tmp_path):
+def test_weak_visual_stimulus_switches_to_l_ir():
     # An 850 nm-only source has luminance far below 10 cd/m2: L_IR (780-1400 nm) replaces L_R
     # (IEC 62471:2006 §4.3.6, Table 6.1); R(850) = 10^((700-850)/500) (Table 4.2).
-    a = assess_arrays(
-        tmp_path, GRID, triangle_line(GRID, 850.0, 5.0), source_diameter_mm=10.0, no_emission_outside=True
-    )
+    a = assess_spectrum(GRID, triangle_line(GRID, 850.0, 5.0), source_diameter_mm=10.0, no_emission_outside=True)
     assert a.geometry.weak_visual_stimulus and "L_IR" in a.hazards and "L_R" not in a.hazards
     omega_s = 2 * math.pi * (1 - math.cos(math.atan(10 / 400)))
     assert a.hazards["L_IR"].value == pytest.approx(5.0 * 10 ** (-150 / 500) / omega_s, rel=2e-3)
     assert a.hazards["L_IR"].limits["Exempt"] == pytest.approx(6000 / 0.05)
 
 
-def test_ir_and_skin_thermal_t_max(tmp_path):
+def test_ir_and_skin_thermal_t_max():
     # E_IR = 400 W/m2 (unweighted 780-3000 nm): t_max = (18000/400)^(4/3) s (§4.3.7); E_H over 380-3000 nm
     # is the same 400 W/m2 here: t_max = (20000/400)^(4/3) ≈ 184 s > 10 s, so no t_max within the
     # skin-thermal limit's range (§4.3.8: t < 10 s).
-    a = assess_arrays(tmp_path, GRID, triangle_line(GRID, 1500.0, 400.0), no_emission_outside=True)
+    a = assess_spectrum(GRID, triangle_line(GRID, 1500.0, 400.0), no_emission_outside=True)
     assert a.hazards["E_IR"].value == pytest.approx(400, rel=1e-6)
     assert a.hazards["E_IR"].t_max_s == pytest.approx((18000 / 400) ** (4 / 3), rel=1e-6)
     assert a.hazards["E_IR"].risk_group == "RG1"  # 100 < 400 ≤ 570
     assert a.hazards["E_H"].t_max_s is None and a.hazards["E_H"].risk_group is None
-    hot = assess_arrays(tmp_path, GRID, triangle_line(GRID, 1500.0, 5000.0), name="hot", no_emission_outside=True)
+    hot = assess_spectrum(GRID, triangle_line(GRID, 1500.0, 5000.0), no_emission_outside=True)
     assert hot.hazards["E_H"].t_max_s == pytest.approx((20000 / 5000) ** (4 / 3), rel=1e-6)
 
 
-def test_inverse_square_scaling_to_200_mm(tmp_path):
+def test_inverse_square_scaling_to_200_mm():
     # Irradiance measured at 400 mm scales by (400/200)^2 = 4 to the 200 mm assessment distance
     # (IEC 62471:2006 §5.1.2; point-source law, method §4)
-    a = assess_arrays(tmp_path, GRID, triangle_line(GRID, 1500.0, 10.0), distance_mm=400.0, no_emission_outside=True)
+    a = assess_spectrum(GRID, triangle_line(GRID, 1500.0, 10.0), distance_mm=400.0, no_emission_outside=True)
     assert a.assessment_distance_mm == 200
     assert a.hazards["E_IR"].value == pytest.approx(40, rel=1e-9)
 
 
-def test_gls_distance_from_the_500_lx_rule(tmp_path):
+def test_gls_distance_from_the_500_lx_rule():
     # GLS lamps: assessed where E_v = 500 lx, not nearer than 200 mm (IEC 62471:2006 §5.1.2). With E_v(d_m)
     # measured at 500 mm the inverse-square law puts 500 lx at d = 500 mm · sqrt(E_v(d_m)/500).
     wl = np.arange(380.0, 781.0, 1.0)
     values = np.exp(-0.5 * ((wl - 560) / 60) ** 2) * 0.02
-    other = assess_arrays(tmp_path, wl, values, name="other", distance_mm=500.0, no_emission_outside=True)
+    other = assess_spectrum(wl, values, distance_mm=500.0, no_emission_outside=True)
     e_v_at_200 = other.illuminance_lx  # 'other' lamps are assessed at 200 mm
     e_v_at_500 = e_v_at_200 * (200 / 500) ** 2
-    gls = assess_arrays(tmp_path, wl, values, name="gls", distance_mm=500.0, lamp_type="gls", no_emission_outside=True)
+    gls = assess_spectrum(wl, values, distance_mm=500.0, lamp_type="gls", no_emission_outside=True)
     assert gls.assessment_distance_mm == pytest.approx(500 * math.sqrt(e_v_at_500 / 500), rel=1e-9)
     assert gls.illuminance_lx == pytest.approx(500, rel=1e-9)
-    dim = assess_arrays(
-        tmp_path, wl, values / 1000, name="dim", distance_mm=500.0, lamp_type="gls", no_emission_outside=True
-    )
+    dim = assess_spectrum(wl, values / 1000, distance_mm=500.0, lamp_type="gls", no_emission_outside=True)
     assert dim.assessment_distance_mm == 200  # under 500 lx even at 200 mm: the minimum applies
 
 
-def test_radiance_input_gives_irradiance_by_source_solid_angle(tmp_path):
+def test_radiance_input_gives_irradiance_by_source_solid_angle():
     # From radiance to irradiance: E = L·Ω_s (method §4). A 20 mm disc seen from 200 mm.
-
-    path = tmp_path / "rad.csv"
-    path.write_text(
-        "wavelength_nm,value\n"
-        + "".join(f"{w},{v}\n" for w, v in zip(GRID, triangle_line(GRID, 1500.0, 1000.0), strict=True))
-    )
-    a = hazard.assess(
-        path,
-        {
-            "quantity": "radiance",
-            "unit": "W/m2/sr/nm",
-            "source_diameter_mm": 20.0,
-            "no_emission_outside": True,
-            "measurement_fov_mrad": 5.0,
-        },
+    a = assess_spectrum(
+        GRID,
+        triangle_line(GRID, 1500.0, 1000.0),
+        quantity="radiance",
+        unit="W/m2/sr/nm",
+        distance_mm=None,  # a radiance needs no measurement distance
+        source_diameter_mm=20.0,
+        no_emission_outside=True,
+        measurement_fov_mrad=5.0,
     )
     omega_s = 2 * math.pi * (1 - math.cos(math.atan(20 / 400)))
     assert a.hazards["E_IR"].value == pytest.approx(1000 * omega_s, rel=1e-9)
@@ -156,13 +139,8 @@ GRID_HALF_NM = np.arange(200.0, 3000.5, 0.5)
 
 
 def _assess(values, **fields):
-    """Assess an in-memory spectral irradiance on GRID_HALF_NM (no studies)."""
-    record = ProductRecord(id="p", spectrum="mem.csv", **{"distance_mm": 200.0, "no_emission_outside": True, **fields})
-    spectrum = validate_spectrum(
-        GRID_HALF_NM, np.asarray(values, dtype=float), np.arange(GRID_HALF_NM.size) + 2, "mem.csv", 1.0, "irradiance"
-    )
-    loaded = LoadedProduct(record=record, spectrum=spectrum, inputs={"mem.csv": "0" * 64}, metadata={})
-    return build_assessment(loaded, evaluate_loaded([loaded]), 0, studies=False)
+    """An irradiance on GRID_HALF_NM assessed in memory at 200 mm, nothing emitted outside it (no studies)."""
+    return assess_spectrum(GRID_HALF_NM, values, **{"no_emission_outside": True, "source_diameter_mm": None, **fields})
 
 
 def test_small_red_emitter_is_rg3_not_exempt():
@@ -236,22 +214,17 @@ LINES = st.lists(
 """Gaussian lines anywhere in 200–3000 nm, narrow (1 nm) to broad, over seven decades [nm, nm, W m⁻² nm⁻¹]."""
 
 
-def _folder(tmp_path_factory, name):
-    return tmp_path_factory.mktemp(name, numbered=True)
-
-
 @FAST
 @given(first=LINES, added=LINES, diameter_mm=st.floats(0.5, 30.0))
-def test_gls_distance_never_shrinks_when_the_spectrum_grows(tmp_path_factory, first, added, diameter_mm):
+def test_gls_distance_never_shrinks_when_the_spectrum_grows(first, added, diameter_mm):
     """GLS lamps are assessed where they give 500 lx, not nearer than 200 mm (IEC 62471:2006 §5.1.2; method
     §4). More light moves that point further away, which lowers the irradiance there, so the group of a GLS
     lamp may legitimately improve as its spectrum grows (next test); what must hold is the distance rule."""
-    folder = _folder(tmp_path_factory, "gls")
     a = gaussians(GRID_1_NM, first)
     b = gaussians(GRID_1_NM, added)
     fields = {"source_diameter_mm": diameter_mm, "distance_mm": 500.0, "lamp_type": "gls"}
-    base = assess_arrays(folder, GRID_1_NM, a, name="base", **fields)
-    grown = assess_arrays(folder, GRID_1_NM, a + b, name="grown", **fields)
+    base = assess_spectrum(GRID_1_NM, a, **fields)
+    grown = assess_spectrum(GRID_1_NM, a + b, **fields)
     assert grown.assessment_distance_mm >= base.assessment_distance_mm * (1 - 1e-12)
     for result in (base, grown):
         assert result.assessment_distance_mm >= 200.0  # not nearer than 200 mm
@@ -261,13 +234,12 @@ def test_gls_distance_never_shrinks_when_the_spectrum_grows(tmp_path_factory, fi
             assert result.illuminance_lx <= 500.0 * (1 + 1e-9)  # under 500 lx even at 200 mm
 
 
-def test_gls_group_can_improve_when_the_spectrum_grows(tmp_path_factory):
-    folder = _folder(tmp_path_factory, "gls_example")
+def test_gls_group_can_improve_when_the_spectrum_grows():
     uv = gaussians(GRID_1_NM, [(300.0, 15.0, 1e-4)])
     light = gaussians(GRID_1_NM, [(555.0, 30.0, 1.0)])  # no UV to speak of: its 300 nm tail is e^-36
     fields = {"source_diameter_mm": 10.0, "distance_mm": 200.0, "lamp_type": "gls"}
-    base = assess_arrays(folder, GRID_1_NM, uv, name="uv", **fields)
-    grown = assess_arrays(folder, GRID_1_NM, uv + light, name="uv_light", **fields)
+    base = assess_spectrum(GRID_1_NM, uv, **fields)
+    grown = assess_spectrum(GRID_1_NM, uv + light, **fields)
     assert base.assessment_distance_mm == 200.0 and grown.assessment_distance_mm > 1000.0
     # the UV irradiance falls by the inverse-square law to the farther 500 lx point (method §4)
     ratio = (base.assessment_distance_mm / grown.assessment_distance_mm) ** 2
@@ -281,16 +253,16 @@ def _illuminant(colour, name):
     return np.asarray(sd.wavelengths, dtype=float), np.asarray(sd.values, dtype=float)
 
 
-def test_led_b_series_is_not_uv_or_ir_hazardous_at_office_levels(colour, tmp_path):
+def test_led_b_series_is_not_uv_or_ir_hazardous_at_office_levels(colour):
     # A white LED spectrum (CIE 15:2018 LED-B1..B5) scaled to 500 lx at 200 mm has no UV or IR emission in
     # its data, so E_S, E_UVA and E_IR are far below Exempt (IEC 62471:2006 Table 6.1), and its blue-light
     # hazard ratio K_B,v = L_B/L_v lies in the range reported for white LEDs, 0.2-1.2 mW/lm
     # (IEC TR 62778:2014 Annex C, from memory).
     for name in ("LED-B1", "LED-B3", "LED-B5"):
         wl, values = _illuminant(colour, name)
-        probe = assess_arrays(tmp_path, wl, values, name=name, no_emission_outside=True, source_diameter_mm=20.0)
+        probe = assess_spectrum(wl, values, no_emission_outside=True, source_diameter_mm=20.0)
         scaled = values * 500 / probe.illuminance_lx
-        a = assess_arrays(tmp_path, wl, scaled, name=name, no_emission_outside=True, source_diameter_mm=20.0)
+        a = assess_spectrum(wl, scaled, no_emission_outside=True, source_diameter_mm=20.0)
         assert a.illuminance_lx == pytest.approx(500)
         for symbol in ("E_S", "E_UVA", "E_IR"):
             assert a.hazards[symbol].risk_group == "Exempt"
@@ -301,18 +273,14 @@ def test_led_b_series_is_not_uv_or_ir_hazardous_at_office_levels(colour, tmp_pat
 GRID_FINE_TO_500 = np.concatenate([np.arange(200.0, 500.0, 0.01), np.arange(500.0, 3000.5, 0.5)])
 
 
-def test_peak_to_mean_multiplies_radiance_in_small_fields(tmp_path):
+def test_peak_to_mean_multiplies_radiance_in_small_fields():
     # method §4: a non-uniform source exceeds the average radiance E/Ω_s; the record's peak-to-mean ratio
     # multiplies the radiance seen by fields of view smaller than the source (project design, issue 6).
     values = triangle_line(GRID_FINE_TO_500, 437.5, 5.0)
-    uniform = assess_arrays(
-        tmp_path, GRID_FINE_TO_500, values, name="u", source_diameter_mm=15.0, no_emission_outside=True
-    )
-    hot = assess_arrays(
-        tmp_path,
+    uniform = assess_spectrum(GRID_FINE_TO_500, values, source_diameter_mm=15.0, no_emission_outside=True)
+    hot = assess_spectrum(
         GRID_FINE_TO_500,
         values,
-        name="h",
         source_diameter_mm=15.0,
         no_emission_outside=True,
         peak_to_mean_radiance=3.0,

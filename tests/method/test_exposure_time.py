@@ -3,7 +3,7 @@
 
 import numpy as np
 import pytest
-from conftest import assess_arrays, gaussians, log_uniform
+from conftest import assess_spectrum, gaussians, log_uniform
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
@@ -12,10 +12,6 @@ FAST = settings(max_examples=40, deadline=None, suppress_health_check=[HealthChe
 
 GRID = np.arange(200.0, 3000.5, 1.0)
 """200–3000 nm at 1 nm: spans every hazard band (method §1), so coverage never decides."""
-
-
-def _folder(tmp_path_factory, name):
-    return tmp_path_factory.mktemp(name, numbered=True)
 
 
 # --- scaling by k ------------------------------------------------------------------------------------------
@@ -51,11 +47,10 @@ def _floor(wavelength_nm):
     k=st.floats(0.5, 4.0),
     diameter_mm=st.floats(0.5, 8.0),
 )
-def test_scaling_scales_values_by_k_and_t_max_by_a_power_of_k(tmp_path_factory, extra, k, diameter_mm):
+def test_scaling_scales_values_by_k_and_t_max_by_a_power_of_k(extra, k, diameter_mm):
     values = _floor(GRID) + gaussians(GRID, extra)
-    folder = _folder(tmp_path_factory, "scaling")
-    base = assess_arrays(folder, GRID, values, name="base", source_diameter_mm=diameter_mm)
-    scaled = assess_arrays(folder, GRID, k * values, name="scaled", source_diameter_mm=diameter_mm)
+    base = assess_spectrum(GRID, values, source_diameter_mm=diameter_mm)
+    scaled = assess_spectrum(GRID, k * values, source_diameter_mm=diameter_mm)
     # Which hazards apply depends on α (geometry only) and on luminance ≥ 10 cd/m2, which the floor keeps
     # (IEC 62471:2006 Table 6.1, §4.3.6); so the same hazards are reported.
     assert base.hazards.keys() == scaled.hazards.keys()

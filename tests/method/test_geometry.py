@@ -22,19 +22,20 @@ def test_solid_angles():
 
 
 def test_cone_rectangle_solid_angle_against_a_dense_sum():
-    # An independent numeric integral: the solid angle of {x² + y² ≤ tan²θ} ∩ {|x| ≤ p, |y| ≤ q} in the plane at
-    # unit distance, summing the solid-angle kernel 1/(1 + x² + y²)^{3/2} on a fine grid (definition of the solid
-    # angle of a flat region seen from a point)
+    # An independent numeric integral, in Cartesian coordinates where the method works in polar ones: the solid
+    # angle of {x² + y² ≤ tan²θ} ∩ {|x| ≤ p, |y| ≤ q} in the plane at unit distance is the integral of the kernel
+    # 1/(1 + x² + y²)^{3/2} over it (definition of the solid angle of a flat region seen from a point). Along y it
+    # is in closed form, ∫ dy/(1 + x² + y²)^{3/2} = y/((1 + x²)·√(1 + x² + y²))  # analytic
+    # up to y = min(q, √(tan²θ − x²)); along x a dense trapezoid sum (2·10⁵ steps; its error, largest where the
+    # circle's edge is steep, stays below 1e-7 here).
     for theta, p, q in ((0.0055, 0.0025, 3.0), (0.0055, 0.002, 0.004), (0.05, 0.03, 0.02), (0.05, 0.06, 0.01)):
         reach = math.tan(theta)
-        x = np.linspace(-min(p, reach), min(p, reach), 4001)
-        y = np.linspace(-min(q, reach), min(q, reach), 4001)
-        xx, yy = np.meshgrid(x, y)
-        kernel = (xx**2 + yy**2 <= reach**2) / (1 + xx**2 + yy**2) ** 1.5
-        dense = np.trapezoid(np.trapezoid(kernel, y, axis=0), x)
+        x = np.linspace(-min(p, reach), min(p, reach), 200_001)
+        y = np.minimum(q, np.sqrt(np.maximum(reach**2 - x**2, 0.0)))
+        dense = np.trapezoid(2 * y / ((1 + x**2) * np.sqrt(1 + x**2 + y**2)), x)
         assert float(cone_rectangle_solid_angle(np.array(theta), np.array(p), np.array(q))) == pytest.approx(
-            dense, rel=5e-5
-        )  # the grid's staircase edge of the circle limits the sum's own accuracy
+            dense, rel=1e-6
+        )
 
 
 def test_long_strip_field_fraction_on_the_sphere():

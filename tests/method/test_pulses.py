@@ -9,7 +9,7 @@ import math
 
 import numpy as np
 import pytest
-from conftest import assess_arrays, triangle_line
+from conftest import assess_pulsed, triangle_line
 
 from hazard.standards import GROUPS
 
@@ -19,17 +19,9 @@ GRID = np.concatenate([np.arange(200.0, 400.0, 0.01), np.arange(400.0, 3000.5, 0
 MS = 1e-3
 
 
-def _pulse(tmp_path, line, *, dose=True, duration_s=MS, rate_hz=None, **fields):
-    """A pulsed source of ``line`` (one pulse's radiant exposure [J/m²/nm] or its peak irradiance [W/m²/nm])."""
-    record = {
-        "no_emission_outside": True,
-        "emission": "single_pulse" if rate_hz is None else "pulse_train",
-        "pulse_duration_s": duration_s,
-        **({"pulse_rate_hz": rate_hz} if rate_hz is not None else {}),
-        **({"quantity": "radiant_exposure", "unit": "J/m2/nm"} if dose else {}),
-        **fields,
-    }
-    return assess_arrays(tmp_path, GRID, line, **record)
+def _pulse(line, **fields):
+    """A pulsed source of ``line`` on GRID (see :func:`conftest.assess_pulsed`)."""
+    return assess_pulsed(GRID, line, **fields)
 
 
 # (hazard, line centre [nm], dose limit at 1 ms [J/m² or J/(m²·sr)], source diameter [mm] at 200 mm, line
@@ -46,7 +38,7 @@ DOSE_LIMITS = [
 @pytest.mark.parametrize(("share", "group"), [(0.99, "Exempt"), (1.01, "RG3")])
 def test_single_pulse_just_under_and_over_a_dose_limit(tmp_path, symbol, centre, limit, diameter, width, share, group):
     line = triangle_line(GRID, centre, share * limit / width, width)
-    a = _pulse(tmp_path, line, source_diameter_mm=diameter)
+    a = _pulse(line, source_diameter_mm=diameter)
     h = a.hazards[symbol]
     assert h.pulse.fraction == pytest.approx(share, rel=1e-3)  # the line's weighting within 0.1 %
     assert h.pulse.dose_per_pulse == pytest.approx(share * limit, rel=1e-3)
@@ -63,28 +55,26 @@ def test_single_pulse_against_the_blue_light_radiance_dose(tmp_path, share, grou
     # Ω_s = 2π(1 − cos(atan(D/2d)))).
     omega_s = 2 * math.pi * (1 - math.cos(math.atan(5 / 200)))
     dose = share * 1e6 * omega_s  # J/m² at the eye
-    a = _pulse(tmp_path, triangle_line(GRID, 437.5, dose), source_diameter_mm=10.0)
+    a = _pulse(triangle_line(GRID, 437.5, dose), source_diameter_mm=10.0)
     assert a.hazards["L_B"].pulse.fraction == pytest.approx(share, rel=1e-9)
     assert a.hazards["L_B"].risk_group == group
 
 
-def _retinal_pulse(tmp_path, share_of_limit, duration_s, held_at_s=None):
+def _retinal_pulse(share_of_limit, duration_s, held_at_s=None):
     """A 600 nm pulse (R = 1 over 500-700 nm, IEC 62471:2006 Table 4.2) from a 10 mm disc at 200 mm, its peak
     radiance ``share_of_limit`` × 50000/(α·t^0.25) at t = ``held_at_s`` (default: the pulse duration)."""
     alpha = 10 / 200  # α = D/d (method §4), within the 1.7-100 mrad bounds of a pulse's limit (Table 6.1)
     omega_s = 2 * math.pi * (1 - math.cos(math.atan(5 / 200)))
     limit = 50000 / (alpha * (held_at_s or duration_s) ** 0.25)  # 4.3.5 [W/(m²·sr)]
     peak_irradiance = share_of_limit * limit * omega_s
-    a = _pulse(
-        tmp_path, triangle_line(GRID, 600.0, peak_irradiance), dose=False, duration_s=duration_s, source_diameter_mm=10
-    )
+    a = _pulse(triangle_line(GRID, 600.0, peak_irradiance), dose=False, duration_s=duration_s, source_diameter_mm=10)
     assert a.alpha_rad == pytest.approx(alpha, rel=1e-9)
     return a
 
 
 @pytest.mark.parametrize(("share", "group"), [(0.99, "Exempt"), (1.01, "RG3")])
 def test_retinal_thermal_pulse_at_1_ms(tmp_path, share, group):
-    a = _retinal_pulse(tmp_path, share, 1e-3)
+    a = _retinal_pulse(share, 1e-3)
     assert a.hazards["L_R"].pulse.fraction == pytest.approx(share, rel=1e-3)
     assert a.hazards["L_R"].risk_group == group
 
@@ -93,7 +83,7 @@ def test_retinal_thermal_pulse_at_1_ms(tmp_path, share, group):
 def test_retinal_thermal_pulse_at_1_us_uses_the_limit_held_at_10_us(tmp_path, share, group):
     # Below 10 µs the limit is held at its 10 µs value (2006/25/EC Annex I row i: 8.89·10⁸/C_α); the formula
     # extrapolated to 1 µs would allow (10/1)^0.25 = 1.78× more, so 1.5× the held limit must still be RG3.
-    a = _retinal_pulse(tmp_path, share, 1e-6, held_at_s=1e-5)
+    a = _retinal_pulse(share, 1e-6, held_at_s=1e-5)
     assert a.hazards["L_R"].pulse.fraction == pytest.approx(share, rel=1e-3)
     assert a.hazards["L_R"].risk_group == group
 
@@ -102,7 +92,7 @@ def test_train_of_safe_pulses_over_a_day_is_not_safe(tmp_path):
     # 0.01 J/m² of E_S per pulse, 1 ms at 1 Hz: each pulse is 1/3000 of 30 J/m², its time average 0.01 W/m²
     # (RG2, IEC 62471:2006 Table 6.1: 0.003 < 0.01 ≤ 0.03; t_max 3000 s). 8 h gather 288 J/m², 9.6× the limit.
     line = triangle_line(GRID, 270.0, 0.01 / 0.05, 0.05)
-    a = _pulse(tmp_path, line, rate_hz=1.0, exposure=[{"distance_mm": 200, "duration_s": "8h"}])
+    a = _pulse(line, rate_hz=1.0, exposure=[{"distance_mm": 200, "duration_s": "8h"}])
     e_s = a.hazards["E_S"]
     assert e_s.pulse.fraction == pytest.approx(0.01 / 30, rel=1e-3)
     assert e_s.pulse.pulses_to_limit == pytest.approx(3000, rel=1e-3)
@@ -115,7 +105,7 @@ def test_train_of_safe_pulses_over_a_day_is_not_safe(tmp_path):
 def test_train_grouped_by_its_time_average(tmp_path):
     # 0.002 J/m² per pulse at 1 Hz: the time average 0.002 W/m² is RG1 by the continuous-wave table
     # (0.001 < 0.002 ≤ 0.003, IEC 62471:2006 Table 6.1); every pulse is far within its limit.
-    a = _pulse(tmp_path, triangle_line(GRID, 270.0, 0.002 / 0.05, 0.05), rate_hz=1.0)
+    a = _pulse(triangle_line(GRID, 270.0, 0.002 / 0.05, 0.05), rate_hz=1.0)
     assert a.risk_group == "RG1" and a.hazards["E_S"].risk_group == "RG1"
     assert a.hazards["E_S"].value == pytest.approx(0.002, rel=1e-3)
     assert a.emission.mode == "pulse_train" and "time-averaged" in a.emission.rule
@@ -129,9 +119,7 @@ def test_thermal_pulses_add_up_in_a_train(tmp_path):
     alpha = 10 / 200  # α = D/d (method §4)
     omega_s = 2 * math.pi * (1 - math.cos(math.atan(5 / 200)))
     peak = 0.5 * 50000 / (alpha * 1e-5**0.25) * omega_s
-    a = _pulse(
-        tmp_path, triangle_line(GRID, 600.0, peak), dose=False, duration_s=1e-5, rate_hz=1000.0, source_diameter_mm=10
-    )
+    a = _pulse(triangle_line(GRID, 600.0, peak), dose=False, duration_s=1e-5, rate_hz=1000.0, source_diameter_mm=10)
     l_r = a.hazards["L_R"]
     assert l_r.pulse.fraction == pytest.approx(0.5, rel=1e-3)
     assert l_r.pulse.pulses_in_window == pytest.approx(1e4)

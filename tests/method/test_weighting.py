@@ -10,15 +10,11 @@ import math
 
 import numpy as np
 import pytest
-from conftest import assess_arrays, gaussians, log_uniform, triangle_line
+from conftest import assess_spectrum, gaussians, log_uniform, triangle_line
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 FAST = settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
-
-
-def _folder(tmp_path_factory, name):
-    return tmp_path_factory.mktemp(name, numbered=True)
 
 
 # --- resampling a smooth spectrum ----------------------------------------------------------------------------
@@ -52,19 +48,19 @@ def _resampling_tolerances(lines, diameter_mm):
     return floor
 
 
-def _resampled_pair(folder, lines, fine_step_nm, diameter_mm):
+def _resampled_pair(lines, fine_step_nm, diameter_mm):
     coarse_nm = np.arange(300.0, 1100.5, 1.0)
     fine_nm = 300.0 + fine_step_nm * np.arange(round(800 / fine_step_nm) + 1)
     fields = {"source_diameter_mm": diameter_mm, "no_emission_outside": True}
-    coarse = assess_arrays(folder, coarse_nm, gaussians(coarse_nm, lines), name="coarse", **fields)
-    fine = assess_arrays(folder, fine_nm, gaussians(fine_nm, lines), name="fine", **fields)
+    coarse = assess_spectrum(coarse_nm, gaussians(coarse_nm, lines), **fields)
+    fine = assess_spectrum(fine_nm, gaussians(fine_nm, lines), **fields)
     return coarse, fine
 
 
 @FAST
 @given(lines=SMOOTH, fine_step_nm=st.sampled_from([0.5, 0.25]), diameter_mm=st.sampled_from([1.0, 5.0]))
-def test_resampling_a_smooth_spectrum_changes_little(tmp_path_factory, lines, fine_step_nm, diameter_mm):
-    coarse, fine = _resampled_pair(_folder(tmp_path_factory, "resample"), lines, fine_step_nm, diameter_mm)
+def test_resampling_a_smooth_spectrum_changes_little(lines, fine_step_nm, diameter_mm):
+    coarse, fine = _resampled_pair(lines, fine_step_nm, diameter_mm)
     floor = _resampling_tolerances(lines, diameter_mm)
     assert coarse.hazards.keys() == fine.hazards.keys()
     for symbol, c in coarse.hazards.items():
@@ -74,8 +70,8 @@ def test_resampling_a_smooth_spectrum_changes_little(tmp_path_factory, lines, fi
     assert abs(coarse.illuminance_lx - fine.illuminance_lx) <= 0.005 * fine.illuminance_lx + floor["E_v"]
 
 
-def test_resampling_changes_e_s_by_at_most_half_a_percent(tmp_path_factory):
-    coarse, fine = _resampled_pair(_folder(tmp_path_factory, "resample_uv"), [(310.0, 30.0, 1.0)], 0.25, 5.0)
+def test_resampling_changes_e_s_by_at_most_half_a_percent():
+    coarse, fine = _resampled_pair([(310.0, 30.0, 1.0)], 0.25, 5.0)
     # project requirement: resampling a smooth spectrum changes no quantity by more than 0.5 %
     assert coarse.hazards["E_S"].value == pytest.approx(fine.hazards["E_S"].value, rel=0.005)
 
@@ -124,11 +120,11 @@ def _record(quantity, diameter_mm):
 
 @FAST
 @given(case=st.sampled_from(CONSTANT_WEIGHT), data=st.data(), peak=log_uniform(10.0, 1e4))
-def test_narrow_line_where_the_weight_is_constant(tmp_path_factory, case, data, peak):
+def test_narrow_line_where_the_weight_is_constant(case, data, peak):
     symbol, quantity, diameter_mm, (lo, hi), weight = case
     centre = data.draw(st.floats(lo + 1.0, hi - 1.0))  # the line's base stays inside the stretch
     grid, values = _line(centre, peak)
-    a = assess_arrays(_folder(tmp_path_factory, "line"), grid, values, **_record(quantity, diameter_mm))
+    a = assess_spectrum(grid, values, **_record(quantity, diameter_mm))
     assert symbol in a.hazards, sorted(a.hazards)
     # a narrow line gives weight × (peak × 1 nm) (style.md habit 9; weights as above)
     assert a.hazards[symbol].value == pytest.approx(weight * peak * 1.0, rel=1e-9)
@@ -147,14 +143,14 @@ def _triangle_times_exponential(s):
         ("E_B", 440.0, 1.0, (435.0, 1.0), (445.0, 0.97), "IEC 62471:2006 Table 4.2"),
     ],
 )
-def test_narrow_line_at_a_tabulated_point(tmp_path_factory, symbol, centre, weight, left, right, source):
+def test_narrow_line_at_a_tabulated_point(symbol, centre, weight, left, right, source):
     """At a tabulated point the weight bends; between table points it is log-linear (method §2), so the
     line integral is weight × peak × 1 nm × (g(s_left) + g(s_right)), with g from
     :func:`_triangle_times_exponential` and s the log-slope on each side from the published neighbours."""
     peak = 2.0
     grid = centre + 0.01 * np.arange(-100, 101)  # trapezoid error ≈ (h²/12)·2·(s_left + s_right)·P < 1e-6·P
     values = triangle_line(grid, centre, peak, 1.0)
-    a = assess_arrays(_folder(tmp_path_factory, "kink"), grid, values, source_diameter_mm=1.0, no_emission_outside=True)
+    a = assess_spectrum(grid, values, source_diameter_mm=1.0, no_emission_outside=True)
     s_left = math.log(weight / left[1]) / (centre - left[0])
     s_right = math.log(weight / right[1]) / (right[0] - centre)
     shape = _triangle_times_exponential(s_left) + _triangle_times_exponential(s_right)
