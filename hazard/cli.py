@@ -7,6 +7,8 @@ them, so ``hazard --help`` answers fast.
 
 from __future__ import annotations
 
+import csv
+import dataclasses
 import errno
 import json
 import os
@@ -15,16 +17,25 @@ import traceback
 from collections.abc import Callable
 from functools import partial
 from pathlib import Path
+from typing import TYPE_CHECKING, Any
 
 import click
 
 from hazard._version import __version__
-from hazard.cli_options import record_options, record_overrides
+from hazard.cli_options import ModelOptionsCommand, pop_identity, record_overrides
 from hazard.exit_codes import EXIT_CONTRADICTED, EXIT_INPUT, EXIT_INTERNAL, EXIT_OK, EXIT_SOME_FAILED
 from hazard.output.atomic import remove_stale_temporaries, write_atomic
 
+if TYPE_CHECKING:
+    from hazard.inputs.manifest import ManifestRow
+    from hazard.result import Assessment
+
+SCREEN_LEFTOVERS = 20
+"""Leftover files of an earlier run named on screen (the rest are counted)."""
 SCREEN_PRODUCTS = 200
 """A batch table on screen lists at most this many products; summary.csv has them all [1]."""
+SCREEN_PLAN_ITEMS = 25
+"""``hazard plan`` shows at most this many items on screen; plan.csv and plan.xlsx have them all [1]."""
 MAX_RESULT_BYTES = 64 * 1024 * 1024
 """Largest saved result read by ``hazard report`` [bytes]."""
 
@@ -121,9 +132,8 @@ def main(ctx: click.Context, debug: bool) -> None:
     ctx.obj = {"debug": debug}
 
 
-@main.command()
+@main.command(cls=ModelOptionsCommand, record=True, identity=True)
 @click.argument("product", type=click.Path(dir_okay=False, path_type=Path))
-@record_options
 @click.option(
     "--format",
     "output_format",
@@ -145,7 +155,7 @@ def main(ctx: click.Context, debug: bool) -> None:
 )
 @_ALLOW_OUTSIDE
 def assess(
-    product: Path, output_format: str, output: Path | None, pdf_path: Path | None, allow_outside: bool, **options
+    product: Path, output_format: str, output: Path | None, pdf_path: Path | None, allow_outside: bool, **options: Any
 ) -> None:
     """Assess one product: RECORD.toml, or a spectrum file with record options.
 
@@ -153,11 +163,13 @@ def assess(
     """
     from hazard.assessment.build import assess as run_assessment
     from hazard.inputs.loading import load_product
+    from hazard.inputs.settings import report_identity
 
+    identity = report_identity(pop_identity(options))
     loaded = load_product(product, record_overrides(options), allow_outside=allow_outside)
     spectrum = (product.parent / loaded.record.spectrum) if loaded.record.spectrum else product
     _refuse_overwriting_inputs([output, pdf_path], [product, spectrum])
-    assessment = run_assessment(loaded)
+    assessment = run_assessment(loaded, identity=identity)
     if pdf_path is not None:
         _write_report(assessment, pdf_path)
     if output_format == "json":
@@ -186,11 +198,11 @@ def _write_report(assessment, pdf_path: Path) -> None:
     click.echo(f"wrote {pdf_path}", err=True)
 
 
-@main.command()
+@main.command(cls=ModelOptionsCommand, identity=True)
 @click.argument("result", type=click.Path(dir_okay=False, path_type=Path))
 @click.option("--output", type=click.Path(dir_okay=False, path_type=Path), required=True, help="PDF file to write.")
 @click.option("--id", "product_id", help="With a results.jsonl of 'hazard batch': the product to render.")
-def report(result: Path, output: Path, product_id: str | None) -> None:
+def report(result: Path, output: Path, product_id: str | None, **options: str | None) -> None:
     """Render the PDF report of a saved result, without recomputing it.
 
     The result comes from `hazard assess --format json`, or is one product of a batch's results.jsonl with --id. It is
@@ -201,6 +213,15 @@ def report(result: Path, output: Path, product_id: str | None) -> None:
     _refuse_overwriting_inputs([output], [result])
     assessment = _load_result(result, product_id)
     check_result(assessment, str(result))
+    given = {k: v for k, v in pop_identity(options).items() if v is not None}
+    if given:  # the options replace the stored identity's fields, for this rendering only
+        from hazard.result import ReportIdentity
+
+        stored = assessment.provenance.identity
+        identity = ReportIdentity.model_validate({**(stored.model_dump() if stored else {}), **given})
+        assessment = assessment.model_copy(
+            update={"provenance": assessment.provenance.model_copy(update={"identity": identity})}
+        )
     _write_report(assessment, output)
 
 
@@ -216,10 +237,19 @@ def _result_line(path: Path, product_id: str, fix: str) -> tuple[bytes, int]:
     with open(path, "rb") as handle:
         for number, line in enumerate(handle, start=1):
             try:
-                if json.loads(line).get("id") == product_id:
-                    return line, number
+                found = json.loads(line)
+                if found.get("id") != product_id:
+                    continue
             except (ValueError, AttributeError):
                 continue
+            if found.get("status") == "error":
+                raise InputError(
+                    f"product {product_id!r} could not be assessed in that batch: {found.get('error')}",
+                    "correct its input and run the batch again",
+                    str(path),
+                    number,
+                )
+            return line, number
     raise InputError(f"no result with id {product_id!r}", "check the id (see summary.csv)", str(path))
 
 
@@ -272,11 +302,24 @@ def _finish_batch(outcome, output: Path, pdf: bool) -> None:
     )
     if len(outcome.ids) > len(shown):
         click.echo(f"… and {len(outcome.ids) - len(shown)} more products: every one is in summary.csv")
-    written = "results.jsonl, summary.csv" + (", one PDF per product and summary.pdf" if pdf else "")
+    written = "results.jsonl, summary.csv, summary.xlsx"
+    written += ", plan.csv, plan.xlsx" if "plan.csv" in outcome.written else ""
+    written += ", one PDF per product and summary.pdf" if pdf else ""
     click.echo(
         f"\n{len(outcome.assessments)} assessed ({outcome.reused} reused), {len(outcome.errors)} failed; "
-        f"wrote {written} in {output}"
+        f"wrote {written} in {output} (listed in outputs.json)"
     )
+    if outcome.leftovers:
+        names = ", ".join(outcome.leftovers[:SCREEN_LEFTOVERS])
+        more = (
+            f" and {len(outcome.leftovers) - SCREEN_LEFTOVERS} more"
+            if len(outcome.leftovers) > SCREEN_LEFTOVERS
+            else ""
+        )
+        action = "removed (--clean)" if outcome.cleaned else "kept; --clean removes them"
+        click.echo(
+            f"{len(outcome.leftovers)} file(s) of an earlier run are not part of this one ({action}): {names}{more}"
+        )
     if outcome.internal:
         click.echo(
             f"hazard: internal error on {len(outcome.internal)} product(s), recorded in summary.csv; please report it",
@@ -289,7 +332,7 @@ def _finish_batch(outcome, output: Path, pdf: bool) -> None:
     click.echo(f"Caution: {PRE_SCREEN}")
 
 
-@main.command()
+@main.command(cls=ModelOptionsCommand, identity=True)
 @click.argument("manifest", type=click.Path(path_type=Path))
 @click.option(
     "--output",
@@ -311,20 +354,54 @@ def _finish_batch(outcome, output: Path, pdf: bool) -> None:
     help="Continue an interrupted run: skip products whose inputs are unchanged since they were assessed.",
 )
 @click.option("--studies", is_flag=True, help="Also compute hazard distances and remedies (about 0.1 s per product).")
+@click.option(
+    "--plan",
+    "lab_plan",
+    is_flag=True,
+    help="Also write the laboratory test plan (plan.csv, plan.xlsx; a section of summary.pdf with --pdf).",
+)
+@click.option(
+    "--clean",
+    is_flag=True,
+    help="Remove the files an earlier run wrote into the folder that this run did not (they are listed either way).",
+)
 @_ALLOW_OUTSIDE
-def batch(manifest: Path, output: Path, pdf: bool, jobs: int, resume: bool, studies: bool, allow_outside: bool) -> None:
+def batch(
+    manifest: Path,
+    output: Path,
+    pdf: bool,
+    jobs: int,
+    resume: bool,
+    studies: bool,
+    lab_plan: bool,
+    clean: bool,
+    allow_outside: bool,
+    **options: str | None,
+) -> None:
     """Assess every product of a CSV/.xlsx manifest or a folder of TOML records.
 
     The output folder must be new, empty, or written by an earlier run of the same manifest; it may not hold
-    the run's inputs (name a new sub-folder instead), and one run at a time writes into it.
+    the run's inputs (name a new sub-folder instead), and one run at a time writes into it. Files an earlier run
+    wrote there and this one did not are listed, and removed only with --clean. outputs.json lists what the run
+    wrote.
 
     Exit code 0 when all were assessed, 3 when some failed, 2 when the manifest or the output folder is
     unusable, 1 when the tool failed on a product (every output is still written).
     """
     from hazard.assessment.batch import run_batch
+    from hazard.inputs.settings import report_identity
 
     outcome = run_batch(
-        manifest, output, pdf=pdf, jobs=jobs, resume=resume, studies=studies, allow_outside=allow_outside
+        manifest,
+        output,
+        pdf=pdf,
+        jobs=jobs,
+        resume=resume,
+        studies=studies,
+        allow_outside=allow_outside,
+        clean=clean,
+        identity=report_identity(pop_identity(options)),
+        plan=lab_plan,
     )
     _finish_batch(outcome, output, pdf)
     sys.exit(outcome.exit_code)
@@ -337,7 +414,7 @@ def _lineup_folder() -> Path:
     return Path(str(resources.files("hazard.lineup")))
 
 
-@main.command()
+@main.command(cls=ModelOptionsCommand, identity=True)
 @click.option(
     "--output",
     type=click.Path(file_okay=False, path_type=Path),
@@ -348,7 +425,7 @@ def _lineup_folder() -> Path:
 @click.option(
     "--jobs", type=click.IntRange(min=1), default=1, show_default=True, help="Worker processes for rendering PDFs."
 )
-def demo(output: Path, jobs: int) -> None:
+def demo(output: Path, jobs: int, **options: str | None) -> None:
     """Assess the bundled line-up of invented products (Corvel Lightworks, a made-up company).
 
     One PDF and one JSON per product, a summary CSV and summary.pdf.
@@ -357,20 +434,61 @@ def demo(output: Path, jobs: int) -> None:
 
     lineup = _lineup_folder()
     click.echo("Demo: invented products of Corvel Lightworks, a made-up company; no real product or measurement.\n")
-    outcome = run_batch(lineup, output, pdf=True, jobs=jobs, per_product_json=True, studies=True)
+    from hazard.inputs.settings import report_identity
+
+    identity = report_identity(pop_identity(options))
+    outcome = run_batch(lineup, output, pdf=True, jobs=jobs, per_product_json=True, studies=True, identity=identity)
     _finish_batch(outcome, output, pdf=True)
     sys.exit(outcome.exit_code)
 
 
-@main.command()
+def _products(
+    source: Path, allow_outside: bool, tolerances, overrides: dict | None = None
+) -> list[tuple[ManifestRow, Callable[[], Assessment]]]:
+    """The products of a record, a spectrum file, a manifest or a folder of records, each with its run.
+
+    ``overrides`` (record options) replace the record's values, or every row's. Assessing is left to the caller,
+    one product at a time, so that one failure never stops the others.
+    """
+    from hazard.assessment.batch import load_row
+    from hazard.assessment.build import assess as run_assessment
+    from hazard.inputs.loading import load_product
+    from hazard.inputs.manifest import ManifestRow, is_manifest, read_manifest
+
+    if not is_manifest(source):
+        return [
+            (
+                ManifestRow(str(source), {}, source.parent, {}),
+                lambda: run_assessment(
+                    load_product(source, overrides, allow_outside=allow_outside), tolerances=tolerances
+                ),
+            )
+        ]
+
+    def assess_row(row: ManifestRow) -> Assessment:
+        if overrides:  # the options replace every row's own values
+            row = dataclasses.replace(row, fields={**row.fields, **overrides})
+        return run_assessment(load_row(row, allow_outside), tolerances=tolerances)
+
+    return [(row, partial(assess_row, row)) for row in read_manifest(source)]
+
+
+def _row_label(row: ManifestRow) -> str:
+    """A product in a message: its id, or the stem of its file when the id is not known."""
+    from hazard.errors import one_line
+
+    return one_line(row.product_id if row.fields else Path(row.origin).stem, 80)
+
+
+@main.command(cls=ModelOptionsCommand, record=True)
 @click.argument("source", type=click.Path(path_type=Path))
 @click.option(
     "--format",
     "output_format",
-    type=click.Choice(["text", "json"]),
+    type=click.Choice(["text", "csv", "json"]),
     default="text",
     show_default=True,
-    help="Output format (json: one assessment per line).",
+    help="text: a table per product; csv or json (one object per line): the claims alone, one row per claim.",
 )
 @click.option("--cct-tolerance-k", type=float, default=150.0, show_default=True, help="CCT tolerance [K].")
 @click.option(
@@ -388,7 +506,7 @@ def demo(output: Path, jobs: int) -> None:
     type=float,
     default=10.0,
     show_default=True,
-    help="A claimed t_max longer than computed by more than this is contradicted [%].",
+    help="A claimed t_max longer than computed by more than this fails [%].",
 )
 @_ALLOW_OUTSIDE
 def check(
@@ -399,52 +517,57 @@ def check(
     illuminance_tolerance_pct: float,
     t_max_tolerance_pct: float,
     allow_outside: bool,
+    **options: Any,
 ) -> None:
-    """Check vendor claims of a RECORD.toml, a CSV/.xlsx manifest or a folder of records.
+    """Check vendor claims of a RECORD.toml, a spectrum file, a CSV/.xlsx manifest or a folder of records.
 
-    The claims are claimed_risk_group, claimed_cct_k, claimed_illuminance_lx and claimed_t_max_s_*.
+    Every record field is an option (as for ``hazard assess``): it replaces the record's value, or every row's.
 
-    Exit code 4 when any claim is contradicted (so a pipeline can gate on it), 3 when a product could not be
-    assessed, 2 for unusable input, 1 when the tool failed on a product, else 0.
+    The claims are claimed_risk_group, claimed_cct_k, claimed_illuminance_lx and claimed_t_max_s_*, the group and
+    t_max at claimed_distance_mm (the standard's distance when not stated). Each is checked across the record's
+    stated uncertainty: consistent (holds at every variant), inconclusive (holds at some, fails at others),
+    contradicted (fails at every one) or not checkable. A count of each ends the output (on stderr for csv/json).
+
+    Exit code 4 when any claim is contradicted (so a pipeline can gate on it; inconclusive claims do not), 3 when
+    a product of a manifest could not be assessed, 2 for unusable input (a single product's included), 1 when the tool
+    failed on a product, else 0.
     """
-    from hazard.assessment.batch import failure_reason, load_row
-    from hazard.assessment.build import assess as run_assessment
+    from hazard.assessment.batch import failure_reason
     from hazard.assessment.claims import ClaimTolerances
-    from hazard.errors import one_line
-    from hazard.inputs.loading import load_product
-    from hazard.inputs.manifest import ManifestRow, read_manifest
+    from hazard.errors import InputError
+    from hazard.inputs.manifest import is_manifest
     from hazard.output.text import render_claims
-    from hazard.result import Assessment
 
     tolerances = ClaimTolerances(cct_tolerance_k, cct_tolerance_pct, illuminance_tolerance_pct, t_max_tolerance_pct)
-    items: list[tuple[ManifestRow, Callable[[], Assessment]]]
-    if source.suffix.lower() == ".toml":
-        items = [
-            (
-                ManifestRow(str(source), {}, source.parent, {}),
-                lambda: run_assessment(load_product(source, allow_outside=allow_outside), tolerances=tolerances),
-            )
-        ]
-    else:
+    single = not is_manifest(source)
+    from hazard.assessment.claims import verdict_counts
+    from hazard.output.claim_rows import CLAIM_COLUMNS, claim_rows
 
-        def assess_row(row: ManifestRow) -> Assessment:
-            return run_assessment(load_row(row, allow_outside), tolerances=tolerances)
-
-        items = [(row, partial(assess_row, row)) for row in read_manifest(source)]
-    contradicted = failed = internal = False
+    failed = internal = False
+    claims = []
+    table = csv.DictWriter(sys.stdout, CLAIM_COLUMNS, lineterminator="\n") if output_format == "csv" else None
+    if table is not None:
+        table.writeheader()
+    products = 0
+    items = _products(source, allow_outside, tolerances, record_overrides(options))
     for row, run in items:
         try:
             assessment = run()
         except Exception as exc:  # the boundary of one product: nothing it does stops the others
+            if single and isinstance(exc, InputError):  # one product's bad input is the command's (exit 2)
+                raise
             reason, defect = failure_reason(row, exc)
             failed, internal = True, internal or defect
-            click.echo(
-                f"{one_line(row.product_id if row.fields else Path(row.origin).stem, 80)}: error: {reason}", err=True
-            )
+            click.echo(f"{_row_label(row)}: error: {reason}", err=True)
             continue
-        contradicted |= any(c.verdict == "contradicted" for c in assessment.claims)
+        products += 1
+        claims += assessment.claims
+        if table is not None:
+            table.writerows(claim_rows(assessment))
+            continue
         if output_format == "json":
-            click.echo(assessment.model_dump_json())
+            for claim in claim_rows(assessment):
+                click.echo(json.dumps(claim, ensure_ascii=False))
             continue
         from hazard.output.formatting import group_words
 
@@ -460,13 +583,91 @@ def check(
         )
         click.echo("\n".join(render_claims(assessment)) if assessment.claims else "  no claims in the record")
         click.echo("")
+    counts = verdict_counts(claims)
+    errors = len(items) - products
+    click.echo(
+        f"{len(claims)} claim(s) of {products} product(s): "
+        + ", ".join(f"{n} {verdict}" for verdict, n in counts.items())
+        + (f"; {errors} product(s) could not be assessed" if errors else ""),
+        err=output_format != "text",
+    )
     if output_format == "text":
         from hazard.assessment.cautions import PRE_SCREEN
 
         click.echo(f"Caution: {PRE_SCREEN}")
     sys.exit(
-        EXIT_INTERNAL if internal else EXIT_CONTRADICTED if contradicted else (EXIT_SOME_FAILED if failed else EXIT_OK)
+        EXIT_INTERNAL
+        if internal
+        else EXIT_CONTRADICTED
+        if counts["contradicted"]
+        else (EXIT_SOME_FAILED if failed else EXIT_OK)
     )
+
+
+@main.command()
+@click.argument("source", type=click.Path(path_type=Path))
+@click.option(
+    "--output",
+    type=click.Path(file_okay=False, path_type=Path),
+    required=True,
+    help="Folder for plan.csv and plan.xlsx (made if missing; earlier plan files there are replaced).",
+)
+@_ALLOW_OUTSIDE
+def plan(source: Path, output: Path, allow_outside: bool) -> None:
+    """What to ask the laboratory, ranked: for a RECORD.toml, a CSV/.xlsx manifest or a folder of records.
+
+    Per product: hazards not assessed and the wavelength range to add, borderline hazards and the uncertainty that
+    settles them, imaging radiance measurements for small or non-uniform sources, the assessment distance, and
+    vendor claims left open. Items that could raise a group come first. Writes plan.csv and plan.xlsx.
+
+    Exit code 3 when a product could not be assessed (it gets a "fix input" row), 2 for unusable input, 1 when the
+    tool failed on a product, else 0.
+    """
+    from hazard.assessment.batch import failure_reason
+    from hazard.assessment.cautions import PRE_SCREEN
+    from hazard.assessment.claims import DEFAULT_TOLERANCES
+    from hazard.assessment.lab_plan import rank_plan
+    from hazard.output.plan_files import PLAN_CSV, PLAN_XLSX, write_plan_items
+    from hazard.output.plan_text import render_plan_table
+
+    products = _products(source, allow_outside, DEFAULT_TOLERANCES)
+    inputs = _plan_inputs(source, products)
+    assessments: list[Assessment] = []
+    errors: list[tuple[str, str]] = []
+    internal = False
+    for row, run in products:
+        try:
+            assessment = run()
+        except Exception as exc:  # the boundary of one product: nothing it does stops the others
+            reason, defect = failure_reason(row, exc)
+            internal |= defect
+            errors.append((_row_label(row), reason))
+            click.echo(f"{_row_label(row)}: error: {reason}", err=True)
+            continue
+        assessments.append(assessment)
+        inputs.append(row.base_dir / assessment.spectrum.path)
+    _refuse_overwriting_inputs([output / PLAN_CSV, output / PLAN_XLSX], inputs)
+    items = rank_plan(assessments, errors)
+    written = write_plan_items(output, items)
+    click.echo(render_plan_table(items, SCREEN_PLAN_ITEMS), nl=False)
+    click.echo(
+        f"\n{len(items)} items for {len(assessments)} products assessed, {len(errors)} failed; wrote "
+        f"{', '.join(p.name for p in written)} in {output}"
+    )
+    click.echo(f"Caution: {PRE_SCREEN}")
+    sys.exit(EXIT_INTERNAL if internal else EXIT_SOME_FAILED if errors else EXIT_OK)
+
+
+def _plan_inputs(source: Path, products: list[tuple[ManifestRow, Callable[[], Assessment]]]) -> list[Path]:
+    """Every file the plan reads: the source (or each record of a folder) and the spectra the rows name."""
+    inputs = [source]
+    for row, _ in products:
+        if source.is_dir():
+            inputs.append(Path(row.origin))
+        spectrum = row.fields.get("spectrum")
+        if isinstance(spectrum, str) and spectrum and "\x00" not in spectrum:
+            inputs.append(row.base_dir / spectrum)
+    return inputs
 
 
 @main.command()
@@ -487,11 +688,26 @@ def tables() -> None:
 
 @main.command()
 @click.argument("which", type=click.Choice(["record", "result"]))
-def schema(which: str) -> None:
-    """Print the JSON Schema of a product record or of an assessment result."""
+@click.option(
+    "--format",
+    "output_format",
+    type=click.Choice(["json", "markdown"]),
+    default="json",
+    show_default=True,
+    help="json: the JSON Schema; markdown: the record's fields as the README's table.",
+)
+def schema(which: str, output_format: str) -> None:
+    """Print the JSON Schema of a product record or of an assessment result (or the record's field table)."""
     from hazard.inputs.record import ProductRecord
     from hazard.result import Assessment
 
+    if output_format == "markdown":
+        if which != "record":
+            raise click.UsageError("--format markdown gives the record's field table: use 'hazard schema record'")
+        from hazard.cli_options import field_table
+
+        click.echo(field_table(), nl=False)
+        return
     model = ProductRecord if which == "record" else Assessment
     click.echo(json.dumps(model.model_json_schema(), indent=2, ensure_ascii=False))
 

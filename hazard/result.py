@@ -34,6 +34,7 @@ __all__ = [
     "PulseCheck",
     "Remedies",
     "Remedy",
+    "ReportIdentity",
     "RiskGroup",
     "Scaling",
     "SpectrumSummary",
@@ -212,8 +213,17 @@ class ClaimCheck(_Frozen):
     claimed: str = Field(description="The claimed value as stated.")
     computed: str | None = Field(description="The computed value, or null when it cannot be computed.")
     tolerance: str | None = Field(description="The tolerance applied.")
-    verdict: Literal["consistent", "contradicted", "not checkable"]
+    verdict: Literal["consistent", "inconclusive", "contradicted", "not checkable"] = Field(
+        description="consistent: holds at every variant of the stated uncertainty; contradicted: fails at every "
+        "one; inconclusive: holds at some and fails at others; not checkable: the data cannot tell."
+    )
     reason: str = Field(description="Why, in a sentence.")
+    distance_mm: float | None = Field(
+        None, description="Distance the claim was checked at [mm]; null for claims without one (CCT)."
+    )
+    computed_range: str | None = Field(
+        None, description="The computed value across the stated uncertainty, lowest to highest; null without one."
+    )
 
 
 class BoundaryDistance(_Frozen):
@@ -260,6 +270,12 @@ class HazardBounds(_Frozen):
     value_shift_plus: float | None = Field(description="Value with the wavelength scale shifted by +Δλ.")
     group_low: str | None
     group_high: str | None
+    t_max_shortest_s: float | None = Field(
+        None, description="Shortest t_max over the variants [s]; null when the limit is reached at none."
+    )
+    t_max_longest_s: float | None = Field(
+        None, description="Longest t_max over the variants [s]; null when the limit is not reached at some variant."
+    )
 
 
 class UncertaintyStudy(_Frozen):
@@ -395,6 +411,29 @@ class LimitSetInfo(_Frozen):
     )
 
 
+class ReportIdentity(_Frozen):
+    """Who issues the report: printed in every PDF page's header and kept in the result's provenance.
+
+    Given as options (``--organisation`` …) or in the ``[report]`` table of a ``hazard.toml`` in the working folder.
+    """
+
+    organisation: str | None = Field(None, max_length=200, description="Organisation issuing the report.")
+    document_number: str | None = Field(None, max_length=100, description="The report's document number.")
+    prepared_by: str | None = Field(None, max_length=200, description="Who prepared the report.")
+    checked_by: str | None = Field(None, max_length=200, description="Who checked the report.")
+    note: str | None = Field(None, max_length=2000, description="A free note printed with the provenance.")
+
+    def header_text(self) -> str:
+        """The page-header line: organisation, document number, prepared and checked by (those given)."""
+        parts = [
+            self.organisation,
+            self.document_number and f"Doc. {self.document_number}",
+            self.prepared_by and f"Prepared by {self.prepared_by}",
+            self.checked_by and f"Checked by {self.checked_by}",
+        ]
+        return " · ".join(p for p in parts if p)
+
+
 class Provenance(_Frozen):
     """What produced the result, for traceability."""
 
@@ -403,6 +442,7 @@ class Provenance(_Frozen):
     tables: dict[str, dict[str, str]] = Field(description="Table name → source, edition, sha256.")
     inputs: dict[str, str] = Field(description="Input file (as named in the record) → SHA-256.")
     method: str = Field(description="Integration and interpolation rule.")
+    identity: ReportIdentity | None = Field(None, description="Who issues the report; null when nobody was named.")
     result_sha256: str = Field(
         "",
         description="SHA-256 of this result's JSON with this field empty: a result "

@@ -1,4 +1,4 @@
-"""The A4 page every report shares: margins, a running header and the footer with "page N of M".
+"""The A4 page every report shares: margins, a running header, the issuer's line and the footer with "page N of M".
 
 The total page count is known only after the last page, so the canvas keeps each page's state and draws
 the header and footer when the document is saved.
@@ -33,12 +33,13 @@ _HEADER_Y = PAGE_HEIGHT - 8 * mm
 
 
 class _FramedCanvas(Canvas):
-    """A canvas that adds the running header (from page 2) and the footer to every page on save."""
+    """A canvas that adds the running header (from page 2), the issuer's line and the footer to every page on save."""
 
-    def __init__(self, *args, fonts: FontSet, header: str, **kwargs) -> None:
+    def __init__(self, *args, fonts: FontSet, header: str, identity: str, **kwargs) -> None:
         super().__init__(*args, **kwargs)
         self._fonts = fonts
         self._header = fonts.clean(header)
+        self._identity = fonts.clean(identity)
         self._pages: list[dict] = []
 
     def showPage(self) -> None:  # reportlab's name, overridden
@@ -64,14 +65,18 @@ class _FramedCanvas(Canvas):
         self.drawString(MARGIN, _FOOTER_Y, FOOTER)
         self.setFont(self._fonts.regular, 7.5)
         self.drawRightString(PAGE_WIDTH - MARGIN, _FOOTER_Y, f"page {number} of {total}")
+        self.setFillColor(MUTED)
         if number > 1:
-            self.setFillColor(MUTED)
             self.drawString(MARGIN, _HEADER_Y, self._header)
             self.line(MARGIN, _HEADER_Y - 4, PAGE_WIDTH - MARGIN, _HEADER_Y - 4)
+        if self._identity:
+            self.drawRightString(PAGE_WIDTH - MARGIN, _HEADER_Y + (9 if number > 1 else 0), self._identity)
         self.restoreState()
 
 
-def build_pdf(flowables: list[Flowable], fonts: FontSet, title: str, header: str, author: str) -> bytes:
+def build_pdf(
+    flowables: list[Flowable], fonts: FontSet, title: str, header: str, author: str, identity: str = ""
+) -> bytes:
     """Lay ``flowables`` out on A4 pages and return the PDF.
 
     Parameters
@@ -86,6 +91,8 @@ def build_pdf(flowables: list[Flowable], fonts: FontSet, title: str, header: str
         Running header printed from page 2 on.
     author : str
         Producer named in the metadata, e.g. ``"hazard 0.1.0"``.
+    identity : str
+        Who issues the report (organisation, document number, prepared and checked by), at the top of every page.
 
     Returns
     -------
@@ -106,7 +113,7 @@ def build_pdf(flowables: list[Flowable], fonts: FontSet, title: str, header: str
         subject="Photobiological safety pre-screen",
         invariant=1,
     )
-    doc.build(flowables, canvasmaker=partial(_FramedCanvas, fonts=fonts, header=header))
+    doc.build(flowables, canvasmaker=partial(_FramedCanvas, fonts=fonts, header=header, identity=identity))
     return buffer.getvalue()
 
 

@@ -17,6 +17,7 @@ from reportlab.platypus import CondPageBreak, Flowable, KeepInFrame, KeepTogethe
 
 from hazard.output.formatting import (
     UNIT_DISPLAY,
+    computed_text,
     format_duration_s,
     format_limit,
     format_value,
@@ -40,7 +41,7 @@ from hazard.reports.wording import (
     PULSE_MEANING,
     WHAT_IF_MEANING,
 )
-from hazard.result import Assessment, BlueLightTransfer, HazardResult, Scaling
+from hazard.result import Assessment, BlueLightTransfer, HazardResult, ReportIdentity, Scaling
 
 __all__ = ["render_assessment_pdf"]
 
@@ -377,11 +378,11 @@ def _scaling(sc: Scaling) -> str:
 def _claims_summary(a: Assessment) -> str:
     """The vendor claims' verdicts in one line, naming the contradicted ones."""
     parts = []
-    for verdict in ("contradicted", "not checkable", "consistent"):
+    for verdict in ("contradicted", "inconclusive", "not checkable", "consistent"):
         found = [c for c in a.claims if c.verdict == verdict]
         if not found:
             continue
-        text = f"{len(found)} {verdict.upper() if verdict == 'contradicted' else verdict}"
+        text = f"{len(found)} {verdict.upper() if verdict != 'consistent' else verdict}"
         if verdict == "contradicted":
             text += " (" + "; ".join(f"{c.claim}: claimed {c.claimed}, computed {c.computed}" for c in found) + ")"
         parts.append(text)
@@ -511,6 +512,20 @@ def _hashes(rows: list[tuple[str, str, str]], head: tuple[str, str, str], st: St
     return table
 
 
+def _identity_rows(identity: ReportIdentity | None) -> list[tuple[str, str]]:
+    """Who issues the report, as key-value rows (those given)."""
+    if identity is None:
+        return []
+    names = {
+        "organisation": "Organisation",
+        "document_number": "Document number",
+        "prepared_by": "Prepared by",
+        "checked_by": "Checked by",
+        "note": "Note",
+    }
+    return [(label, value) for key, label in names.items() if (value := getattr(identity, key))]
+
+
 def _claims_table(a: Assessment, st: Styles) -> list[Flowable]:
     if not a.claims:
         return []
@@ -520,7 +535,7 @@ def _claims_table(a: Assessment, st: Styles) -> list[Flowable]:
         [
             st.p(c.claim, st.cell_bold),
             st.p(c.claimed, st.cell),
-            st.p(c.computed or "—", st.cell),
+            st.p(computed_text(c), st.cell),
             st.p(c.tolerance or "—", st.cell),
             st.p(
                 c.verdict.upper() if c.verdict == "contradicted" else c.verdict,
@@ -593,7 +608,7 @@ def _method(a: Assessment, st: Styles) -> list[Flowable]:
         )
     return [
         st.p("Method and provenance", st.h2),
-        _key_values([("Limit set", p.limit_set), ("Integration", p.method)], st),
+        _key_values([("Limit set", p.limit_set), ("Integration", p.method), *_identity_rows(p.identity)], st),
         Spacer(1, 4),
         _hashes(tables, ("Weighting table", "Source", "SHA-256"), st),
     ]
@@ -637,6 +652,7 @@ def render_assessment_pdf(assessment: Assessment, rendered_at: datetime.datetime
             title=title,
             header=header,
             author=f"hazard {a.provenance.tool_version}",
+            identity="" if a.provenance.identity is None else a.provenance.identity.header_text(),
         )
         if marks.get("studies", studies_page) == studies_page:
             break

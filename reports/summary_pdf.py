@@ -13,8 +13,10 @@ import datetime
 
 from reportlab.platypus import Flowable, Spacer, Table
 
+from hazard.assessment.lab_plan import PlanItem
 from hazard.output.formatting import group_words, hazard_margin_text
 from hazard.reports.layout import FRAME_WIDTH, build_pdf, start_report
+from hazard.reports.plan_section import plan_section
 from hazard.reports.ranking import BORDERLINE_FACTOR, is_borderline, rank_assessments, tightest_margin
 from hazard.reports.studies import minimum_text
 from hazard.reports.style import INK, NEUTRAL, Styles, group_fill, group_ink, table_style
@@ -199,7 +201,10 @@ def _cautions(assessments: list[Assessment], st: Styles) -> list[Flowable]:
 
 
 def render_summary_pdf(
-    assessments: list[Assessment], errors: list[tuple[str, str]], rendered_at: datetime.datetime | None = None
+    assessments: list[Assessment],
+    errors: list[tuple[str, str]],
+    rendered_at: datetime.datetime | None = None,
+    plan: list[PlanItem] | None = None,
 ) -> bytes:
     """A batch overview as a PDF: ranked products, failed products, and the cautions chosen for them.
 
@@ -211,6 +216,9 @@ def render_summary_pdf(
         Products that could not be assessed: id (or file) and the reason; the reason's first line is shown.
     rendered_at : datetime.datetime, optional
         Timezone-aware time printed as the report date; defaults to :func:`reports.report_time`.
+    plan : list of PlanItem, optional
+        The ranked laboratory test plan (:func:`hazard.assessment.lab_plan.rank_plan`): a section before the
+        cautions when given.
 
     Returns
     -------
@@ -253,6 +261,7 @@ def render_summary_pdf(
         ),
         st.p("Products that could not be assessed", st.h2),
         _failed_table(errors, st),
+        *(plan_section(plan, st) if plan is not None else []),
         st.p("Cautions", st.h2),
         *_cautions(assessments, st),
     ]
@@ -262,4 +271,5 @@ def render_summary_pdf(
         title="Photobiological safety pre-screen — batch summary",
         header="Photobiological safety pre-screen — batch summary",
         author=f"hazard {', '.join(versions) or '—'}",
+        identity=next((a.provenance.identity.header_text() for a in assessments if a.provenance.identity), ""),
     )

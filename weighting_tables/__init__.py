@@ -5,7 +5,8 @@ source, edition, range, interpolation rule and the CSV's SHA-256. :func:`load_ta
 on load and refuses a table that does not match its metadata.
 
 Tables: ``s_uv`` (S_UV, 200-400 nm), ``blue_light`` (B, 300-700 nm), ``retinal_thermal`` (R, 380-1400 nm),
-``v_photopic`` (CIE 1924 V, 360-830 nm).
+``v_photopic`` (CIE 1924 V, 360-830 nm). The CIE 1931 2° colour-matching functions x̄, ȳ, z̄ (360-830 nm) are
+``cie1931_2deg.csv``, three value columns, checked the same way by :func:`load_colour_matching`.
 """
 
 from __future__ import annotations
@@ -18,9 +19,12 @@ from importlib import resources
 
 import numpy as np
 
-__all__ = ["TABLE_NAMES", "TableError", "WeightingTable", "load_table"]
+__all__ = ["CMF_FILE", "TABLE_NAMES", "TableError", "WeightingTable", "load_colour_matching", "load_table"]
 
 TABLE_NAMES = ("s_uv", "blue_light", "retinal_thermal", "v_photopic")
+CMF_FILE = "cie1931_2deg"
+"""Stem of the CIE 1931 2° colour-matching functions' CSV and TOML files."""
+_CMF_HEADER = "wavelength_nm,x_bar,y_bar,z_bar"
 _INTERPOLATIONS = ("linear", "log-linear")
 
 
@@ -113,28 +117,10 @@ def load_table(name: str) -> WeightingTable:
     """
     if name not in TABLE_NAMES:
         raise KeyError(f"unknown weighting table {name!r}; known: {', '.join(TABLE_NAMES)}")
-    folder = resources.files(__name__)
-    raw = (folder / f"{name}.csv").read_bytes()
-    meta = tomllib.loads((folder / f"{name}.toml").read_text(encoding="utf-8"))
-    digest = hashlib.sha256(raw).hexdigest()
-    if digest != meta.get("sha256"):
-        raise _fail(name, f"SHA-256 {digest[:12]}… does not match the metadata")
-    lines = raw.decode("utf-8").splitlines()
-    if lines[0] != "wavelength_nm,value":
-        raise _fail(name, "header must be 'wavelength_nm,value'")
-    data = np.array([[float(x) for x in line.split(",")] for line in lines[1:]])
-    wl, value = data[:, 0], data[:, 1]
-    if len(wl) != meta["rows"]:
-        raise _fail(name, f"{len(wl)} rows, metadata says {meta['rows']}")
-    if wl[0] != meta["wavelength_min_nm"] or wl[-1] != meta["wavelength_max_nm"]:
-        raise _fail(name, "range differs from the metadata")
-    if not np.all(np.diff(wl) > 0):
-        raise _fail(name, "wavelengths are not strictly increasing")
-    if not (np.all(np.isfinite(value)) and np.all(value > 0)):
+    meta, digest, wl, values = _read_checked(name, "wavelength_nm,value")
+    value = values[:, 0]
+    if not np.all(value > 0):
         raise _fail(name, "weights must be finite and positive")
-    if meta["interpolation"] not in _INTERPOLATIONS:
-        raise _fail(name, f"unknown interpolation {meta['interpolation']!r}")
-    wl.flags.writeable = False
     value.flags.writeable = False
     return WeightingTable(
         name=name,
@@ -145,3 +131,66 @@ def load_table(name: str) -> WeightingTable:
         metadata=meta,
         sha256=digest,
     )
+
+
+def _read_checked(name: str, header: str) -> tuple[dict, str, np.ndarray, np.ndarray]:
+    """A bundled CSV checked against its metadata: (metadata, SHA-256, wavelengths [nm], value columns).
+
+    Raises
+    ------
+    TableError
+        When the hash, header, row count, range, order or finiteness disagree with the metadata.
+    """
+    folder = resources.files(__name__)
+    raw = (folder / f"{name}.csv").read_bytes()
+    meta = tomllib.loads((folder / f"{name}.toml").read_text(encoding="utf-8"))
+    digest = hashlib.sha256(raw).hexdigest()
+    if digest != meta.get("sha256"):
+        raise _fail(name, f"SHA-256 {digest[:12]}… does not match the metadata")
+    lines = raw.decode("utf-8").splitlines()
+    if lines[0] != header:
+        raise _fail(name, f"header must be {header!r}")
+    data = np.array([[float(x) for x in line.split(",")] for line in lines[1:]])
+    wl, values = data[:, 0], data[:, 1:]
+    if len(wl) != meta["rows"]:
+        raise _fail(name, f"{len(wl)} rows, metadata says {meta['rows']}")
+    if wl[0] != meta["wavelength_min_nm"] or wl[-1] != meta["wavelength_max_nm"]:
+        raise _fail(name, "range differs from the metadata")
+    if not np.all(np.diff(wl) > 0):
+        raise _fail(name, "wavelengths are not strictly increasing")
+    if not np.all(np.isfinite(values)):
+        raise _fail(name, "weights must be finite")
+    if meta["interpolation"] not in _INTERPOLATIONS:
+        raise _fail(name, f"unknown interpolation {meta['interpolation']!r}")
+    wl.flags.writeable = False
+    return meta, digest, wl, values
+
+
+@cache
+def load_colour_matching() -> tuple[WeightingTable, WeightingTable, WeightingTable]:
+    """The CIE 1931 2° colour-matching functions x̄, ȳ, z̄ as three linear tables, checked like :func:`load_table`.
+
+    Raises
+    ------
+    TableError
+        When the CSV disagrees with its metadata, or a value is negative.
+    """
+    meta, digest, wl, values = _read_checked(CMF_FILE, _CMF_HEADER)
+    if np.any(values < 0):
+        raise _fail(CMF_FILE, "colour-matching functions are never negative")
+    tables = []
+    for k, axis in enumerate("xyz"):
+        column = np.ascontiguousarray(values[:, k])
+        column.flags.writeable = False
+        tables.append(
+            WeightingTable(
+                name=f"cie1931_{axis}",
+                symbol=axis,
+                wavelength_nm=wl,
+                value=column,
+                interpolation=meta["interpolation"],
+                metadata=meta,
+                sha256=digest,
+            )
+        )
+    return tables[0], tables[1], tables[2]

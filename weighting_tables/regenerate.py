@@ -234,5 +234,43 @@ def write_all() -> None:
         (HERE / f"{name}.toml").write_text(meta, encoding="utf-8", newline="\n")
 
 
+CMF_FILE = "cie1931_2deg"
+"""Stem of the colour-matching functions' CSV and TOML files."""
+
+
+def colour_matching_rows() -> list[tuple[float, ...]]:
+    """CIE 1931 2° x̄, ȳ, z̄, 360-830 nm at 1 nm, from colour-science's CIE data set."""
+    import colour
+
+    cmfs = colour.MSDS_CMFS["CIE 1931 2 Degree Standard Observer"]
+    return [(float(w), *map(float, v)) for w, v in zip(cmfs.wavelengths, cmfs.values, strict=True)]
+
+
+def write_colour_matching() -> None:
+    """Write ``cie1931_2deg.csv`` and its metadata; values as ``repr`` (exact) [1]."""
+    rows = colour_matching_rows()
+    csv_text = "wavelength_nm,x_bar,y_bar,z_bar\n" + "".join(",".join(map(repr, row)) + "\n" for row in rows)
+    (HERE / f"{CMF_FILE}.csv").write_text(csv_text, encoding="utf-8", newline="\n")
+    digest = hashlib.sha256(csv_text.encode("utf-8")).hexdigest()
+    meta = "\n".join(
+        [
+            'title = "CIE 1931 2° standard observer colour-matching functions"',
+            'source = "CIE 1931 2° standard observer (CIE 015:2018, ISO/CIE 11664-1), via colour-science MSDS_CMFS"',
+            'edition = "CIE 1931"',
+            'unit = "1 (relative weight)"',
+            f"wavelength_min_nm = {rows[0][0]}",
+            f"wavelength_max_nm = {rows[-1][0]}",
+            f"rows = {len(rows)}",
+            'interpolation = "linear"',
+            'outside_range = "zero"',
+            'note = "1 nm data, values exactly as colour-science holds them (zeros included)."',
+            f'sha256 = "{digest}"',
+            "",
+        ]
+    )
+    (HERE / f"{CMF_FILE}.toml").write_text(meta, encoding="utf-8", newline="\n")
+
+
 if __name__ == "__main__":
     write_all()
+    write_colour_matching()

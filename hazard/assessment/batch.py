@@ -37,6 +37,7 @@ from dataclasses import dataclass, field
 from pathlib import Path
 
 from hazard.assessment.build import build_assessment
+from hazard.assessment.lab_plan import PlanItem, rank_plan
 from hazard.assessment.outfolder import OutputFolder, file_stems
 from hazard.assessment.pipeline import evaluate_loaded
 from hazard.assessment.progress import Progress
@@ -47,25 +48,28 @@ from hazard.inputs.manifest import ManifestRow, read_manifest
 from hazard.inputs.readers.common import current_limits
 from hazard.inputs.record import record_from_fields
 from hazard.inputs.userfiles import read_user_file
-from hazard.method.photometry import import_colour
 from hazard.output.atomic import atomic_file, write_atomic
-from hazard.output.formatting import NOT_DETERMINED
-from hazard.result import Assessment
+from hazard.output.claim_rows import CLAIM_COLUMNS, claim_rows
+from hazard.output.plan_files import write_plan_items
+from hazard.output.summary_table import Cell, csv_cell, summary_columns, summary_row
+from hazard.output.workbook import FAILURE_COLUMNS, SummaryWorkbook
+from hazard.result import Assessment, ReportIdentity
 from hazard.standards import DEFAULT_LIMIT_SET, LimitSet
 
 __all__ = [
     "RESULTS_NAME",
     "SUMMARY_NAME",
+    "WORKBOOK_NAME",
     "BatchOutcome",
+    "failure_line",
     "failure_reason",
     "load_row",
     "run_batch",
-    "summary_columns",
-    "summary_row",
 ]
 
 RESULTS_NAME = "results.jsonl"
 SUMMARY_NAME = "summary.csv"
+WORKBOOK_NAME = "summary.xlsx"
 PARTIAL_SUFFIX = ".partial"
 CHUNK_PRODUCTS = 128
 """Products loaded, assessed and flushed to the partial file at a time (one unit of work for a worker)."""
@@ -121,6 +125,12 @@ class BatchOutcome:
         id → stem of the product's own files.
     report_failures : dict
         id → why its PDF report could not be rendered (a defect of the tool; the other reports are written).
+    written : list of str
+        Names of the files this run wrote in the output folder.
+    leftovers : list of str
+        Files an earlier run wrote there that this run did not (kept, or removed with ``clean``).
+    cleaned : bool
+        The leftovers were removed.
     """
 
     ids: list[str] = field(default_factory=list)
@@ -130,6 +140,9 @@ class BatchOutcome:
     reused: int = 0
     stems: dict[str, str] = field(default_factory=dict)
     report_failures: dict[str, str] = field(default_factory=dict)
+    written: list[str] = field(default_factory=list)
+    leftovers: list[str] = field(default_factory=list)
+    cleaned: bool = False
 
     @property
     def exit_code(self) -> int:
@@ -152,6 +165,7 @@ class _Earlier:
     length: int
     inputs: str
     studies: bool
+    identity: str
 
     def read(self) -> bytes:
         with open(self.path, "rb") as handle:
@@ -165,7 +179,8 @@ class _Product:
 
     product_id: str
     line: bytes | None
-    summary: list
+    summary: dict[str, Cell]
+    claims: list[dict[str, Cell]]
     error: str | None = None
     internal: bool = False
     reused: bool = False
@@ -185,6 +200,18 @@ def load_row(row: ManifestRow, allow_outside: bool = False) -> LoadedProduct:
         raise row.problem
     record = record_from_fields(row.fields, path=row.origin, text=row.text)
     return product_from_record(record, row.base_dir, row.origin, row.inputs, root=None if allow_outside else row.root)
+
+
+def failure_line(product_id: str, reason: str) -> bytes:
+    """The ``results.jsonl`` line of a product that could not be assessed (``"status": "error"``).
+
+    Examples
+    --------
+    >>> failure_line("LAMP-7", "lamp7.csv:3: not a number")
+    b'{"id": "LAMP-7", "status": "error", "error": "lamp7.csv:3: not a number", "kind": "hazard.failure"}'
+    """
+    line = {"id": product_id, "status": "error", "error": reason, "kind": "hazard.failure"}
+    return json.dumps(line, ensure_ascii=False).encode("utf-8")
 
 
 def failure_reason(row: ManifestRow, exc: BaseException) -> tuple[str, bool]:
@@ -260,6 +287,7 @@ def _previous_results(folder: Path) -> dict[str, _Earlier]:
                     len(line),
                     _digest(result["provenance"]["inputs"]),
                     result.get("distances") is not None,
+                    json.dumps(result["provenance"].get("identity"), sort_keys=True),
                 )
                 found[str(result["id"])] = earlier
             except (ValueError, KeyError, TypeError, AttributeError):
@@ -280,97 +308,6 @@ def _cut_torn_tail(path: Path) -> None:
             handle.truncate(keep)
 
 
-def _hazard_columns(limit_set: LimitSet) -> list[str]:
-    return [f"{h.symbol}_{part}" for h in limit_set.hazards for part in ("value", "group", "t_max_s")]
-
-
-def summary_columns(limit_set: LimitSet = DEFAULT_LIMIT_SET) -> list[str]:
-    """The columns of ``summary.csv``."""
-    return [
-        "id",
-        "status",
-        "risk_group",
-        "group_note",
-        "complete",
-        "basis",
-        "what_if_distance_mm",
-        "what_if_risk_group",
-        *_hazard_columns(limit_set),
-        "warning_count",
-        "claims_contradicted",
-        "claims",
-        "uncertainty",
-        "group_range",
-        "min_distance_exempt_mm",
-        "emission",
-        "pulse_max_fraction",
-        "day_within_limits",
-        "day_max_fraction",
-        "day_max_family",
-        "error",
-        "file_stem",
-    ]
-
-
-def summary_row(
-    product_id: str,
-    stem: str,
-    assessment: Assessment | None,
-    error: str | None,
-    limit_set: LimitSet = DEFAULT_LIMIT_SET,
-) -> dict:
-    """One product's row of ``summary.csv``.
-
-    The risk group is the standard's classification (a what-if has its own columns), "not determined" when there is
-    none.
-    """
-    row: dict[str, object] = dict.fromkeys(summary_columns(limit_set), "")
-    row.update(id=product_id, status="ok", file_stem=stem)
-    if error is not None or assessment is None:
-        row.update(status="error", error=error or "")
-        return row
-    a = assessment
-    group = a.classification_group
-    row.update(
-        risk_group=group or NOT_DETERMINED,
-        complete=str(a.complete).lower(),
-        basis=a.basis,
-        group_note="" if a.complete or group is None else "lower bound",
-        warning_count=len(a.warnings),
-        claims_contradicted=sum(c.verdict == "contradicted" for c in a.claims),
-        claims="; ".join(f"{c.field}: {c.verdict}" for c in a.claims),
-    )
-    if a.basis == "what-if":
-        row.update(
-            what_if_distance_mm=repr(a.assessment_distance_mm), what_if_risk_group=a.risk_group or NOT_DETERMINED
-        )
-    if a.uncertainty is not None:
-        row.update(
-            uncertainty=a.uncertainty.verdict,
-            group_range=f"{a.uncertainty.risk_group_low}-{a.uncertainty.risk_group_high}",
-        )
-    if a.distances is not None and "Exempt" in a.distances.minimum_distance_mm:
-        found = a.distances.minimum_distance_mm["Exempt"]
-        row["min_distance_exempt_mm"] = (
-            repr(found) if found is not None else f"not within {a.distances.distance_mm[-1]:.0f}"
-        )
-    if a.emission is not None:
-        worst = max((h.pulse.worst for h in a.hazards.values() if h.pulse is not None), default=None)
-        row.update(emission=a.emission.mode, pulse_max_fraction="" if worst is None else repr(worst))
-    else:
-        row["emission"] = "continuous"
-    x = a.exposure
-    if x is not None:
-        row["day_within_limits"] = str(x.within).lower()
-        if x.most_family is not None:
-            row.update(day_max_fraction=repr(x.day[x.most_family].worst), day_max_family=x.most_family)
-    for symbol, h in a.hazards.items():
-        row[f"{symbol}_value"] = "" if h.value is None else repr(h.value)
-        row[f"{symbol}_group"] = h.risk_group or ("not assessed" if not h.assessed else "")
-        row[f"{symbol}_t_max_s"] = "" if h.t_max_s is None else repr(h.t_max_s)
-    return row
-
-
 @dataclass(frozen=True)
 class _Job:
     """A chunk of rows for a worker, with what it needs to know of each."""
@@ -382,6 +319,7 @@ class _Job:
     limit_set: LimitSet
     allow_outside: bool
     pretty: bool
+    identity: ReportIdentity | None
 
 
 def _finished(job: _Job, k: int, assessment: Assessment, line: bytes, reused: bool) -> _Product:
@@ -390,7 +328,8 @@ def _finished(job: _Job, k: int, assessment: Assessment, line: bytes, reused: bo
     return _Product(
         row.product_id,
         line,
-        list(summary_row(row.product_id, job.stems[k], assessment, None, job.limit_set).values()),
+        summary_row(row.product_id, job.stems[k], assessment, None, job.limit_set),
+        claim_rows(assessment),
         reused=reused,
         pretty=pretty,
     )
@@ -402,7 +341,8 @@ def _failed(job: _Job, k: int, exc: BaseException) -> _Product:
     return _Product(
         row.product_id,
         None,
-        list(summary_row(row.product_id, job.stems[k], None, reason, job.limit_set).values()),
+        summary_row(row.product_id, job.stems[k], None, reason, job.limit_set, row.fields),
+        [],
         reason,
         internal,
     )
@@ -412,7 +352,13 @@ def _reuse(job: _Job, k: int) -> _Product | None:
     """The earlier result of row ``k`` when its inputs are unchanged and it reads back; else None."""
     row = job.rows[k]
     earlier = job.earlier.get(row.product_id)
-    if earlier is None or earlier.studies != job.studies or earlier.inputs != _current_inputs(row, job.allow_outside):
+    identity = json.dumps(None if job.identity is None else job.identity.model_dump(), sort_keys=True)
+    if (
+        earlier is None
+        or earlier.studies != job.studies
+        or earlier.identity != identity
+        or earlier.inputs != _current_inputs(row, job.allow_outside)
+    ):
         return None
     try:
         line = earlier.read()
@@ -427,7 +373,7 @@ def _assess(job: _Job, k: int, loaded: LoadedProduct, batch, position: int) -> _
     try:
         if batch is None:
             batch, position = evaluate_loaded([loaded], job.limit_set), 0
-        assessment = build_assessment(loaded, batch, position, studies=job.studies)
+        assessment = build_assessment(loaded, batch, position, studies=job.studies, identity=job.identity)
         return _finished(job, k, assessment, assessment.model_dump_json().encode("utf-8"), reused=False)
     except Exception as exc:  # the boundary of one product: nothing it does stops the others
         return _failed(job, k, exc)
@@ -512,7 +458,9 @@ def _render_one(job: tuple[str, int, int, str]) -> str | None:
     return None
 
 
-def _write_pdfs(folder: Path, outcome: BatchOutcome, assessed: LazyAssessments, jobs: int) -> None:
+def _write_pdfs(
+    folder: Path, outcome: BatchOutcome, assessed: LazyAssessments, jobs: int, plan: list[PlanItem] | None
+) -> None:
     from hazard.reports import render_summary_pdf, report_time
     from hazard.reports.fonts import report_fonts
 
@@ -527,6 +475,8 @@ def _write_pdfs(folder: Path, outcome: BatchOutcome, assessed: LazyAssessments, 
         for product_id, failure in zip(ids, _in_order(pool, _render_one, work, 4 * jobs), strict=True):
             if failure is not None:
                 outcome.report_failures[product_id] = failure
+            else:
+                outcome.written.append(f"{outcome.stems[product_id]}.pdf")
             progress.advance()
     finally:
         if pool is not None:
@@ -536,8 +486,9 @@ def _write_pdfs(folder: Path, outcome: BatchOutcome, assessed: LazyAssessments, 
     # the summary's renderer takes whole results: it holds one per assessed product while it ranks them
     write_atomic(
         folder / "summary.pdf",
-        render_summary_pdf([assessed[i] for i in outcome.ids if i in assessed], errors, report_time()),
+        render_summary_pdf([assessed[i] for i in outcome.ids if i in assessed], errors, report_time(), plan),
     )
+    outcome.written.append("summary.pdf")
 
 
 def run_batch(
@@ -551,6 +502,9 @@ def run_batch(
     studies: bool = False,
     allow_outside: bool = False,
     limit_set: LimitSet = DEFAULT_LIMIT_SET,
+    clean: bool = False,
+    identity: ReportIdentity | None = None,
+    plan: bool = False,
 ) -> BatchOutcome:
     """Assess every product of a manifest or folder of records.
 
@@ -574,6 +528,13 @@ def run_batch(
         runs whenever a record states an uncertainty.
     allow_outside : bool
         Let spectrum paths lead outside the manifest's folder tree (absolute paths, ``..``).
+    clean : bool
+        Remove the files an earlier run wrote into the folder that this run did not write (they are listed in
+        ``BatchOutcome.leftovers`` either way, and kept without ``clean``).
+    identity : ReportIdentity, optional
+        Who issues the reports: in every result's provenance and on every PDF page.
+    plan : bool
+        Also write the laboratory test plan (``plan.csv``, ``plan.xlsx``; a section of ``summary.pdf`` with ``pdf``).
 
     Returns
     -------
@@ -589,7 +550,7 @@ def run_batch(
     ids = [row.product_id for row in rows]
     stems = file_stems(ids)
     outcome = BatchOutcome(ids=ids, stems=stems)
-    with OutputFolder(folder, source, _input_files(source, rows)):
+    with OutputFolder(folder, source, _input_files(source, rows)) as claimed:
         partial = folder / (RESULTS_NAME + PARTIAL_SUFFIX)
         previous = _previous_results(folder) if resume else {}
         if resume:
@@ -606,6 +567,7 @@ def run_batch(
                 limit_set,
                 allow_outside,
                 per_product_json,
+                identity,
             )
             for chunk in chunks
         )
@@ -613,8 +575,9 @@ def run_batch(
         progress = Progress(len(rows), "products")
         pool = None
         if jobs > 1 and len(rows) > CHUNK_PRODUCTS:
-            import_colour()  # once here, inherited by the workers instead of imported by each
             pool = ProcessPoolExecutor(max_workers=jobs)
+        columns = summary_columns(limit_set)
+        workbook = SummaryWorkbook(columns, CLAIM_COLUMNS, [c for c in columns if c.endswith("risk_group")])
         try:
             with (
                 atomic_file(folder / RESULTS_NAME) as results,
@@ -623,14 +586,20 @@ def run_batch(
             ):
                 text = io.StringIO()
                 table = csv.writer(text, lineterminator="\n")
-                table.writerow(summary_columns(limit_set))
+                table.writerow(columns)
                 for chunk in _in_order(pool, _run_job, work, CHUNKS_AHEAD * jobs + 1):
                     for product in chunk:  # in manifest order
-                        table.writerow(product.summary)
+                        values = list(product.summary.values())
+                        table.writerow([csv_cell(v) for v in values])
+                        workbook.add_product(values)
+                        for claim in product.claims:
+                            workbook.add_claim([claim[c] for c in CLAIM_COLUMNS])
                         if product.error is not None:
                             outcome.errors[product.product_id] = product.error
                             if product.internal:
                                 outcome.internal.add(product.product_id)
+                            workbook.add_failure([product.summary[c] for c in FAILURE_COLUMNS])
+                            results.write(failure_line(product.product_id, product.error) + b"\n")
                             continue
                         positions[product.product_id] = (results.tell(), len(product.line))
                         results.write(product.line + b"\n")
@@ -640,12 +609,16 @@ def run_batch(
                             journal.write(product.line + b"\n")
                         if product.pretty is not None:
                             write_atomic(folder / f"{stems[product.product_id]}.json", product.pretty)
+                            outcome.written.append(f"{stems[product.product_id]}.json")
                     summary.write(text.getvalue().encode("utf-8"))
                     text.seek(0)
                     text.truncate()
                     journal.flush()
                     os.fsync(journal.fileno())
                     progress.advance(len(chunk))
+            outcome.written += [RESULTS_NAME, SUMMARY_NAME]
+            workbook.save(folder / WORKBOOK_NAME)
+            outcome.written.append(WORKBOOK_NAME)
         except OSError as exc:  # a full disk, a folder made read-only meanwhile: name the folder
             if exc.filename is None:
                 raise OSError(exc.errno, exc.strerror, str(folder)) from exc
@@ -655,7 +628,17 @@ def run_batch(
                 pool.shutdown(cancel_futures=True)
             progress.close()
         outcome.assessments = assessed = LazyAssessments(folder / RESULTS_NAME, positions)
+        items = None
+        if plan:
+            errors = [(i, outcome.errors[i]) for i in outcome.ids if i in outcome.errors]
+            items = rank_plan((assessed[i] for i in outcome.ids if i in assessed), errors)
+            outcome.written += [p.name for p in write_plan_items(folder, items)]
         if pdf:
-            _write_pdfs(folder, outcome, assessed, jobs)
+            _write_pdfs(folder, outcome, assessed, jobs, items)
         partial.unlink(missing_ok=True)
+        outcome.leftovers = claimed.leftovers(outcome.written)
+        if clean:
+            claimed.remove(outcome.leftovers)
+            outcome.cleaned = True
+        claimed.record_outputs(outcome.written, kept=[] if clean else outcome.leftovers)
     return outcome

@@ -6,13 +6,14 @@ with its own SHA-256.
 
 from __future__ import annotations
 
+import dataclasses
 from pathlib import Path
 
 import numpy as np
 
 from hazard._version import __version__
 from hazard.assessment.cautions import select_cautions
-from hazard.assessment.claims import DEFAULT_TOLERANCES, ClaimTolerances, check_claims
+from hazard.assessment.claims import DEFAULT_TOLERANCES, ClaimBasis, ClaimTolerances, check_claims
 from hazard.assessment.guard import require_finite
 from hazard.assessment.notes import assumptions_for, distance_rule, switch_warnings, warnings_for
 from hazard.assessment.pipeline import BatchEvaluation, evaluate_loaded, product_arrays
@@ -27,7 +28,7 @@ from hazard.assessment.summaries import (
 )
 from hazard.inputs.loading import LoadedProduct, load_product, product_from_record
 from hazard.inputs.record import ProductRecord
-from hazard.method.evaluate import Evaluation, HazardArrays, integral_index, share_key
+from hazard.method.evaluate import Evaluation, HazardArrays, evaluate, integral_index, share_key
 from hazard.method.integrals import integrate_spectra
 from hazard.output.formatting import format_duration_s
 from hazard.result import (
@@ -41,13 +42,13 @@ from hazard.result import (
     Provenance,
     PulseCheck,
     Remedies,
+    ReportIdentity,
     UncertaintyStudy,
 )
 from hazard.standards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
 from hazard.standards.directive_2006_25 import DIRECTIVE_2006_25
-from hazard.studies.distances import distance_study
 from hazard.studies.exposure import Exposure, exposure_study
-from hazard.studies.remedies import remedies_study
+from hazard.studies.joint import distances_and_remedies
 from hazard.studies.uncertainty import uncertainty_study
 from hazard.weighting_tables import TABLE_NAMES, load_table
 
@@ -231,7 +232,7 @@ def _exposure(loaded: LoadedProduct, limit_set: LimitSet = DIRECTIVE_2006_25) ->
 
 
 def _studies(
-    loaded: LoadedProduct, batch: BatchEvaluation, i: int, distances_and_remedies: bool
+    loaded: LoadedProduct, batch: BatchEvaluation, i: int, with_distances: bool
 ) -> dict[str, UncertaintyStudy | DistanceStudy | Remedies]:
     """Uncertainty (when the record states one), hazard distances and remedies of product ``i``.
 
@@ -244,26 +245,72 @@ def _studies(
     if ev.group_index[i] < 0:
         return out
     if record.uncertainty_pct or record.wavelength_uncertainty_nm:
-        out["uncertainty"] = uncertainty_study(
-            arrays,
-            loaded.spectrum,
-            record.no_emission_outside,
-            limit_set,
-            record.uncertainty_pct or 0.0,
-            record.wavelength_uncertainty_nm or 0.0,
-        )
-    if distances_and_remedies:
-        out["distances"] = distance_study(arrays, limit_set, record.largest_dimension_mm)
+        out["uncertainty"] = _variants(loaded, arrays, limit_set)
+    if with_distances:
         d_a = float(ev.assessment_distance_m[i])
         if record.effective_quantity == "radiance":
             geometric = float(ev.source_solid_angle_sr[i])
         else:
             geometric = (record.irradiance_distance_mm * 1e-3 / d_a) ** 2
         assessed = {symbol for symbol, h in ev.hazards.items() if h.assessed[i]}
-        out["remedies"] = remedies_study(
-            arrays, loaded.spectrum, float(ev.anchor_scale[i]) * geometric, limit_set, assessed
+        out["distances"], out["remedies"] = distances_and_remedies(
+            arrays,
+            loaded.spectrum,
+            float(ev.anchor_scale[i]) * geometric,
+            limit_set,
+            assessed,
+            record.largest_dimension_mm,
         )
     return out
+
+
+def _variants(loaded: LoadedProduct, arrays, limit_set: LimitSet) -> UncertaintyStudy:
+    """The product of ``arrays`` across the record's stated uncertainty."""
+    record = loaded.record
+    return uncertainty_study(
+        arrays,
+        loaded.spectrum,
+        record.no_emission_outside,
+        limit_set,
+        record.uncertainty_pct or 0.0,
+        record.wavelength_uncertainty_nm or 0.0,
+    )
+
+
+def _claim_basis(
+    loaded: LoadedProduct, batch: BatchEvaluation, i: int, variants: UncertaintyStudy | None, v_covered: bool
+) -> ClaimBasis:
+    """The product at the claims' distance (``claimed_distance_mm``, else the standard's), across its uncertainty.
+
+    ``variants`` is the product's own uncertainty study, reused when the claims' distance is the assessment's.
+    """
+    record, limit_set, spectrum_range = loaded.record, batch.limit_set, loaded.spectrum.range_nm
+    standard_mm = float(batch.standard.assessment_distance_m[i]) * 1e3
+    own_mm = float(batch.evaluation.assessment_distance_m[i]) * 1e3
+    distance_mm = standard_mm if record.claimed_distance_mm is None else record.claimed_distance_mm
+    at_standard = bool(np.isclose(distance_mm, standard_mm, rtol=1e-12, atol=0.0))
+    arrays = dataclasses.replace(
+        product_arrays([record], batch.integrated.raw[i], batch.integrated.covered[i]),
+        forced_distance_m=None if at_standard else np.array([distance_mm * 1e-3]),
+    )
+    ev, row = (batch.standard, i) if at_standard else (evaluate(arrays, limit_set), 0)
+    if not (record.uncertainty_pct or record.wavelength_uncertainty_nm) or ev.group_index[row] < 0:
+        variants = None
+    elif variants is None or not np.isclose(distance_mm, own_mm, rtol=1e-12, atol=0.0):
+        variants = _variants(loaded, arrays, limit_set)
+    group = _group_name(ev.group_index[row])
+    hazards = _hazard_results(ev, row, spectrum_range, limit_set)
+    return ClaimBasis(
+        distance_mm=distance_mm,
+        risk_group=group,
+        complete=bool(ev.complete[row]),
+        not_assessed=[s for s, h in hazards.items() if not h.assessed],
+        hazards=hazards,
+        variants=variants,
+        cct_k=optional_float(batch.cct_k[i]),
+        cct_reason=cct_reason(batch, i, v_covered),
+        illuminance_lx=illuminance_at_record_distance_lx(record, batch.evaluation, i),
+    )
 
 
 def _shares(raw: np.ndarray, keys: dict[str, int], limit_set: LimitSet) -> dict[tuple[str, str], float]:
@@ -285,11 +332,12 @@ def build_assessment(
     i: int,
     tolerances: ClaimTolerances = DEFAULT_TOLERANCES,
     studies: bool = True,
+    identity: ReportIdentity | None = None,
 ) -> Assessment:
     """The result of product ``i`` of an evaluation, vendor claims checked with ``tolerances``.
 
     With ``studies``, hazard distances and remedies too (the uncertainty study runs whenever the record states an
-    uncertainty).
+    uncertainty). ``identity`` (who issues the report) goes into the provenance.
     """
     record, spectrum, limit_set = loaded.record, loaded.spectrum, batch.limit_set
     ev, covered, raw = batch.evaluation, batch.integrated.covered[i], batch.integrated.raw[i]
@@ -308,6 +356,10 @@ def build_assessment(
         s: _higher(h.risk_group, standard[s].risk_group if s in standard else None, limit_set)
         for s, h in hazards.items()
     }
+    studies_found = _studies(loaded, batch, i, studies)
+    own_variants = studies_found.get("uncertainty")
+    if not isinstance(own_variants, UncertaintyStudy):
+        own_variants = None
     tables = {
         name: {"symbol": t.symbol, "source": t.metadata["source"], "edition": t.metadata["edition"], "sha256": t.sha256}
         for name in TABLE_NAMES
@@ -344,7 +396,7 @@ def build_assessment(
             scaling=scaling_summary(record, float(ev.anchor_scale[i])),
             emission=_emission(record),
             exposure=_exposure(loaded),
-            **_studies(loaded, batch, i, studies),
+            **studies_found,
             record=record.model_dump(exclude_none=True),
             warnings=warnings_for(loaded, ev, i, v_covered) + switch_warnings(ev, i, limit_set),
             assumptions=assumptions_for(loaded, ev, i),
@@ -355,24 +407,16 @@ def build_assessment(
                 bool(ev.complete[i]),
                 determined=overall is not None or standard_overall is not None,
             ),
-            claims=check_claims(
-                record,
-                risk_group=standard_overall,
-                complete=bool(ev.complete[i]),
-                not_assessed=[s for s, h in standard.items() if not h.assessed],
-                hazards=standard,
-                cct_k=optional_float(batch.cct_k[i]),
-                cct_reason=cct_reason(batch, i, v_covered),
-                illuminance_at_record_distance_lx=illuminance_at_record_distance_lx(record, ev, i),
-                assessment_distance_mm=standard_distance_mm,
-                tolerances=tolerances,
-            ),
+            claims=check_claims(record, _claim_basis(loaded, batch, i, own_variants, v_covered), tolerances)
+            if record.makes_claims
+            else [],
             provenance=Provenance(
                 tool_version=__version__,
                 limit_set=limit_set.name,
                 tables=tables,
                 inputs=dict(sorted(loaded.inputs.items())),
                 method=METHOD_TEXT,
+                identity=identity,
             ),
             limit_set=limit_set_info(limit_set),
         ).sealed()
@@ -397,6 +441,7 @@ def assess(
     overrides: dict | None = None,
     limit_set: LimitSet = DEFAULT_LIMIT_SET,
     tolerances: ClaimTolerances = DEFAULT_TOLERANCES,
+    identity: ReportIdentity | None = None,
 ) -> Assessment:
     """Pre-screen one product.
 
@@ -411,6 +456,8 @@ def assess(
         Limits to apply; IEC 62471:2006 by default.
     tolerances : ClaimTolerances
         Tolerances for the record's vendor claims.
+    identity : ReportIdentity, optional
+        Who issues the report (kept in the provenance, printed on every PDF page).
 
     Returns
     -------
@@ -427,4 +474,4 @@ def assess(
         loaded = product_from_record(product, Path.cwd(), product.id)
     else:
         loaded = load_product(product, overrides)
-    return build_assessment(loaded, evaluate_loaded([loaded], limit_set), 0, tolerances)
+    return build_assessment(loaded, evaluate_loaded([loaded], limit_set), 0, tolerances, identity=identity)

@@ -5,6 +5,9 @@
   batch's outputs; it takes a lock (``.hazard-batch.lock``, which names the holder: process, host, start
   time, manifest) so that a second run into the same folder stops with a message instead of mixing outputs;
   and it removes the temporary files a killed run left behind.
+- It records what a run wrote (``outputs.json``: file names and sizes) and finds the files an earlier run wrote that
+  this one did not (a product gone from the manifest, a report no longer asked for): they are listed, and removed
+  only when the user asks (``--clean``), never silently.
 - :func:`file_stems` gives every product a file name stem of its own, even when ids differ only in
   characters a file name cannot hold (``lamp 1`` and ``lamp_1``), in case, or collide with the batch's own
   files (``summary``).
@@ -24,12 +27,16 @@ from pathlib import Path
 from typing import TextIO
 
 from hazard.errors import InputError, excerpt
-from hazard.output.atomic import remove_stale_temporaries
+from hazard.output.atomic import remove_stale_temporaries, write_atomic
 
-__all__ = ["LOCK_NAME", "RESERVED_STEMS", "OutputFolder", "file_stems"]
+__all__ = ["LOCK_NAME", "OUTPUTS_NAME", "RESERVED_STEMS", "OutputFolder", "file_stems"]
 
 LOCK_NAME = ".hazard-batch.lock"
-RESERVED_STEMS = ("summary", "results")
+OUTPUTS_NAME = "outputs.json"
+"""The record of the files a run wrote, in the output folder."""
+RESERVED_STEMS = ("summary", "results", "outputs", "plan")
+_OUTPUT_SUFFIXES = (".pdf", ".json", ".jsonl", ".csv", ".xlsx")
+"""Suffixes of the files a run writes: an earlier run without ``outputs.json`` is taken to have written these."""
 """Stems of the batch's own files, never given to a product."""
 MAX_STEM_CHARS = 80
 """Longest stem taken from an id; longer ids are cut and get a hash suffix [characters]."""
@@ -104,6 +111,43 @@ class OutputFolder:
     def __init__(self, folder: Path, source: Path, inputs: Iterable[Path]):
         self.folder, self.source, self.inputs = Path(folder), Path(source), inputs
         self._handle: TextIO | None = None
+        self._earlier: set[str] = set()
+
+    def _read_earlier_outputs(self) -> set[str]:
+        """Names of the files an earlier run wrote here (from its ``outputs.json``, else by their suffix)."""
+        try:
+            record = json.loads((self.folder / OUTPUTS_NAME).read_text(encoding="utf-8"))
+            names = [str(f["name"]) for f in record["files"]] + [str(n) for n in record.get("kept_from_earlier", [])]
+            return {n for n in names if "/" not in n and n not in (OUTPUTS_NAME, LOCK_NAME)}
+        except FileNotFoundError:
+            return {
+                entry.name
+                for entry in os.scandir(self.folder)
+                if entry.is_file(follow_symlinks=False) and entry.name.endswith(_OUTPUT_SUFFIXES)
+            }
+        except (OSError, ValueError, KeyError, TypeError):
+            return set()
+
+    def leftovers(self, written: Iterable[str]) -> list[str]:
+        """Files an earlier run wrote here that this run did not write and that are still there, sorted."""
+        keep = set(written) | {OUTPUTS_NAME, LOCK_NAME}
+        return sorted(n for n in self._earlier - keep if (self.folder / n).is_file())
+
+    def remove(self, names: Iterable[str]) -> None:
+        """Delete these files of the folder (the leftovers of an earlier run, on the user's request)."""
+        for name in names:
+            (self.folder / name).unlink(missing_ok=True)
+
+    def record_outputs(self, written: Iterable[str], kept: Iterable[str] = ()) -> None:
+        """Write ``outputs.json`` atomically: this run's files with their sizes [bytes], and the ones it kept.
+
+        The earlier runs' files kept in the folder are listed so that a later run still knows them as hazard's own;
+        both lists are sorted by name.
+        """
+        files = [{"name": n, "bytes": (self.folder / n).stat().st_size} for n in sorted(set(written))]
+        record = {"source": os.path.realpath(self.source), "files": files, "kept_from_earlier": sorted(set(kept))}
+        text = json.dumps(record, indent=1) + "\n"
+        write_atomic(self.folder / OUTPUTS_NAME, text.encode("utf-8"))
 
     def _refuse_inputs(self) -> None:
         if not self.folder.exists():
@@ -181,6 +225,7 @@ class OutputFolder:
         handle.write(json.dumps(holder) + "\n")
         handle.flush()
         remove_stale_temporaries(self.folder)
+        self._earlier = self._read_earlier_outputs()
         return self
 
     def __exit__(self, *exc) -> None:

@@ -29,7 +29,7 @@ from hazard.inputs.readers.workbook import workbook_rows
 from hazard.inputs.record import ProductRecord, read_record_file
 from hazard.inputs.userfiles import read_user_file
 
-__all__ = ["MAX_MANIFEST_BYTES", "MAX_MANIFEST_ROWS", "ManifestRow", "read_manifest"]
+__all__ = ["MAX_MANIFEST_BYTES", "MAX_MANIFEST_ROWS", "ManifestRow", "is_manifest", "read_manifest"]
 
 MAX_MANIFEST_BYTES = 256 * 1024 * 1024
 """Largest CSV manifest read (10⁶ rows of a few fields) [bytes]."""
@@ -161,6 +161,25 @@ def _csv_lines(reader, path: Path):
                 reader.line_num,
             ) from None
         yield reader.line_num, cells
+
+
+def is_manifest(path: Path) -> bool:
+    """Whether ``path`` holds several products (a manifest) rather than one spectrum or record.
+
+    A folder, a workbook, or a text table whose header row names the record fields ``id`` and ``spectrum`` (a
+    spectrum file's header names wavelengths and values).
+    """
+    if path.is_dir() or path.suffix.lower() == ".xlsx":
+        return True
+    if path.suffix.lower() == ".toml":
+        return False
+    if not path.is_file():  # missing, a pipe, a device: the manifest reader names what is wrong, without reading
+        return True
+    with open(path, "rb") as handle:
+        first = _decode(handle.read(64 * 1024)).lstrip("\ufeff").partition("\n")[0]
+    separator = max(_SEPARATORS, key=first.count)
+    cells = {cell.strip().strip('"').strip().lower() for cell in first.split(separator)}
+    return {"id", "spectrum"} <= cells
 
 
 def _read_csv(path: Path) -> list[ManifestRow]:

@@ -231,6 +231,7 @@ MAGNITUDE_BOUNDS: dict[str, tuple[float, float, str, str, str]] = {
     "pulse_rate_hz": (1e-6, 1e9, "Hz", "pulse rate", "from one pulse in eleven days to a gigahertz"),
     "claimed_cct_k": (100.0, 1e6, "K", "colour temperature", "outside any light source's"),
     "claimed_illuminance_lx": (1e-6, 1e9, "lx", "illuminance", "beyond any lamp"),
+    "claimed_distance_mm": (1e-3, 1e8, "mm", "distance", _GEOMETRY),
     **{
         claim_field(symbol): (1e-6, 1e12, "s", "exposure time", "from a microsecond to 30 000 years")
         for symbol in CLAIMABLE
@@ -342,6 +343,12 @@ class ProductRecord(BaseModel):
     claimed_cct_k: float | None = Field(None, gt=0, description="The vendor's claimed CCT [K].")
     claimed_illuminance_lx: float | None = Field(
         None, gt=0, description="The vendor's claimed illuminance at distance_mm [lx]."
+    )
+    claimed_distance_mm: float | None = Field(
+        None,
+        gt=0,
+        description="Distance at which the vendor's risk group and t_max claims hold [mm]; the standard's "
+        "assessment distance when not stated.",
     )
     # One claimed t_max field per claimable hazard of the limit sets, generated from them (never hand-written):
     for _symbol in CLAIMABLE:
@@ -540,6 +547,12 @@ class ProductRecord(BaseModel):
     def claimed_t_max_s(self) -> dict[str, float]:
         """Claimed t_max per hazard symbol [s]."""
         return {s: v for s in CLAIMABLE if (v := getattr(self, claim_field(s))) is not None}
+
+    @property
+    def makes_claims(self) -> bool:
+        """The record states at least one vendor claim (a claimed group, CCT, illuminance or t_max)."""
+        claimed = (self.claimed_risk_group, self.claimed_cct_k, self.claimed_illuminance_lx)
+        return any(v is not None for v in claimed) or bool(self.claimed_t_max_s)
 
     @cached_property
     def source(self) -> SourceSize:

@@ -58,8 +58,9 @@ def value_rule_broken(peak: np.ndarray, lowest: np.ndarray, peak_si: np.ndarray,
     [-1, 2, 1, 0]
     """
     peak, lowest, peak_si = (np.asarray(x, dtype=float) for x in (peak, lowest, peak_si))
-    low = np.array([PEAK_RANGE_SI.get(q, PEAK_RANGE_SI["relative"])[0] for q in np.atleast_1d(quantity)])
-    high = np.array([PEAK_RANGE_SI.get(q, PEAK_RANGE_SI["relative"])[1] for q in np.atleast_1d(quantity)])
+    kinds, which = np.unique(np.atleast_1d(quantity), return_inverse=True)  # a few kinds for any number of rows
+    ranges = np.array([PEAK_RANGE_SI.get(str(q), PEAK_RANGE_SI["relative"]) for q in kinds]).reshape(-1, 2)
+    low, high = ranges[which.ravel(), 0], ranges[which.ravel(), 1]
     with np.errstate(invalid="ignore"):
         finite = np.isfinite(peak) & np.isfinite(lowest)
         positive = peak > 0

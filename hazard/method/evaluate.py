@@ -18,7 +18,6 @@ from hazard.method.geometry import (
     MIN_ASSESSMENT_DISTANCE_M,
     FieldGeometry,
     SourceShape,
-    cone_solid_angle_sr,
     inverse_square_factor,
 )
 from hazard.method.photometry import K_M_LM_PER_W, VISIBLE_BAND_NM
@@ -240,13 +239,18 @@ def _applicable(hazard: Hazard, limit_set: LimitSet, alpha: np.ndarray, luminanc
 
 @dataclass(frozen=True)
 class Viewed:
-    """The products as seen at their assessment distance: what every hazard's comparison needs."""
+    """The products as seen at their assessment distance: what every hazard's comparison needs.
+
+    What depends only on the geometry (each field of view's share of the source, each pair of α bounds) is computed
+    once per object and reused by every hazard and boundary that asks for it.
+    """
 
     irradiance: dict[str, np.ndarray]
     shape: SourceShape
     distance_m: np.ndarray
     field: FieldGeometry
     peak_to_mean: np.ndarray
+    _geometry: dict = dataclasses.field(default_factory=dict, init=False, repr=False, compare=False)
 
     @property
     def omega_s(self) -> np.ndarray:
@@ -270,16 +274,26 @@ class Viewed:
         the field may see p·L over what it covers, but never more than all of the source's power:
         (E/Ω_s)·min(p·f, Ω_s/Ω_γ).
         """
+        if rows is None and np.ndim(fov_rad) == 0:  # one field for all: its share is kept for the next hazard
+            key = ("field", float(fov_rad))
+            if key not in self._geometry:
+                self._geometry[key] = self._seen_share(self.field, slice(None), fov_rad)
+            return self.irradiance[symbol] / self.field.omega_s * self._geometry[key]
         take = slice(None) if rows is None else rows
-        field = self.field if rows is None else self.field.take(rows)
-        omega_s = field.omega_s
-        fraction = field.fraction(fov_rad)
-        ceiling = omega_s / cone_solid_angle_sr(fov_rad)
-        return self.irradiance[symbol][take] / omega_s * np.minimum(self.peak_to_mean[take] * fraction, ceiling)
+        seen = self.field if rows is None else self.field.take(rows)
+        return self.irradiance[symbol][take] / seen.omega_s * self._seen_share(seen, take, fov_rad)
+
+    def _seen_share(self, seen: FieldGeometry, take: slice | np.ndarray, fov_rad: np.ndarray | float) -> np.ndarray:
+        """min(p·f, Ω_s/Ω_γ) of :meth:`field_radiance` for the products ``take`` seen as ``seen`` [1]."""
+        fraction, omega_g = seen.fraction_and_cone(fov_rad)  # Ω_γ once, for the share and for the ceiling
+        return np.minimum(self.peak_to_mean[take] * fraction, seen.omega_s / omega_g)
 
     def alpha(self, bounds_rad: tuple[float, float]) -> np.ndarray:
-        """α with each side bounded first, then averaged (method §4) [rad]."""
-        return self.shape.alpha_rad(self.distance_m, bounds_rad)
+        """α with each side bounded first, then averaged (method §4) [rad]; kept per pair of bounds."""
+        key = ("alpha", bounds_rad)
+        if key not in self._geometry:
+            self._geometry[key] = self.shape.alpha_rad(self.distance_m, bounds_rad)
+        return self._geometry[key]
 
 
 def _hazard_arrays(

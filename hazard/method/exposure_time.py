@@ -12,6 +12,7 @@ t_max is the earliest time over all cuts, so it sees the same fields and α boun
 from __future__ import annotations
 
 from collections.abc import Callable
+from functools import cache
 from typing import Protocol
 
 import numpy as np
@@ -33,6 +34,7 @@ Cut = tuple[float, float, LimitPiece, FieldOfView | None, tuple[float, float] | 
 """(after [s], up to [s], the limit's piece, the field of view or None, the α bounds [rad] or None)."""
 
 
+@cache
 def _cuts(hazard: Hazard) -> list[Cut]:
     """(after, up_to, piece, field of view, α bounds) for every stretch of duration with one formula.
 
@@ -127,7 +129,7 @@ def time_to_limit_s(
         if fov is None:
             reach = _closed_form(value_of(symbol), coefficient, piece.exponent, a, b)
         elif not fov.grows:
-            reach = _closed_form(radiance_at(symbol, np.full(n, fov.fixed_rad)), coefficient, piece.exponent, a, b)
+            reach = _closed_form(radiance_at(symbol, fov.fixed_rad), coefficient, piece.exponent, a, b)
         else:
 
             def exceeded(t, rows, symbol=symbol, coefficient=coefficient, piece=piece, fov=fov):
@@ -173,19 +175,26 @@ def limit_fraction(hazard: Hazard, viewed: Viewed, t_s: float, row: int) -> floa
     Radiance is averaged over the field of view that belongs to the duration and α is bounded as the duration's
     viewing rule says; NaN where the limit has no value for that duration.
     """
+    return float(limit_fractions(hazard, viewed, t_s, np.array([row]))[0])
+
+
+def limit_fractions(hazard: Hazard, viewed: Viewed, t_s: float, rows: np.ndarray) -> np.ndarray:
+    """:func:`limit_fraction` of the products at ``rows``, all exposed for ``t_s`` [1].
+
+    Each row's number is the one :func:`limit_fraction` gives it alone (the same operations, element by element).
+    """
     piece = piece_at(hazard, t_s)
     if piece is None:
-        return float("nan")
+        return np.full(rows.size, np.nan)
     rule = hazard.viewing_at(t_s)
     symbol = piece.quantity or hazard.symbol
-    rows = np.array([row])
     if rule is None:
-        compared = float(viewed.value(symbol)[row])
+        compared = viewed.value(symbol)[rows]
     else:
-        compared = float(viewed.field_radiance(symbol, rule.fov.at(t_s), rows)[0])
-    alpha = None
-    if piece.over_alpha:
-        if rule is None or rule.alpha_bounds_rad is None:
-            raise ValueError(f"{hazard.symbol}: a limit over α needs α bounds at {t_s:g} s")
-        alpha = float(viewed.alpha(rule.alpha_bounds_rad)[row])
-    return compared / limit_value(hazard, t_s, alpha)
+        compared = viewed.field_radiance(symbol, rule.fov.at(t_s), rows)
+    if not piece.over_alpha:
+        return compared / limit_value(hazard, t_s)
+    if rule is None or rule.alpha_bounds_rad is None:
+        raise ValueError(f"{hazard.symbol}: a limit over α needs α bounds at {t_s:g} s")
+    alpha = viewed.alpha(rule.alpha_bounds_rad)[rows]
+    return compared / (piece.coefficient / alpha * t_s**piece.exponent)

@@ -227,6 +227,10 @@ class FieldGeometry:
         average is L·fraction and a disc source's is E/max(Ω_s, Ω_γ). A long thin source (a filament, an LED
         strip) fills a cone only along its length: its fraction is about width × chord / Ω_γ.
         """
+        return self.fraction_and_cone(fov_rad)[0]
+
+    def fraction_and_cone(self, fov_rad: np.ndarray | float) -> tuple[np.ndarray, np.ndarray]:
+        """:meth:`fraction`, and the field's own solid angle Ω_γ it was divided by [1, sr]."""
         fov = np.broadcast_to(np.asarray(fov_rad, dtype=float), self.omega_s.shape)
         omega_g = cone_solid_angle_sr(fov)
         overlap = np.minimum(self.omega_s, omega_g)  # discs: the smaller of two concentric cones
@@ -234,4 +238,4 @@ class FieldGeometry:
         if rect.any():
             overlap = overlap.copy()
             overlap[rect] = cone_rectangle_solid_angle(fov[rect] / 2, self.half_width[rect], self.half_height[rect])
-        return np.minimum(overlap / omega_g, 1.0)
+        return np.minimum(overlap / omega_g, 1.0), omega_g

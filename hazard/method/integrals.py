@@ -10,6 +10,8 @@ Two ways to apply it, same numbers:
 - :func:`integrate_spectra`: spectra read from files, each on its own grid (the matrix is built once per
   distinct grid), each product summed on its own in a fixed order, so a product's result is bit-for-bit
   the same whether it is assessed alone or in a batch. ``hazard assess`` and ``hazard batch`` use this.
+
+A grid's matrix is built once per process and limit set (:func:`integral_matrix` keeps the most recent ones).
 """
 
 from __future__ import annotations
@@ -20,7 +22,7 @@ import numpy as np
 
 from hazard.method.evaluate import integral_specs
 from hazard.method.photometry import cmf_quadrature
-from hazard.method.weighting import quadrature_matrix
+from hazard.method.weighting import GridCache, quadrature_matrix
 from hazard.standards import LimitSet
 from hazard.weighting_tables import load_table
 
@@ -50,11 +52,22 @@ class Integrated:
     covered: np.ndarray
 
 
+_MATRICES = GridCache(32)
+"""Integral matrices of the most recent grids (≈ 0.5 MB each on a 1 nm grid from 200 to 3000 nm)."""
+
+
 def integral_matrix(grid_nm: np.ndarray, limit_set: LimitSet) -> np.ndarray:
-    """Quadrature matrix (grid, k + 3): every integral of the limit set, then X, Y, Z [nm]."""
-    specs = integral_specs(limit_set)
-    weights = [(s.band_nm, None if s.table is None else load_table(s.table)) for s in specs]
-    return np.hstack([quadrature_matrix(grid_nm, weights), cmf_quadrature(grid_nm)])
+    """Quadrature matrix (grid, k + 3): every integral of the limit set, then X, Y, Z [nm].
+
+    Built once per grid and set of integrals, then kept (the most recent 32); the array returned is read-only.
+    """
+    specs = tuple(integral_specs(limit_set))  # the integrals themselves, not the set's name, describe the columns
+
+    def build(grid: np.ndarray) -> np.ndarray:
+        weights = [(s.band_nm, None if s.table is None else load_table(s.table)) for s in specs]
+        return np.hstack([quadrature_matrix(grid, weights), cmf_quadrature(grid)])
+
+    return _MATRICES.get(grid_nm, specs, build)
 
 
 def coverage(range_nm: tuple[float, float], no_emission_outside: bool, limit_set: LimitSet) -> np.ndarray:
@@ -128,13 +141,16 @@ def integrate_matrix(
     flags = np.asarray(no_emission_outside, dtype=bool)
     out = _empty(values.shape[0], limit_set)
     peak, lowest = np.empty(values.shape[0]), np.empty(values.shape[0])
-    for start in range(0, values.shape[0], chunk_rows):
-        rows = slice(start, start + chunk_rows)
-        chunk = values[rows]
-        peak[rows], lowest[rows] = chunk.max(axis=1), chunk.min(axis=1)
-        if lowest[rows].min() < 0:
-            chunk = np.maximum(chunk, 0)
-        _fill(out, rows, chunk.astype(dtype, copy=False) @ matrix, grid_nm, flags[rows], limit_set)
+    from threadpoolctl import threadpool_limits
+
+    with threadpool_limits(limits=1, user_api="blas"):  # a chunk is too small to share: threads wait on each other
+        for start in range(0, values.shape[0], chunk_rows):
+            rows = slice(start, start + chunk_rows)
+            chunk = values[rows]
+            peak[rows], lowest[rows] = chunk.max(axis=1), chunk.min(axis=1)
+            if lowest[rows].min() < 0:
+                chunk = np.maximum(chunk, 0)
+            _fill(out, rows, chunk.astype(dtype, copy=False) @ matrix, grid_nm, flags[rows], limit_set)
     if factor_to_si is not None:
         out.raw[:] *= factor_to_si[:, None]
         out.xyz[:] *= factor_to_si[:, None]
@@ -149,12 +165,8 @@ def integrate_spectra(
     Each product is reduced on its own, ``Σ_i q_i·X_i`` in a fixed order, so its integrals do not depend
     on which other products are in the batch.
     """
-    matrices: dict[bytes, np.ndarray] = {}
     out = _empty(len(grids), limit_set)
     for i, (grid, value) in enumerate(zip(grids, values, strict=True)):
-        key = np.ascontiguousarray(grid).tobytes()
-        if key not in matrices:
-            matrices[key] = integral_matrix(grid, limit_set)
-        products = np.sum(np.asarray(value, dtype=float)[:, None] * matrices[key], axis=0)
+        products = np.sum(np.asarray(value, dtype=float)[:, None] * integral_matrix(grid, limit_set), axis=0)
         _fill(out, [i], products[None, :], grid, np.array([no_emission_outside[i]]), limit_set)
     return out

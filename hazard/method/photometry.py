@@ -2,20 +2,21 @@
 
 Illuminance is E_v = K_m·∫E_λ V(λ) dλ with K_m = 683 lm·W⁻¹ (CIE 1924 V(λ), CIE S 010); it uses the same
 quadrature as the hazard quantities. Chromaticity comes from the CIE 1931 2° colour-matching functions
-(colour-science's copy of the CIE data) on the spectrum's own grid, and CCT with Duv from colour-science's
-Robertson (1968) isotherm method (the method CIE 15 refers to; fast enough for batches of 10⁵ products).
-colour-science is imported only when colour is computed.
+(colour-science's copy of the CIE data, bundled as ``cie1931_2deg.csv``) on the spectrum's own grid, and CCT with
+Duv from Robertson's (1968) isotherm method (:mod:`hazard.method.robertson`, the same numbers as colour-science's;
+fast enough for batches of 10⁶ products). colour-science itself is not imported at run time: it would cost more
+than the assessment; the tests check the bundled data and the method against it.
 """
 
 from __future__ import annotations
 
 import warnings
-from functools import cache
 
 import numpy as np
 
+from hazard.method.robertson import cct_duv_robertson, xyz_to_uv, xyz_to_xy
 from hazard.method.weighting import quadrature_matrix
-from hazard.weighting_tables import WeightingTable
+from hazard.weighting_tables import WeightingTable, load_colour_matching
 
 __all__ = ["CCT_DUV_LIMIT", "K_M_LM_PER_W", "VISIBLE_BAND_NM", "cct_from_xyz", "cmf_quadrature", "import_colour"]
 
@@ -34,7 +35,7 @@ chromaticities beyond it to that end [K]."""
 
 
 def import_colour():
-    """Import colour-science without its notices about optional plotting and SciPy features."""
+    """Import colour-science without its notices about optional plotting and SciPy features (for the tests)."""
     with warnings.catch_warnings():
         warnings.filterwarnings("ignore", message=".*related API features are not available.*")
         import colour
@@ -50,23 +51,9 @@ def cmf_quadrature(grid_nm: np.ndarray) -> np.ndarray:
     return quadrature_matrix(grid_nm, [(VISIBLE_BAND_NM, table) for table in _cmf_tables()])
 
 
-@cache
 def _cmf_tables() -> tuple[WeightingTable, ...]:
-    """x̄, ȳ, z̄ of the CIE 1931 2° observer (colour-science's CIE data) as linear weighting tables."""
-    cmfs = import_colour().MSDS_CMFS["CIE 1931 2 Degree Standard Observer"]
-    wl, values = np.asarray(cmfs.wavelengths, dtype=float), np.asarray(cmfs.values, dtype=float)
-    return tuple(
-        WeightingTable(
-            name=f"cie1931_{axis}",
-            symbol=axis,
-            wavelength_nm=wl,
-            value=values[:, k],
-            interpolation="linear",
-            metadata={"source": "CIE 1931 2° via colour-science"},
-            sha256="",
-        )
-        for k, axis in enumerate("xyz")
-    )
+    """x̄, ȳ, z̄ of the CIE 1931 2° observer (colour-science's CIE data, bundled) as linear weighting tables."""
+    return load_colour_matching()
 
 
 def cct_from_xyz(xyz: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
@@ -83,20 +70,15 @@ def cct_from_xyz(xyz: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray, n
         CIE 1931 chromaticity [1], CCT [K] and Duv [1]; NaN where Y ≤ 0. CCT is NaN where
         |Duv| > :data:`CCT_DUV_LIMIT` or outside :data:`CCT_RANGE_K`.
     """
-    colour = import_colour()
     xyz = np.atleast_2d(np.asarray(xyz, dtype=float))
     total = xyz.sum(axis=1)
     ok = (xyz[:, 1] > 0) & (total > 0)
     safe = np.where(ok[:, None], xyz, [[0.95, 1.0, 1.09]])
-    xy = colour.XYZ_to_xy(safe)
-    uv = colour.xy_to_UCS_uv(xy)
-    cct_duv = np.vstack(
-        [
-            np.atleast_2d(colour.temperature.uv_to_CCT(uv[k : k + _CCT_CHUNK], method="Robertson 1968"))
-            for k in range(0, len(uv), _CCT_CHUNK)
-        ]
-    )
-    cct, duv = np.atleast_2d(cct_duv)[:, 0], np.atleast_2d(cct_duv)[:, 1]
+    xy = xyz_to_xy(safe)
+    uv = xyz_to_uv(xy)
+    cct, duv = np.empty(len(uv)), np.empty(len(uv))
+    for k in range(0, len(uv), _CCT_CHUNK):
+        cct[k : k + _CCT_CHUNK], duv[k : k + _CCT_CHUNK] = cct_duv_robertson(uv[k : k + _CCT_CHUNK])
     nan = np.full(len(xyz), np.nan)
     in_range = (cct > CCT_RANGE_K[0]) & (cct < CCT_RANGE_K[1])
     cct = np.where(ok & (np.abs(duv) <= CCT_DUV_LIMIT) & in_range, cct, nan)

@@ -23,7 +23,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from hazard.method.exposure_time import Viewed, limit_fraction
+from hazard.method.exposure_time import Viewed, limit_fractions
 from hazard.standards import Hazard, LimitSet
 
 __all__ = ["PulseArrays", "pulse_checks", "thermal_window_s"]
@@ -86,14 +86,10 @@ def pulse_checks(
     n = pulse_duration_s.size
     out = {}
     for hazard in limit_set.hazards:
-        single = np.array(
-            [
-                limit_fraction(hazard, peak, float(pulse_duration_s[i]), i)
-                if np.isfinite(pulse_duration_s[i])
-                else np.nan
-                for i in range(n)
-            ]
-        )
+        single = np.full(n, np.nan)
+        for duration in np.unique(pulse_duration_s[np.isfinite(pulse_duration_s)]):  # a study's rows share one
+            rows = np.flatnonzero(pulse_duration_s == duration)
+            single[rows] = limit_fractions(hazard, peak, float(duration), rows)
         counts = np.ones(n)
         if hazard.effect == "thermal":
             window = thermal_window_s(hazard)

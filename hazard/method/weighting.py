@@ -19,12 +19,13 @@ batch path stacks the vectors of all quantities into a matrix.
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections import OrderedDict
+from collections.abc import Callable, Hashable, Sequence
 from typing import Protocol
 
 import numpy as np
 
-__all__ = ["Weighting", "coarse_steps_in", "quadrature_matrix", "quadrature_weights"]
+__all__ = ["GridCache", "Weighting", "coarse_steps_in", "quadrature_matrix", "quadrature_weights"]
 
 _SERIES_BELOW = 1e-3  # |u| under which E0 and E1 come from their Taylor series (no cancellation)
 
@@ -123,6 +124,38 @@ def quadrature_weights(
 def quadrature_matrix(grid_nm: np.ndarray, bands: Sequence[tuple[tuple[float, float], Weighting | None]]) -> np.ndarray:
     """Stack :func:`quadrature_weights` for several (band, weight) pairs: shape (grid, quantities) [nm]."""
     return np.column_stack([quadrature_weights(grid_nm, band, weight) for band, weight in bands])
+
+
+class GridCache:
+    """Quadrature matrices kept per wavelength grid (the most recently used ``size`` of them).
+
+    Products measured on one set-up share a grid, and the uncertainty study's shifted grids repeat from product
+    to product: their matrices are built once. The arrays handed out are read-only.
+
+    Parameters
+    ----------
+    size : int
+        Matrices kept [1].
+    """
+
+    def __init__(self, size: int):
+        self.size = size
+        self._kept: OrderedDict[tuple[bytes, Hashable], np.ndarray] = OrderedDict()
+
+    def get(self, grid_nm: np.ndarray, what: Hashable, build: Callable[[np.ndarray], np.ndarray]) -> np.ndarray:
+        """The matrix ``build(grid)`` for ``grid_nm`` and ``what`` (a hashable description of its columns)."""
+        grid = np.ascontiguousarray(grid_nm, dtype=float)
+        key = (grid.tobytes(), what)
+        matrix = self._kept.get(key)
+        if matrix is not None:
+            self._kept.move_to_end(key)
+            return matrix
+        matrix = build(grid)
+        matrix.flags.writeable = False
+        self._kept[key] = matrix
+        if len(self._kept) > self.size:
+            self._kept.popitem(last=False)
+        return matrix
 
 
 def coarse_steps_in(grid_nm: np.ndarray, region_nm: tuple[float, float], max_step_nm: float) -> float | None:

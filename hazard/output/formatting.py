@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import math
 
-from hazard.result import HazardResult
+from hazard.result import ClaimCheck, HazardResult
 
 __all__ = [
     "NOT_DETERMINED",
@@ -280,3 +280,9 @@ def hazard_margin_text(h: HazardResult) -> str:
     if pulse_decides(h) and h.pulse is not None:
         return f"a pulse at {format_fraction(h.pulse.worst)}"
     return format_margin(h.risk_group, h.margins)
+
+
+def computed_text(claim: ClaimCheck) -> str:
+    """A claim's computed value, with its range across the stated uncertainty when there is one."""
+    text = claim.computed or "—"
+    return f"{text} ({claim.computed_range} within the uncertainty)" if claim.computed_range else text

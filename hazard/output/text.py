@@ -5,6 +5,7 @@ from __future__ import annotations
 from hazard.output.formatting import (
     NOT_DETERMINED,
     UNIT_DISPLAY,
+    computed_text,
     dimming_percent,
     distance_beyond_mm,
     format_duration_s,
@@ -292,9 +293,9 @@ def render_claims(assessment: Assessment) -> list[str]:
         (
             c.claim,
             c.claimed,
-            c.computed or "—",
+            computed_text(c),
             c.tolerance or "—",
-            c.verdict.upper() if c.verdict == "contradicted" else c.verdict,
+            c.verdict.upper() if c.verdict in ("contradicted", "inconclusive") else c.verdict,
             c.reason,
         )
         for c in assessment.claims
@@ -342,9 +343,10 @@ def render_batch_table(ids: list[str], assessments: dict[str, Assessment], error
             )
         if a.uncertainty is not None and a.uncertainty.verdict == "borderline":
             flags.append(f"BORDERLINE {a.uncertainty.risk_group_low}-{a.uncertainty.risk_group_high}")
-        contradicted = sum(c.verdict == "contradicted" for c in a.claims)
-        if contradicted:
-            flags.append(f"{contradicted} claim(s) CONTRADICTED")
+        for verdict in ("contradicted", "inconclusive"):
+            count = sum(c.verdict == verdict for c in a.claims)
+            if count:
+                flags.append(f"{count} claim(s) {verdict.upper()}")
         rows.append(
             (
                 product_id,

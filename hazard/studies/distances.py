@@ -9,32 +9,44 @@ from __future__ import annotations
 
 import numpy as np
 
-from hazard.method.evaluate import ProductArrays
+from hazard.method.evaluate import Evaluation, ProductArrays
 from hazard.method.families import evaluate_rows, family_groups, family_member, family_t_max
-from hazard.method.search import log_search
 from hazard.result import BoundaryDistance, DistanceStudy
 from hazard.standards import LimitSet
+from hazard.studies.group_search import GroupJob, search_groups
 
-__all__ = ["CURVE_POINTS", "SEARCH_RANGE_M", "distance_study"]
+__all__ = [
+    "CURVE_POINTS",
+    "SEARCH_RANGE_M",
+    "assemble_distance_study",
+    "crossing_jobs",
+    "distance_grid",
+    "distance_study",
+]
 
 SEARCH_RANGE_M = (0.01, 100.0)
 """Distances searched, 10 mm to 100 m [m]."""
 CURVE_POINTS = 121
 
 
-def _crossings(
-    arrays: ProductArrays, limit_set: LimitSet, grid: np.ndarray, groups: dict[str, np.ndarray]
-) -> dict[tuple[str, int], tuple[float | None, str]]:
-    """Distance beyond which each family stays in group ``k`` or lower, for k = Exempt, RG1, RG2 [m].
+def distance_grid() -> np.ndarray:
+    """The distances of the curves, and of the first bracket of every boundary [m]."""
+    return np.geomspace(*SEARCH_RANGE_M, CURVE_POINTS)
 
-    Bracketed on the grid, then all brackets narrowed together by :func:`hazard.method.search.log_search`. The group is
-    the top-down one (:mod:`hazard.method.classify`), so a boundary distance is where the product's group really
-    changes, whichever boundary's field of view decides it.
+
+def crossing_jobs(
+    ev: Evaluation, grid: np.ndarray, limit_set: LimitSet
+) -> tuple[dict[tuple[str, int], tuple[float | None, str]], list[GroupJob]]:
+    """What the grid already answers, and the brackets still to narrow, for each family and k = Exempt, RG1, RG2.
+
+    The answer is the distance beyond which the family stays in group ``k`` or lower [m]; the group is the top-down
+    one (:mod:`hazard.method.classify`), so a boundary distance is where the product's group really changes,
+    whichever boundary's field of view decides it. ``ev`` is the product evaluated at ``grid``.
     """
-    families = dict(limit_set.families)
     result: dict[tuple[str, int], tuple[float | None, str]] = {}
-    open_jobs: list[tuple[str, int, float, float]] = []
-    for name, g in groups.items():
+    jobs: list[GroupJob] = []
+    for name, members in limit_set.grouped_families:
+        g = family_groups(ev, members)
         for k in range(3):
             above = np.flatnonzero(g > k)
             if np.all(g < 0):
@@ -44,27 +56,15 @@ def _crossings(
             elif above[-1] == grid.size - 1:
                 result[(name, k)] = (None, f"not within up to {grid[-1]:.0f} m")
             else:
-                open_jobs.append((name, k, np.log(grid[above[-1]]), np.log(grid[above[-1] + 1])))
-    if not open_jobs:
-        return result
-
-    def within(distance_m: np.ndarray, index: np.ndarray) -> np.ndarray:
-        ev = evaluate_rows(arrays, distance_m.size, limit_set, forced_distance_m=distance_m.ravel())
-        job = np.repeat(index, distance_m.shape[1])
-        ok = np.empty(distance_m.size, dtype=bool)
-        for name in {open_jobs[j][0] for j in index}:
-            rows = np.flatnonzero([open_jobs[j][0] == name for j in job])
-            ok[rows] = family_groups(ev, families[name])[rows] <= np.array([open_jobs[j][1] for j in job[rows]])
-        return ok.reshape(distance_m.shape)
-
-    _, found = log_search(within, np.exp([j[2] for j in open_jobs]), np.exp([j[3] for j in open_jobs]))
-    for i, (name, k, _, _) in enumerate(open_jobs):
-        result[(name, k)] = (float(found[i]), "reassessed to the boundary")
-    return result
+                low, high = np.exp(np.log(grid[above[-1] : above[-1] + 2]))  # the search's own log scale
+                jobs.append(GroupJob(name, k, "distance", float(low), float(high)))
+    return result, jobs
 
 
 def distance_study(arrays: ProductArrays, limit_set: LimitSet, largest_dimension_mm: float) -> DistanceStudy:
     """Boundary distances per hazard family and group, the minimum distance per group, and curves.
+
+    The product alone; :func:`hazard.studies.joint.distances_and_remedies` shares the search with the remedies.
 
     Parameters
     ----------
@@ -73,16 +73,39 @@ def distance_study(arrays: ProductArrays, limit_set: LimitSet, largest_dimension
     largest_dimension_mm : float
         For the near-field note (five source sizes) [mm].
     """
-    grid = np.geomspace(*SEARCH_RANGE_M, CURVE_POINTS)
+    grid = distance_grid()
     ev = evaluate_rows(arrays, grid.size, limit_set, forced_distance_m=grid)
+    crossings, jobs = crossing_jobs(ev, grid, limit_set)
+    found = search_groups(arrays, limit_set, jobs)
+    crossings.update(
+        {(job.target, job.group): (float(d), "reassessed to the boundary") for job, d in zip(jobs, found, strict=True)}
+    )
+    at = evaluate_rows(arrays, found.size, limit_set, forced_distance_m=found) if found.size else None
+    return assemble_distance_study(limit_set, largest_dimension_mm, grid, ev, crossings, jobs, at)
+
+
+def assemble_distance_study(
+    limit_set: LimitSet,
+    largest_dimension_mm: float,
+    grid: np.ndarray,
+    ev: Evaluation,
+    crossings: dict[tuple[str, int], tuple[float | None, str]],
+    jobs: list[GroupJob],
+    at: Evaluation | None,
+    first_row: int = 0,
+) -> DistanceStudy:
+    """The study from the grid's evaluation ``ev``, every crossing, and the criterion at each one found by search.
+
+    ``at`` holds the product evaluated at the crossings of ``jobs`` (in their order, from row ``first_row`` on).
+    """
     grouped = limit_set.grouped_families
-    crossings = _crossings(arrays, limit_set, grid, {name: family_groups(ev, members) for name, members in grouped})
-    found_at = [(key, d) for key, (d, _) in crossings.items() if d is not None]
+    families = dict(grouped)
     criteria = {}
-    if found_at:
-        at = evaluate_rows(arrays, len(found_at), limit_set, forced_distance_m=np.array([d for _, d in found_at]))
-        families = dict(grouped)
-        criteria = {key: family_member(at, families[key[0]], i) for i, (key, _) in enumerate(found_at)}
+    if at is not None:
+        criteria = {
+            (job.target, job.group): family_member(at, families[job.target], first_row + i)
+            for i, job in enumerate(jobs)
+        }
     boundaries: list[BoundaryDistance] = []
     minimum: dict[str, float | None] = {}
     for name, _ in grouped:

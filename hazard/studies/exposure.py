@@ -19,7 +19,7 @@ import numpy as np
 
 from hazard.inputs.record import DAY_S
 from hazard.method.evaluate import Evaluation, ProductArrays
-from hazard.method.exposure_time import limit_fraction, limit_value
+from hazard.method.exposure_time import limit_fraction, limit_fractions, limit_value
 from hazard.method.families import evaluate_rows, family_member, family_t_max
 from hazard.method.search import log_search
 from hazard.result import DayExposure, ExposureFraction, ExposureResult, ExposureStudy
@@ -57,12 +57,14 @@ def _fractions(ev: Evaluation, limit_set: LimitSet, duration_s: float, members: 
     pulse's fraction); NaN where none applies or it was not assessed.
     """
     out = np.full(ev.assessment_distance_m.size, np.nan)
-    for row in range(out.size):
-        symbol = family_member(ev, members, row)
-        if symbol is not None and ev.hazards[symbol].assessed[row]:
-            out[row] = np.fmax(
-                limit_fraction(limit_set[symbol], ev.viewed, duration_s, row), _pulse_fraction(ev, symbol, row)
-            )
+    claimed = np.zeros(out.size, dtype=bool)
+    for symbol in members:  # the first applicable member of each row (family_member), where it was assessed
+        h = ev.hazards[symbol]
+        rows = np.flatnonzero(h.applicable & ~claimed & h.assessed)
+        claimed |= h.applicable
+        if rows.size:
+            pulse = np.nan if h.pulse is None else h.pulse.fraction[rows]
+            out[rows] = np.fmax(limit_fractions(limit_set[symbol], ev.viewed, duration_s, rows), pulse)
     return out
 
 
@@ -77,42 +79,42 @@ def _pulse_fraction(ev: Evaluation, symbol: str, row: int) -> float:
 
 
 def _shortest_distances_m(
-    arrays: ProductArrays, limit_set: LimitSet, duration_s: float
-) -> dict[str, tuple[float | None, str]]:
-    """Each family's least distance beyond which ``duration_s`` stays within the limit, and how it was found [m].
+    arrays: ProductArrays, limit_set: LimitSet, durations_s: list[float]
+) -> dict[float, dict[str, tuple[float | None, str]]]:
+    """For each duration, each family's least distance beyond which it stays within the limit, and how found [m].
 
-    Bracketed on the distance grid of :mod:`hazard.studies.distances`, then every family's bracket narrowed
-    together (one evaluation of the product per round).
+    Bracketed on the distance grid of :mod:`hazard.studies.distances` (one evaluation for every duration), then
+    every bracket of every duration narrowed together (one evaluation of the product per round).
     """
     grid = np.geomspace(*SEARCH_RANGE_M, CURVE_POINTS)
     ev = evaluate_rows(arrays, grid.size, limit_set, forced_distance_m=grid)
-    found: dict[str, tuple[float | None, str]] = {}
-    jobs: list[tuple[str, tuple[str, ...], float, float]] = []
-    for family, members in limit_set.families:
-        fractions = _fractions(ev, limit_set, duration_s, members)
-        over = np.flatnonzero(~(fractions <= 1))
-        if np.all(np.isnan(fractions)):
-            found[family] = (None, "not assessed")
-        elif over.size == 0:
-            found[family] = (0.0, f"within the limit at every distance from {grid[0] * 1e3:.0f} mm")
-        elif over[-1] == grid.size - 1:
-            found[family] = (None, f"not within the limit up to {grid[-1]:.0f} m")
-        else:
-            jobs.append((family, members, grid[over[-1]], grid[over[-1] + 1]))
+    found: dict[float, dict[str, tuple[float | None, str]]] = {d: {} for d in durations_s}
+    jobs: list[tuple[float, str, tuple[str, ...], float, float]] = []
+    for duration_s in durations_s:
+        for family, members in limit_set.families:
+            fractions = _fractions(ev, limit_set, duration_s, members)
+            over = np.flatnonzero(~(fractions <= 1))
+            if np.all(np.isnan(fractions)):
+                found[duration_s][family] = (None, "not assessed")
+            elif over.size == 0:
+                found[duration_s][family] = (0.0, f"within the limit at every distance from {grid[0] * 1e3:.0f} mm")
+            elif over[-1] == grid.size - 1:
+                found[duration_s][family] = (None, f"not within the limit up to {grid[-1]:.0f} m")
+            else:
+                jobs.append((duration_s, family, members, grid[over[-1]], grid[over[-1] + 1]))
     if jobs:
 
         def within(distance: np.ndarray, index: np.ndarray) -> np.ndarray:
             flat = evaluate_rows(arrays, distance.size, limit_set, forced_distance_m=distance.ravel())
-            ok = np.zeros(distance.size, dtype=bool)
-            for k, job in enumerate(index):
-                rows = slice(k * distance.shape[1], (k + 1) * distance.shape[1])
-                fractions = _fractions(flat, limit_set, duration_s, jobs[job][1])[rows]
-                ok[rows] = fractions <= 1
-            return ok.reshape(distance.shape)
+            ok = np.zeros(distance.shape, dtype=bool)
+            for duration_s, members in {(jobs[j][0], jobs[j][2]) for j in index}:
+                mine = [k for k, j in enumerate(index) if jobs[j][0] == duration_s and jobs[j][2] == members]
+                ok[mine] = (_fractions(flat, limit_set, duration_s, members).reshape(distance.shape) <= 1)[mine]
+            return ok
 
-        _, above = log_search(within, np.array([j[2] for j in jobs]), np.array([j[3] for j in jobs]))
-        for (family, _, _, _), distance in zip(jobs, above, strict=True):
-            found[family] = (float(distance), "re-assessed to the limit")
+        _, above = log_search(within, np.array([j[3] for j in jobs]), np.array([j[4] for j in jobs]))
+        for (duration_s, family, _, _, _), distance in zip(jobs, above, strict=True):
+            found[duration_s][family] = (float(distance), "re-assessed to the limit")
     return found
 
 
@@ -179,9 +181,7 @@ def exposure_study(arrays: ProductArrays, limit_set: LimitSet, exposures: list[E
     """
     distances = np.array([e.distance_m for e in exposures])
     ev = evaluate_rows(arrays, len(exposures), limit_set, forced_distance_m=distances)
-    shortest_by_duration = {
-        d: _shortest_distances_m(arrays, limit_set, d) for d in sorted({e.duration_s for e in exposures})
-    }
+    shortest_by_duration = _shortest_distances_m(arrays, limit_set, sorted({e.duration_s for e in exposures}))
     results = []
     per_family: dict[str, list[tuple[float, float, str]]] = {}
     pulses: dict[str, float] = {}

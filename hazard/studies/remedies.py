@@ -15,24 +15,19 @@ from itertools import pairwise
 import numpy as np
 
 from hazard.inputs.spectrum import Spectrum
-from hazard.method.evaluate import ProductArrays
+from hazard.method.evaluate import Evaluation, ProductArrays
 from hazard.method.families import evaluate_rows, family_groups
-from hazard.method.search import log_search
-from hazard.method.weighting import quadrature_matrix
+from hazard.method.weighting import GridCache, quadrature_matrix
 from hazard.result import BandContribution, Remedies, Remedy
 from hazard.standards import LimitSet
+from hazard.studies.group_search import PRODUCT, GroupJob, evaluate_variants, groups_of, search_groups
 from hazard.weighting_tables import load_table
 
-__all__ = ["remedies_study"]
+__all__ = ["assemble_remedies", "check_rows", "remedies_study", "remedy_factors", "remedy_jobs", "remedy_targets"]
 
+_BAND_MATRICES = GridCache(32)
 _LEAST_DIMMING = 1e-30  # dimming searched down to this factor [1]
 _MAX_AREA_FACTOR = 1e4
-
-
-def _groups_of(ev, target: str, limit_set: LimitSet) -> np.ndarray:
-    if target == "product":
-        return ev.group_index
-    return family_groups(ev, dict(limit_set.families)[target])
 
 
 def _radiance_families(limit_set: LimitSet) -> set[str]:
@@ -40,49 +35,49 @@ def _radiance_families(limit_set: LimitSet) -> set[str]:
     return {h.family for h in limit_set.hazards if h.kind == "radiance"}
 
 
-def _reaches(arrays, limit_set, jobs: list[tuple[str, int]], variant: str):
-    """A :func:`hazard.method.search.log_search` test: whether each job's target is in its group or lower at factor x.
+def remedy_targets(ev: Evaluation, limit_set: LimitSet) -> list[tuple[str, int]]:
+    """(target, group index) for every lower group of every family and of the product; ``ev`` is the product (1 row)."""
+    jobs = []
+    for name, members in limit_set.grouped_families:
+        current = family_groups(ev, members)[0]
+        jobs += [(name, g) for g in range(max(current, 0))]
+    return jobs + [(PRODUCT, g) for g in range(max(ev.group_index[0], 0))]
 
-    ``variant`` is ``raw_scale`` (dimming) or ``size_scale`` (a diffuser).
+
+def remedy_jobs(targets: list[tuple[str, int]], limit_set: LimitSet) -> tuple[list[GroupJob], list[GroupJob]]:
+    """The dimming brackets (in 1/f, which grows towards the answer) and the diffuser brackets of ``targets``.
+
+    Dimming never raises a group, nor does a larger area at the same power, so both tests are monotonic.
     """
-
-    def test(x: np.ndarray, index: np.ndarray) -> np.ndarray:
-        ev = evaluate_rows(arrays, x.size, limit_set, **{variant: x.ravel()})
-        targets = np.repeat(np.asarray(index), x.shape[1])
-        ok = np.empty(x.size, dtype=bool)
-        for target in {jobs[j][0] for j in index}:
-            rows = np.flatnonzero([jobs[j][0] == target for j in targets])
-            groups = _groups_of(ev, target, limit_set)[rows]
-            ok[rows] = groups <= np.array([jobs[j][1] for j in targets[rows]])
-        return ok.reshape(x.shape)
-
-    return test
+    radiance = _radiance_families(limit_set)
+    dimming = [GroupJob(t, g, "dimming", 1.0, 1 / _LEAST_DIMMING) for t, g in targets]
+    area = [GroupJob(t, g, "area", 1.0, float(np.sqrt(_MAX_AREA_FACTOR))) for t, g in targets if t in radiance]
+    return dimming, area
 
 
-def _largest_dimming(arrays, limit_set, jobs: list[tuple[str, int]]) -> list[float | None]:
-    """For each (target, group index): the largest factor f ≤ 1 with the target's group ≤ that index.
+def check_rows(dimming: list[GroupJob], area: list[GroupJob]) -> tuple[np.ndarray, np.ndarray]:
+    """(emission factor, size factor) of the rows that tell whether each job can be reached at all.
 
-    To a relative 1e-12; None where even f = 1e-30 does not reach it. Dimming never raises a group, so the test is
-    monotonic (searched in 1/f, which grows towards the answer).
+    The least dimming :data:`_LEAST_DIMMING` for each dimming job, then the largest area for each area job [1].
     """
-    reaches = _reaches(arrays, limit_set, jobs, "raw_scale")
-    ok_at_least = reaches(np.full((len(jobs), 1), _LEAST_DIMMING), np.arange(len(jobs)))[:, 0]
-    _, inverse = log_search(
-        lambda y, index: reaches(1 / y, index), np.ones(len(jobs)), np.full(len(jobs), 1 / _LEAST_DIMMING)
-    )
-    return [float(1 / inverse[i]) if ok_at_least[i] else None for i in range(len(jobs))]
+    raw_scale = np.concatenate([np.full(len(dimming), _LEAST_DIMMING), np.ones(len(area))])
+    size_scale = np.concatenate([np.ones(len(dimming)), np.full(len(area), np.sqrt(_MAX_AREA_FACTOR))])
+    return raw_scale, size_scale
 
 
-def _smallest_area(arrays, limit_set, jobs: list[tuple[str, int]]) -> list[float | None]:
-    """For each (radiance family, group index): the least area factor s² ≥ 1 reaching that group.
+def remedy_factors(
+    jobs: list[GroupJob], found: np.ndarray, checks: Evaluation, first_row: int, limit_set: LimitSet
+) -> list[float | None]:
+    """Each job's factor: the largest dimming f = 1/x, or the least area factor x² [1].
 
-    None beyond :data:`_MAX_AREA_FACTOR`.
+    None where the check row (``checks`` from ``first_row`` on, in the jobs' order) shows that the target is not
+    reached even at the extreme.
     """
-    reaches = _reaches(arrays, limit_set, jobs, "size_scale")
-    largest = np.sqrt(_MAX_AREA_FACTOR)
-    ok_at_largest = reaches(np.full((len(jobs), 1), largest), np.arange(len(jobs)))[:, 0]
-    _, scale = log_search(reaches, np.ones(len(jobs)), np.full(len(jobs), largest))
-    return [float(scale[i] ** 2) if ok_at_largest[i] else None for i in range(len(jobs))]
+    out: list[float | None] = []
+    for i, (job, x) in enumerate(zip(jobs, found, strict=True)):
+        reachable = groups_of(checks, job.target, limit_set)[first_row + i] <= job.group
+        out.append((float(1 / x) if job.variant == "dimming" else float(x**2)) if reachable else None)
+    return out
 
 
 def _band_shares(
@@ -100,7 +95,12 @@ def _band_shares(
             edges = np.arange(share.band_nm[0], share.band_nm[1] + share.step_nm / 2, share.step_nm)
             bands = [(float(a), float(b)) for a, b in pairwise(edges)]
             weight = None if hazard.table is None else load_table(hazard.table)
-            values = spectrum.value @ quadrature_matrix(spectrum.wavelength_nm, [(band, weight) for band in bands])
+
+            def build(grid: np.ndarray, bands=bands, weight=weight) -> np.ndarray:
+                return quadrature_matrix(grid, [(band, weight) for band in bands])
+
+            matrix = _BAND_MATRICES.get(spectrum.wavelength_nm, (hazard.table, tuple(bands)), build)
+            values = spectrum.value @ matrix
             values = values * to_assessment
             total = values.sum()
             if not total > 0:
@@ -134,7 +134,9 @@ def _why_none(target: str, dimming: float | None, area: float | None, radiance: 
 def remedies_study(
     arrays: ProductArrays, spectrum: Spectrum, to_assessment: float, limit_set: LimitSet, assessed: set[str]
 ) -> Remedies:
-    """Remedies for one product (one row of ``arrays``).
+    """Remedies for one product (one row of ``arrays``), searched on their own.
+
+    :func:`hazard.studies.joint.distances_and_remedies` shares the search with the distance study.
 
     Parameters
     ----------
@@ -145,17 +147,29 @@ def remedies_study(
     assessed : set of str
         Hazards assessed; band contributions are given only for those.
     """
-    ev = evaluate_rows(arrays, 1, limit_set)
-    jobs = []
-    for name, members in limit_set.grouped_families:
-        current = family_groups(ev, members)[0]
-        jobs += [(name, g) for g in range(max(current, 0))]
-    overall = ev.group_index[0]
-    jobs += [("product", g) for g in range(max(overall, 0))]
-    dimming = _largest_dimming(arrays, limit_set, jobs) if jobs else []
+    targets = remedy_targets(evaluate_rows(arrays, 1, limit_set), limit_set)
+    dimming, area = remedy_jobs(targets, limit_set)
+    found = search_groups(arrays, limit_set, dimming + area)
+    raw_scale, size_scale = check_rows(dimming, area)
+    factors: list[float | None] = []
+    if found.size:
+        checks = evaluate_variants(arrays, limit_set, np.full(raw_scale.size, np.nan), raw_scale, size_scale)
+        factors = remedy_factors(dimming + area, found, checks, 0, limit_set)
+    return assemble_remedies(spectrum, to_assessment, limit_set, assessed, targets, factors)
+
+
+def assemble_remedies(
+    spectrum: Spectrum,
+    to_assessment: float,
+    limit_set: LimitSet,
+    assessed: set[str],
+    targets: list[tuple[str, int]],
+    factors: list[float | None],
+) -> Remedies:
+    """The remedies from each target's dimming factor and then each radiance target's area factor (``factors``)."""
     radiance = _radiance_families(limit_set)
-    area_jobs = [(t, g) for t, g in jobs if t in radiance]
-    areas = dict(zip(area_jobs, _smallest_area(arrays, limit_set, area_jobs), strict=True)) if area_jobs else {}
+    dimming = factors[: len(targets)]
+    areas = dict(zip([(t, g) for t, g in targets if t in radiance], factors[len(targets) :], strict=True))
     remedies = [
         Remedy(
             target=t,
@@ -164,7 +178,7 @@ def remedies_study(
             area_factor=areas.get((t, g)),
             note=_why_none(t, f, areas.get((t, g)), radiance),
         )
-        for (t, g), f in zip(jobs, dimming, strict=True)
+        for (t, g), f in zip(targets, dimming, strict=True)
     ]
     return Remedies(
         remedies=remedies,

@@ -12,7 +12,7 @@ import numpy as np
 
 from hazard.inputs.spectrum import Spectrum
 from hazard.method.evaluate import ProductArrays
-from hazard.method.families import evaluate_rows, family_groups, family_member, family_values
+from hazard.method.families import evaluate_rows, family_groups, family_member, family_t_max, family_values
 from hazard.method.integrals import integrate_spectra
 from hazard.result import HazardBounds, UncertaintyStudy
 from hazard.standards import LimitSet
@@ -58,6 +58,8 @@ def uncertainty_study(
         finite = values[~np.isnan(values)]
         assessed = groups[groups >= 0]
         member = family_member(ev, members, nominal)
+        t_max = family_t_max(ev, members)
+        reached = t_max[~np.isnan(t_max)]
         bounds.append(
             HazardBounds(
                 family=name,
@@ -69,6 +71,8 @@ def uncertainty_study(
                 value_shift_plus=None if np.isnan(values[plus]) else float(values[plus]),
                 group_low=names[assessed.min()] if assessed.size else None,
                 group_high=names[assessed.max()] if assessed.size else None,
+                t_max_shortest_s=float(reached.min()) if reached.size else None,
+                t_max_longest_s=float(reached.max()) if reached.size == t_max.size else None,
             )
         )
     overall = ev.group_index

@@ -78,7 +78,12 @@ def test_manifest_with_good_and_bad_rows(tmp_path):
     assert "text 'abc' in a number column" in rows["BROKEN"] and "broken.csv:3" in rows["BROKEN"]
     assert "distance_mm" in rows["NEGDIST"] and "manifest.csv:5" in rows["NEGDIST"]
     assert "missing source size" in rows["NOSIZE"]
-    lines = [json.loads(x) for x in (tmp_path / "out" / "results.jsonl").read_text().splitlines()]
+    every = [json.loads(x) for x in (tmp_path / "out" / "results.jsonl").read_text().splitlines()]
+    # README "Batch runs": a line per product in manifest order, a failed one with status "error" and its reason
+    assert [x["id"] for x in every] == [line.split(",")[0] for line in summary[1:]]
+    assert all((x.get("status") == "error") == (x["id"] not in ("DESK", "SPOT")) for x in every)
+    assert all(x["error"] in rows[x["id"]] for x in every if x.get("status") == "error")
+    lines = [x for x in every if x.get("status") != "error"]
     assert [x["id"] for x in lines] == ["DESK", "SPOT"]
     single = hazard.assess(
         folder / "cl-desk-30.csv",
@@ -212,6 +217,9 @@ def test_a_failure_after_loading_is_that_products_error(tmp_path, monkeypatch, r
     assert [line.split(",")[:2] for line in summary[1:]] == [["A", "ok"], ["BAD", "error"], ["C", "ok"]]
     assert ("internal error" in outcome.errors["BAD"]) == (status == 1)
     for line in (tmp_path / "out" / "results.jsonl").read_text().splitlines():
+        if json.loads(line).get("status") == "error":  # README "Batch runs": a failed product's line
+            assert json.loads(line)["id"] == "BAD"
+            continue
         hazard.Assessment.model_validate_json(line)  # every written result reads back
 
 

@@ -1,6 +1,7 @@
 """Where a batch writes (hazard.assessment.outfolder): never over the user's files, one run per folder, one file per
 product."""
 
+import csv
 import json
 import os
 
@@ -38,12 +39,10 @@ def test_colliding_ids_get_files_of_their_own(tmp_path):
     manifest = write_manifest(tmp_path, [f'"{i}"' for i in ids])
     outcome = run_batch(manifest, tmp_path / "out", per_product_json=True)
     assert outcome.exit_code == 0
-    files = sorted(p.name for p in (tmp_path / "out").glob("*.json"))
+    files = sorted(p.name for p in (tmp_path / "out").glob("*.json") if p.name != "outputs.json")
     assert len(files) == len(ids) and "summary.json" not in files
-    stems = {
-        line.split(",")[0].strip('"'): line.rsplit(",", 1)[1]
-        for line in (tmp_path / "out" / "summary.csv").read_text().splitlines()[1:]
-    }
+    with open(tmp_path / "out" / "summary.csv", newline="", encoding="utf-8") as handle:
+        stems = {row["id"].strip('"'): row["file_stem"] for row in csv.DictReader(handle)}
     assert sorted(f"{stems[i]}.json" for i in ids) == files
     for i in ids:
         assert json.loads((tmp_path / "out" / f"{stems[i]}.json").read_text())["id"] == i

@@ -82,7 +82,7 @@ def test_what_if_is_never_mistaken_for_a_classification(tmp_path, monkeypatch):
     assert [r["basis"] for r in rows] == ["what-if", "standard"]
     # the classification column always holds the standard's group; the what-if has its own columns
     assert [r["risk_group"] for r in rows] == [far["risk_group"]] * 2
-    assert rows[0]["what_if_risk_group"] == "Exempt" and rows[0]["what_if_distance_mm"] == "5000.0"
+    assert rows[0]["what_if_risk_group"] == "Exempt" and rows[0]["what_if_distance [mm]"] == "5000"
 
 
 SIZE_OPTIONS = ["--distance-mm", "200", "--source-diameter-mm", "5"]

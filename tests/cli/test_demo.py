@@ -3,8 +3,11 @@
 import csv
 import json
 
+import pytest
 from conftest import run_cli
 from pypdf import PdfReader
+
+from hazard.output.summary_table import hazard_headers
 
 
 def test_demo_writes_consistent_outputs(tmp_path):
@@ -24,8 +27,9 @@ def test_demo_writes_consistent_outputs(tmp_path):
         result = results[row["id"]]
         assert row["status"] == "ok" and row["risk_group"] == result["risk_group"]
         for symbol, hazard in result["hazards"].items():
-            shown = row[f"{symbol}_value"]
-            assert shown == "" if hazard["value"] is None else float(shown) == hazard["value"]
+            # hazard/output/summary_table.py: the unit in the header, values to 3 significant digits
+            shown = row[hazard_headers(symbol, hazard["unit"])[0]]
+            assert shown == "" if hazard["value"] is None else float(shown) == pytest.approx(hazard["value"], rel=5e-3)
     assert len(PdfReader(out / "summary.pdf").pages) >= 1
     for product_id in results:
         assert product_id in run.stdout  # the on-screen table lists every product

@@ -74,7 +74,10 @@ def test_a_unit_stated_in_json_is_used(tmp_path, document):
 def test_wavelength_units_in_the_header(tmp_path, header, scale):
     # 1 Å = 0.1 nm, 1 µm = 1000 nm (SI)
     path = tmp_path / "lamp.csv"
-    path.write_text(f"{header},value\n" + "".join(f"{w / scale!r},{v!r}\n" for w, v in zip(WL, VALUES, strict=True)))
+    path.write_text(
+        f"{header},value\n"
+        + "".join(f"{w / scale!r},{v!r}\n" for w, v in zip(WL.tolist(), VALUES.tolist(), strict=True))
+    )
     np.testing.assert_allclose(hazard.assess(path, FIELDS).spectrum.min_nm, 380.0, rtol=1e-12)
 
 
