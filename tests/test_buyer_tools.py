@@ -11,7 +11,7 @@ import numpy as np
 import openpyxl
 import pytest
 from click.testing import CliRunner
-from conftest import write_spectrum
+from conftest import REPO, write_spectrum
 from pypdf import PdfReader
 
 import hazard
@@ -20,7 +20,7 @@ from hazard.cli_options import POSITIONAL, field_table
 from hazard.inputs.record import ProductRecord
 from hazard.result import ReportIdentity
 
-README = Path(__file__).resolve().parents[1] / "README.md"
+README = REPO / "README.md"
 GRID_NM = np.arange(380.0, 781.0)
 BLUE_NM = 450.0
 """A blue LED line: B(450 nm) = 0.9 (IEC 62471:2006 Table 4.2), so the blue-light hazard decides."""
