@@ -116,8 +116,10 @@ def _manifest_for(folder: Path, rows: list[str]) -> Path:
 
 
 def _big_manifest(folder: Path, count: int) -> Path:
+    """``count`` products on the curing lamp's spectrum (about 150 rows: reading it is a small part of a product's
+    work), at varied distances and sizes."""
     copy_lineup(folder)
-    rows = [f"P{i:04d},cl-heat-2k.csv,{1250 + i % 50},{1.6 + (i % 7) * 0.1:.1f},other,true" for i in range(count)]
+    rows = [f"P{i:04d},cl-cure-365.csv,{1250 + i % 50},{1.6 + (i % 7) * 0.1:.1f},other,true" for i in range(count)]
     return _manifest_for(folder, rows)
 
 
