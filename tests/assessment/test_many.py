@@ -2,12 +2,14 @@
 stopping the others."""
 
 import numpy as np
+import pandas.testing as pd_testing
 import pytest
 from conftest import assess_spectrum
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
 import hazard
+from hazard.inputs.spectrum import VALUE_RULES
 
 # --- assess_many against assess -------------------------------------------------------------------------
 GRID = np.arange(250.0, 1500.5, 2.5)
@@ -72,3 +74,48 @@ def test_assess_many_reports_bad_products_without_stopping():
     frame = hazard.assess_many(records, GRID, spectra)
     assert frame["status"].tolist() == ["ok", "error", "error"]
     assert "not finite" in frame.loc[1, "error"] and "distance_mm" in frame.loc[2, "error"]
+
+
+# --- arrays that cannot be assessed ------------------------------------------------------------------------------
+def _records(n):
+    import pandas as pd
+
+    return pd.DataFrame({"id": list("ABCD")[:n], "distance_mm": [200.0] * n, "source_diameter_mm": [5.0] * n})
+
+
+@pytest.mark.parametrize(
+    ("n_records", "grid", "spectra", "message"),
+    [
+        pytest.param(1, GRID, np.ones(GRID.size), r"1 records but 501 spectra", id="one spectrum as a 1-D array"),
+        pytest.param(2, GRID, np.ones((3, GRID.size)), r"2 records but 3 spectra", id="more spectra than records"),
+        pytest.param(
+            3, GRID[None, :], np.ones((3, GRID.size)), r"spectra must be \(n, 501\) for a grid of 501", id="2-D grid"
+        ),
+        pytest.param(
+            3, GRID[:-1], np.ones((3, GRID.size)), r"spectra must be \(n, 500\) .*got \(3, 501\)", id="grid too short"
+        ),
+        pytest.param(3, GRID[::-1], np.ones((3, GRID.size)), r"strictly increasing", id="descending grid"),
+        pytest.param(3, np.where(GRID == 500, np.nan, GRID), np.ones((3, GRID.size)), r"strictly", id="NaN in grid"),
+    ],
+)
+def test_arrays_of_the_wrong_shape_are_refused(n_records, grid, spectra, message):
+    # hazard/assessment/many.py: the common grid is 1-D, strictly increasing, one column per wavelength, one row per
+    # record; anything else is the caller's mistake (ValueError), not a product's
+    with pytest.raises(ValueError, match=message):
+        hazard.assess_many(_records(n_records), grid, spectra)
+
+
+def test_nan_and_infinite_samples_make_their_product_an_error_and_no_other():
+    # method §5: values must be finite; in a batch one bad product never stops the others, whose results are those
+    # they have alone
+    spectra = np.vstack([np.exp(-0.5 * ((GRID - 300 - 100 * i) / 40) ** 2) for i in range(4)])
+    spectra[1, 10], spectra[2, 20], spectra[3, 30] = np.nan, np.inf, -np.inf
+    with np.errstate(invalid="ignore"):  # ±inf × a zero weight is NaN in the refused rows' integrals
+        frame = hazard.assess_many(_records(4), GRID, spectra)
+    assert frame["status"].tolist() == ["ok", "error", "error", "error"]
+    for i in (1, 2, 3):
+        assert frame.loc[i, "error"] == f"{'ABCD'[i]}: {VALUE_RULES[0]}; fix: correct or remove this spectrum"
+    alone = hazard.assess_many(_records(1), GRID, spectra[:1])
+    assert frame["error"].isna()[0] and alone["error"].isna()[0]  # no error (NaN or None, by pandas' choice)
+    # with failed rows beside it, a column may hold objects where alone it holds bools: the values are compared
+    pd_testing.assert_frame_equal(frame.iloc[:1].drop(columns="error"), alone.drop(columns="error"), check_dtype=False)

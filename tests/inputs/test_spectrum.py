@@ -33,6 +33,7 @@ from hazard.assessment.pipeline import evaluate_loaded
 from hazard.cli import main
 from hazard.errors import InputError
 from hazard.inputs.loading import load_product
+from hazard.inputs.spectrum import validate_spectrum
 
 SIZE = {"distance_mm": 200.0, "source_diameter_mm": 5.0}
 
@@ -227,3 +228,15 @@ def test_spectral_values_near_the_float_limit_are_refused(tmp_path):
     with pytest.raises(InputError) as caught:
         load_product(path, LAMP_FIELDS)
     assert_one_line(caught.value, "big.csv", "not a plausible measurement")
+
+
+@pytest.mark.parametrize("bad", [np.nan, np.inf, -np.inf], ids=["NaN", "inf", "-inf"])
+@pytest.mark.parametrize("column", ["wavelength", "value"])
+def test_arrays_with_a_value_that_is_not_finite_are_refused(bad, column):
+    # method §5: every number finite; the message names the row's line and the fix (hazard.errors: file, line, fix)
+    wl, value = np.arange(400.0, 411.0), np.ones(11)
+    (wl if column == "wavelength" else value)[4] = bad
+    lines = np.arange(11) + 2  # a header on line 1
+    with pytest.raises(InputError, match=f"{column} is not a finite number") as caught:
+        validate_spectrum(wl, value, lines, "lamp.csv", 1.0, "irradiance")
+    assert caught.value.line == 6 and str(caught.value).startswith("lamp.csv:6: ")
