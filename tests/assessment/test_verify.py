@@ -13,6 +13,9 @@ GRID = np.arange(200.0, 3000.5, 0.5)
 """Spans every hazard band (method §1) at 0.5 nm."""
 
 
+GRID_FINE_UV = np.concatenate([np.arange(200.0, 400.0, 0.01), np.arange(400.0, 3000.5, 0.5)])
+
+
 def test_report_refuses_a_result_whose_groups_do_not_follow_from_its_numbers(tmp_path, monkeypatch):
     write_spectrum(tmp_path / "uv.csv", GRID, triangle_line(GRID, 365.0, 150.0))  # E_UVA 150 W/m² > 100: RG3
     monkeypatch.chdir(tmp_path)
@@ -64,9 +67,6 @@ def test_report_refuses_a_result_whose_groups_do_not_follow_from_its_numbers(tmp
     assert CliRunner().invoke(main, ["report", "results.jsonl", "--id", "B", "--output", "b.pdf"]).exit_code == 0
     line = CliRunner().invoke(main, ["report", "results.jsonl", "--id", "uv", "--output", "c.pdf"])
     assert line.exit_code == 2 and "changed after it was made" in line.stderr
-
-
-GRID_FINE_UV = np.concatenate([np.arange(200.0, 400.0, 0.01), np.arange(400.0, 3000.5, 0.5)])
 
 
 @pytest.mark.parametrize("rate_hz", [None, 5.0], ids=["single pulse", "train"])

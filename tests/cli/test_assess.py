@@ -27,18 +27,21 @@ GRID = np.arange(200.0, 3000.5, 0.5)
 """Spans every hazard band (method §1) at 0.5 nm."""
 
 
-# --- outputs that cannot be misread ----------------------------------------------------------------------
-VISIBLE = np.arange(380.0, 781.0, 1.0)
+SIZE_OPTIONS = ["--distance-mm", "200", "--source-diameter-mm", "5"]
+HEADER = "wavelength_nm,value\n"
+VISIBLE_NM = np.arange(380.0, 781.0, 1.0)
 
 
 def _lamp(wl):
+    """A dim visible lamp [W m⁻² nm⁻¹] (invented test data)."""
     return 1e-3 * np.exp(-0.5 * ((wl - 560.0) / 80.0) ** 2)
 
 
+# --- outputs that cannot be misread ----------------------------------------------------------------------
 def test_nothing_assessable_has_no_group_anywhere(tmp_path, monkeypatch):
     # method §3: with no hazard that has risk groups assessed there is no group: null in JSON, "not determined"
     # in words, never "Exempt"
-    write_spectrum(tmp_path / "vis.csv", VISIBLE, _lamp(VISIBLE))
+    write_spectrum(tmp_path / "vis.csv", VISIBLE_NM, _lamp(VISIBLE_NM))
     monkeypatch.chdir(tmp_path)
     options = ["--distance-mm", "200", "--source-diameter-mm", "5"]
     as_json = CliRunner().invoke(main, ["assess", "vis.csv", *options, "--format", "json"])
@@ -83,15 +86,6 @@ def test_what_if_is_never_mistaken_for_a_classification(tmp_path, monkeypatch):
     # the classification column always holds the standard's group; the what-if has its own columns
     assert [r["risk_group"] for r in rows] == [far["risk_group"]] * 2
     assert rows[0]["what_if_risk_group"] == "Exempt" and rows[0]["what_if_distance [mm]"] == "5000"
-
-
-SIZE_OPTIONS = ["--distance-mm", "200", "--source-diameter-mm", "5"]
-
-
-HEADER = "wavelength_nm,value\n"
-
-
-VISIBLE_NM = np.arange(380.0, 781.0, 1.0)
 
 
 def _assess_in_a_process(args, cwd):

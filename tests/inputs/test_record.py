@@ -32,38 +32,12 @@ GRID = np.concatenate([np.arange(200.0, 400.0, 0.01), np.arange(400.0, 3000.5, 0
 UV_LINE = triangle_line(GRID, 270.0, 0.001 / 0.05, 0.05)
 
 
-def test_the_flat_fields_and_a_manifest_row_give_the_same_exposure(tmp_path):
-    spectrum = write_spectrum(tmp_path / "uv.csv", GRID, UV_LINE)
-    fields = {"distance_mm": 1000.0, "source_diameter_mm": 5.0, "no_emission_outside": True}
-    flat = hazard.assess(spectrum, {**fields, "exposure_distance_mm": 700.0, "exposure_duration_s": "90min"})
-    table = hazard.assess(spectrum, {**fields, "exposure": [{"distance_mm": 700.0, "duration_s": 5400}]})
-    assert flat.exposure.exposures[0].hazards == table.exposure.exposures[0].hazards
-    manifest = tmp_path / "products.csv"
-    manifest.write_text(
-        "id,spectrum,distance_mm,source_diameter_mm,no_emission_outside,exposure_distance_mm,exposure_duration_s\n"
-        "UV-1,uv.csv,1000,5,true,700,90min\n",
-        encoding="utf-8",
-    )
-    result = CliRunner().invoke(main, ["batch", str(manifest), "--output", str(tmp_path / "out")])
-    assert result.exit_code == 0, result.output
-    line = json.loads((tmp_path / "out" / "results.jsonl").read_text(encoding="utf-8").splitlines()[0])
-    assert line["exposure"]["exposures"][0]["hazards"]["E_S"]["fraction"] == pytest.approx(
-        flat.exposure.exposures[0].hazards["E_S"].fraction
-    )
-    summary = (tmp_path / "out" / "summary.csv").read_text(encoding="utf-8")
-    assert "day_max_fraction" in summary.splitlines()[0] and ",E_S," in summary.splitlines()[1]
-
-
 SIZE = {"distance_mm": 200.0, "source_diameter_mm": 5.0}
-
 
 SIZE_OPTIONS = ["--distance-mm", "200", "--source-diameter-mm", "5"]
 
-
 VISIBLE_NM = np.arange(380.0, 781.0, 1.0)
 
-
-# --- bad record fields -------------------------------------------------------------------------------------
 # Each rule: method §4/§5 (project design) and hazard/record.py's field contract.
 RECORD_CASES = [
     pytest.param(
@@ -105,6 +79,49 @@ RECORD_CASES = [
     ),
     pytest.param({**SIZE, "quantity": "exitance"}, r"quantity: Input should be 'irradiance'", id="unknown quantity"),
 ]
+
+BAD = [
+    pytest.param(["--emission", "single_pulse", "--pulse-duration-s", "0.3"], "0.3 s is not a pulse", id="long pulse"),
+    pytest.param(["--emission", "pulse_train", "--pulse-duration-s", "1ms"], "needs --pulse-rate-hz", id="no rate"),
+    pytest.param(
+        ["--quantity", "radiant_exposure", "--unit", "J/m2/nm"], "exposure of one pulse", id="dose, continuous"
+    ),
+    pytest.param(["--exposure-distance-mm", "500", "--exposure-duration-s", "0"], "within a day", id="zero duration"),
+    pytest.param(["--exposure-distance-mm", "500", "--exposure-duration-s", "-5min"], "not a duration", id="negative"),
+    pytest.param(["--exposure-distance-mm", "500", "--exposure-duration-s", "25h"], "within a day", id="over a day"),
+    pytest.param(["--exposure", "distance_mm=500,duration_s=2d"], "within a day", id="table over a day"),
+    pytest.param(["--exposure-duration-s", "2h"], "go together", id="duration without distance"),
+    pytest.param(
+        ["--emission", "single_pulse", "--pulse-duration-s", "1ms", "--exposure", "distance_mm=500,duration_s=1h"],
+        "single pulse has no daily duration",
+        id="a day of one pulse",
+    ),
+]
+
+
+def test_the_flat_fields_and_a_manifest_row_give_the_same_exposure(tmp_path):
+    spectrum = write_spectrum(tmp_path / "uv.csv", GRID, UV_LINE)
+    fields = {"distance_mm": 1000.0, "source_diameter_mm": 5.0, "no_emission_outside": True}
+    flat = hazard.assess(spectrum, {**fields, "exposure_distance_mm": 700.0, "exposure_duration_s": "90min"})
+    table = hazard.assess(spectrum, {**fields, "exposure": [{"distance_mm": 700.0, "duration_s": 5400}]})
+    assert flat.exposure.exposures[0].hazards == table.exposure.exposures[0].hazards
+    manifest = tmp_path / "products.csv"
+    manifest.write_text(
+        "id,spectrum,distance_mm,source_diameter_mm,no_emission_outside,exposure_distance_mm,exposure_duration_s\n"
+        "UV-1,uv.csv,1000,5,true,700,90min\n",
+        encoding="utf-8",
+    )
+    result = CliRunner().invoke(main, ["batch", str(manifest), "--output", str(tmp_path / "out")])
+    assert result.exit_code == 0, result.output
+    line = json.loads((tmp_path / "out" / "results.jsonl").read_text(encoding="utf-8").splitlines()[0])
+    assert line["exposure"]["exposures"][0]["hazards"]["E_S"]["fraction"] == pytest.approx(
+        flat.exposure.exposures[0].hazards["E_S"].fraction
+    )
+    summary = (tmp_path / "out" / "summary.csv").read_text(encoding="utf-8")
+    assert "day_max_fraction" in summary.splitlines()[0] and ",E_S," in summary.splitlines()[1]
+
+
+# --- bad record fields -------------------------------------------------------------------------------------
 
 
 @pytest.mark.parametrize(("fields", "pattern"), RECORD_CASES)
@@ -200,23 +217,6 @@ def test_infinite_record_numbers_are_refused(tmp_path, field):
 
 
 # --- bad input: one clear line each --------------------------------------------------------------------------
-BAD = [
-    pytest.param(["--emission", "single_pulse", "--pulse-duration-s", "0.3"], "0.3 s is not a pulse", id="long pulse"),
-    pytest.param(["--emission", "pulse_train", "--pulse-duration-s", "1ms"], "needs --pulse-rate-hz", id="no rate"),
-    pytest.param(
-        ["--quantity", "radiant_exposure", "--unit", "J/m2/nm"], "exposure of one pulse", id="dose, continuous"
-    ),
-    pytest.param(["--exposure-distance-mm", "500", "--exposure-duration-s", "0"], "within a day", id="zero duration"),
-    pytest.param(["--exposure-distance-mm", "500", "--exposure-duration-s", "-5min"], "not a duration", id="negative"),
-    pytest.param(["--exposure-distance-mm", "500", "--exposure-duration-s", "25h"], "within a day", id="over a day"),
-    pytest.param(["--exposure", "distance_mm=500,duration_s=2d"], "within a day", id="table over a day"),
-    pytest.param(["--exposure-duration-s", "2h"], "go together", id="duration without distance"),
-    pytest.param(
-        ["--emission", "single_pulse", "--pulse-duration-s", "1ms", "--exposure", "distance_mm=500,duration_s=1h"],
-        "single pulse has no daily duration",
-        id="a day of one pulse",
-    ),
-]
 
 
 @pytest.mark.parametrize(("options", "message"), BAD)

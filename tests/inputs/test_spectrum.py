@@ -123,6 +123,9 @@ SPECTRUM_CASES = [
 ]
 
 
+FAST = settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+
+
 @pytest.mark.parametrize(("name", "content", "pattern", "line"), SPECTRUM_CASES)
 def test_bad_spectrum_file_raises_input_error(tmp_path, name, content, pattern, line):
     path = write_file(tmp_path / name, content)
@@ -189,9 +192,6 @@ def test_descending_wavelengths_equal_ascending(tmp_path):
     assert same_result(a_up, a_down)
     added = [w for w in a_down.warnings if w not in a_up.warnings]
     assert len(added) == 1 and "descending" in added[0] and "reversed" in added[0]
-
-
-FAST = settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 
 
 # --- descending input equals ascending input ---------------------------------------------------------------

@@ -26,6 +26,36 @@ ROUNDING = 0.03
 """IEC 62471:2006 Table 6.1 prints its limits to two digits (method §1, §3): a group and t_max agree within it."""
 
 
+LINES = st.lists(
+    st.tuples(st.floats(250.0, 2500.0), st.floats(2.0, 200.0), st.floats(-6.0, 2.0).map(lambda x: 10.0**x)),
+    min_size=1,
+    max_size=4,
+)
+"""Gaussian lines (centre nm, width nm, peak W/(m²·nm)) over eight decades."""
+
+SHAPES = st.one_of(
+    st.builds(lambda d: {"source_diameter_mm": d}, st.floats(-1.3, 2.0).map(lambda x: 10.0**x)),
+    st.builds(
+        lambda w, h: {"source_width_mm": w, "source_height_mm": h},
+        st.floats(-1.3, 2.0).map(lambda x: 10.0**x),
+        st.floats(-1.3, 2.0).map(lambda x: 10.0**x),
+    ),
+)
+"""Discs and rectangles of 0.05-100 mm (the issue's range)."""
+
+GRID_FINE_UV = np.concatenate([np.arange(200.0, 400.0, 0.01), np.arange(400.0, 3000.5, 0.5)])
+
+FAST = settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+
+GRID_1_NM = np.arange(200.0, 3000.5, 1.0)
+"""200–3000 nm at 1 nm: spans every hazard band (method §1), so coverage never decides."""
+
+WIDE_LINES = st.lists(
+    st.tuples(st.floats(200.0, 3000.0), st.floats(1.0, 300.0), log_uniform(1e-6, 10.0)), min_size=1, max_size=4
+)
+"""Gaussian lines anywhere in 200–3000 nm, narrow (1 nm) to broad, over seven decades [nm, nm, W m⁻² nm⁻¹]."""
+
+
 def _assess(values, **fields):
     """An irradiance on GRID assessed in memory at 200 mm, nothing emitted outside it (no studies)."""
     return assess_spectrum(GRID, values, **{"no_emission_outside": True, "source_diameter_mm": None, **fields})
@@ -48,25 +78,6 @@ def _group_from_t_max(t_max_s, bases, tolerance):
         if t < bases[boundary] * (1 - tolerance):
             return above
     return "Exempt"
-
-
-LINES = st.lists(
-    st.tuples(st.floats(250.0, 2500.0), st.floats(2.0, 200.0), st.floats(-6.0, 2.0).map(lambda x: 10.0**x)),
-    min_size=1,
-    max_size=4,
-)
-"""Gaussian lines (centre nm, width nm, peak W/(m²·nm)) over eight decades."""
-
-
-SHAPES = st.one_of(
-    st.builds(lambda d: {"source_diameter_mm": d}, st.floats(-1.3, 2.0).map(lambda x: 10.0**x)),
-    st.builds(
-        lambda w, h: {"source_width_mm": w, "source_height_mm": h},
-        st.floats(-1.3, 2.0).map(lambda x: 10.0**x),
-        st.floats(-1.3, 2.0).map(lambda x: 10.0**x),
-    ),
-)
-"""Discs and rectangles of 0.05-100 mm (the issue's range)."""
 
 
 @SETTINGS
@@ -119,9 +130,6 @@ def test_scaling_a_spectrum_up_never_lowers_a_group(lines, shape, scale):
     assert rank(grown.risk_group) >= rank(base.risk_group)
 
 
-GRID_FINE_UV = np.concatenate([np.arange(200.0, 400.0, 0.01), np.arange(400.0, 3000.5, 0.5)])
-
-
 @pytest.mark.parametrize(
     ("irradiance", "group"), [(0.999e-3, "Exempt"), (1.001e-3, "RG1"), (0.0299, "RG2"), (0.0301, "RG3")]
 )
@@ -131,19 +139,6 @@ def test_group_boundaries_at_or_below(irradiance, group):
         GRID_FINE_UV, triangle_line(GRID_FINE_UV, 270.0, irradiance / 0.05, 0.05), no_emission_outside=True
     )
     assert a.hazards["E_S"].risk_group == group and a.risk_group == group
-
-
-FAST = settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
-
-
-GRID_1_NM = np.arange(200.0, 3000.5, 1.0)
-"""200–3000 nm at 1 nm: spans every hazard band (method §1), so coverage never decides."""
-
-
-WIDE_LINES = st.lists(
-    st.tuples(st.floats(200.0, 3000.0), st.floats(1.0, 300.0), log_uniform(1e-6, 10.0)), min_size=1, max_size=4
-)
-"""Gaussian lines anywhere in 200–3000 nm, narrow (1 nm) to broad, over seven decades [nm, nm, W m⁻² nm⁻¹]."""
 
 
 # --- the group never improves when the spectrum grows --------------------------------------------------------

@@ -15,6 +15,22 @@ from hazard.method.geometry import cone_solid_angle_sr
 GRID = np.concatenate([np.arange(200.0, 400.0, 0.01), np.arange(400.0, 3000.5, 0.5)])
 
 
+GRID_HALF_NM = np.arange(200.0, 3000.5, 0.5)
+"""Spans every hazard band (method §1) at 0.5 nm."""
+
+FAST = settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+
+GRID_1_NM = np.arange(200.0, 3000.5, 1.0)
+"""200–3000 nm at 1 nm: spans every hazard band (method §1), so coverage never decides."""
+
+LINES = st.lists(
+    st.tuples(st.floats(200.0, 3000.0), st.floats(1.0, 300.0), log_uniform(1e-6, 10.0)), min_size=1, max_size=4
+)
+"""Gaussian lines anywhere in 200–3000 nm, narrow (1 nm) to broad, over seven decades [nm, nm, W m⁻² nm⁻¹]."""
+
+GRID_FINE_TO_500 = np.concatenate([np.arange(200.0, 500.0, 0.01), np.arange(500.0, 3000.5, 0.5)])
+
+
 # --- narrow lines: weight × irradiance, and t_max -------------------------------------------------------
 def test_actinic_line_gives_weight_times_irradiance_and_t_max():
     # A 270 nm line of 0.01 W/m2: S_UV(270) = 1.0 (IEC 62471:2006 Table 4.1), so E_S = 0.01 W/m2,
@@ -134,10 +150,6 @@ def test_radiance_input_gives_irradiance_by_source_solid_angle():
     assert a.hazards["E_IR"].value == pytest.approx(1000 * omega_s, rel=1e-9)
 
 
-GRID_HALF_NM = np.arange(200.0, 3000.5, 0.5)
-"""Spans every hazard band (method §1) at 0.5 nm."""
-
-
 def _assess(values, **fields):
     """An irradiance on GRID_HALF_NM assessed in memory at 200 mm, nothing emitted outside it (no studies)."""
     return assess_spectrum(GRID_HALF_NM, values, **{"no_emission_outside": True, "source_diameter_mm": None, **fields})
@@ -201,19 +213,6 @@ def test_blue_light_just_over_11_mrad_does_not_read_exempt_beside_a_short_t_max(
     assert 1e6 / l_b.value < 200  # what the source's own radiance would have given
 
 
-FAST = settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
-
-
-GRID_1_NM = np.arange(200.0, 3000.5, 1.0)
-"""200–3000 nm at 1 nm: spans every hazard band (method §1), so coverage never decides."""
-
-
-LINES = st.lists(
-    st.tuples(st.floats(200.0, 3000.0), st.floats(1.0, 300.0), log_uniform(1e-6, 10.0)), min_size=1, max_size=4
-)
-"""Gaussian lines anywhere in 200–3000 nm, narrow (1 nm) to broad, over seven decades [nm, nm, W m⁻² nm⁻¹]."""
-
-
 @FAST
 @given(first=LINES, added=LINES, diameter_mm=st.floats(0.5, 30.0))
 def test_gls_distance_never_shrinks_when_the_spectrum_grows(first, added, diameter_mm):
@@ -268,9 +267,6 @@ def test_led_b_series_is_not_uv_or_ir_hazardous_at_office_levels(colour):
             assert a.hazards[symbol].risk_group == "Exempt"
         k_bv = a.hazards["L_B"].value / a.photometry.luminance_cd_m2
         assert 0.2e-3 < k_bv < 1.2e-3
-
-
-GRID_FINE_TO_500 = np.concatenate([np.arange(200.0, 500.0, 0.01), np.arange(500.0, 3000.5, 0.5)])
 
 
 def test_peak_to_mean_multiplies_radiance_in_small_fields():
