@@ -366,6 +366,11 @@ def _finish_batch(outcome, output: Path, pdf: bool) -> None:
     help="Remove the files an earlier run wrote into the folder that this run did not (they are listed either way).",
 )
 @_ALLOW_OUTSIDE
+@click.option(
+    "--html",
+    is_flag=True,
+    help="Also write summary.html, a self-contained page for the browser, and one JSON per product.",
+)
 def batch(
     manifest: Path,
     output: Path,
@@ -376,6 +381,7 @@ def batch(
     lab_plan: bool,
     clean: bool,
     allow_outside: bool,
+    html: bool,
     **options: str | None,
 ) -> None:
     """Assess every product of a CSV/.xlsx manifest or a folder of TOML records.
@@ -402,6 +408,8 @@ def batch(
         clean=clean,
         identity=report_identity(pop_identity(options)),
         plan=lab_plan,
+        per_product_json=html,
+        html=html,
     )
     _finish_batch(outcome, output, pdf)
     sys.exit(outcome.exit_code)
@@ -425,7 +433,8 @@ def _lineup_folder() -> Path:
 @click.option(
     "--jobs", type=click.IntRange(min=1), default=1, show_default=True, help="Worker processes for rendering PDFs."
 )
-def demo(output: Path, jobs: int, **options: str | None) -> None:
+@click.option("--html", is_flag=True, help="Also write summary.html, a self-contained page for the browser.")
+def demo(output: Path, jobs: int, html: bool, **options: str | None) -> None:
     """Assess the bundled line-up of invented products (Corvel Lightworks, a made-up company).
 
     One PDF and one JSON per product, a summary CSV and summary.pdf.
@@ -437,7 +446,9 @@ def demo(output: Path, jobs: int, **options: str | None) -> None:
     from hazard.inputs.settings import report_identity
 
     identity = report_identity(pop_identity(options))
-    outcome = run_batch(lineup, output, pdf=True, jobs=jobs, per_product_json=True, studies=True, identity=identity)
+    outcome = run_batch(
+        lineup, output, pdf=True, jobs=jobs, per_product_json=True, studies=True, identity=identity, html=html
+    )
     _finish_batch(outcome, output, pdf=True)
     sys.exit(outcome.exit_code)
 

@@ -37,6 +37,7 @@ __all__ = [
     "ReportIdentity",
     "RiskGroup",
     "Scaling",
+    "SpectralShares",
     "SpectrumSummary",
     "UncertaintyStudy",
 ]
@@ -128,6 +129,11 @@ class Photometry(_Frozen):
         description="The spectrum covers V(λ)'s 360–830 nm band (or the record says the "
         "source emits nothing outside it)."
     )
+    visible_negligible: bool = Field(
+        False,
+        description="Under 10⁻⁶ of the radiant power (200–3000 nm) is luminous (V(λ)-weighted): the photometric "
+        "values are a tail of no meaning, and no colour is computed.",
+    )
 
 
 class Geometry(_Frozen):
@@ -169,6 +175,17 @@ class SpectrumSummary(_Frozen):
     file_metadata: dict[str, str] = Field(
         default_factory=dict,
         description="Metadata lines of the spectrum file (key → value, the first 40, cut to 120 characters).",
+    )
+
+
+class SpectralShares(_Frozen):
+    """Where one hazard's weighted sum comes from: its share from each wavelength band, for charts."""
+
+    start_nm: float = Field(description="Lower edge of the first band [nm].")
+    step_nm: float = Field(description="Width of every band [nm].")
+    share: list[float] = Field(
+        description="Fraction of the hazard's value from each band, in rising wavelength, three significant digits "
+        "(under 10⁻⁵ written as 0); they add up to 1 [1]."
     )
 
 
@@ -484,6 +501,10 @@ class Assessment(_Frozen):
     geometry: Geometry
     photometry: Photometry
     spectrum: SpectrumSummary
+    contributions: dict[str, SpectralShares] = Field(
+        default_factory=dict,
+        description="Each assessed hazard with a value above 0: where its weighted sum comes from, by wavelength band.",
+    )
     blue_light_transfer: BlueLightTransfer | None = Field(
         None, description="IEC TR 62778 transfer quantities, where B(λ) and V(λ) are covered."
     )

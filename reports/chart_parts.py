@@ -13,10 +13,9 @@ from reportlab.lib import colors
 from reportlab.pdfbase.pdfmetrics import stringWidth
 
 from hazard.reports.fonts import FontSet
-from hazard.reports.style import INK, MUTED
+from hazard.reports.style import FAMILY_STYLE, INK, MUTED
 
 __all__ = [
-    "FAMILY_LINES",
     "TICK",
     "chart_text",
     "curve_lines",
@@ -79,23 +78,13 @@ def segments(points: list[tuple[float, float]], keep: list[bool]) -> list[list[t
     return [run for run in runs if len(run) > 1]
 
 
-FAMILY_LINES = (
-    ((), 1.3),
-    ((4.5, 2.0), 1.1),
-    ((0.9, 1.9), 1.5),
-    ((6.0, 1.8, 1.2, 1.8), 1.0),
-    ((10.0, 2.5), 1.6),
-    ((2.0, 1.2, 2.0, 1.2, 0.6, 3.0), 0.7),
-)
-"""Dash pattern (empty: solid) and line width of the t_max curve of each family, in the limit set's order, in
-:func:`distance_chart`."""
-FALLBACK_LINE = ((1.5, 1.5), 0.8)
+def family_line(families: Iterable[str], family: str) -> tuple[tuple[float, ...], float, colors.Color]:
+    """Dash pattern, line width and colour of ``family``'s curve, by its place among ``families``.
 
-
-def family_line(families: Iterable[str], family: str) -> tuple[tuple[float, ...], float]:
-    """Dash pattern and line width of ``family``, by its place among ``families`` (the limit set's order)."""
+    ``families`` is in the limit set's order; the styles are :data:`~hazard.reports.style.FAMILY_STYLE`'s.
+    """
     index = list(families).index(family)
-    return FAMILY_LINES[index] if index < len(FAMILY_LINES) else FALLBACK_LINE
+    return FAMILY_STYLE[index % len(FAMILY_STYLE)]
 
 
 def dash_style(pattern: tuple[float, ...]) -> dict:
@@ -121,7 +110,7 @@ def curve_lines(
     g, labels = Group(), Group()
     placed: list[tuple[float, float, float, float]] = []
     for family, ts in series.items():
-        dash, line_width = family_line(series, family)
+        dash, line_width, colour = family_line(series, family)
         points, keep = [], []
         for mm, t in zip(distance_mm, ts, strict=True):
             y = py(t) if t is not None and t > 0 else math.nan
@@ -132,7 +121,7 @@ def curve_lines(
         for run in runs:
             g.add(
                 PolyLine(
-                    [c for point in run for c in point], strokeColor=INK, strokeWidth=line_width, **dash_style(dash)
+                    [c for point in run for c in point], strokeColor=colour, strokeWidth=line_width, **dash_style(dash)
                 )
             )
         if runs:

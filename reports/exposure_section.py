@@ -45,8 +45,8 @@ def emission_block(a: Assessment, st: Styles) -> list[Flowable]:
         how = f"a single pulse of {format_duration_s(e.pulse_duration_s)}; the hazard table holds its peak values"
     else:
         how = (
-            f"a pulse train, {format_duration_s(e.pulse_duration_s)} pulses at {e.pulse_rate_hz:.3g} Hz (duty cycle "
-            f"{e.duty_cycle:.3g}); the hazard table holds its time-averaged values"
+            f"a pulse train, {format_duration_s(e.pulse_duration_s)} pulses at {format_value(e.pulse_rate_hz)} Hz "
+            f"(duty cycle {format_value(e.duty_cycle)}); the hazard table holds its time-averaged values"
         )
     head = ["Hazard", "Dose per pulse", "Unit", "Pulse vs its limit", "In the train (N^−0.25)", "Pulses to limit"]
     body = []
@@ -57,18 +57,18 @@ def emission_block(a: Assessment, st: Styles) -> list[Flowable]:
         unit = UNIT_DISPLAY.get(h.unit, h.unit).replace("W", "J", 1)
         in_train = "—"
         if p.fraction_in_train is not None:
-            in_train = f"{format_fraction(p.fraction_in_train)}, N = {p.pulses_in_window:.3g}"
+            in_train = f"{format_fraction(p.fraction_in_train)}, N = {format_value(p.pulses_in_window)}"
         to_limit = "—" if p.pulses_to_limit is None else format_pulse_count(p.pulses_to_limit)
         body.append([symbol, format_value(p.dose_per_pulse), unit, format_fraction(p.fraction), in_train, to_limit])
     widths = fit_widths(head, body, st.fonts, FRAME_WIDTH, flexible=4, size=st.cell.fontSize, bold={0})
-    rows = [[st.p(x, st.head) for x in head]]
+    rows = [[st.formula(x, st.head) for x in head]]
     rows += [[st.p(x, st.cell_bold if c == 0 else st.cell) for c, x in enumerate(row)] for row in body]
     table = Table(rows, colWidths=widths, repeatRows=1)
     table.setStyle(table_style())
     return [
         st.p("Pulsed emission", st.h2),
         st.bold_lead("Emission:", how + ".", st.body),
-        st.bold_lead("Rule:", e.rule + ".", st.small),
+        st.formula(e.rule + ".", st.small, lead="Rule:"),
         Spacer(1, 3),
         table,
         Spacer(1, 2),
@@ -164,9 +164,11 @@ def exposure_chart(x: ExposureStudy, width: float, height: float, fonts: FontSet
     for family, ts in x.allowed_duration_s.items():
         if all(t is None for t in ts):
             continue
-        dash, line_width = family_line(x.allowed_duration_s, family)
+        dash, line_width, colour = family_line(x.allowed_duration_s, family)
         y = height - 8
-        d.add(Line(cursor, y + 2.5, cursor + 18, y + 2.5, strokeColor=INK, strokeWidth=line_width, **dash_style(dash)))
+        d.add(
+            Line(cursor, y + 2.5, cursor + 18, y + 2.5, strokeColor=colour, strokeWidth=line_width, **dash_style(dash))
+        )
         d.add(chart_text(cursor + 21, y, family, fonts, 6.5))
         cursor += 21 + stringWidth(fonts.clean(family), fonts.regular, 6.5) + 10
     return d

@@ -1,12 +1,14 @@
 """The report fonts: DejaVu Sans when installed, else reportlab's bundled Vera.
 
-Report text uses α, λ, Ω, γ, µ, ², ≤, ·, – and ×. DejaVu Sans (Debian's ``fonts-dejavu-core``) has all of
-them. Vera, which ships with reportlab, lacks α, λ and γ; with Vera those three are spelled out before drawing
+Report text uses α, λ, Ω, γ, µ, ≤, ·, –, × and superscript digits and minus (powers of ten, units). DejaVu Sans
+(Debian's ``fonts-dejavu-core``) has all of them. Vera, which ships with reportlab, lacks α, λ, γ and most superscripts;
+with Vera the three letters are spelled out and a superscript run is written after a caret before drawing
 (:meth:`FontSet.clean`), so a report never shows a missing-glyph box.
 """
 
 from __future__ import annotations
 
+import re
 from dataclasses import dataclass
 from functools import cache
 from pathlib import Path
@@ -19,6 +21,8 @@ __all__ = ["DEJAVU_DIR", "FontSet", "register_fonts", "report_fonts"]
 
 DEJAVU_DIR = Path("/usr/share/fonts/truetype/dejavu")
 _SPELLED_OUT = str.maketrans({"α": "alpha", "λ": "lambda", "γ": "gamma"})
+_SUPERSCRIPTS = re.compile("[⁰¹²³⁴⁵⁶⁷⁸⁹⁻]+")
+_PLAIN = str.maketrans("⁰¹²³⁴⁵⁶⁷⁸⁹⁻", "0123456789-")
 
 
 @dataclass(frozen=True)
@@ -32,7 +36,7 @@ class FontSet:
     bold : str
         Registered name of the bold face.
     greek : bool
-        The faces have α, λ and γ.
+        The faces have α, λ, γ and the superscript digits.
     """
 
     regular: str
@@ -40,14 +44,16 @@ class FontSet:
     greek: bool
 
     def clean(self, text: str) -> str:
-        """``text`` as these fonts can draw it: α, λ, γ spelled out when the fonts lack them.
+        """``text`` as these fonts can draw it: α, λ, γ spelled out and superscripts after a caret when they lack them.
 
         Examples
         --------
-        >>> FontSet("Vera", "VeraBd", greek=False).clean("α = 0.1 rad at λ > 380 nm")
-        'alpha = 0.1 rad at lambda > 380 nm'
+        >>> FontSet("Vera", "VeraBd", greek=False).clean("α = 0.1 rad at λ > 380 nm, 5×10⁻⁴ W/m²")
+        'alpha = 0.1 rad at lambda > 380 nm, 5×10^-4 W/m^2'
         """
-        return text if self.greek else text.translate(_SPELLED_OUT)
+        if self.greek:
+            return text
+        return _SUPERSCRIPTS.sub(lambda m: "^" + m.group().translate(_PLAIN), text.translate(_SPELLED_OUT))
 
 
 def _register(regular: tuple[str, str], bold: tuple[str, str], greek: bool) -> FontSet:

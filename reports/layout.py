@@ -12,15 +12,26 @@ from functools import partial
 
 from reportlab.lib.pagesizes import A4
 from reportlab.lib.units import mm
+from reportlab.pdfbase.pdfmetrics import stringWidth
 from reportlab.pdfgen.canvas import Canvas
-from reportlab.platypus import Flowable, SimpleDocTemplate
+from reportlab.platypus import Flowable, KeepInFrame, SimpleDocTemplate
 
 from hazard.reports.fonts import FontSet, report_fonts
 from hazard.reports.style import INK, MUTED, RULE, Styles
 from hazard.reports.timestamp import report_time
 from hazard.reports.wording import FOOTER
 
-__all__ = ["FRAME_HEIGHT", "FRAME_WIDTH", "MARGIN", "PAGE_HEIGHT", "PAGE_WIDTH", "build_pdf"]
+__all__ = [
+    "FRAME_HEIGHT",
+    "FRAME_WIDTH",
+    "LEAST_SCALE",
+    "MARGIN",
+    "PAGE_HEIGHT",
+    "PAGE_WIDTH",
+    "build_pdf",
+    "fit_page",
+    "start_report",
+]
 
 PAGE_WIDTH, PAGE_HEIGHT = A4
 MARGIN = 14 * mm
@@ -35,8 +46,19 @@ _HEADER_Y = PAGE_HEIGHT - 8 * mm
 class _FramedCanvas(Canvas):
     """A canvas that adds the running header (from page 2), the issuer's line and the footer to every page on save."""
 
-    def __init__(self, *args, fonts: FontSet, header: str, identity: str, **kwargs) -> None:
+    def __init__(
+        self,
+        *args,
+        fonts: FontSet,
+        header: str,
+        identity: str = "",
+        moment: datetime.datetime | None = None,
+        **kwargs,
+    ) -> None:
         super().__init__(*args, **kwargs)
+        if moment is not None:  # the metadata's date is the report's, not reportlab's fixed one
+            stamp = moment.astimezone(datetime.UTC).strftime("D:%Y%m%d%H%M%S+00'00'")
+            self.setDateFormatter(lambda *_: stamp)
         self._fonts = fonts
         self._header = fonts.clean(header)
         self._identity = fonts.clean(identity)
@@ -54,6 +76,16 @@ class _FramedCanvas(Canvas):
             super().showPage()
         super().save()
 
+    def _draw_identity(self, y: float) -> None:
+        """The issuer's line, right-aligned; smaller type (down to 5.5 pt), then cut with "…", so it fits the width."""
+        text, size = self._identity, 7.5
+        while size > 5.5 and stringWidth(text, self._fonts.regular, size) > FRAME_WIDTH:
+            size -= 0.5
+        while stringWidth(text, self._fonts.regular, size) > FRAME_WIDTH:
+            text = text[: len(text) - 2] + "…"
+        self.setFont(self._fonts.regular, size)
+        self.drawRightString(PAGE_WIDTH - MARGIN, y, text)
+
     def _decorate(self, total: int) -> None:
         number = self.getPageNumber()
         self.saveState()
@@ -70,12 +102,18 @@ class _FramedCanvas(Canvas):
             self.drawString(MARGIN, _HEADER_Y, self._header)
             self.line(MARGIN, _HEADER_Y - 4, PAGE_WIDTH - MARGIN, _HEADER_Y - 4)
         if self._identity:
-            self.drawRightString(PAGE_WIDTH - MARGIN, _HEADER_Y + (9 if number > 1 else 0), self._identity)
+            self._draw_identity(_HEADER_Y + (9 if number > 1 else 0))
         self.restoreState()
 
 
 def build_pdf(
-    flowables: list[Flowable], fonts: FontSet, title: str, header: str, author: str, identity: str = ""
+    flowables: list[Flowable],
+    fonts: FontSet,
+    title: str,
+    header: str,
+    author: str,
+    moment: datetime.datetime | None = None,
+    identity: str = "",
 ) -> bytes:
     """Lay ``flowables`` out on A4 pages and return the PDF.
 
@@ -91,13 +129,16 @@ def build_pdf(
         Running header printed from page 2 on.
     author : str
         Producer named in the metadata, e.g. ``"hazard 0.1.0"``.
+    moment : datetime.datetime, optional
+        Timezone-aware time recorded as the PDF's creation and modification date (the report's date); without it
+        reportlab's fixed date of its invariant mode.
     identity : str
         Who issues the report (organisation, document number, prepared and checked by), at the top of every page.
 
     Returns
     -------
     bytes
-        The PDF; identical for identical input (reportlab's invariant mode fixes dates and ids).
+        The PDF; identical for identical input (reportlab's invariant mode fixes the document id).
     """
     buffer = io.BytesIO()
     doc = SimpleDocTemplate(
@@ -113,7 +154,9 @@ def build_pdf(
         subject="Photobiological safety pre-screen",
         invariant=1,
     )
-    doc.build(flowables, canvasmaker=partial(_FramedCanvas, fonts=fonts, header=header, identity=identity))
+    doc.build(
+        flowables, canvasmaker=partial(_FramedCanvas, fonts=fonts, header=header, identity=identity, moment=moment)
+    )
     return buffer.getvalue()
 
 
@@ -124,3 +167,19 @@ def start_report(rendered_at: datetime.datetime | None) -> tuple[datetime.dateti
     """
     fonts = report_fonts()
     return rendered_at or report_time(), fonts, Styles(fonts)
+
+
+LEAST_SCALE = 0.88
+"""Pages after the first are shrunk to fit their page down to this scale; longer, they run onto the next page."""
+
+
+def fit_page(content: list[Flowable], least_scale: float = 0.0) -> list[Flowable]:
+    """``content`` on one page, shrunk when it runs long.
+
+    Unless that needs a scale below ``least_scale``: then as it is, to flow on.
+    """
+    if least_scale:  # measuring lays the content out once more: only when it may run on
+        height = sum(f.wrap(FRAME_WIDTH, FRAME_HEIGHT)[1] + f.getSpaceBefore() + f.getSpaceAfter() for f in content)
+        if height * least_scale > FRAME_HEIGHT:
+            return content
+    return [KeepInFrame(FRAME_WIDTH, FRAME_HEIGHT, content, mode="shrink")]

@@ -1,7 +1,9 @@
 """The PDF report of one product.
 
-Page 1 at a glance, page 2 input and method; then, when the result holds any of them, a page 3 on distance, uncertainty
-and remedies (:mod:`hazard.reports.studies`); the cautions in full end the report.
+Page 1 answers the reader's questions (:mod:`hazard.reports.page_one`); page 2 holds the hazards in detail (values,
+limits as applied, exposure-limit formulas, geometry, claims, pulses, warnings); then, when the result holds any of
+them, the section on distance, uncertainty and remedies (:mod:`hazard.reports.studies`); the input and its provenance
+and the cautions in full end the report.
 
 Everything printed comes from the :class:`~hazard.result.Assessment`; numbers are formatted by
 :mod:`hazard.output.formatting`, exactly as the text output prints them.
@@ -13,7 +15,7 @@ import datetime
 from collections.abc import Callable
 
 from reportlab.pdfbase.pdfmetrics import stringWidth
-from reportlab.platypus import CondPageBreak, Flowable, KeepInFrame, KeepTogether, PageBreak, Spacer, Table
+from reportlab.platypus import CondPageBreak, Flowable, KeepTogether, PageBreak, Spacer, Table
 
 from hazard.output.formatting import (
     UNIT_DISPLAY,
@@ -23,24 +25,16 @@ from hazard.output.formatting import (
     format_value,
     group_words,
     hazard_margin_text,
+    photometry_text,
+    source_size_text,
+    unit_text,
 )
-from hazard.reports.charts import margin_chart, spectrum_chart
 from hazard.reports.exposure_section import emission_block
-from hazard.reports.layout import FRAME_HEIGHT, FRAME_WIDTH, build_pdf, start_report
-from hazard.reports.ranking import tightest_margin
-from hazard.reports.studies import has_studies, studies_section, study_summary, uncertainty_summary
-from hazard.reports.style import HAIRLINE, INK, NEUTRAL, PANEL, Styles, fit_widths, group_fill, group_ink, table_style
+from hazard.reports.layout import FRAME_WIDTH, LEAST_SCALE, build_pdf, fit_page, start_report
+from hazard.reports.page_one import Pages, first_page
+from hazard.reports.studies import has_studies, studies_section
+from hazard.reports.style import HAIRLINE, INK, Styles, fit_widths, group_fill, group_ink, table_style
 from hazard.reports.timestamp import format_report_time
-from hazard.reports.wording import (
-    GROUP_MEANING,
-    GROUP_NAME,
-    LOWER_BOUND,
-    LOWER_BOUND_MEANING,
-    NOT_DETERMINED_MEANING,
-    NOT_DETERMINED_NAME,
-    PULSE_MEANING,
-    WHAT_IF_MEANING,
-)
 from hazard.result import Assessment, BlueLightTransfer, HazardResult, ReportIdentity, Scaling
 
 __all__ = ["render_assessment_pdf"]
@@ -50,22 +44,10 @@ _ANCHOR = {
     "luminous_intensity_cd": ("luminous intensity", "cd"),
     "luminance_cd_m2": ("luminance", "cd/m²"),
 }
-_SPECTRAL_UNIT = {"irradiance": "W/(m²·nm)", "radiance": "W/(m²·sr·nm)"}
 
 
 def _unit(unit: str) -> str:
     return UNIT_DISPLAY.get(unit, unit)
-
-
-def _spectral_quantity(a: Assessment) -> str:
-    """Irradiance or radiance: what the spectrum's SI values are.
-
-    A relative spectrum once anchored, as the record's ``effective_quantity`` defines it: a luminance anchor makes it a
-    radiance.
-    """
-    if a.spectrum.quantity != "relative":
-        return a.spectrum.quantity
-    return "radiance" if a.scaling is not None and a.scaling.anchor == "luminance_cd_m2" else "irradiance"
 
 
 def _triple(values: dict[str, float], fmt: Callable[[float], str], scale: float = 1.0) -> str:
@@ -75,11 +57,14 @@ def _triple(values: dict[str, float], fmt: Callable[[float], str], scale: float 
     return " / ".join(fmt(value * scale) for value in values.values())
 
 
-def _record_value(value: object) -> str:
+def _record_value(key: str, value: object) -> str:
+    """A record field as printed: units with superscripts, numbers to six significant digits."""
     if isinstance(value, bool):
         return "true" if value else "false"
     if isinstance(value, float):
-        return f"{value:g}"
+        return format_value(value, 6)
+    if key == "unit" and isinstance(value, str):
+        return unit_text(value)
     return str(value)
 
 
@@ -111,37 +96,6 @@ def _heading(a: Assessment, st: Styles, moment: datetime.datetime) -> Flowable:
     return table
 
 
-def _deciding(a: Assessment) -> tuple[str, str]:
-    """Lead-in and text naming what sets the overall group."""
-    if not a.deciding_hazards:
-        return "Not assessed:", ", ".join(a.not_assessed) or "—"
-    if a.risk_group == "Exempt":
-        closest = tightest_margin(a)
-        if closest is None:  # a result with deciding hazards has a tightest one
-            raise ValueError("an Exempt result with deciding hazards but no margin")
-        h = a.hazards[closest.symbol]
-        return (
-            "Closest to a boundary:",
-            f"{closest.symbol} ({h.title}, {hazard_margin_text(h)}); every assessed hazard is within its Exempt limit",
-        )
-    parts = []
-    for symbol in a.deciding_hazards:
-        h = a.hazards[symbol]
-        parts.append(f"{symbol} ({h.title}, {hazard_margin_text(h)})")
-    return "Decided by:", "; ".join(parts)
-
-
-def _meaning(a: Assessment, group: str) -> str:
-    """What the group means; for a pulsed lamp, what the pulse rules made of it."""
-    if a.emission is None:
-        return GROUP_MEANING[group]
-    if a.pulse_exceeds:
-        return PULSE_MEANING["over"]
-    if a.emission.mode == "single_pulse":
-        return PULSE_MEANING["single_within"]
-    return f"{GROUP_MEANING[group]} {PULSE_MEANING['train_within']}"
-
-
 class _PageMark(Flowable):
     """An invisible flowable that notes the page it lands on in ``marks[key]``."""
 
@@ -156,87 +110,14 @@ class _PageMark(Flowable):
         self.marks[self.key] = self.canv.getPageNumber()
 
 
-def _verdict(a: Assessment, st: Styles, studies_page: int) -> Flowable:
-    group = a.risk_group
-    shown = group or NOT_DETERMINED_NAME
-    fill = group_fill(group) if group else NEUTRAL
-    size = min(st.verdict.fontSize, 80 / stringWidth(group or "n/d", st.fonts.bold, 1))
-    label_style = st.verdict.clone("verdict_group", textColor=group_ink(group), fontSize=size, leading=size * 1.15)
-    small_label = st.head.clone("tile_note", alignment=1, textColor=group_ink(group))
-    label = (
-        [st.p(group or "n/d", label_style)]
-        if group
-        else [st.p("not determined", small_label.clone("nd", fontSize=11, leading=13))]
-    )
-    if group is None:
-        text = [st.p(f"Overall risk group: {shown}", st.verdict_head), st.p(NOT_DETERMINED_MEANING)]
-    else:
-        lead = f"What-if group at {a.assessment_distance_mm:.0f} mm" if a.basis == "what-if" else "Overall risk group"
-        text = [
-            st.p(f"{lead}: {group} — {GROUP_NAME[group]}", st.verdict_head),
-            st.p(_meaning(a, group) + ("" if a.complete else " " + LOWER_BOUND_MEANING)),
-        ]
-    text.append(st.bold_lead(*_deciding(a), st.small))
-    if group is not None and not a.complete:
-        label.append(st.p("lower bound", small_label))
-        text.insert(0, st.p(f"{LOWER_BOUND}: {', '.join(a.not_assessed)} not assessed", st.banner))
-    if a.basis == "what-if":
-        label.insert(0, st.p(f"what-if at {a.assessment_distance_mm:.0f} mm", small_label))
-        standard = a.standard_risk_group or "not determined"
-        text.insert(
-            0,
-            st.p(
-                f"WHAT-IF at {a.assessment_distance_mm:.0f} mm — the standard's distance "
-                f"({a.standard_assessment_distance_mm:.0f} mm) gives {standard}"
-                f"{'' if a.complete or a.standard_risk_group is None else ' (lower bound)'}",
-                st.banner,
-            ),
-        )
-        text.insert(1, st.p(WHAT_IF_MEANING, st.small))
-    if a.uncertainty is not None:
-        if a.uncertainty.verdict == "borderline":
-            label.append(st.p("BORDERLINE", small_label))
-        text.append(st.bold_lead(*uncertainty_summary(a, studies_page), st.small))
-    table = Table([[label, text]], colWidths=[96, FRAME_WIDTH - 96])
-    table.setStyle(
-        [
-            ("BACKGROUND", (0, 0), (0, 0), fill),
-            ("BOX", (0, 0), (0, 0), 1.2, INK),
-            ("VALIGN", (0, 0), (0, 0), "MIDDLE"),
-            ("VALIGN", (1, 0), (1, 0), "TOP"),
-            ("LEFTPADDING", (1, 0), (1, 0), 10),
-            ("TOPPADDING", (0, 0), (-1, -1), 4),
-            ("BOTTOMPADDING", (0, 0), (-1, -1), 4),
-        ]
-    )
-    return table
-
-
-def _cautions(a: Assessment, st: Styles) -> Flowable:
-    rows = [[st.p("Cautions", st.cell_bold)]] + [[st.p(f"• {c}", st.small)] for c in a.cautions]
-    table = Table(rows, colWidths=[FRAME_WIDTH])
-    table.setStyle(
-        [
-            ("BACKGROUND", (0, 0), (-1, -1), PANEL),
-            ("LINEBEFORE", (0, 0), (0, -1), 2.5, INK),
-            ("LEFTPADDING", (0, 0), (-1, -1), 8),
-            ("TOPPADDING", (0, 0), (-1, -1), 1.5),
-            ("BOTTOMPADDING", (0, 0), (-1, -1), 1.5),
-            ("TOPPADDING", (0, 0), (-1, 0), 4),
-            ("BOTTOMPADDING", (0, -1), (-1, -1), 5),
-        ]
-    )
-    return table
-
-
 _TYPICAL_ROW = [
     "X_XXX",
     "xxxxxxx, xxx (xxxx)",
-    "7.50e-04",
+    "7.5×10⁻⁴",
     "W/(m²·sr)",
-    "5.05e+05",
-    "5.05e+05",
-    "1.31e+06",
+    "5.05×10⁵",
+    "5.05×10⁵",
+    "1.31×10⁶",
     "4.4 min",
     "Exempt",
     "58.4 % of Exempt limit",
@@ -295,8 +176,9 @@ def _hazard_caption(st: Styles) -> Flowable:
     return st.p(
         "Radiance hazards: the value is the source's own radiance; the field-of-view average compared with "
         "each limit is in brackets under it. Limits over α after the α bounds. t_max: time to the exposure "
-        "limit (—: not within its range). Margin: value ÷ limit at the boundary below the hazard's group and "
-        "the one above it. EL only: no groups.",
+        "limit. Margin: value ÷ limit at the boundary below the hazard's group and the one above it. "
+        "EL only: an exposure limit without groups. — in the t_max column: the exposure limit is not reached "
+        "within its time range; elsewhere: no such value.",
         st.caption,
     )
 
@@ -319,26 +201,31 @@ def _key_values(rows: list[tuple[str, str]], st: Styles, key_width: float = 104)
     return table
 
 
-def _geometry(a: Assessment, st: Styles, studies_page: int) -> Flowable:
-    g, ph = a.geometry, a.photometry
+def _geometry(a: Assessment, st: Styles) -> Flowable:
+    g = a.geometry
+    size = source_size_text(a.record) or f"largest dimension {format_value(g.largest_dimension_mm)} mm"
     source = (
-        f"largest dimension {g.largest_dimension_mm:g} mm; α = {format_value(g.alpha_rad)} rad at the "
-        f"assessment distance; Ω_s = {format_value(g.source_solid_angle_sr)} sr"
+        f"{size}; α = {format_value(g.alpha_rad)} rad at the assessment distance; "
+        f"Ω_s = {format_value(g.source_solid_angle_sr)} sr"
     )
     if g.small_source:
         source += (
-            f"; small source (α < {a.limit_set.small_source_alpha_rad:g} rad): the small-source forms of "
+            f"; small source (α < {format_value(a.limit_set.small_source_alpha_rad)} rad): the small-source forms of "
             f"the hazards apply"
         )
     if g.weak_visual_stimulus:
         source += (
-            f"; weak visual stimulus (below {a.limit_set.weak_stimulus_luminance_cd_m2:g} cd/m²): the "
+            f"; weak visual stimulus (below {format_value(a.limit_set.weak_stimulus_luminance_cd_m2)} cd/m²): the "
             f"weak-stimulus forms of the hazards apply"
         )
     peak_to_mean = a.record.get("peak_to_mean_radiance", 1.0)
     if peak_to_mean > 1:
-        source += f"; radiance values × {peak_to_mean:g}, the record's peak-to-mean radiance (hot spots)"
-    measured = "" if g.measurement_distance_mm is None else f" (spectrum measured at {g.measurement_distance_mm:g} mm)"
+        source += f"; radiance values × {format_value(peak_to_mean)}, the record's peak-to-mean radiance (hot spots)"
+    measured = (
+        ""
+        if g.measurement_distance_mm is None
+        else f" (spectrum measured at {format_value(g.measurement_distance_mm, 6)} mm)"
+    )
     if a.complete:
         completeness = "complete: every applicable hazard was assessed"
     else:
@@ -348,19 +235,11 @@ def _geometry(a: Assessment, st: Styles, studies_page: int) -> Flowable:
     cells = [
         ("Distance", f"{g.assessment_distance_mm:.0f} mm{measured} — {g.distance_rule}"),
         ("Source", source),
-        (
-            "Photometry",
-            f"{format_value(ph.illuminance_lx)} lx at the assessment distance; luminance "
-            f"{format_value(ph.luminance_cd_m2)} cd/m²",
-        ),
+        ("Photometry", photometry_text(a.photometry)),
         ("Completeness", completeness),
     ]
     if a.scaling is not None:
         cells.append(("Scaling", _scaling(a.scaling)))
-    if a.claims:
-        cells.append(("Vendor claims", _claims_summary(a)))
-    if (studies := study_summary(a, studies_page)) is not None:
-        cells.append(("Studies", studies))
     cells += [("Warning", warning) for warning in a.warnings]
     return _key_values(cells, st, key_width=64)
 
@@ -368,62 +247,15 @@ def _geometry(a: Assessment, st: Styles, studies_page: int) -> Flowable:
 def _scaling(sc: Scaling) -> str:
     """How a relative spectrum was made absolute, in one line."""
     name, unit = _ANCHOR[sc.anchor]
-    at = "" if sc.reference_distance_mm is None else f" at {sc.reference_distance_mm:g} mm"
+    at = "" if sc.reference_distance_mm is None else f" at {format_value(sc.reference_distance_mm, 6)} mm"
     return (
         f"relative spectrum made absolute by the stated {name}, {format_value(sc.anchor_value)} {unit}{at} "
         f"(× {format_value(sc.scale_factor)} SI per unit); every value rests on that figure"
     )
 
 
-def _claims_summary(a: Assessment) -> str:
-    """The vendor claims' verdicts in one line, naming the contradicted ones."""
-    parts = []
-    for verdict in ("contradicted", "inconclusive", "not checkable", "consistent"):
-        found = [c for c in a.claims if c.verdict == verdict]
-        if not found:
-            continue
-        text = f"{len(found)} {verdict.upper() if verdict != 'consistent' else verdict}"
-        if verdict == "contradicted":
-            text += " (" + "; ".join(f"{c.claim}: claimed {c.claimed}, computed {c.computed}" for c in found) + ")"
-        parts.append(text)
-    return ", ".join(parts) + " — details on page 2"
-
-
-def _charts(a: Assessment, st: Styles) -> list[Flowable]:
-    fonts = st.fonts
-    s = a.spectrum
-    quantity = _spectral_quantity(a)
-    kind = f"spectral {quantity}" + (", scaled from a relative spectrum" if s.quantity == "relative" else "")
-    peak = (
-        f"{kind[0].upper()}{kind[1:]}, {s.points} samples, {s.min_nm:g}–{s.max_nm:g} nm; its peak, "
-        f"{format_value(s.peak_value_si)} {_SPECTRAL_UNIT[quantity]} at {s.peak_nm:g} nm, is 1 on this axis. "
-        f"Weights as tabulated."
-    )
-    missing = [symbol for symbol in a.not_assessed if a.hazards[symbol].limits]
-    drawn = len(missing) < sum(1 for h in a.hazards.values() if h.limits)
-    chart_note = " ".join(
-        (
-            [
-                "Diamond: the value (arrow: beyond the axis). Coinciding limits (e.g. Exempt and RG1 "
-                "of L_R) leave no zone between them. E_H has no risk groups."
-            ]
-            if drawn
-            else []
-        )
-        + ([f"Not assessed, so not drawn: {', '.join(missing)}."] if missing else [])
-    )
-    return [
-        st.p("Spectrum and action spectra", st.h2),
-        spectrum_chart(a, FRAME_WIDTH, 106, fonts),
-        st.p(peak, st.caption),
-        st.p("Distance to the group boundaries", st.h2),
-        margin_chart(a, FRAME_WIDTH, fonts),
-        st.p(chart_note, st.caption),
-    ]
-
-
 def _record_table(a: Assessment, st: Styles) -> Flowable:
-    items = [(k, _record_value(v)) for k, v in a.record.items()]
+    items = [(k, _record_value(k, v)) for k, v in a.record.items()]
     if len(items) % 2:
         items.append(("", ""))
     half = len(items) // 2
@@ -431,7 +263,9 @@ def _record_table(a: Assessment, st: Styles) -> Flowable:
         [st.p(k1, st.cell_bold), st.p(v1, st.cell), st.p(k2, st.cell_bold), st.p(v2, st.cell)]
         for (k1, v1), (k2, v2) in zip(items[:half], items[half:], strict=True)
     ]
-    table = Table(rows, colWidths=[w * FRAME_WIDTH for w in (0.2, 0.3, 0.2, 0.3)])
+    key_width = max([st.bold_width(k) for k, _ in items] + [60.0])  # field names are never split
+    value_width = FRAME_WIDTH / 2 - key_width
+    table = Table(rows, colWidths=[key_width, value_width, key_width, value_width])
     table.setStyle(table_style(header_rows=0))
     return table
 
@@ -452,7 +286,7 @@ def _detail_table(a: Assessment, st: Styles) -> Flowable:
         "Symbol",
         "Band, weight",
         "Exposure limit",
-        "Time bases [s]",
+        "Time bases",
         "FOV γ [mrad]",
         "α in limit [mrad]",
         "Compared with limit",
@@ -466,14 +300,17 @@ def _detail_table(a: Assessment, st: Styles) -> Flowable:
                 h.symbol,
                 f"{lo:g}–{hi:g} nm, {h.weighting or 'unweighted'}",
                 h.exposure_limit or "—",
-                _triple(h.time_bases_s, format_limit),
+                _triple(h.time_bases_s, format_duration_s),
                 _triple(h.fov_rad, format_limit, 1e3),
                 _triple(h.alpha_rad, format_limit, 1e3),
                 compared,
             ]
         )
     rows = [[st.p(x, st.head) for x in head]]
-    rows += [[st.p(x, st.cell_bold if c == 0 else st.cell) for c, x in enumerate(row)] for row in cells]
+    rows += [
+        [st.formula(x, st.cell) if c == 2 else st.p(x, st.cell_bold if c == 0 else st.cell) for c, x in enumerate(row)]
+        for row in cells
+    ]
     one_line = [[*row[:1], "", "", *row[3:6], ""] for row in cells]  # band, limit and compared values wrap
     widths = fit_widths(head, one_line, st.fonts, FRAME_WIDTH, flexible=2, size=st.cell.fontSize, bold={0})
     widths[1], widths[6] = 62, 80
@@ -565,10 +402,12 @@ def _transfer(t: BlueLightTransfer) -> str:
 
 def _inputs(a: Assessment, st: Styles) -> list[Flowable]:
     s, ph = a.spectrum, a.photometry
-    spectrum = f"{s.quantity} in {s.unit_given}, {s.points} samples, {s.min_nm:g}–{s.max_nm:g} nm"
+    spectrum = f"{s.quantity} in {unit_text(s.unit_given)}, {s.points} samples, {s.min_nm:g}–{s.max_nm:g} nm"
     colour = [] if ph.cct_k is None else [f"CCT {format_value(ph.cct_k)} K, Duv {format_value(ph.duv)}"]
     if ph.chromaticity_xy is not None:
         colour.append(f"CIE 1931 x, y = {ph.chromaticity_xy[0]:.4f}, {ph.chromaticity_xy[1]:.4f}")
+    if ph.visible_negligible:
+        colour.append("none: the visible emission is negligible")
     files = [
         (path, spectrum if path == s.path else "product record" if path.endswith(".toml") else "input", digest)
         for path, digest in a.provenance.inputs.items()
@@ -617,15 +456,16 @@ def _method(a: Assessment, st: Styles) -> list[Flowable]:
 def render_assessment_pdf(assessment: Assessment, rendered_at: datetime.datetime | None = None) -> bytes:
     """One product's pre-screen report as a PDF.
 
-    A4: two pages, three when the result holds a distance, uncertainty or remedies study.
+    A4: page 1 the answers, page 2 the hazards in detail, then the studies when the result holds any, and the input
+    with its provenance and the cautions last.
 
     Parameters
     ----------
     assessment : Assessment
         The result to render, e.g. from :func:`hazard.assess` or loaded from its JSON.
     rendered_at : datetime.datetime, optional
-        Timezone-aware time printed as the report date; defaults to :func:`reports.report_time`
-        (``SOURCE_DATE_EPOCH`` when set, else now).
+        Timezone-aware time printed as the report date and recorded as the PDF's creation date; defaults to
+        :func:`reports.report_time` (``SOURCE_DATE_EPOCH`` when set, else now).
 
     Returns
     -------
@@ -643,89 +483,58 @@ def render_assessment_pdf(assessment: Assessment, rendered_at: datetime.datetime
     title = f"{a.id} — photobiological safety pre-screen ({words})"
     borderline = a.uncertainty is not None and a.uncertainty.verdict == "borderline"
     header = f"{a.id}{' — ' + a.name if a.name else ''} · overall {words}" + (" (borderline)" if borderline else "")
-    studies_page = 3  # page 1 names the page the studies start on: a second pass when page 2 ran over
+    pages = Pages()  # page 1 names the page the studies start on: a second pass when page 2 ran over
     for _ in range(2):
         marks: dict[str, int] = {}
         pdf = build_pdf(
-            _story(a, st, moment, studies_page, marks),
+            _story(a, st, moment, pages, marks),
             fonts,
             title=title,
             header=header,
             author=f"hazard {a.provenance.tool_version}",
             identity="" if a.provenance.identity is None else a.provenance.identity.header_text(),
+            moment=moment,
         )
-        if marks.get("studies", studies_page) == studies_page:
+        if marks.get("studies", pages.studies) == pages.studies:
             break
-        studies_page = marks["studies"]
+        pages = Pages(studies=marks["studies"])
     return pdf
 
 
-_LEAST_SCALE = 0.88
-"""Pages 2 and 3 are shrunk to fit their page down to this scale; longer, they run onto the next page."""
-
-
-def _fit_page(content: list[Flowable], least_scale: float = 0.0) -> list[Flowable]:
-    """``content`` on one page, shrunk when it runs long.
-
-    Unless that needs a scale below ``least_scale``: then as it is, to flow on.
-    """
-    if least_scale:  # measuring lays the content out once more: only when it may run on
-        height = sum(f.wrap(FRAME_WIDTH, FRAME_HEIGHT)[1] + f.getSpaceBefore() + f.getSpaceAfter() for f in content)
-        if height * least_scale > FRAME_HEIGHT:
-            return content
-    return [KeepInFrame(FRAME_WIDTH, FRAME_HEIGHT, content, mode="shrink")]
-
-
-def _story(
-    a: Assessment, st: Styles, moment: datetime.datetime, studies_page: int, marks: dict[str, int]
-) -> list[Flowable]:
+def _story(a: Assessment, st: Styles, moment: datetime.datetime, pages: Pages, marks: dict[str, int]) -> list[Flowable]:
     """The report's flowables.
 
-    Page 1 is shrunk to fit its page when its content runs long; pages 2 and 3 (the studies, then the cautions) only
+    Page 1 is shrunk to fit its page when its content runs long; the later pages (details, studies, input) only
     slightly, beyond that they run on.
     """
-    first_page = [
-        _heading(a, st, moment),
-        Spacer(1, 5),
-        _verdict(a, st, studies_page),
-        Spacer(1, 4),
-        _cautions(a, st),
-        st.p("Hazards at the assessment distance", st.h2),
+    details = [
+        st.p("Hazards at the assessment distance", st.h2.clone("h2_first", spaceBefore=0)),
         _hazard_table(a, st),
         Spacer(1, 2),
         _hazard_caption(st),
         Spacer(1, 4),
-        _geometry(a, st, studies_page),
-        *_charts(a, st),
-    ]
-    blocks = studies_section(a, st) if has_studies(a) else []
-    second_page = [
-        *_inputs(a, st),
+        _geometry(a, st),
         *_claims_table(a, st),
-        st.p("Hazard details (each triple: Exempt / RG1 / RG2)", st.h2),
+        st.p("Exposure limits and how each hazard was compared (each triple: Exempt / RG1 / RG2)", st.h2),
         _detail_table(a, st),
         *emission_block(a, st),
         st.p("Warnings and assumptions", st.h2),
         *_notes(a, st),
-        *_method(a, st),
     ]
-    cautions = [st.p("Cautions", st.h2), *_bullets(a.cautions, st)]
-    if not blocks:
-        return [
-            *_fit_page(first_page),
-            PageBreak(),
-            *_fit_page([*second_page, CondPageBreak(60), *cautions], _LEAST_SCALE),
-        ]
-    third_page = [f for block in blocks for f in block] + cautions
-    fitted = _fit_page(third_page, _LEAST_SCALE)
-    if len(fitted) != 1:  # too long for one page: let it run on, each block kept together
-        fitted = [KeepTogether(block) if len(block) > 1 else block[0] for block in blocks]
-        fitted += [CondPageBreak(60), *cautions]
-    return [
-        *_fit_page(first_page),
+    closing = [*_inputs(a, st), *_method(a, st), st.p("Cautions", st.h2), *_bullets(a.cautions, st)]
+    story = [
+        *fit_page(first_page(a, st, _heading(a, st, moment), pages)),
         PageBreak(),
-        *_fit_page(second_page, _LEAST_SCALE),
+        *fit_page(details, LEAST_SCALE),
         PageBreak(),
-        _PageMark(marks, "studies"),
-        *fitted,
     ]
+    if has_studies(a):
+        blocks = studies_section(a, st)
+        fitted = fit_page([f for block in blocks for f in block], LEAST_SCALE)
+        if len(fitted) != 1:  # too long for one page: let it run on, each block kept together
+            fitted = [KeepTogether(block) if len(block) > 1 else block[0] for block in blocks]
+        story += [_PageMark(marks, "studies"), *fitted, PageBreak()]
+    closing_fitted = fit_page(closing, LEAST_SCALE)
+    if len(closing_fitted) != 1:
+        closing_fitted = [*closing[: -1 - len(a.cautions)], CondPageBreak(60), *closing[-1 - len(a.cautions) :]]
+    return story + closing_fitted

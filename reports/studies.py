@@ -25,6 +25,7 @@ __all__ = [
     "dimming_text",
     "has_studies",
     "minimum_text",
+    "remedy_lines",
     "studies_section",
     "study_summary",
     "uncertainty_summary",
@@ -125,30 +126,52 @@ def _group_range(low: str | None, high: str | None) -> str:
 
 
 def study_summary(a: Assessment, page: int) -> str | None:
-    """One line for page 1: the product's minimum distance per group and the dimming that makes it Exempt.
+    """One line for page 1: the product's minimum distance per group.
 
-    ``page`` is where the section starts. None when the result has neither.
+    ``page`` is where the section starts. None when the result has no distance study.
     """
-    parts = []
     s = a.distances
-    if s is not None:
-        distances = []
-        for group in a.limit_set.boundaries:  # up to the first group that holds at every distance studied
-            distance = s.minimum_distance_mm.get(group)
-            name = group if group == "Exempt" else f"{group} or lower"
-            if minimum_text(s, group) == "not assessed":
-                distances.append("no hazard family assessed at any distance")
-                break
-            if distance == 0:
-                if not distances:
-                    distances.append(f"{name} at every distance {beyond(distance, s)}")
-                break
-            distances.append(f"{name} {'beyond ' if distance else ''}{beyond(distance, s, metres=False)}")
-        parts.append(", ".join(distances) + ("" if a.complete else " (assessed hazards only)"))
-    exempt = [r for r in _product_remedies(a.remedies) if r.group == "Exempt"] if a.remedies is not None else []
-    if exempt and exempt[0].dimming_factor is not None:
-        parts.append(f"Exempt at {dimming_percent(exempt[0].dimming_factor)} of today's output")
-    return "; ".join(parts) + f" — page {page}" if parts else None
+    if s is None:
+        return None
+    distances = []
+    for group in a.limit_set.boundaries:  # up to the first group that holds at every distance studied
+        distance = s.minimum_distance_mm.get(group)
+        name = group if group == "Exempt" else f"{group} or lower"
+        if minimum_text(s, group) == "not assessed":
+            distances.append("no hazard family assessed at any distance")
+            break
+        if distance == 0:
+            if not distances:
+                distances.append(f"{name} at every distance {beyond(distance, s)}")
+            break
+        distances.append(f"{name} {'beyond ' if distance else ''}{beyond(distance, s, metres=False)}")
+    return ", ".join(distances) + ("" if a.complete else " (assessed hazards only)") + f" — page {page}"
+
+
+def remedy_lines(a: Assessment) -> list[str]:
+    """For page 1: per lower group, the dimming (and a diffuser's enlargement) that brings the whole product there.
+
+    Empty without a remedies study.
+    """
+    if a.remedies is None:
+        return []
+    lines = []
+    for r in _product_remedies(a.remedies):
+        how = (
+            f"{r.group} at {dimming_percent(r.dimming_factor)} of today's output"
+            if r.dimming_factor is not None
+            else f"{r.group}: not reachable by dimming"
+        )
+        if r.area_factor is not None:
+            how += f", or with a diffuser: {area_text(r.area_factor)}"
+        lines.append(how)
+    if not lines:
+        lines.append(
+            "already in the lowest group" + ("" if a.complete else " for the assessed hazards")
+            if a.risk_group == a.limit_set.groups[0]
+            else "no remedy in this result"
+        )
+    return lines
 
 
 def uncertainty_summary(a: Assessment, page: int) -> tuple[str, str]:

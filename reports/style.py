@@ -8,6 +8,7 @@ Text and lines are slate ink on white.
 
 from __future__ import annotations
 
+import re
 from xml.sax.saxutils import escape
 
 from reportlab.lib import colors
@@ -19,6 +20,7 @@ from reportlab.platypus import Paragraph, TableStyle
 from hazard.reports.fonts import FontSet
 
 __all__ = [
+    "FAMILY_STYLE",
     "GROUP_FILL",
     "GROUP_INK",
     "HAIRLINE",
@@ -29,6 +31,7 @@ __all__ = [
     "RULE",
     "SPECTRUM_EDGE",
     "SPECTRUM_FILL",
+    "ZONE_TINT",
     "Styles",
     "fit_widths",
     "group_fill",
@@ -36,10 +39,12 @@ __all__ = [
     "table_style",
 ]
 
+_EXPONENT = re.compile(r"\^([−-]?[0-9.]+)")
+
 INK = colors.HexColor("#1F2A36")
 """Text, axes and the action-spectrum lines."""
-MUTED = colors.HexColor("#56626E")
-"""Secondary text: captions, units, labels."""
+MUTED = colors.HexColor("#4A5561")
+"""Secondary text: captions, units, labels (dark enough to read in print)."""
 RULE = colors.HexColor("#A7B1BA")
 """Table rules and chart grid."""
 HAIRLINE = colors.HexColor("#D5DBE0")
@@ -62,6 +67,26 @@ GROUP_FILL = {
 """Fill of a risk-group label, lightest for Exempt, darkest for RG3."""
 GROUP_INK = {"Exempt": INK, "RG1": INK, "RG2": INK, "RG3": colors.white}
 """Text colour on each group fill (white only on the dark RG3 fill)."""
+ZONE_TINT = {
+    "Exempt": colors.HexColor("#EEF3EA"),
+    "RG1": colors.HexColor("#F6E8C0"),
+    "RG2": colors.HexColor("#F0CDB3"),
+    "RG3": colors.HexColor("#E2C3CA"),
+}
+"""Pale fills of the group zones in the headroom scale and the distance strip's background: the same order of
+lightness as :data:`GROUP_FILL`, pale enough that ink marks read on every one."""
+FAMILY_STYLE = (
+    ((), 1.3, colors.HexColor("#4B3F72")),
+    ((4.5, 2.0), 1.2, colors.HexColor("#2B6A8C")),
+    ((), 3.4, colors.HexColor("#A9C3DD")),
+    ((6.0, 1.8, 1.2, 1.8), 1.1, colors.HexColor("#7A3B2E")),
+    ((), 3.6, colors.HexColor("#EBBF95")),
+    ((0.9, 1.9), 1.5, INK),
+    ((10.0, 2.5), 1.6, colors.HexColor("#3F6B3A")),
+    ((2.0, 1.2, 2.0, 1.2, 0.6, 3.0), 0.8, MUTED),
+)
+"""Dash pattern (empty: solid), width and colour of each hazard family's curve, in the limit set's order. Wide pale
+bands alternate with thin dark lines, so a curve drawn over another (E_H along E_IR) still shows both."""
 
 
 def group_fill(group: str | None) -> colors.Color:
@@ -94,7 +119,7 @@ class Styles:
         self.cell_bold = ParagraphStyle("cell_bold", self.cell, fontName=fonts.bold)
         self.head = ParagraphStyle("head", self.cell, fontName=fonts.bold, fontSize=7, textColor=INK)
         self.digest = ParagraphStyle("digest", base, fontSize=6.4, leading=8.8)
-        self.caption = ParagraphStyle("caption", base, fontSize=7, leading=8.8, textColor=MUTED)
+        self.caption = ParagraphStyle("caption", base, fontSize=8, leading=10, textColor=MUTED)
         self.kicker = ParagraphStyle("kicker", base, fontName=fonts.bold, fontSize=7.5, leading=9.5, textColor=MUTED)
         self.title = ParagraphStyle("title", base, fontName=fonts.bold, fontSize=19, leading=22)
         self.subtitle = ParagraphStyle("subtitle", base, fontSize=11, leading=14)
@@ -138,6 +163,14 @@ class Styles:
             Already-formed Paragraph markup put before ``text`` (e.g. a bold lead-in).
         """
         return Paragraph(markup + self.text(text), style or self.body)
+
+    def formula(self, text: str, style: ParagraphStyle | None = None, lead: str = "") -> Paragraph:
+        """A Paragraph of a formula or rule whose ``^`` marks an exponent (``t^0.25``): the exponent raised.
+
+        ``lead``, when given, goes first in bold.
+        """
+        markup = f"<b>{self.text(lead)}</b> " if lead else ""
+        return Paragraph(markup + _EXPONENT.sub(r"<super>\1</super>", self.text(text)), style or self.body)
 
     def bold_width(self, text: str) -> float:
         """Width of a table cell holding ``text`` in bold cell type on one line, padding included [pt]."""

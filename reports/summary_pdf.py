@@ -11,11 +11,11 @@ from __future__ import annotations
 
 import datetime
 
-from reportlab.platypus import Flowable, Spacer, Table
+from reportlab.platypus import Flowable, KeepTogether, Spacer, Table
 
 from hazard.assessment.lab_plan import PlanItem
 from hazard.output.formatting import group_words, hazard_margin_text
-from hazard.reports.layout import FRAME_WIDTH, build_pdf, start_report
+from hazard.reports.layout import FRAME_WIDTH, LEAST_SCALE, build_pdf, fit_page, start_report
 from hazard.reports.plan_section import plan_section
 from hazard.reports.ranking import BORDERLINE_FACTOR, is_borderline, rank_assessments, tightest_margin
 from hazard.reports.studies import minimum_text
@@ -86,8 +86,9 @@ def _counts(assessments: list[Assessment], st: Styles) -> Flowable:
 
 
 def _flags(a: Assessment, st: Styles) -> Flowable:
-    """BORDERLINE and contradicted vendor claims, in words; an em dash when there is neither."""
+    """BORDERLINE, contradicted and inconclusive vendor claims, in words; an em dash when there is none."""
     contradicted = sum(c.verdict == "contradicted" for c in a.claims)
+    inconclusive = sum(c.verdict == "inconclusive" for c in a.claims)
     by_study = (
         ""
         if a.uncertainty is None
@@ -104,6 +105,11 @@ def _flags(a: Assessment, st: Styles) -> Flowable:
         + (
             [f"<b>{contradicted}</b> vendor claim{'s' if contradicted > 1 else ''} <b>CONTRADICTED</b>"]
             if contradicted
+            else []
+        )
+        + (
+            [f"<b>{inconclusive}</b> vendor claim{'s' if inconclusive > 1 else ''} <b>INCONCLUSIVE</b>"]
+            if inconclusive
             else []
         )
     )
@@ -250,7 +256,8 @@ def render_summary_pdf(
             f"a modest measurement error could change its group. An INCOMPLETE product's group is a lower bound; "
             f"'not determined': no hazard with risk groups could be assessed, nothing is known. WHAT-IF: assessed "
             f"at a distance the record asks for, not a classification; the standard's group is named beside it. "
-            f"CONTRADICTED: a vendor claim in the record that the result does not bear out (see its report)."
+            f"CONTRADICTED: a vendor claim in the record that the result does not bear out at any variant of its "
+            f"stated uncertainty; INCONCLUSIVE: it holds at some variants and fails at others (see its report)."
             + (
                 " Min. distance to Exempt: beyond it the product is Exempt (its report's distance study; —: none "
                 "in the result)."
@@ -262,14 +269,15 @@ def render_summary_pdf(
         st.p("Products that could not be assessed", st.h2),
         _failed_table(errors, st),
         *(plan_section(plan, st) if plan is not None else []),
-        st.p("Cautions", st.h2),
-        *_cautions(assessments, st),
     ]
+    cautions = [st.p("Cautions", st.h2), *_cautions(assessments, st)]
+    fitted = fit_page([*story, *cautions], LEAST_SCALE)  # slightly long: shrunk onto one page
     return build_pdf(
-        story,
+        fitted if len(fitted) == 1 else [*story, KeepTogether(cautions)],  # else never a lone bullet on a page
         fonts,
         title="Photobiological safety pre-screen — batch summary",
         header="Photobiological safety pre-screen — batch summary",
         author=f"hazard {', '.join(versions) or '—'}",
         identity=next((a.provenance.identity.header_text() for a in assessments if a.provenance.identity), ""),
+        moment=moment,
     )

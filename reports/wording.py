@@ -13,7 +13,6 @@ __all__ = [
     "LOWER_BOUND",
     "LOWER_BOUND_MEANING",
     "NOT_DETERMINED_MEANING",
-    "NOT_DETERMINED_NAME",
     "PULSE_MEANING",
     "WHAT_IF_MEANING",
 ]
@@ -56,9 +55,6 @@ LOWER_BOUND_MEANING = (
     "This holds for the assessed hazards only; those not assessed may put the product in a higher group."
 )
 """Follows the group's meaning when ``Assessment.complete`` is false."""
-
-NOT_DETERMINED_NAME = "Not determined"
-"""The group label when no hazard with risk groups could be assessed."""
 
 NOT_DETERMINED_MEANING = (
     "No hazard with risk groups could be assessed from this spectrum, so there is no risk "

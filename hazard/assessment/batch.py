@@ -505,6 +505,7 @@ def run_batch(
     clean: bool = False,
     identity: ReportIdentity | None = None,
     plan: bool = False,
+    html: bool = False,
 ) -> BatchOutcome:
     """Assess every product of a manifest or folder of records.
 
@@ -533,6 +534,8 @@ def run_batch(
         ``BatchOutcome.leftovers`` either way, and kept without ``clean``).
     identity : ReportIdentity, optional
         Who issues the reports: in every result's provenance and on every PDF page.
+    html : bool
+        Also write ``summary.html``, one self-contained page for the browser (linking the files this run wrote).
     plan : bool
         Also write the laboratory test plan (``plan.csv``, ``plan.xlsx``; a section of ``summary.pdf`` with ``pdf``).
 
@@ -635,6 +638,10 @@ def run_batch(
             outcome.written += [p.name for p in write_plan_items(folder, items)]
         if pdf:
             _write_pdfs(folder, outcome, assessed, jobs, items)
+        if html:
+            from hazard.reports.html_summary import write_summary_html
+
+            outcome.written.append(write_summary_html(outcome, folder).name)
         partial.unlink(missing_ok=True)
         outcome.leftovers = claimed.leftovers(outcome.written)
         if clean:

@@ -28,6 +28,8 @@ from hazard.assessment.summaries import (
 )
 from hazard.inputs.loading import LoadedProduct, load_product, product_from_record
 from hazard.inputs.record import ProductRecord
+from hazard.inputs.spectrum import Spectrum
+from hazard.method.contributions import spectral_shares
 from hazard.method.evaluate import Evaluation, HazardArrays, evaluate, integral_index, share_key
 from hazard.method.integrals import integrate_spectra
 from hazard.output.formatting import format_duration_s
@@ -43,6 +45,7 @@ from hazard.result import (
     PulseCheck,
     Remedies,
     ReportIdentity,
+    SpectralShares,
     UncertaintyStudy,
 )
 from hazard.standards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
@@ -326,6 +329,15 @@ def _shares(raw: np.ndarray, keys: dict[str, int], limit_set: LimitSet) -> dict[
     return out
 
 
+def _contributions(
+    spectrum: Spectrum, hazards: dict[str, HazardResult], limit_set: LimitSet
+) -> dict[str, SpectralShares]:
+    """Where each assessed hazard's value comes from, by wavelength band."""
+    symbols = [s for s, h in hazards.items() if h.assessed and h.value]
+    split = spectral_shares(spectrum.wavelength_nm, spectrum.value, limit_set, symbols)
+    return {s: SpectralShares(start_nm=start, step_nm=step, share=share) for s, (start, step, share) in split.items()}
+
+
 def build_assessment(
     loaded: LoadedProduct,
     batch: BatchEvaluation,
@@ -392,6 +404,7 @@ def build_assessment(
             ),
             photometry=photometry_summary(batch, i, v_covered),
             spectrum=spectrum_summary(loaded, float(ev.anchor_scale[i])),
+            contributions=_contributions(spectrum, hazards, limit_set),
             blue_light_transfer=transfer_summary(ev, i, covered, keys, record, limit_set),
             scaling=scaling_summary(record, float(ev.anchor_scale[i])),
             emission=_emission(record),

@@ -20,7 +20,7 @@ from hazard.inputs.record import ProductRecord
 from hazard.method.evaluate import Evaluation, ProductArrays, evaluate, integral_index
 from hazard.method.geometry import SourceShape
 from hazard.method.integrals import Integrated, integrate_spectra
-from hazard.method.photometry import cct_from_xyz
+from hazard.method.photometry import LUMINOUS_SHARE_FLOOR, cct_from_xyz
 from hazard.standards import DEFAULT_LIMIT_SET, LimitSet
 
 __all__ = [
@@ -92,7 +92,8 @@ class BatchEvaluation:
     """Everything computed for n products: integrals, the method's arrays, and colour.
 
     ``standard`` is the evaluation at the standard's distance (the same object as ``evaluation`` unless a record asks
-    for a what-if distance); ``what_if`` marks the products assessed at a distance of the record's choosing.
+    for a what-if distance); ``what_if`` marks the products assessed at a distance of the record's choosing;
+    ``visible_negligible`` those whose luminous share is under :data:`~hazard.method.photometry.LUMINOUS_SHARE_FLOOR`.
     """
 
     limit_set: LimitSet
@@ -104,6 +105,7 @@ class BatchEvaluation:
     chromaticity_y: np.ndarray
     cct_k: np.ndarray
     duv: np.ndarray
+    visible_negligible: np.ndarray
 
 
 def evaluate_products(
@@ -125,13 +127,16 @@ def evaluate_products(
         what_if = ~np.isnan(arrays.forced_distance_m)
         if what_if.any():
             standard = evaluate(dataclasses.replace(arrays, forced_distance_m=None), limit_set)
-    v = integral_index(limit_set)["V"]
+    keys = integral_index(limit_set)
+    v = keys["V"]
     nan = np.full(integrated.raw.shape[0], np.nan)
     x, y, cct, duv = nan.copy(), nan.copy(), nan.copy(), nan.copy()
-    lit = integrated.covered[:, v] & (ev.illuminance_lx > 0)
+    luminous, radiant = integrated.raw[:, v], integrated.raw[:, keys["ALL"]]
+    negligible = (luminous > 0) & (luminous < LUMINOUS_SHARE_FLOOR * radiant)
+    lit = integrated.covered[:, v] & (ev.illuminance_lx > 0) & ~negligible
     if lit.any():
         x[lit], y[lit], cct[lit], duv[lit] = cct_from_xyz(integrated.xyz[lit])
-    return BatchEvaluation(limit_set, integrated, ev, standard, what_if, x, y, cct, duv)
+    return BatchEvaluation(limit_set, integrated, ev, standard, what_if, x, y, cct, duv, negligible)
 
 
 def evaluate_loaded(products: list[LoadedProduct], limit_set: LimitSet = DEFAULT_LIMIT_SET) -> BatchEvaluation:

@@ -12,7 +12,8 @@ from hazard.assessment.pipeline import BatchEvaluation, source_shape
 from hazard.inputs.loading import LoadedProduct
 from hazard.inputs.record import ProductRecord
 from hazard.method.evaluate import Evaluation
-from hazard.method.photometry import CCT_DUV_LIMIT, CCT_RANGE_K
+from hazard.method.photometry import CCT_DUV_LIMIT, CCT_RANGE_K, LUMINOUS_SHARE_FLOOR
+from hazard.output.formatting import format_value
 from hazard.result import (
     BlueLightTransfer,
     Photometry,
@@ -49,6 +50,7 @@ def photometry_summary(batch: BatchEvaluation, i: int, covered: bool) -> Photome
         duv=optional_float(batch.duv[i]),
         chromaticity_xy=None if np.isnan(x) else (float(x), float(y)),
         covered=covered,
+        visible_negligible=bool(batch.visible_negligible[i]),
     )
 
 
@@ -160,6 +162,11 @@ def cct_reason(batch: BatchEvaluation, i: int, v_covered: bool) -> str:
         return "the spectrum does not cover V(λ)'s 360–830 nm band"
     if not batch.evaluation.illuminance_lx[i] > 0:
         return "the spectrum has no visible light"
+    if batch.visible_negligible[i]:
+        return (
+            f"its visible emission is negligible (under {format_value(LUMINOUS_SHARE_FLOOR)} of the radiant power is "
+            f"luminous)"
+        )
     if np.isnan(batch.cct_k[i]):
         return (
             f"its chromaticity is too far from the Planckian locus for a CCT (|Duv| > {CCT_DUV_LIMIT:g} or "

@@ -18,12 +18,24 @@ from hazard.method.robertson import cct_duv_robertson, xyz_to_uv, xyz_to_xy
 from hazard.method.weighting import quadrature_matrix
 from hazard.weighting_tables import WeightingTable, load_colour_matching
 
-__all__ = ["CCT_DUV_LIMIT", "K_M_LM_PER_W", "VISIBLE_BAND_NM", "cct_from_xyz", "cmf_quadrature", "import_colour"]
+__all__ = [
+    "CCT_DUV_LIMIT",
+    "K_M_LM_PER_W",
+    "LUMINOUS_SHARE_FLOOR",
+    "VISIBLE_BAND_NM",
+    "cct_from_xyz",
+    "cmf_quadrature",
+    "import_colour",
+]
 
 K_M_LM_PER_W = 683.0
 """Maximum luminous efficacy for photopic vision (CIE S 010:2004) [lm W⁻¹]."""
 VISIBLE_BAND_NM = (360.0, 830.0)
 """Band of V(λ) and of the CIE 1931 colour-matching functions [nm]."""
+LUMINOUS_SHARE_FLOOR = 1e-6
+"""Below this ratio of the V(λ)-weighted to the unweighted integral (200–3000 nm) the visible emission is a tail of
+no meaning (an infrared LED's last nanometres under 780 nm): photometric values are flagged negligible and no colour is
+computed [1]. Common practice, no published source."""
 CCT_DUV_LIMIT = 0.05
 """Beyond this distance from the Planckian locus a CCT is not meaningful (CIE 15:2018, 9.5) [1]."""
 

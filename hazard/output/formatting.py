@@ -3,11 +3,13 @@
 from __future__ import annotations
 
 import math
+import re
 
-from hazard.result import ClaimCheck, HazardResult
+from hazard.result import ClaimCheck, HazardResult, Photometry
 
 __all__ = [
     "NOT_DETERMINED",
+    "PLAIN_RANGE",
     "PULSE_LIMIT",
     "UNIT_DISPLAY",
     "format_duration_s",
@@ -21,10 +23,60 @@ __all__ = [
     "hazard_margin",
     "hazard_margin_text",
     "margin_to_next",
+    "photometry_text",
     "pulse_decides",
+    "source_size_text",
+    "superscript",
+    "unit_text",
 ]
 
-UNIT_DISPLAY = {"W/m2": "W/m²", "W/m2/sr": "W/(m²·sr)", "W/m2/nm": "W/(m²·nm)", "W/m2/sr/nm": "W/(m²·sr·nm)"}
+_SUPERSCRIPT = str.maketrans("0123456789-+", "⁰¹²³⁴⁵⁶⁷⁸⁹⁻⁺")
+PLAIN_RANGE = (1e-3, 1e5)
+"""Numbers whose magnitude lies in this range are printed without a power of ten [1]."""
+
+
+def superscript(text: str) -> str:
+    """Digits and signs of ``text`` as superscript characters: ``'-4'`` → ``'⁻⁴'``."""
+    return text.translate(_SUPERSCRIPT)
+
+
+_UNIT_TOKEN = re.compile(r"([A-Za-zµμ]+)\^?([-−⁻]?[0-9⁰¹²³⁴⁵⁶⁷⁸⁹]+)?")
+_PLAIN_DIGITS = str.maketrans("⁰¹²³⁴⁵⁶⁷⁸⁹⁻−", "0123456789--")
+
+
+def unit_text(unit: str) -> str:
+    """A unit as written for people: superscript powers, ``µ`` for micro, one ``/`` before a bracketed denominator.
+
+    Units that do not read as products of powers of symbols come back unchanged.
+
+    Examples
+    --------
+    >>> unit_text("W/m2/sr/nm"), unit_text("uW/cm^2/nm"), unit_text("W m-2"), unit_text("cd/m2"), unit_text("K")
+    ('W/(m²·sr·nm)', 'µW/(cm²·nm)', 'W/m²', 'cd/m²', 'K')
+    """
+    text = unit.replace("·", " ").replace("*", " ").strip()
+    powers: dict[str, int] = {}
+    for index, part in enumerate(text.split("/")):
+        sign = 1 if index == 0 else -1
+        cleaned = part.replace("(", " ").replace(")", " ")
+        if not cleaned.strip() or _UNIT_TOKEN.sub("", cleaned).strip():
+            return unit
+        for base, power in _UNIT_TOKEN.findall(cleaned):
+            symbol = "µ" + base[1:] if base[0] in "uμ" and len(base) > 1 else base
+            powers[symbol] = powers.get(symbol, 0) + sign * (int(power.translate(_PLAIN_DIGITS)) if power else 1)
+
+    def written(items: list[tuple[str, int]]) -> str:
+        return "·".join(base + (superscript(str(power)) if power != 1 else "") for base, power in items)
+
+    above = [(b, p) for b, p in powers.items() if p > 0]
+    below = [(b, -p) for b, p in powers.items() if p < 0]
+    if not below:
+        return written(above) or unit
+    denominator = written(below)
+    return f"{written(above) or '1'}/{denominator if len(below) == 1 else f'({denominator})'}"
+
+
+UNIT_DISPLAY = {code: unit_text(code) for code in ("W/m2", "W/m2/sr", "W/m2/nm", "W/m2/sr/nm")}
 """How each SI unit code of the results is written for people (one spelling in every output)."""
 PULSE_LIMIT = "pulse limit"
 """The boundary a pulsed hazard's margin is taken at when its pulse check sets the group."""
@@ -40,22 +92,30 @@ _DURATION_UNITS = (
 
 
 def format_value(value: float | None, digits: int = 3) -> str:
-    """A value with ``digits`` significant digits, or an em dash for None.
+    """A value with ``digits`` significant digits (trailing zeros dropped), or an em dash for None.
+
+    Magnitudes in :data:`PLAIN_RANGE` are written out; others as a mantissa times a power of ten with a
+    superscript exponent, so no output holds ``e+04`` or ``^``.
 
     Examples
     --------
     >>> format_value(0.000523991), format_value(46154.5596), format_value(None)
-    ('5.24e-04', '4.62e+04', '—')
-    >>> format_value(12.3456)
-    '12.3'
+    ('5.24×10⁻⁴', '46200', '—')
+    >>> format_value(12.3456), format_value(2336912.6), format_value(4e6), format_value(0.001)
+    ('12.3', '2.34×10⁶', '4×10⁶', '0.001')
     """
     if value is None or (isinstance(value, float) and math.isnan(value)):
         return "—"
     if value == 0:
         return "0"
-    if 0.01 <= abs(value) < 1e4:
-        return f"{value:.{digits}g}"
-    return f"{value:.{digits - 1}e}"
+    mantissa, exponent_text = f"{value:.{digits - 1}e}".split("e")
+    exponent = int(exponent_text)
+    if math.log10(PLAIN_RANGE[0]) <= exponent < math.log10(PLAIN_RANGE[1]):
+        decimals = max(digits - 1 - exponent, 0)
+        text = f"{float(mantissa) * 10.0**exponent:.{decimals}f}"
+        return text.rstrip("0").rstrip(".") if "." in text else text
+    mantissa = mantissa.rstrip("0").rstrip(".") if "." in mantissa else mantissa
+    return f"{mantissa}×10{superscript(str(exponent))}"
 
 
 def _significant(value: float, digits: int, direction: str) -> float:
@@ -128,10 +188,10 @@ def format_limit(value: float | None) -> str:
 
     Examples
     --------
-    >>> format_limit(0.001), format_limit(4e6), format_limit(2336912.6), format_limit(None)
-    ('0.001', '4e+06', '2.34e+06', '—')
+    >>> format_limit(0.001), format_limit(4e6), format_limit(2336912.6), format_limit(28000.0), format_limit(None)
+    ('0.001', '4×10⁶', '2.34×10⁶', '28000', '—')
     """
-    return "—" if value is None else f"{value:.3g}"
+    return format_value(value)
 
 
 def format_duration_s(seconds: float | None) -> str:
@@ -285,4 +345,39 @@ def hazard_margin_text(h: HazardResult) -> str:
 def computed_text(claim: ClaimCheck) -> str:
     """A claim's computed value, with its range across the stated uncertainty when there is one."""
     text = claim.computed or "—"
-    return f"{text} ({claim.computed_range} within the uncertainty)" if claim.computed_range else text
+    if not claim.computed_range:
+        return text
+    if claim.computed_range.endswith("at every variant"):
+        return f"{text} (at every variant of the uncertainty)"
+    return f"{text} ({claim.computed_range} within the uncertainty)"
+
+
+def source_size_text(record: dict) -> str | None:
+    """The source's size as the record gives it: ``'60 × 40 mm'``, ``'30 mm across'``, ``'α = 12 mrad at 500 mm'``.
+
+    None when the record states none of them.
+
+    Examples
+    --------
+    >>> source_size_text({"source_width_mm": 60.0, "source_height_mm": 40.0})
+    '60 × 40 mm'
+    >>> source_size_text({"source_diameter_mm": 30.0})
+    '30 mm across'
+    """
+    if record.get("source_width_mm") is not None and record.get("source_height_mm") is not None:
+        return f"{format_value(record['source_width_mm'], 6)} × {format_value(record['source_height_mm'], 6)} mm"
+    if record.get("source_diameter_mm") is not None:
+        return f"{format_value(record['source_diameter_mm'], 6)} mm across"
+    if record.get("source_alpha_mrad") is not None and record.get("distance_mm") is not None:
+        return f"α = {format_value(record['source_alpha_mrad'], 6)} mrad at {format_value(record['distance_mm'], 6)} mm"
+    return None
+
+
+def photometry_text(p: Photometry) -> str:
+    """Illuminance and luminance in words, or that the visible emission is negligible."""
+    if p.visible_negligible:
+        return "negligible: the visible emission is under a millionth of the radiant power (no colour is given)"
+    return (
+        f"{format_value(p.illuminance_lx)} lx at the assessment distance; luminance "
+        f"{format_value(p.luminance_cd_m2)} cd/m²"
+    )

@@ -15,6 +15,7 @@ from hazard.output.formatting import (
     format_value,
     group_words,
     hazard_margin_text,
+    source_size_text,
 )
 from hazard.result import Assessment
 
@@ -81,14 +82,15 @@ def render_text(assessment: Assessment) -> str:
     """
     a, g, p = assessment, assessment.geometry, assessment.photometry
     title = f"{a.id}  {a.name}" if a.name else a.id
-    photometric = [f"{format_value(p.illuminance_lx)} lx"]
+    photometric = ["visible emission negligible"] if p.visible_negligible else [f"{format_value(p.illuminance_lx)} lx"]
     if p.cct_k is not None:
         photometric.append(f"CCT {p.cct_k:.0f} K")
     lines = [
         title,
         *overall_lines(a),
         f"Assessed at {a.assessment_distance_mm:.0f} mm ({g.distance_rule})",
-        f"Source: α = {g.alpha_rad * 1e3:.3g} mrad, {g.largest_dimension_mm:g} mm"
+        f"Source: α = {format_value(g.alpha_rad * 1e3)} mrad, "
+        f"{source_size_text(a.record) or format_value(g.largest_dimension_mm) + ' mm'}"
         f"{', small source (E_B)' if g.small_source else ''}"
         f"{', weak visual stimulus (L_IR)' if g.weak_visual_stimulus else ''};  " + ", ".join(photometric),
         "",

@@ -52,7 +52,7 @@ def test_nothing_assessable_has_no_group_anywhere(tmp_path, monkeypatch):
     from pypdf import PdfReader
 
     first = " ".join(PdfReader(tmp_path / "vis.pdf").pages[0].extract_text().split())
-    assert "not determined Overall risk group: Not determined" in first  # the tile, then its words
+    assert "Risk group not determined" in first and "Do not read this as safe" in first  # the answer, in words
     assert "Exempt group" not in first
 
 

@@ -7,6 +7,7 @@ from conftest import FOOTER, LINEUP, RENDERED_AT, normalise, pdf_pages, with_tig
 
 import hazard
 import hazard.reports.fonts
+import hazard.reports.headroom
 import hazard.reports.layout
 import hazard.reports.product_pdf
 import hazard.reports.studies
@@ -88,6 +89,17 @@ def test_uncertainty_study_sets_borderline_and_ranks_it_first(lineup):
     assert re.search(r"RG1-STUDY-EDGE .* BORDERLINE \(within ±10 %, ±1 nm\)", text)  # the study's flag, in words
     safe_row = text.split("RG1-STUDY-SAFE ")[1].split("RG1-LOOSE ")[0]  # ranked just before RG1-LOOSE
     assert "BORDERLINE" not in safe_row  # 0.95 of its RG1 limit, but the study says robust
+
+
+def test_summary_cautions_are_never_split_from_their_heading(lineup):
+    # project contract (issue: "one orphan bullet alone on page 2 of a batch summary"): the cautions stay together
+    # with their heading, on one page, however long the ranked table runs (two copies of the line-up here)
+    products = [*lineup.values(), *(a.model_copy(update={"id": a.id + "-B"}) for a in lineup.values())]
+    pages = pdf_pages(render_summary_pdf(products, [], RENDERED_AT))
+    holding = [page for page in pages if "Cautions" in page]
+    assert len(pages) >= 2 and len(holding) == 1
+    for caution in {c for a in products for c in a.cautions}:
+        assert normalise(caution) in holding[0]
 
 
 def test_summary_without_failures_says_so_in_a_sentence(lineup):
