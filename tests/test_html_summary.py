@@ -11,12 +11,12 @@ from pathlib import Path
 
 import html5lib
 import pytest
+from conftest import LINEUP
 
 from hazard.assessment.batch import run_batch
 from hazard.reports.html_summary import HTML_NAME, render_summary_html, write_summary_html
 from hazard.reports.ranking import rank_assessments
 
-LINEUP = Path(__file__).parents[1] / "examples" / "lineup"
 RENDERED_AT = datetime.datetime(2024, 6, 1, 12, 0, tzinfo=datetime.UTC)
 # examples/README.md: the line-up spans the groups, RG3 first in the ranking (reports/ranking.py)
 RG3 = {"CL-CURE-365", "CL-GERM-254", "CL-HEAT-2K", "CL-XEN-UV"}

@@ -2,10 +2,10 @@
 the one notation every output uses."""
 
 from itertools import pairwise
-from pathlib import Path
 
 import numpy as np
 import pytest
+from conftest import LINEUP
 
 import hazard
 from hazard.inputs.loading import load_product
@@ -14,8 +14,6 @@ from hazard.method.weighting import quadrature_weights
 from hazard.output.formatting import format_value, unit_text
 from hazard.standards import DEFAULT_LIMIT_SET
 from hazard.weighting_tables import load_table
-
-LINEUP = Path(__file__).parents[1] / "examples" / "lineup"
 
 
 @pytest.mark.parametrize("stem", ["cl-heat-2k", "cl-germ-254", "cl-spot-65"])
