@@ -1,4 +1,4 @@
-"""Mutation of input files for fuzzing: shared by ``tests/test_fuzz.py`` (a short, deterministic run) and
+"""Mutation of input files for fuzzing: shared by ``tests/inputs/test_fuzz.py`` (a short, deterministic run) and
 ``benchmarks/torture.py`` (a long campaign).
 
 A mutation is a list of edits applied to a seed file's bytes: numbers swapped for extreme ones (the file stays

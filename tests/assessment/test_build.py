@@ -1,0 +1,91 @@
+"""One product's result (hazard.assessment.build): bands the spectrum does not cover, the statement that nothing is
+emitted outside them, and quiet output."""
+
+import warnings
+
+import numpy as np
+import pytest
+from click.testing import CliRunner
+from conftest import (
+    white_lamp,
+    write_spectrum,
+)
+
+import hazard
+from hazard.cli import main
+
+SIZE = {"distance_mm": 200.0, "source_diameter_mm": 5.0}
+
+
+SIZE_OPTIONS = ["--distance-mm", "200", "--source-diameter-mm", "5"]
+
+
+VISIBLE_NM = np.arange(380.0, 781.0, 1.0)
+
+
+# Bands of method §1 (IEC 62471:2006 §4.3) and what a 380–780 nm spectrum misses of each
+_MISSING_FROM_380_780 = {
+    "E_S": "200–380 nm",
+    "E_UVA": "315–380 nm",
+    "L_B": "300–380 nm",
+    "E_B": "300–380 nm",
+    "L_R": "780–1400 nm",
+    "E_IR": "780–3000 nm",
+    "E_H": "780–3000 nm",
+}
+
+
+@pytest.mark.parametrize(("diameter_mm", "blue"), [(5.0, "L_B"), (1.0, "E_B")])
+def test_band_not_covered_is_not_assessed(tmp_path, monkeypatch, diameter_mm, blue):
+    # α = D/200 mm: 0.025 rad → L_B, 0.005 rad → E_B (IEC 62471:2006 Table 6.1, α < 0.011 rad)
+    path = write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, white_lamp(VISIBLE_NM))
+    a = hazard.assess(path, {"distance_mm": 200.0, "source_diameter_mm": diameter_mm})
+    expected = {"E_S", "E_UVA", blue, "L_R", "E_IR", "E_H"}
+    # method §5: a hazard is assessed only when the spectrum spans its band; method §3: with no hazard that has
+    # risk groups assessed there is no group at all (never "Exempt")
+    assert a.complete is False and a.risk_group is None and a.deciding_hazards == []
+    assert set(a.not_assessed) == expected
+    assert not a.geometry.weak_visual_stimulus  # bright lamp: L_R, not L_IR (method §1)
+    for symbol in expected:
+        h = a.hazards[symbol]
+        assert h.assessed is False and h.value is None and h.risk_group is None and h.t_max_s is None
+        missing = _MISSING_FROM_380_780[symbol]
+        assert f"missing {missing}" in h.note, h.note
+        assert "no_emission_outside" in h.note  # the fix is named
+    monkeypatch.chdir(tmp_path)
+    result = CliRunner().invoke(
+        main, ["assess", "lamp.csv", "--distance-mm", "200", "--source-diameter-mm", str(diameter_mm)]
+    )
+    assert result.exit_code == 0
+    overall = next(line for line in result.stdout.splitlines() if line.startswith("Overall risk group"))
+    assert overall.startswith("Overall risk group: NOT DETERMINED") and "Exempt" not in overall
+    assert "measure the missing wavelength range" in result.stdout  # the fix is named
+
+
+def test_band_gap_assumed_empty_with_no_emission_outside(tmp_path, monkeypatch):
+    path = write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, white_lamp(VISIBLE_NM))
+    a = hazard.assess(path, {**SIZE, "no_emission_outside": True})
+    # method §5: the gap counts as zero and the assumption is printed in every output
+    assert a.complete is True and a.not_assessed == []
+    assert all(h.assessed and h.value is not None for h in a.hazards.values())
+    assert a.hazards["E_IR"].value == 0.0  # nothing beyond 780 nm by the record's statement
+    assumption = "emits nothing outside 380–780 nm"
+    assert any(assumption in text for text in a.assumptions)
+    monkeypatch.chdir(tmp_path)
+    text = CliRunner().invoke(main, ["assess", "lamp.csv", *SIZE_OPTIONS, "--no-emission-outside"])
+    as_json = CliRunner().invoke(
+        main, ["assess", "lamp.csv", *SIZE_OPTIONS, "--no-emission-outside", "--format", "json"]
+    )
+    assert text.exit_code == 0 and as_json.exit_code == 0
+    assert assumption in text.stdout and assumption in as_json.stdout
+
+
+# --- quiet output ------------------------------------------------------------------------------------------
+def test_valid_input_raises_no_python_warnings(tmp_path):
+    wl = np.arange(300.0, 1101.0, 1.0)
+    values = np.exp(-0.5 * ((wl - 960) / 15) ** 2)  # an IR LED: its UV tail leaves E_S ≈ 4e-308 W/m2
+    path = write_spectrum(tmp_path / "ir.csv", wl, values)
+    with warnings.catch_warnings():
+        warnings.simplefilter("error")  # a valid input must not make numpy or Python warn (style.md, habit 8)
+        a = hazard.assess(path, {**SIZE, "no_emission_outside": True})
+    assert a.hazards["E_S"].t_max_s is None  # method §1: 30/E_S is far beyond 30000 s

@@ -1,0 +1,134 @@
+"""``hazard assess`` as a user runs it: results that cannot be misread, bad input as one line in a real process, and
+outputs that never replace inputs."""
+
+import json
+import os
+import subprocess
+import sys
+
+import numpy as np
+from click.testing import CliRunner
+from conftest import (
+    REPO,
+    assert_error_line,
+    assert_exit_2,
+    file_hashes,
+    run_cli,
+    triangle_line,
+    white_lamp,
+    write_file,
+    write_lamp,
+    write_spectrum,
+)
+
+from hazard.cli import main
+
+GRID = np.arange(200.0, 3000.5, 0.5)
+"""Spans every hazard band (method §1) at 0.5 nm."""
+
+
+SIZE_OPTIONS = ["--distance-mm", "200", "--source-diameter-mm", "5"]
+HEADER = "wavelength_nm,value\n"
+VISIBLE_NM = np.arange(380.0, 781.0, 1.0)
+
+
+def _lamp(wl):
+    """A dim visible lamp [W m⁻² nm⁻¹] (invented test data)."""
+    return 1e-3 * np.exp(-0.5 * ((wl - 560.0) / 80.0) ** 2)
+
+
+# --- outputs that cannot be misread ----------------------------------------------------------------------
+def test_nothing_assessable_has_no_group_anywhere(tmp_path, monkeypatch):
+    # method §3: with no hazard that has risk groups assessed there is no group: null in JSON, "not determined"
+    # in words, never "Exempt"
+    write_spectrum(tmp_path / "vis.csv", VISIBLE_NM, _lamp(VISIBLE_NM))
+    monkeypatch.chdir(tmp_path)
+    options = ["--distance-mm", "200", "--source-diameter-mm", "5"]
+    as_json = CliRunner().invoke(main, ["assess", "vis.csv", *options, "--format", "json"])
+    result = json.loads(as_json.stdout)
+    assert result["risk_group"] is None and result["distances"] is None and result["remedies"] is None
+    text = CliRunner().invoke(main, ["assess", "vis.csv", *options, "--pdf", "vis.pdf"]).stdout
+    assert "NOT DETERMINED" in text and "Exempt" not in text.split("Overall risk group")[1].splitlines()[0]
+    from pypdf import PdfReader
+
+    first = " ".join(PdfReader(tmp_path / "vis.pdf").pages[0].extract_text().split())
+    assert "Risk group not determined" in first and "Do not read this as safe" in first  # the answer, in words
+    assert "Exempt group" not in first
+
+
+def test_what_if_is_never_mistaken_for_a_classification(tmp_path, monkeypatch):
+    # method §4: at_distance_mm is a what-if; the standard's group is named beside it
+    write_spectrum(tmp_path / "uv.csv", GRID, triangle_line(GRID, 365.0, 50.0))  # E_UVA = 50 W/m² at 200 mm
+    monkeypatch.chdir(tmp_path)
+    options = ["--distance-mm", "200", "--source-diameter-mm", "5", "--no-emission-outside"]
+    far = json.loads(CliRunner().invoke(main, ["assess", "uv.csv", *options, "--format", "json"], env={}).stdout)
+    assert far["basis"] == "standard" and far["standard_risk_group"] is None
+    (tmp_path / "uv.toml").write_text(
+        'id = "UV"\nspectrum = "uv.csv"\ndistance_mm = 200.0\nsource_diameter_mm = 5.0\n'
+        "no_emission_outside = true\nat_distance_mm = 5000.0\n"
+    )
+    what_if = json.loads(CliRunner().invoke(main, ["assess", "uv.toml", "--format", "json"]).stdout)
+    assert what_if["basis"] == "what-if" and what_if["standard_risk_group"] == far["risk_group"]
+    assert what_if["risk_group"] != far["risk_group"]  # E_UVA falls by (200/5000)² at 5 m (inverse square)
+    text = CliRunner().invoke(main, ["assess", "uv.toml"]).stdout
+    assert text.startswith("UV\nWHAT-IF at 5000 mm, not a classification") and far["risk_group"] in text.splitlines()[1]
+    (tmp_path / "manifest.csv").write_text(
+        "id,spectrum,distance_mm,source_diameter_mm,no_emission_outside,"
+        "at_distance_mm\nA,uv.csv,200,5,true,5000\nB,uv.csv,200,5,true,\n"
+    )
+    batch = CliRunner().invoke(main, ["batch", "manifest.csv", "--output", "out"])
+    row_a = next(line for line in batch.stdout.splitlines() if line.startswith("A "))
+    assert row_a.split()[1] == far["risk_group"] and "WHAT-IF at 5000 mm gives Exempt" in row_a
+    import csv
+
+    rows = list(csv.DictReader((tmp_path / "out" / "summary.csv").open()))
+    assert [r["basis"] for r in rows] == ["what-if", "standard"]
+    # the classification column always holds the standard's group; the what-if has its own columns
+    assert [r["risk_group"] for r in rows] == [far["risk_group"]] * 2
+    assert rows[0]["what_if_risk_group"] == "Exempt" and rows[0]["what_if_distance [mm]"] == "5000"
+
+
+def _assess_in_a_process(args, cwd):
+    """The real command in a fresh interpreter, as a user runs it."""
+    env = {**os.environ, "PYTHONPATH": os.pathsep.join(filter(None, [str(REPO), os.environ.get("PYTHONPATH")]))}
+    return subprocess.run(
+        [sys.executable, "-m", "hazard.cli", "assess", *args],
+        capture_output=True,
+        text=True,
+        cwd=cwd,
+        env=env,
+        timeout=120,
+    )
+
+
+def test_real_process_exit_code_and_one_line(tmp_path):
+    # A fresh interpreter: the exit status and stderr a shell script sees (hazard/cli.py: exit 2, one line)
+    write_file(tmp_path / "text.csv", HEADER + "500,0.1\n501,0.2\n502,abc\n503,0.1\n")
+    before = file_hashes(tmp_path)
+    result = _assess_in_a_process(["text.csv", *SIZE_OPTIONS], tmp_path)
+    assert_error_line(result.returncode, result.stdout, result.stderr, "text.csv:4: text 'abc' in a number column")
+    assert file_hashes(tmp_path) == before
+
+
+def test_real_process_missing_file(tmp_path):
+    result = _assess_in_a_process(["missing.csv", *SIZE_OPTIONS], tmp_path)
+    assert_error_line(result.returncode, result.stdout, result.stderr, "missing.csv", "file not found")
+
+
+def test_real_process_invalid_toml_names_the_line(tmp_path):
+    write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, white_lamp(VISIBLE_NM))
+    write_file(tmp_path / "record.toml", 'id = "x"\nspectrum = "lamp.csv"\ndistance_mm = 200\nsource_diameter_mm 5\n')
+    result = _assess_in_a_process(["record.toml"], tmp_path)
+    assert_error_line(result.returncode, result.stdout, result.stderr, "record.toml:4: not valid TOML")
+
+
+# --- outputs never touch inputs -------------------------------------------------------------------------------
+def test_assess_refuses_to_write_over_its_input(tmp_path):
+    path = write_lamp(tmp_path)
+    before = path.read_bytes()
+    for option in ("--output", "--pdf"):
+        result = run_cli(
+            ["assess", "lamp.csv", "--distance-mm", "500", "--source-diameter-mm", "30", option, "lamp.csv"], tmp_path
+        )
+        assert_exit_2(result, "would replace an input file")
+    assert path.read_bytes() == before
