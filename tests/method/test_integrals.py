@@ -106,11 +106,6 @@ def test_negatives_count_as_zero_and_extreme_samples_are_reported():
     assert np.isnan(peak[0])
 
 
-@pytest.mark.xfail(
-    strict=True,
-    reason="defect in hazard/method/integrals.py integrate_matrix: a NaN row makes its chunk's lowest sample NaN, so "
-    "`lowest[rows].min() < 0` is false and the other rows' negatives are not set to zero",
-)
 def test_a_nan_row_does_not_change_its_neighbours():
     # method §5 and the batch contract: one bad product never changes another's result; the NaN row is refused, its
     # neighbour with dark-noise negatives must integrate as it does alone
