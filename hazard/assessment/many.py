@@ -202,6 +202,7 @@ def assess_many(
         good = sorted(loaded)
         batch = evaluate_loaded([loaded[i] for i in good], limit_set) if good else None
         return _frame(batch, ids, good, errors, limit_set)
+    _check_grid(wavelength_nm, spectra)  # first: a 1-D array has no row count to compare
     distinct, ids, index = _distinct(records)
     if len(ids) != spectra.shape[0]:
         raise ValueError(f"{len(ids)} records but {spectra.shape[0]} spectra")
@@ -212,7 +213,6 @@ def assess_many(
             validated.append(record)
         except InputError as exc:
             validated.append(str(exc))
-    _check_grid(wavelength_nm, spectra)
     is_record = [isinstance(r, ProductRecord) for r in validated]
     factors = np.array(
         [parse_spectral_unit(r.unit_text).factor_to_si if isinstance(r, ProductRecord) else 1.0 for r in validated]

@@ -150,7 +150,9 @@ def integrate_matrix(
             peak[rows], lowest[rows] = chunk.max(axis=1), chunk.min(axis=1)
             if (lowest[rows] < 0).any():  # not .min(): a NaN row (refused later) must not spare its neighbours
                 chunk = np.maximum(chunk, 0)
-            _fill(out, rows, chunk.astype(dtype, copy=False) @ matrix, grid_nm, flags[rows], limit_set)
+            with np.errstate(invalid="ignore", over="ignore"):  # a NaN or ±inf row is refused by the caller
+                products = chunk.astype(dtype, copy=False) @ matrix
+            _fill(out, rows, products, grid_nm, flags[rows], limit_set)
     if factor_to_si is not None:
         out.raw[:] *= factor_to_si[:, None]
         out.xyz[:] *= factor_to_si[:, None]

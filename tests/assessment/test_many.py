@@ -86,7 +86,9 @@ def _records(n):
 @pytest.mark.parametrize(
     ("n_records", "grid", "spectra", "message"),
     [
-        pytest.param(1, GRID, np.ones(GRID.size), r"1 records but 501 spectra", id="one spectrum as a 1-D array"),
+        pytest.param(
+            1, GRID, np.ones(GRID.size), r"spectra must be \(n, 501\) .*got \(501,\)", id="one spectrum as a 1-D array"
+        ),
         pytest.param(2, GRID, np.ones((3, GRID.size)), r"2 records but 3 spectra", id="more spectra than records"),
         pytest.param(
             3, GRID[None, :], np.ones((3, GRID.size)), r"spectra must be \(n, 501\) for a grid of 501", id="2-D grid"
