@@ -94,7 +94,7 @@ _DURATION_UNITS = (
 def format_value(value: float | None, digits: int = 3) -> str:
     """A value with ``digits`` significant digits (trailing zeros dropped), or an em dash for None.
 
-    Magnitudes in :data:`PLAIN_RANGE` are written out; others as a mantissa times a power of ten with a
+    Magnitudes in :data:`PLAIN_RANGE` are written out; others as a significand times a power of ten with a
     superscript exponent, so no output holds ``e+04`` or ``^``.
 
     Examples
@@ -108,14 +108,14 @@ def format_value(value: float | None, digits: int = 3) -> str:
         return "—"
     if value == 0:
         return "0"
-    mantissa, exponent_text = f"{value:.{digits - 1}e}".split("e")
+    significand, exponent_text = f"{value:.{digits - 1}e}".split("e")
     exponent = int(exponent_text)
     if math.log10(PLAIN_RANGE[0]) <= exponent < math.log10(PLAIN_RANGE[1]):
         decimals = max(digits - 1 - exponent, 0)
-        text = f"{float(mantissa) * 10.0**exponent:.{decimals}f}"
+        text = f"{float(significand) * 10.0**exponent:.{decimals}f}"
         return text.rstrip("0").rstrip(".") if "." in text else text
-    mantissa = mantissa.rstrip("0").rstrip(".") if "." in mantissa else mantissa
-    return f"{mantissa}×10{superscript(str(exponent))}"
+    significand = significand.rstrip("0").rstrip(".") if "." in significand else significand
+    return f"{significand}×10{superscript(str(exponent))}"
 
 
 def _significant(value: float, digits: int, direction: str) -> float:
