@@ -177,7 +177,7 @@ def load_product(path: str | Path, overrides: dict | None = None, *, allow_outsi
     if path.suffix.lower() in RECORD_SUFFIXES:
         fields, text, raw = read_record_file(path)
         fields.update(overrides)
-        record = record_from_fields(fields, path=str(path), text=text)
+        record = record_from_fields(fields, path=str(path), text=text, from_options=frozenset(overrides))
         digest = hashlib.sha256(raw).hexdigest()
         return product_from_record(
             record, path.parent, str(path), {path.name: digest}, root=None if allow_outside else path.parent

@@ -585,10 +585,17 @@ def _line_of(text: str, key: str) -> int | None:
     return None if match is None else text.count("\n", 0, match.start()) + 1
 
 
-def _as_input_error(exc: ValidationError, path: str, text: str | None, option_names: bool) -> InputError:
-    """The first pydantic error as one line naming the field (or option), its line and the fix."""
+def _as_input_error(
+    exc: ValidationError, path: str, text: str | None, option_names: bool, from_options: frozenset[str] = frozenset()
+) -> InputError:
+    """The first pydantic error as one line naming the field (or option), its line and the fix.
+
+    A field in ``from_options`` was given on the command line: the message names the option, not the file.
+    """
     error = exc.errors()[0]
     key = str(error["loc"][0]) if error["loc"] else None
+    if key in from_options:
+        path, text, option_names = "command line", None, True
     message = error["msg"].removeprefix("Value error, ")
     if key is None and text:  # a rule across fields: point at the first field it names that the file sets
         named = sorted(
@@ -621,7 +628,12 @@ def _as_input_error(exc: ValidationError, path: str, text: str | None, option_na
 
 
 def record_from_fields(
-    fields: dict, *, path: str, text: str | None = None, option_names: bool = False
+    fields: dict,
+    *,
+    path: str,
+    text: str | None = None,
+    option_names: bool = False,
+    from_options: frozenset[str] = frozenset(),
 ) -> ProductRecord:
     """Validate a dict of record fields (from TOML, a CSV row or CLI options).
 
@@ -635,6 +647,8 @@ def record_from_fields(
         The file's text, to find line numbers.
     option_names : bool
         Name fields as CLI options (``--distance-mm``) in messages.
+    from_options : frozenset of str
+        Fields given as CLI options over a file's: an error in one names the option, not the file.
 
     Raises
     ------
@@ -643,7 +657,7 @@ def record_from_fields(
     try:
         return ProductRecord(**fields)
     except ValidationError as exc:
-        raise _as_input_error(exc, path, text, option_names) from None
+        raise _as_input_error(exc, path, text, option_names, from_options) from None
 
 
 def read_record_file(path: str | Path) -> tuple[dict, str, bytes]:
@@ -698,4 +712,4 @@ def load_record(path: str | Path, overrides: dict | None = None) -> ProductRecor
     """
     fields, text, _ = read_record_file(path)
     fields.update(overrides or {})
-    return record_from_fields(fields, path=str(path), text=text)
+    return record_from_fields(fields, path=str(path), text=text, from_options=frozenset(overrides or {}))

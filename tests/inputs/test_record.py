@@ -274,3 +274,23 @@ def test_toml_parser_limits_are_input_errors(tmp_path, text, fragment):
     with pytest.raises(InputError) as caught:
         load_product(record)
     assert_one_line(caught.value, "r.toml", fragment)
+
+
+def test_a_bad_option_over_a_record_names_the_option(tmp_path):
+    # project brief: bad input gets one line naming where it is and the fix; a value given as an option over a
+    # TOML record is the command line's, not the file's
+    from hazard.inputs.record import load_record
+
+    path = tmp_path / "lamp.toml"
+    path.write_text('id = "L1"\nspectrum = "lamp.csv"\ndistance_mm = 200.0\nsource_diameter_mm = 5.0\n')
+    with pytest.raises(InputError) as found:
+        load_record(path, {"claimed_t_max_s_L_B": 0})
+    assert str(found.value).startswith("command line: --claimed-t-max-s-L-B:")
+    with pytest.raises(InputError) as found:  # an option replacing a good value of the file
+        load_record(path, {"distance_mm": -1.0, "claimed_cct_k": 3000.0})
+    assert str(found.value).startswith("command line: --distance-mm:")
+    # the file's own bad value still names the file and its line
+    path.write_text('id = "L1"\nspectrum = "lamp.csv"\ndistance_mm = -200.0\nsource_diameter_mm = 5.0\n')
+    with pytest.raises(InputError) as found:
+        load_record(path, {"claimed_cct_k": 3000.0})
+    assert str(found.value).startswith(f"{path}:3: distance_mm:")
