@@ -207,19 +207,25 @@ def _exposure_table(x: ExposureStudy, st: Styles) -> Table:
     return table
 
 
+def exposure_verdict(x: ExposureStudy) -> tuple[str, str]:
+    """The day's verdict in words and, when some limit is used, which family uses most of it and from where."""
+    verdict = "WITHIN the limit values" if x.within else "EXCEEDS the limit values"
+    if x.most_family is None:
+        return verdict, ""
+    return verdict, (
+        f"Most of the allowance: {x.most_family}, {format_fraction(x.day[x.most_family].worst)} over the day, "
+        f"mostly from {x.most_exposure!r}."
+    )
+
+
 def exposure_blocks(a: Assessment, st: Styles) -> list[list[Flowable]]:
     """The section on the day's exposures: verdict, chart, table, the day's totals and notes; empty without one."""
     x = a.exposure
     if x is None:
         return []
-    verdict = "WITHIN the limit values" if x.within else "EXCEEDS the limit values"
+    verdict, most = exposure_verdict(x)
     lead = f"The stated day against {x.limit_set}:"
-    most = ""
-    if x.most_family is not None:
-        most = (
-            f" Most of the allowance: {x.most_family}, {format_fraction(x.day[x.most_family].worst)} over the day, "
-            f"mostly from {x.most_exposure!r}."
-        )
+    most = f" {most}" if most else ""
     day_rows = [["Hazard family", "Over the day", "How the exposures combine"]]
     day_rows += [[family, format_fraction(d.worst), d.rule] for family, d in x.day.items()]
     widths = fit_widths(day_rows[0], day_rows[1:], st.fonts, FRAME_WIDTH, flexible=2, size=st.cell.fontSize, bold={1})

@@ -25,6 +25,7 @@ from hazard.output.formatting import format_duration_s, format_fraction, hazard_
 from hazard.reports.chart_parts import chart_text
 from hazard.reports.charts import distance_chart
 from hazard.reports.contribution_chart import contribution_chart
+from hazard.reports.exposure_section import exposure_verdict
 from hazard.reports.fonts import FontSet
 from hazard.reports.headroom import DECADES_ABOVE, DECADES_BELOW, scale_header, track
 from hazard.reports.layout import FRAME_WIDTH
@@ -267,7 +268,7 @@ def _distance(a: Assessment, st: Styles, pages: Pages) -> list[Flowable]:
 
 
 def _changes(a: Assessment, st: Styles, pages: Pages) -> list[Flowable]:
-    """What would change it: remedies, the uncertainty verdict, the claims and completeness."""
+    """What would change it: remedies, the uncertainty verdict, the claims, pulses and the stated day."""
     out: list[Flowable] = [st.p("What would change it", st.h2)]
     if a.remedies is not None:
         out.append(st.bold_lead("To reach a lower group:", "; ".join(remedy_lines(a)), st.small))
@@ -292,6 +293,13 @@ def _changes(a: Assessment, st: Styles, pages: Pages) -> list[Flowable]:
                     "Pulses:", f"the largest, {worst.symbol}, at {format_fraction(worst.pulse.worst)}", st.small
                 )
             )
+    if a.exposure is not None:  # a stated working day over the limit values is news for page 1
+        verdict, most = exposure_verdict(a.exposure)
+        text = "; ".join(
+            filter(None, (f"{verdict} of {a.exposure.limit_set}", most.rstrip(".").replace("Most", "most")))
+        )
+        text += f" (page {pages.studies} on)"
+        out.append(st.bold_lead("Stated day:", text, st.small))
     if a.photometry.visible_negligible:
         out.append(st.bold_lead("Light:", "the visible emission is negligible; no colour is given", st.small))
     return out

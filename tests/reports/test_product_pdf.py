@@ -264,3 +264,14 @@ def test_naive_rendered_at_is_refused(lineup):
 def test_docstring_examples(module):
     # project habit (style.md): docstring examples run in the suite
     assert doctest.testmod(module).failed == 0
+
+
+def test_a_stated_day_over_the_limit_values_is_on_page_one(lineup_all):
+    # examples/README.md: the heater's stated day exceeds the exposure limit values (E_IR, Directive 2006/25/EC
+    # Annex I); a day within them says so too (the xenon unit's 5 min walk past the open door)
+    heater, xenon = lineup_all["cl-heat-2k"], lineup_all["cl-xen-uv"]
+    assert heater.exposure is not None and not heater.exposure.within
+    assert xenon.exposure is not None and xenon.exposure.within
+    for a, verdict in ((heater, "EXCEEDS the limit values"), (xenon, "WITHIN the limit values")):
+        first = normalise(pdf_pages(render_assessment_pdf(a, RENDERED_AT))[0])
+        assert "Stated day:" in first and verdict in first
