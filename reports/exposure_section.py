@@ -17,6 +17,7 @@ from reportlab.platypus import Flowable, Spacer, Table
 from hazard.output.formatting import (
     UNIT_DISPLAY,
     distance_beyond_mm,
+    emission_text,
     format_duration_s,
     format_fraction,
     format_pulse_count,
@@ -41,13 +42,8 @@ def emission_block(a: Assessment, st: Styles) -> list[Flowable]:
     e = a.emission
     if e is None:
         return []
-    if e.pulse_rate_hz is None:
-        how = f"a single pulse of {format_duration_s(e.pulse_duration_s)}; the hazard table holds its peak values"
-    else:
-        how = (
-            f"a pulse train, {format_duration_s(e.pulse_duration_s)} pulses at {format_value(e.pulse_rate_hz)} Hz "
-            f"(duty cycle {format_value(e.duty_cycle)}); the hazard table holds its time-averaged values"
-        )
+    held = "its peak values" if e.pulse_rate_hz is None else "its time-averaged values"
+    how = f"{emission_text(e)}; the hazard table holds {held}"
     head = ["Hazard", "Dose per pulse", "Unit", "Pulse vs its limit", "In the train (N^−0.25)", "Pulses to limit"]
     body = []
     for symbol, h in a.hazards.items():

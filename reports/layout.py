@@ -14,7 +14,7 @@ from reportlab.lib.pagesizes import A4
 from reportlab.lib.units import mm
 from reportlab.pdfbase.pdfmetrics import stringWidth
 from reportlab.pdfgen.canvas import Canvas
-from reportlab.platypus import Flowable, KeepInFrame, SimpleDocTemplate
+from reportlab.platypus import Flowable, KeepInFrame, SimpleDocTemplate, Table
 
 from hazard.reports.fonts import FontSet, report_fonts
 from hazard.reports.style import INK, MUTED, RULE, Styles
@@ -30,6 +30,7 @@ __all__ = [
     "PAGE_WIDTH",
     "build_pdf",
     "fit_page",
+    "heading_table",
     "start_report",
 ]
 
@@ -183,3 +184,22 @@ def fit_page(content: list[Flowable], least_scale: float = 0.0) -> list[Flowable
         if height * least_scale > FRAME_HEIGHT:
             return content
     return [KeepInFrame(FRAME_WIDTH, FRAME_HEIGHT, content, mode="shrink")]
+
+
+HEADING_RIGHT_WIDTH = 150
+"""Width of a report heading's right column (date, tool, limit set) [pt]."""
+
+
+def heading_table(left: list[Flowable], right: list[Flowable]) -> Table:
+    """A report's heading: what it is about on the left, date, tool and limit set on the right, a rule below."""
+    table = Table([[left, right]], colWidths=[FRAME_WIDTH - HEADING_RIGHT_WIDTH, HEADING_RIGHT_WIDTH])
+    table.setStyle(
+        [
+            ("VALIGN", (0, 0), (-1, -1), "TOP"),
+            ("LEFTPADDING", (0, 0), (-1, -1), 0),
+            ("RIGHTPADDING", (0, 0), (-1, -1), 0),
+            ("LINEBELOW", (0, 0), (-1, 0), 1.2, INK),
+            ("BOTTOMPADDING", (0, 0), (-1, -1), 5),
+        ]
+    )
+    return table

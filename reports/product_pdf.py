@@ -30,10 +30,10 @@ from hazard.output.formatting import (
     unit_text,
 )
 from hazard.reports.exposure_section import emission_block
-from hazard.reports.layout import FRAME_WIDTH, LEAST_SCALE, build_pdf, fit_page, start_report
+from hazard.reports.layout import FRAME_WIDTH, LEAST_SCALE, build_pdf, fit_page, heading_table, start_report
 from hazard.reports.page_one import Pages, first_page
 from hazard.reports.studies import has_studies, studies_section
-from hazard.reports.style import HAIRLINE, INK, Styles, fit_widths, group_fill, group_ink, table_style
+from hazard.reports.style import HAIRLINE, Styles, fit_widths, group_fill, group_ink, table_style
 from hazard.reports.timestamp import format_report_time
 from hazard.result import Assessment, BlueLightTransfer, HazardResult, ReportIdentity, Scaling
 
@@ -83,17 +83,7 @@ def _heading(a: Assessment, st: Styles, moment: datetime.datetime) -> Flowable:
         st.bold_lead("Tool", f"hazard {p.tool_version}", st.small),
         st.bold_lead("Limit set", p.limit_set, st.small),
     ]
-    table = Table([[left, right]], colWidths=[FRAME_WIDTH - 150, 150])
-    table.setStyle(
-        [
-            ("VALIGN", (0, 0), (-1, -1), "TOP"),
-            ("LEFTPADDING", (0, 0), (-1, -1), 0),
-            ("RIGHTPADDING", (0, 0), (-1, -1), 0),
-            ("LINEBELOW", (0, 0), (-1, 0), 1.2, INK),
-            ("BOTTOMPADDING", (0, 0), (-1, -1), 5),
-        ]
-    )
-    return table
+    return heading_table(left, right)
 
 
 class _PageMark(Flowable):

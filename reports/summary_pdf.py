@@ -15,7 +15,7 @@ from reportlab.platypus import Flowable, KeepTogether, Spacer, Table
 
 from hazard.assessment.lab_plan import PlanItem
 from hazard.output.formatting import group_words, hazard_margin_text
-from hazard.reports.layout import FRAME_WIDTH, LEAST_SCALE, build_pdf, fit_page, start_report
+from hazard.reports.layout import FRAME_WIDTH, LEAST_SCALE, build_pdf, fit_page, heading_table, start_report
 from hazard.reports.plan_section import plan_section
 from hazard.reports.ranking import BORDERLINE_FACTOR, is_borderline, rank_assessments, tightest_margin
 from hazard.reports.studies import minimum_text
@@ -41,17 +41,7 @@ def _heading(
         st.bold_lead("Tool", tools, st.small),
         st.bold_lead("Limit set", limit_sets, st.small),
     ]
-    table = Table([[left, right]], colWidths=[FRAME_WIDTH - 150, 150])
-    table.setStyle(
-        [
-            ("VALIGN", (0, 0), (-1, -1), "TOP"),
-            ("LEFTPADDING", (0, 0), (-1, -1), 0),
-            ("RIGHTPADDING", (0, 0), (-1, -1), 0),
-            ("LINEBELOW", (0, 0), (-1, 0), 1.2, INK),
-            ("BOTTOMPADDING", (0, 0), (-1, -1), 5),
-        ]
-    )
-    return table
+    return heading_table(left, right)
 
 
 def _counts(assessments: list[Assessment], st: Styles) -> Flowable:

@@ -5,7 +5,7 @@ from __future__ import annotations
 import math
 import re
 
-from hazard.result import ClaimCheck, HazardResult, Photometry
+from hazard.result import ClaimCheck, Emission, HazardResult, Photometry
 
 __all__ = [
     "NOT_DETERMINED",
@@ -380,4 +380,17 @@ def photometry_text(p: Photometry) -> str:
     return (
         f"{format_value(p.illuminance_lx)} lx at the assessment distance; luminance "
         f"{format_value(p.luminance_cd_m2)} cd/m²"
+    )
+
+
+def emission_text(e: Emission) -> str:
+    """How a pulsed source emits, in words (the text output and the PDF say it alike).
+
+    ``'a single pulse of 1 ms'``, or ``'a pulse train, 100 µs pulses at 2 Hz (duty cycle 2×10⁻⁴)'``.
+    """
+    if e.pulse_rate_hz is None:
+        return f"a single pulse of {format_duration_s(e.pulse_duration_s)}"
+    return (
+        f"a pulse train, {format_duration_s(e.pulse_duration_s)} pulses at {format_value(e.pulse_rate_hz)} Hz "
+        f"(duty cycle {format_value(e.duty_cycle)})"
     )

@@ -8,6 +8,7 @@ from hazard.output.formatting import (
     computed_text,
     dimming_percent,
     distance_beyond_mm,
+    emission_text,
     format_duration_s,
     format_fraction,
     format_limit,
@@ -165,13 +166,8 @@ def _emission_lines(a: Assessment) -> list[str]:
     e = a.emission
     if e is None:
         return []
-    if e.pulse_rate_hz is None:
-        head = f"Emission: single pulse of {format_duration_s(e.pulse_duration_s)}; values are of the peak."
-    else:
-        head = (
-            f"Emission: pulse train, {format_duration_s(e.pulse_duration_s)} pulses at {e.pulse_rate_hz:.3g} Hz "
-            f"(duty cycle {e.duty_cycle:.3g}); values, limits and t_max are of the time average."
-        )
+    values = "of the peak" if e.pulse_rate_hz is None else "values, limits and t_max of the time average"
+    head = f"Emission: {emission_text(e)}; {values}."
     lines = ["", head, f"  Rule: {e.rule}"]
     for symbol, h in a.hazards.items():
         p = h.pulse
