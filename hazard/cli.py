@@ -182,7 +182,13 @@ def assess(
         click.echo(text, nl=False)
     else:
         _write_file(output, text.encode("utf-8"))
-        click.echo(f"wrote {output} ({assessment.id}: {assessment.risk_group})", err=True)
+        from hazard.output.formatting import group_words
+
+        a = assessment
+        words = group_words(a.risk_group, a.complete, a.basis, a.assessment_distance_mm)
+        if a.basis == "what-if":
+            words += f"; at the standard's distance: {group_words(a.standard_risk_group, a.complete)}"
+        click.echo(f"wrote {output} ({a.id}: {words})", err=True)
 
 
 def _write_file(path: Path, data: bytes) -> None:

@@ -335,8 +335,8 @@ def _contributions(a: Assessment, st: Styles) -> list[Flowable]:
         st.p(
             "Top: the measured spectrum relative to its peak. Under it, each hazard's value split by wavelength "
             "band (5 nm for the UV and blue-light hazards, 10 nm for retinal thermal, 20 nm for the infrared and skin "
-            "hazards), each strip scaled to its largest "
-            "band; pale: the hazard's wavelength range.",
+            "hazards), each strip scaled to its largest band; pale: the hazard's wavelength range. A hazard "
+            "under a thousandth of every limit is not split (its value is noise or a far tail).",
             st.caption,
         ),
     ]

@@ -11,7 +11,14 @@ from __future__ import annotations
 
 from reportlab.platypus import Flowable, Spacer, Table
 
-from hazard.output.formatting import UNIT_DISPLAY, dimming_percent, distance_beyond_mm, format_value, round_up
+from hazard.output.formatting import (
+    UNIT_DISPLAY,
+    dimming_percent,
+    distance_beyond_mm,
+    format_percent,
+    format_value,
+    round_up,
+)
 from hazard.reports.charts import distance_chart
 from hazard.reports.exposure_section import exposure_blocks
 from hazard.reports.layout import FRAME_WIDTH
@@ -167,7 +174,9 @@ def remedy_lines(a: Assessment) -> list[str]:
         lines.append(how)
     if not lines:
         lines.append(
-            "already in the lowest group" + ("" if a.complete else " for the assessed hazards")
+            "already in the lowest group"
+            + ("" if a.complete else " for the assessed hazards")
+            + (f" at {a.assessment_distance_mm:.0f} mm (what-if)" if a.basis == "what-if" else "")
             if a.risk_group == a.limit_set.groups[0]
             else "no remedy in this result"
         )
@@ -321,7 +330,7 @@ def _remedies_block(a: Assessment, r: Remedies, st: Styles) -> list[Flowable]:
     bands = []
     for symbol, found in r.uv_bands.items():
         if found:
-            top = ", ".join(f"{b.band_nm[0]:g}–{b.band_nm[1]:g} nm ({b.share:.0%})" for b in found[:3])
+            top = ", ".join(f"{b.band_nm[0]:g}–{b.band_nm[1]:g} nm ({format_percent(b.share)})" for b in found[:3])
             bands.append(
                 st.bold_lead(f"{symbol} comes mostly from", top + " (5 nm bands, share of the total)", st.small)
             )

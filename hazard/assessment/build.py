@@ -29,7 +29,7 @@ from hazard.assessment.summaries import (
 from hazard.inputs.loading import LoadedProduct, load_product, product_from_record
 from hazard.inputs.record import ProductRecord
 from hazard.inputs.spectrum import Spectrum
-from hazard.method.contributions import spectral_shares
+from hazard.method.contributions import NEGLIGIBLE_SHARE_OF_EXEMPT, spectral_shares
 from hazard.method.evaluate import Evaluation, HazardArrays, evaluate, integral_index, share_key
 from hazard.method.integrals import integrate_spectra
 from hazard.output.formatting import format_duration_s
@@ -332,8 +332,12 @@ def _shares(raw: np.ndarray, keys: dict[str, int], limit_set: LimitSet) -> dict[
 def _contributions(
     spectrum: Spectrum, hazards: dict[str, HazardResult], limit_set: LimitSet
 ) -> dict[str, SpectralShares]:
-    """Where each assessed hazard's value comes from, by wavelength band."""
-    symbols = [s for s, h in hazards.items() if h.assessed and h.value]
+    """Where each assessed hazard's value comes from, by wavelength band (none for a negligible value)."""
+    symbols = [
+        s
+        for s, h in hazards.items()
+        if h.assessed and h.value and (not h.margins or max(h.margins.values()) >= NEGLIGIBLE_SHARE_OF_EXEMPT)
+    ]
     split = spectral_shares(spectrum.wavelength_nm, spectrum.value, limit_set, symbols)
     return {s: SpectralShares(start_nm=start, step_nm=step, share=share) for s, (start, step, share) in split.items()}
 
@@ -391,7 +395,7 @@ def build_assessment(
             illuminance_lx=float(ev.illuminance_lx[i]),
             hazards=hazards,
             not_assessed=[s for s, h in hazards.items() if not h.assessed],
-            deciding_hazards=[s for s, g in groups.items() if overall is not None and g == overall],
+            deciding_hazards=[s for s, h in hazards.items() if overall is not None and h.risk_group == overall],
             geometry=Geometry(
                 measurement_distance_mm=record.distance_mm,
                 assessment_distance_mm=d_a_mm,

@@ -18,10 +18,14 @@ from hazard.method.weighting import quadrature_weights
 from hazard.standards import LimitSet
 from hazard.weighting_tables import load_table
 
-__all__ = ["BAND_STEPS_NM", "SHARE_FLOOR", "band_step_nm", "spectral_shares"]
+__all__ = ["BAND_STEPS_NM", "NEGLIGIBLE_SHARE_OF_EXEMPT", "SHARE_FLOOR", "band_step_nm", "spectral_shares"]
 
 BAND_STEPS_NM = ((400.0, 5.0), (1100.0, 10.0), (float("inf"), 20.0))
 """(widest hazard band, width of its parts): the steps a hazard's value is split into, by its band's width [nm]."""
+NEGLIGIBLE_SHARE_OF_EXEMPT = 1e-3
+"""A hazard whose value is under this fraction of its Exempt limit is not split by band: where a spectrum's noise
+floor or a line's far tail comes from says nothing about the product (common practice, no published source: a
+thousandth of the limit is far below any measurement's uncertainty) [1]."""
 SHARE_FLOOR = 1e-5
 """Shares below this are written as 0, which keeps the result compact [1]."""
 

@@ -12,9 +12,11 @@ from hazard.output.formatting import (
     format_duration_s,
     format_fraction,
     format_limit,
+    format_percent,
     format_pulse_count,
     format_value,
     group_words,
+    hazard_margin,
     hazard_margin_text,
     source_size_text,
 )
@@ -279,7 +281,7 @@ def _studies(a: Assessment) -> list[str]:
                 lines.append(f"  {r.target} → {r.group}: or enlarge the emitting area ×{r.area_factor:.3g} (diffuser)")
         for symbol, bands in a.remedies.uv_bands.items():
             main = [b for k, b in enumerate(bands[:3]) if k == 0 or b.share >= 0.01]  # the rest is noise
-            top = ", ".join(f"{b.band_nm[0]:g}–{b.band_nm[1]:g} nm {b.share * 100:.2g} %" for b in main)
+            top = ", ".join(f"{b.band_nm[0]:g}–{b.band_nm[1]:g} nm {format_percent(b.share)}" for b in main)
             lines.append(f"  {symbol} comes mostly from {top}")
     return lines
 
@@ -306,6 +308,12 @@ def render_claims(assessment: Assessment) -> list[str]:
     return ["Vendor claims:", line(header), *(line(r) for r in rows)]
 
 
+def _closest_deciding(a: Assessment) -> str | None:
+    """The deciding hazard with the largest ratio value/limit at the boundary that matters (None: none has groups)."""
+    found = [(m[1], symbol) for symbol in a.deciding_hazards if (m := hazard_margin(a.hazards[symbol])) is not None]
+    return max(found, default=(0.0, None))[1]
+
+
 def render_batch_table(ids: list[str], assessments: dict[str, Assessment], errors: dict[str, str]) -> str:
     """One line per product: id, overall group, completeness, the deciding hazards and margin, flags.
 
@@ -330,9 +338,13 @@ def render_batch_table(ids: list[str], assessments: dict[str, Assessment], error
         standard = a.basis == "standard"  # a what-if row shows the standard's group; its own is a flag
         deciding = ", ".join(a.deciding_hazards) if standard and a.risk_group not in (None, "Exempt") else ""
         margin = ""
-        if standard and a.deciding_hazards and a.risk_group != "Exempt":
-            h = a.hazards[a.deciding_hazards[0]]
-            margin = hazard_margin_text(h)
+        closest = _closest_deciding(a) if standard else None
+        if closest is not None:  # for an Exempt product: the hazard nearest its Exempt limit, named
+            margin = (
+                hazard_margin_text(a.hazards[closest])
+                if deciding
+                else f"{closest}: " + hazard_margin_text(a.hazards[closest])
+            )
         flags = []
         if not standard:
             flags.append(

@@ -15,6 +15,7 @@ from itertools import pairwise
 import numpy as np
 
 from hazard.inputs.spectrum import Spectrum
+from hazard.method.contributions import NEGLIGIBLE_SHARE_OF_EXEMPT
 from hazard.method.evaluate import Evaluation, ProductArrays
 from hazard.method.families import evaluate_rows, family_groups
 from hazard.method.weighting import GridCache, quadrature_matrix
@@ -85,7 +86,9 @@ def _band_shares(
 ) -> dict[str, list[BandContribution]]:
     """Each assessed hazard's value by bands of a fixed width (its stepped :class:`~hazard.standards.BandShare`).
 
-    Largest first, bands of at least 0.1 % of the total.
+    Largest first, bands of at least 0.1 % of the total. A hazard whose value is under
+    :data:`~hazard.method.contributions.NEGLIGIBLE_SHARE_OF_EXEMPT` of its Exempt limit (a spectrum's noise
+    floor, a line's far tail) gets none: where such a value comes from says nothing about the product.
     """
     out = {}
     for hazard in limit_set.hazards:
@@ -103,7 +106,8 @@ def _band_shares(
             values = spectrum.value @ matrix
             values = values * to_assessment
             total = values.sum()
-            if not total > 0:
+            floor = 0.0 if hazard.limits is None or hazard.limits_over_alpha else hazard.limits[0]
+            if not total > floor * NEGLIGIBLE_SHARE_OF_EXEMPT:
                 continue
             order = np.argsort(-values)
             out[hazard.symbol] = [

@@ -3,10 +3,12 @@ outputs that never replace inputs."""
 
 import json
 import os
+import re
 import subprocess
 import sys
 
 import numpy as np
+import pytest
 from click.testing import CliRunner
 from conftest import (
     REPO,
@@ -86,6 +88,38 @@ def test_what_if_is_never_mistaken_for_a_classification(tmp_path, monkeypatch):
     # the classification column always holds the standard's group; the what-if has its own columns
     assert [r["risk_group"] for r in rows] == [far["risk_group"]] * 2
     assert rows[0]["what_if_risk_group"] == "Exempt" and rows[0]["what_if_distance [mm]"] == "5000"
+
+
+def test_a_what_if_names_its_own_deciding_hazards_and_both_groups(tmp_path, monkeypatch):
+    # The small red emitter of method §3 (0.1 mm at 200 mm, E_R = 150 W/m², R = 1 at 650 nm, IEC 62471:2006
+    # Table 4.2) is RG3 at the standard's 200 mm by L_R. At 1000 mm it is Exempt: the what-if's deciding
+    # hazards are those in its own Exempt group, L_R among them, and L_R is the one closest to its limit (its
+    # 11 mrad average is 150·(0.2)²/Ω(11 mrad) = 6.3e4 W/(m²·sr) against 28000/0.011 = 2.5e6: 2.5 %; E_B is
+    # B(650) = 0.001 × 150 × 0.04 = 6e-3 W/m² against 1 W/m²: 0.6 %).
+    write_spectrum(tmp_path / "red.csv", GRID, triangle_line(GRID, 650.0, 150.0))
+    monkeypatch.chdir(tmp_path)
+    options = ["--distance-mm", "200", "--source-diameter-mm", "0.1", "--no-emission-outside", "--at-distance-mm"]
+    ran = CliRunner().invoke(main, ["assess", "red.csv", *options, "1000", "--format", "json", "--output", "r.json"])
+    assert ran.exit_code == 0
+    assert "(red: what-if at 1000 mm: Exempt; at the standard's distance: RG3)" in ran.stderr
+    result = json.loads((tmp_path / "r.json").read_text())
+    assert result["risk_group"] == "Exempt" and result["standard_risk_group"] == "RG3"
+    assert "L_R" in result["deciding_hazards"]
+    closest = max(result["deciding_hazards"], key=lambda s: result["hazards"][s]["margins"]["Exempt"])
+    assert closest == "L_R"
+    assert result["hazards"]["L_R"]["margins"]["Exempt"] == pytest.approx(0.025, rel=0.03)
+    # noise-level hazards (E_S, E_UVA, E_IR far below their limits) are not split by wavelength band
+    assert set(result["contributions"]) == {"E_B", "L_R", "E_H"} and result["remedies"]["uv_bands"] == {}
+    text = CliRunner().invoke(main, ["assess", "red.csv", *options[:-1]]).stdout
+    assert not re.search(r"\de[+-]\d", text)  # no exponent form ("1e+02 %") anywhere in the text output
+
+
+def test_band_shares_read_as_percentages(tmp_path, monkeypatch):
+    # A UV line within one 5 nm band (266.5–268.5 nm) puts all of E_S there: "100 %", never "1e+02 %"
+    write_spectrum(tmp_path / "uv.csv", GRID, triangle_line(GRID, 267.5, 0.01))
+    monkeypatch.chdir(tmp_path)
+    text = CliRunner().invoke(main, ["assess", "uv.csv", *SIZE_OPTIONS, "--no-emission-outside"]).stdout
+    assert "E_S comes mostly from 265–270 nm 100 %" in text
 
 
 def _assess_in_a_process(args, cwd):

@@ -33,3 +33,11 @@ def test_demo_writes_consistent_outputs(tmp_path):
     assert len(PdfReader(out / "summary.pdf").pages) >= 1
     for product_id in results:
         assert product_id in run.stdout  # the on-screen table lists every product
+    lines = {line.split()[0]: line for line in run.stdout.splitlines() if line.startswith("CL-")}
+    for product_id, result in results.items():
+        # the margin column reads from the group's boundaries (method §3); an Exempt product names its hazard
+        # nearest the Exempt limit, so its headroom is never blank
+        if result["risk_group"] == "Exempt" and result["emission"] is None:
+            closest = max((h["margins"]["Exempt"], s) for s, h in result["hazards"].items() if h["margins"])
+            assert f"{closest[1]}: " in lines[product_id] and "of Exempt limit" in lines[product_id]
+    assert "1.8× RG1 limit; 0.45 % of RG2 limit" in lines["CL-GROW-30"]

@@ -110,7 +110,7 @@ def _lamp(wl):
 @pytest.mark.parametrize(
     ("header", "problem"),
     [
-        ("E (furlongs/fortnight)", "a unit this tool does not read"),
+        ("E (furlongs/fortnight)", "whose unit 'furlongs/fortnight' this tool does not read"),
         ("Counts", "not a calibrated spectral irradiance or radiance"),
         ("Irradiance (W/m2)", "a power per area without /nm"),
         ("Signal [%]", "not a calibrated spectral irradiance or radiance"),

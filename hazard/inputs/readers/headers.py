@@ -96,11 +96,11 @@ def header_statement(cell: str) -> HeaderStatement:
     >>> header_statement("Irradiance [mW/m²/nm]").unit, header_statement("irradiance").problem
     ('mW/m²/nm', None)
     >>> header_statement("Counts").problem
-    "'Counts' names values that are not a calibrated spectral irradiance or radiance"
+    "'Counts', which names values that are not a calibrated spectral irradiance or radiance"
     >>> header_statement("Irradiance (W/m2)").problem
-    "'Irradiance (W/m2)' states 'W/m2', a power per area without /nm: not a spectral quantity"
+    "'Irradiance (W/m2)', whose unit 'W/m2' is a power per area without /nm: not a spectral quantity"
     >>> header_statement("E (furlongs/fortnight)").problem
-    "'E (furlongs/fortnight)' states 'furlongs/fortnight', a unit this tool does not read"
+    "'E (furlongs/fortnight)', whose unit 'furlongs/fortnight' this tool does not read"
     """
     stated = _unit_text(cell)
     for candidate in (stated, cell):
@@ -112,14 +112,15 @@ def header_statement(cell: str) -> HeaderStatement:
             return HeaderStatement(cell, unit=candidate)
     if _UNCALIBRATED.search(cell):
         return HeaderStatement(
-            cell, problem=f"{cell!r} names values that are not a calibrated spectral irradiance or radiance"
+            cell, problem=f"{cell!r}, which names values that are not a calibrated spectral irradiance or radiance"
         )
     if stated:
         if _per_area(stated):
             return HeaderStatement(
-                cell, problem=f"{cell!r} states {stated!r}, a power per area without /nm: not a spectral quantity"
+                cell,
+                problem=f"{cell!r}, whose unit {stated!r} is a power per area without /nm: not a spectral quantity",
             )
-        return HeaderStatement(cell, problem=f"{cell!r} states {stated!r}, a unit this tool does not read")
+        return HeaderStatement(cell, problem=f"{cell!r}, whose unit {stated!r} this tool does not read")
     return HeaderStatement(cell)
 
 
