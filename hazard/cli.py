@@ -278,6 +278,12 @@ def _load_result(path: Path, product_id: str | None):
             fix_missing=fix,
             fix_large="give one result written by 'hazard assess --format json', or --id",
         )
+        lines = raw.strip().splitlines()
+        if len(lines) > 1 and all(line.startswith(b"{") and line.endswith(b"}") for line in lines):
+            # one product per line (a batch's results.jsonl): say which option picks one
+            raise InputError(
+                f"a results file of {len(lines)} lines, one product each", "name the product with --id", str(path)
+            )
     else:
         raw, line_number = _result_line(path, product_id, fix)
     try:

@@ -67,6 +67,10 @@ def test_report_refuses_a_result_whose_groups_do_not_follow_from_its_numbers(tmp
     assert CliRunner().invoke(main, ["report", "results.jsonl", "--id", "B", "--output", "b.pdf"]).exit_code == 0
     line = CliRunner().invoke(main, ["report", "results.jsonl", "--id", "uv", "--output", "c.pdf"])
     assert line.exit_code == 2 and "changed after it was made" in line.stderr
+    whole = CliRunner().invoke(main, ["report", "results.jsonl", "--output", "d.pdf"])  # which product?
+    assert whole.exit_code == 2 and "a results file of 2 lines, one product each; fix: name the product with --id" in (
+        whole.stderr
+    )
 
 
 @pytest.mark.parametrize("rate_hz", [None, 5.0], ids=["single pulse", "train"])
