@@ -125,6 +125,18 @@ def _table_rows(header: list, rows, path: Path) -> list[ManifestRow]:
         }
         if not fields:
             continue
+        extra = [c for c in cells[len(header) :] if _cell(c) not in (None, "")]
+        problem = (
+            InputError(
+                f"the row has {len(extra)} more cell(s) than the header has columns ({excerpt(str(extra[0]))} is "
+                "the first); its fields may have shifted",
+                "quote a cell that holds the delimiter, or remove the extra cells",
+                str(path),
+                number,
+            )
+            if extra
+            else None
+        )
         if len(result) >= MAX_MANIFEST_ROWS:
             raise InputError(f"more than {MAX_MANIFEST_ROWS:,} products", "split the manifest", str(path), number)
         result.append(
@@ -134,8 +146,11 @@ def _table_rows(header: list, rows, path: Path) -> list[ManifestRow]:
                 base_dir=folder,
                 root=folder,
                 inputs={f"{manifest}:{fields.get('id', number)}": _row_digest(fields)},
+                problem=problem,
             )
         )
+    if not result:
+        raise InputError("the manifest lists no products", "add one row per product under the header", str(path))
     return result
 
 

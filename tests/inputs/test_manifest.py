@@ -86,3 +86,23 @@ def test_xlsx_manifest_with_a_date_cell(tmp_path):
     outcome = run_batch(path, tmp_path / "out")
     assert outcome.exit_code == 0 and list(outcome.assessments) == ["A", "2024-05-02"]
     assert outcome.assessments["A"].name == "2024-05-01 12:00:00"
+
+
+def test_a_row_longer_than_the_header_fails_alone_and_an_empty_manifest_is_refused(tmp_path):
+    # An unquoted comma in a name shifts every later cell of its row (the distance would be read from the spectrum
+    # column): that row fails with its line and the fix, the others are assessed (one bad product never stops a
+    # batch). A manifest without any product row is refused: an empty summary would read as "nothing found".
+    copy_lineup(tmp_path)
+    manifest = tmp_path / "m.csv"
+    manifest.write_text(
+        "id,name,spectrum,distance_mm,source_diameter_mm\n"
+        "A,Desk lamp 5W,cl-desk-30.csv,500,30\nB,Desk lamp, 5W,cl-desk-30.csv,500,30\n"
+    )
+    rows = read_manifest(manifest)
+    assert rows[0].problem is None
+    assert_one_line(rows[1].problem, "m.csv:3", "1 more cell(s) than the header", "quote a cell")
+    ran = run_process("batch", str(manifest), "--output", str(tmp_path / "out"))
+    assert ran.returncode == 3 and (tmp_path / "out" / "summary.csv").read_text().count("\n") == 3
+    (tmp_path / "empty.csv").write_text("id,spectrum\n\n")
+    refused = run_process("batch", str(tmp_path / "empty.csv"), "--output", str(tmp_path / "out2"))
+    assert refused.returncode == 2 and "the manifest lists no products" in refused.stderr
