@@ -83,14 +83,22 @@ def parse_duration_s(value: object) -> object:
     return value
 
 
+SHORTEST_S = 1e-9
+"""Shortest pulse or exposure read [s]: the exposure limits for incoherent sources do not reach below a
+nanosecond (the retinal-thermal one starts at 10 µs and is held there), and shorter times overflow t^−1 terms."""
+
+
 def _positive_duration(value: float) -> float:
-    if not 0 < value <= DAY_S:
-        raise ValueError(f"{value:g} s is not a duration within a day: give more than 0 and at most {DAY_S:g} s")
+    if not SHORTEST_S <= value <= DAY_S:
+        raise ValueError(
+            f"{value:g} s is not a usable duration: give at least {SHORTEST_S:g} s (1 ns) and at most {DAY_S:g} s "
+            "(a day)"
+        )
     return value
 
 
 Duration = Annotated[float, BeforeValidator(parse_duration_s), AfterValidator(_positive_duration)]
-"""A duration in seconds, more than 0 and at most a day; text with a unit (``15min``) is read [s]."""
+"""A duration in seconds, from a nanosecond to a day; text with a unit (``15min``) is read [s]."""
 
 
 class ExposureEntry(BaseModel):
