@@ -203,9 +203,16 @@ def format_duration_s(seconds: float | None) -> str:
     --------
     >>> format_duration_s(263.49), format_duration_s(0.2499), format_duration_s(9000), format_duration_s(None)
     ('4.3 min', '0.24 s', '2.5 h', '—')
+
+    Zero: the limit is exceeded by any exposure, however brief (a limit held at its shortest-time value).
+
+    >>> format_duration_s(0.0)
+    'at once'
     """
     if seconds is None:
         return "—"
+    if seconds <= 0:
+        return "at once"
     scale, unit = next((scale, unit) for scale, threshold, unit in _DURATION_UNITS if seconds >= threshold)
     amount = seconds / scale
     return f"{round_down(amount, 2)} {unit}" if amount < 10 else f"{math.floor(amount):.0f} {unit}"

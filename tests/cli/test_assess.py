@@ -122,6 +122,22 @@ def test_band_shares_read_as_percentages(tmp_path, monkeypatch):
     assert "E_S comes mostly from 265–270 nm 100 %" in text
 
 
+def test_a_limit_exceeded_at_once_prints_and_renders(tmp_path, monkeypatch):
+    # A green line of E_R = 10⁴ W/m² from a 2 mm disc at 200 mm (R = 1 at 550 nm, IEC 62471:2006 Table 4.2): the
+    # disc (α = 10 mrad) fills every field, so L_R = E/Ω_s = 10⁴/7.85e-5 = 1.27e8 W/(m²·sr), over even the L_R
+    # limit at 10 µs, 50000/(0.01·(1e-5)^0.25) = 8.9e7 (§4.3.5), so t_max is 0: printed "at once", never a crash
+    write_spectrum(tmp_path / "green.csv", GRID, triangle_line(GRID, 550.0, 1e4))
+    monkeypatch.chdir(tmp_path)
+    options = ["--distance-mm", "200", "--source-diameter-mm", "2", "--no-emission-outside", "--pdf", "g.pdf"]
+    ran = CliRunner().invoke(main, ["assess", "green.csv", *options])
+    assert ran.exit_code == 0, ran.stderr
+    l_r = next(line for line in ran.stdout.splitlines() if line.startswith("L_R "))
+    assert " at once " in l_r and " RG3 " in l_r
+    from pypdf import PdfReader
+
+    assert "t_max at once" in " ".join(PdfReader(tmp_path / "g.pdf").pages[0].extract_text().split())
+
+
 def _assess_in_a_process(args, cwd):
     """The real command in a fresh interpreter, as a user runs it."""
     env = {**os.environ, "PYTHONPATH": os.pathsep.join(filter(None, [str(REPO), os.environ.get("PYTHONPATH")]))}
