@@ -6,7 +6,9 @@ act on.
 
 from __future__ import annotations
 
-from hazard.assessment.pipeline import anchor_photometric
+import numpy as np
+
+from hazard.assessment.pipeline import anchor_photometric, radiance_fill, source_shape
 from hazard.inputs.loading import LoadedProduct
 from hazard.inputs.record import ProductRecord
 from hazard.inputs.units import IRRADIANCE_SI
@@ -204,6 +206,15 @@ def assumptions_for(loaded: LoadedProduct, ev: Evaluation, i: int) -> list[str]:
         assumptions.append(
             "Irradiance derived as L·Ω_s from the measured radiance and the stated source size (uniform source)."
         )
+        fill = float(
+            radiance_fill([record], source_shape([record]), np.array([record.distance_mm or np.nan]) * 1e-3)[0]
+        )
+        if fill > 1:
+            assumptions.append(
+                f"The radiance was measured over a {record.measurement_fov_mrad:g} mrad field, wider than the source "
+                f"seen from {record.distance_mm:g} mm: the meter averaged the source over its whole field, so the "
+                f"source's own radiance is taken as the reading × {fill:.4g} (Ω_fov/Ω_s)."
+            )
     return assumptions
 
 

@@ -18,7 +18,7 @@ import numpy as np
 from hazard.inputs.loading import LoadedProduct
 from hazard.inputs.record import ProductRecord
 from hazard.method.evaluate import Evaluation, ProductArrays, evaluate, integral_index
-from hazard.method.geometry import SourceShape
+from hazard.method.geometry import SourceShape, cone_solid_angle_sr
 from hazard.method.integrals import Integrated, integrate_spectra
 from hazard.method.photometry import LUMINOUS_SHARE_FLOOR, cct_from_xyz
 from hazard.standards import DEFAULT_LIMIT_SET, LimitSet
@@ -52,12 +52,13 @@ def product_arrays(
     distance = np.array(
         [np.nan if r.reference_distance_mm is None else r.reference_distance_mm * 1e-3 for r in records]
     )
+    shape = source_shape(records)
     return ProductArrays(
         raw=np.atleast_2d(raw),
         covered=np.atleast_2d(covered),
         is_radiance=np.array([r.effective_quantity == "radiance" for r in records])[take],
         measurement_distance_m=distance[take],
-        shape=source_shape(records).take(take),
+        shape=shape.take(take),
         is_gls=np.array([r.lamp_type == "gls" for r in records])[take],
         anchor_photometric=np.array([anchor_photometric(r) for r in records])[take],
         luminous_intensity_cd=np.array(
@@ -71,7 +72,26 @@ def product_arrays(
             take
         ],
         pulse_rate_hz=np.array([np.nan if r.pulse_rate_hz is None else r.pulse_rate_hz for r in records])[take],
+        radiance_fill=radiance_fill(records, shape, distance)[take],
     )
+
+
+def radiance_fill(records: list[ProductRecord], shape: SourceShape, distance_m: np.ndarray) -> np.ndarray:
+    """Per record, max(1, Ω_fov/Ω_s): how much a radiance reading understates the source's radiance [1].
+
+    A meter with a field of view wider than the source (seen from ``distance_m``, where it measured) averages the
+    source over its whole field; a narrower field reads the source's own radiance. Ones for records that are not
+    a measured radiance or state no field of view.
+    """
+    fov = np.array(
+        [
+            r.measurement_fov_mrad * 1e-3 if r.effective_quantity == "radiance" and r.measurement_fov_mrad else np.nan
+            for r in records
+        ]
+    )
+    with np.errstate(invalid="ignore", divide="ignore"):
+        ratio = cone_solid_angle_sr(fov) / shape.solid_angle_sr(distance_m)
+    return np.where(np.isnan(ratio), 1.0, np.maximum(ratio, 1.0))
 
 
 def anchor_photometric(record: ProductRecord) -> float:

@@ -294,7 +294,10 @@ class ProductRecord(BaseModel):
         "a band count as zero.",
     )
     measurement_fov_mrad: float | None = Field(
-        None, gt=0, description="Field of view of a radiance measurement [mrad]."
+        None,
+        gt=0,
+        description="Field of view of a radiance measurement [mrad] (full angle); needs distance_mm, where it was "
+        "measured: a field wider than the source is corrected by Ω_fov/Ω_s.",
     )
     illuminance_lx: float | None = Field(
         None, gt=0, description="Anchor of a relative spectrum: illuminance at distance_mm [lx]."
@@ -442,6 +445,11 @@ class ProductRecord(BaseModel):
             raise ValueError("distance_mm is required for an irradiance spectrum (the measurement distance)")
         if self.source_alpha_mrad is not None and self.distance_mm is None:
             raise ValueError("source_alpha_mrad needs distance_mm, the distance at which it was measured")
+        if self.measurement_fov_mrad is not None and self.distance_mm is None and self.quantity != "irradiance":
+            raise ValueError(
+                "measurement_fov_mrad needs distance_mm, where the radiance was measured: a meter whose field is "
+                "wider than the source reads low by the ratio of the solid angles"
+            )
         anchors = [a for a in ANCHORS if getattr(self, a) is not None]
         if self.quantity == "relative":
             if self.unit is not None and self.unit.strip().lower() not in RELATIVE_UNITS:

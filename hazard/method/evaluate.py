@@ -118,6 +118,11 @@ class ProductArrays:
         (on-state) spectrum [s]; NaN (or not given) for a continuous source.
     pulse_rate_hz : numpy.ndarray, optional
         (n,) pulse rate of a pulse train [Hz]; NaN (or not given) for a single pulse or a continuous source.
+    radiance_fill : numpy.ndarray, optional
+        (n,) for a measured radiance, the factor by which the reading understates the source's own radiance: a
+        meter whose field of view is wider than the source averages over its whole field, so the source's
+        radiance is the reading × Ω_fov/Ω_s (method §4, L_γ = E/max(Ω_s, Ω_γ), read backwards) [1]. Ones when
+        not given.
     """
 
     raw: np.ndarray
@@ -132,6 +137,7 @@ class ProductArrays:
     forced_distance_m: np.ndarray | None = None
     pulse_duration_s: np.ndarray | None = None
     pulse_rate_hz: np.ndarray | None = None
+    radiance_fill: np.ndarray | None = None
 
     def rows(self, index: np.ndarray) -> ProductArrays:
         """The products at ``index`` (repeats allowed), e.g. one product many times for a what-if sweep."""
@@ -152,6 +158,7 @@ class ProductArrays:
             forced_distance_m=pick(self.forced_distance_m),
             pulse_duration_s=pick(self.pulse_duration_s),
             pulse_rate_hz=pick(self.pulse_rate_hz),
+            radiance_fill=pick(self.radiance_fill),
         )
 
 
@@ -364,7 +371,8 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
     omega_s = field.omega_s
     alpha = arrays.shape.alpha_rad(distance)
     d_m = np.nan_to_num(arrays.measurement_distance_m, nan=1.0)
-    scale = np.where(arrays.is_radiance, omega_s, inverse_square_factor(d_m, distance))
+    fill = np.ones(n) if arrays.radiance_fill is None else arrays.radiance_fill
+    scale = np.where(arrays.is_radiance, omega_s * fill, inverse_square_factor(d_m, distance))
     irradiance = raw * scale[:, None]
     illuminance = K_M_LM_PER_W * irradiance[:, v]
     luminance = illuminance / omega_s
@@ -461,7 +469,8 @@ def _blue_light_transfer(
         threshold = np.where(efficacy > 0, threshold_w_m2 / efficacy, np.nan)
         width, height = arrays.shape.width_m, arrays.shape.height_m
         area = np.where(arrays.shape.is_disc, np.pi * width**2 / 4, width * np.nan_to_num(height))
-        estimated = np.where(arrays.is_radiance, K_M_LM_PER_W * visual * area, K_M_LM_PER_W * visual * d_m**2)
+        fill = 1.0 if arrays.radiance_fill is None else arrays.radiance_fill
+        estimated = np.where(arrays.is_radiance, K_M_LM_PER_W * visual * fill * area, K_M_LM_PER_W * visual * d_m**2)
         intensity = np.where(np.isnan(arrays.luminous_intensity_cd), estimated, arrays.luminous_intensity_cd)
         distance = np.sqrt(intensity / threshold)
     return {

@@ -86,10 +86,20 @@ BAD = [
     pytest.param(
         ["--quantity", "radiant_exposure", "--unit", "J/m2/nm"], "exposure of one pulse", id="dose, continuous"
     ),
-    pytest.param(["--exposure-distance-mm", "500", "--exposure-duration-s", "0"], "within a day", id="zero duration"),
+    pytest.param(
+        ["--exposure-distance-mm", "500", "--exposure-duration-s", "0"], "not a usable duration", id="zero duration"
+    ),
     pytest.param(["--exposure-distance-mm", "500", "--exposure-duration-s", "-5min"], "not a duration", id="negative"),
-    pytest.param(["--exposure-distance-mm", "500", "--exposure-duration-s", "25h"], "within a day", id="over a day"),
-    pytest.param(["--exposure", "distance_mm=500,duration_s=2d"], "within a day", id="table over a day"),
+    pytest.param(
+        ["--exposure-distance-mm", "500", "--exposure-duration-s", "25h"], "at most 86400 s (a day)", id="over a day"
+    ),
+    pytest.param(
+        # shorter than the limits reach (IEC 62471:2006 4.3: the shortest is 10 µs); 1e-320 s overflowed t^-1 terms
+        ["--emission", "single_pulse", "--pulse-duration-s", "1e-320"],
+        "at least 1e-09 s (1 ns)",
+        id="under a nanosecond",
+    ),
+    pytest.param(["--exposure", "distance_mm=500,duration_s=2d"], "at most 86400 s (a day)", id="table over a day"),
     pytest.param(["--exposure-duration-s", "2h"], "go together", id="duration without distance"),
     pytest.param(
         ["--emission", "single_pulse", "--pulse-duration-s", "1ms", "--exposure", "distance_mm=500,duration_s=1h"],
@@ -229,6 +239,15 @@ def test_bad_pulse_and_exposure_input_is_one_line(tmp_path, options, message):
     lines = result.stderr.splitlines()
     assert len(lines) == 1 and lines[0].startswith("hazard: error: ") and message in lines[0], result.stderr
     assert "Traceback" not in result.stderr and result.stdout == ""
+
+
+def test_a_radiance_field_of_view_needs_the_measurement_distance(tmp_path):
+    # method §4: whether the source filled the meter's field depends on where it was measured from
+    spectrum = tmp_path / "lamp.csv"
+    spectrum.write_text("wavelength_nm,value\n400,0.1\n500,0.2\n600,0.1\n", encoding="utf-8")
+    options = ["--quantity", "radiance", "--source-diameter-mm", "5", "--measurement-fov-mrad", "100"]
+    result = CliRunner().invoke(main, ["assess", str(spectrum), *options])
+    assert result.exit_code == 2 and "--measurement-fov-mrad needs --distance-mm" in result.stderr
 
 
 def test_relative_spectrum_needs_one_anchor(tmp_path):

@@ -144,7 +144,6 @@ def test_radiance_input_gives_irradiance_by_source_solid_angle():
         distance_mm=None,  # a radiance needs no measurement distance
         source_diameter_mm=20.0,
         no_emission_outside=True,
-        measurement_fov_mrad=5.0,
     )
     omega_s = 2 * math.pi * (1 - math.cos(math.atan(20 / 400)))
     assert a.hazards["E_IR"].value == pytest.approx(1000 * omega_s, rel=1e-9)
@@ -287,3 +286,30 @@ def test_peak_to_mean_multiplies_radiance_in_small_fields():
         assert h.compared[group] == pytest.approx(3 * u.compared[group])
     assert h.compared["Exempt"] == pytest.approx(u.compared["Exempt"])  # the 0.1 rad field is wider than it
     assert h.t_max_s == pytest.approx(u.t_max_s / 3)  # §4.3.3: t = 10^6 / L_B
+
+
+@pytest.mark.parametrize(("fov_mrad", "fill"), [(1.0, 1.0), (100.0, None)])
+def test_radiance_read_over_a_field_wider_than_the_source(fov_mrad, fill):
+    # method §4: a field γ wider than the source averages it, L_γ = E/max(Ω_s, Ω_γ); read backwards, a meter
+    # with a 100 mrad field on a 1 mm disc at 200 mm (5 mrad) reads the source's radiance × Ω_s/Ω_fov, so the
+    # source's own radiance is the reading × Ω_fov/Ω_s (about 400), and E = reading × Ω_fov. A 1 mrad field
+    # is filled by the source and reads its radiance.
+    from hazard.method.geometry import SourceShape
+
+    reading = 1000.0  # L_B read by the meter [W/(m²·sr)], B = 1 at 437.5 nm (IEC 62471:2006 Table 4.2)
+    a = _assess(
+        triangle_line(GRID_HALF_NM, 437.5, reading, 1.0),
+        quantity="radiance",
+        distance_mm=200.0,
+        source_diameter_mm=1.0,
+        measurement_fov_mrad=fov_mrad,
+    )
+    omega_s = float(SourceShape(np.array([1e-3]), np.array([np.nan])).solid_angle_sr(0.2)[0])
+    expected_fill = fill if fill is not None else float(cone_solid_angle_sr(fov_mrad * 1e-3)) / omega_s
+    assert expected_fill == pytest.approx(400.0, rel=1e-3) or fill == 1.0
+    assert a.hazards["L_R"].value == pytest.approx(10 * reading * expected_fill, rel=2e-3)  # R = 10·B
+    # the 5 mrad source is small (α < 11 mrad): E_B = L·Ω_s at 200 mm
+    assert a.hazards["E_B"].value == pytest.approx(reading * expected_fill * omega_s, rel=2e-3)
+    # E_B = 1000 × Ω_s = 0.0196 W/m² read as it is (Exempt), 7.85 W/m² corrected: over 1, under 400 (Table 6.1)
+    assert a.risk_group == ("Exempt" if fill == 1.0 else "RG2")
+    assert any("wider than the source" in s for s in a.assumptions) == (fill is None)

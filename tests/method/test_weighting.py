@@ -225,7 +225,6 @@ def _record(quantity, diameter_mm):
             "unit": "W/m2/sr/nm",
             "source_diameter_mm": diameter_mm,
             "no_emission_outside": True,
-            "measurement_fov_mrad": 1.0,
             "distance_mm": None,
         }
     return {"source_diameter_mm": diameter_mm, "no_emission_outside": True}
