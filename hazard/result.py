@@ -115,6 +115,11 @@ class HazardResult(_Frozen):
     exposure_limit: str | None = Field(description="The exposure limit formula.")
     note: str = Field(description="Why the hazard was or was not assessed, in a sentence.")
     pulse: PulseCheck | None = Field(None, description="Pulsed sources: the pulses against the exposure limit.")
+    lower_bound_group: RiskGroup | None = Field(
+        None,
+        description="Not assessed, yet the measured part of the band alone already gives this group (above "
+        "Exempt): the hazard's group is at least this, since spectra and weights are non-negative.",
+    )
 
 
 class Photometry(_Frozen):

@@ -172,6 +172,8 @@ def remedy_lines(a: Assessment) -> list[str]:
         if r.area_factor is not None:
             how += f", or with a diffuser: {area_text(r.area_factor)}"
         lines.append(how)
+    if lines and not a.complete:
+        lines.append("from the measured data only: hazards not assessed may need more")
     if not lines:
         lines.append(
             "already in the lowest group"

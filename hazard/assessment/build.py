@@ -31,8 +31,8 @@ from hazard.inputs.record import ProductRecord
 from hazard.inputs.spectrum import Spectrum
 from hazard.method.contributions import NEGLIGIBLE_SHARE_OF_EXEMPT, spectral_shares
 from hazard.method.evaluate import Evaluation, HazardArrays, evaluate, integral_index, share_key
-from hazard.method.integrals import integrate_spectra
-from hazard.output.formatting import format_duration_s
+from hazard.method.integrals import integrate_spectra, widest_gap_nm
+from hazard.output.formatting import UNIT_DISPLAY, format_duration_s, format_value
 from hazard.result import (
     Assessment,
     DistanceStudy,
@@ -86,10 +86,9 @@ def _missing_text(range_nm: tuple[float, float], band: tuple[float, float]) -> s
     return " and ".join(gaps)
 
 
-def _hazard_results(
-    ev: Evaluation, i: int, spectrum_range: tuple[float, float], limit_set: LimitSet
-) -> dict[str, HazardResult]:
+def _hazard_results(ev: Evaluation, i: int, wavelength_nm: np.ndarray, limit_set: LimitSet) -> dict[str, HazardResult]:
     boundaries = limit_set.boundaries
+    spectrum_range = (float(wavelength_nm[0]), float(wavelength_nm[-1]))
     results = {}
     for symbol, h in ev.hazards.items():
         if not h.applicable[i]:
@@ -99,12 +98,25 @@ def _hazard_results(
         limits = {g: float(h.limits[i, k]) for k, g in enumerate(boundaries)} if grouped else {}
         compared = {g: float(h.compared[i, k]) for k, g in enumerate(boundaries)} if grouped else {}
         band = f"{spec.band_nm[0]:g}–{spec.band_nm[1]:g} nm"
+        lower = int(h.lower_bound_index[i])
         if not h.assessed[i]:
+            hole = widest_gap_nm(wavelength_nm, spec.band_nm)
             note = (
-                f"Not assessed: the spectrum covers {spectrum_range[0]:g}–{spectrum_range[1]:g} nm and the "
+                f"Not assessed: the spectrum has no samples between {hole[0]:g} and {hole[1]:g} nm, inside the band "
+                f"{band}; across such a gap the spectrum is unknown: measure it without the gap."
+                if hole is not None
+                else f"Not assessed: the spectrum covers {spectrum_range[0]:g}–{spectrum_range[1]:g} nm and the "
                 f"band needs {band} (missing {_missing_text(spectrum_range, spec.band_nm)}); measure the "
                 f"missing range, or set no_emission_outside if the source emits nothing there."
             )
+            if lower >= 1:
+                boundary = boundaries[lower - 1]
+                note += (
+                    f" The measured part alone already exceeds the {boundary} limit "
+                    f"({format_value(float(h.compared[i, lower - 1]))} against "
+                    f"{format_value(float(h.limits[i, lower - 1]))} {UNIT_DISPLAY[spec.unit]}): "
+                    f"at least {GROUPS[lower]}."
+                )
         elif not grouped:
             note = f"Assessed over {band}; exposure limit only, IEC 62471 gives this hazard no risk group."
         else:
@@ -160,6 +172,7 @@ def _hazard_results(
             exposure_limit=spec.exposure_limit.text,
             note=note,
             pulse=pulse,
+            lower_bound_group=GROUPS[lower] if (lower >= 1 and not h.assessed[i]) else None,
         )
     return results
 
@@ -226,7 +239,7 @@ def _exposure(loaded: LoadedProduct, limit_set: LimitSet = DIRECTIVE_2006_25) ->
         return None
     spectrum = loaded.spectrum
     integrated = integrate_spectra([spectrum.wavelength_nm], [spectrum.value], [record.no_emission_outside], limit_set)
-    arrays = product_arrays([record], integrated.raw, integrated.covered)
+    arrays = product_arrays([record], integrated)
     exposures = [
         Exposure(label=e.label or f"exposure {k}", distance_m=e.distance_mm * 1e-3, duration_s=e.duration_s)
         for k, e in enumerate(record.exposures, start=1)
@@ -243,7 +256,7 @@ def _studies(
     true).
     """
     record, limit_set, ev = loaded.record, batch.limit_set, batch.evaluation
-    arrays = product_arrays([record], batch.integrated.raw[i], batch.integrated.covered[i])
+    arrays = product_arrays([record], batch.integrated.rows(i))
     out: dict[str, UncertaintyStudy | DistanceStudy | Remedies] = {}
     if ev.group_index[i] < 0:
         return out
@@ -287,13 +300,13 @@ def _claim_basis(
 
     ``variants`` is the product's own uncertainty study, reused when the claims' distance is the assessment's.
     """
-    record, limit_set, spectrum_range = loaded.record, batch.limit_set, loaded.spectrum.range_nm
+    record, limit_set, wavelength_nm = loaded.record, batch.limit_set, loaded.spectrum.wavelength_nm
     standard_mm = float(batch.standard.assessment_distance_m[i]) * 1e3
     own_mm = float(batch.evaluation.assessment_distance_m[i]) * 1e3
     distance_mm = standard_mm if record.claimed_distance_mm is None else record.claimed_distance_mm
     at_standard = bool(np.isclose(distance_mm, standard_mm, rtol=1e-12, atol=0.0))
     arrays = dataclasses.replace(
-        product_arrays([record], batch.integrated.raw[i], batch.integrated.covered[i]),
+        product_arrays([record], batch.integrated.rows(i)),
         forced_distance_m=None if at_standard else np.array([distance_mm * 1e-3]),
     )
     ev, row = (batch.standard, i) if at_standard else (evaluate(arrays, limit_set), 0)
@@ -302,7 +315,7 @@ def _claim_basis(
     elif variants is None or not np.isclose(distance_mm, own_mm, rtol=1e-12, atol=0.0):
         variants = _variants(loaded, arrays, limit_set)
     group = _group_name(ev.group_index[row])
-    hazards = _hazard_results(ev, row, spectrum_range, limit_set)
+    hazards = _hazard_results(ev, row, wavelength_nm, limit_set)
     return ClaimBasis(
         distance_mm=distance_mm,
         risk_group=group,
@@ -359,13 +372,13 @@ def build_assessment(
     ev, covered, raw = batch.evaluation, batch.integrated.covered[i], batch.integrated.raw[i]
     keys = integral_index(limit_set)
     v_covered = bool(covered[keys["V"]])
-    hazards = _hazard_results(ev, i, spectrum.range_nm, limit_set)
+    hazards = _hazard_results(ev, i, spectrum.wavelength_nm, limit_set)
     overall = _group_name(ev.group_index[i])
     d_a_mm = float(ev.assessment_distance_m[i]) * 1e3
     what_if = record.at_distance_mm is not None
     # claims and cautions are about the product as the standard classifies it: at the standard's distance;
     # a what-if never lowers a caution (each hazard's higher group of the two)
-    standard = _hazard_results(batch.standard, i, spectrum.range_nm, limit_set) if what_if else hazards
+    standard = _hazard_results(batch.standard, i, spectrum.wavelength_nm, limit_set) if what_if else hazards
     standard_overall = _group_name(batch.standard.group_index[i])
     standard_distance_mm = float(batch.standard.assessment_distance_m[i]) * 1e3
     groups = {
@@ -395,7 +408,9 @@ def build_assessment(
             illuminance_lx=float(ev.illuminance_lx[i]),
             hazards=hazards,
             not_assessed=[s for s, h in hazards.items() if not h.assessed],
-            deciding_hazards=[s for s, h in hazards.items() if overall is not None and h.risk_group == overall],
+            deciding_hazards=[
+                s for s, h in hazards.items() if overall is not None and overall in (h.risk_group, h.lower_bound_group)
+            ],
             geometry=Geometry(
                 measurement_distance_mm=record.distance_mm,
                 assessment_distance_mm=d_a_mm,

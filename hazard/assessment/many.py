@@ -18,7 +18,7 @@ from hazard.inputs.record import ProductRecord, load_record, record_from_fields
 from hazard.inputs.spectrum import VALUE_RULES, value_rule_broken
 from hazard.inputs.units import parse_spectral_unit
 from hazard.method.evaluate import integral_index
-from hazard.method.integrals import Integrated, integrate_matrix
+from hazard.method.integrals import integrate_matrix
 from hazard.standards import DEFAULT_LIMIT_SET, GROUPS, LimitSet
 
 __all__ = ["assess_many", "frame_columns"]
@@ -44,7 +44,10 @@ def frame_columns(limit_set: LimitSet = DEFAULT_LIMIT_SET) -> list[str]:
         "weak_visual_stimulus",
     ]
     for h in limit_set.hazards:
-        columns += [f"{h.symbol}_{part}" for part in ("applicable", "assessed", "value", "group", "t_max_s")]
+        columns += [
+            f"{h.symbol}_{part}"
+            for part in ("applicable", "assessed", "value", "group", "lower_bound_group", "t_max_s")
+        ]
         columns += [f"{h.symbol}_margin_{g}" for g in limit_set.boundaries]
     return columns
 
@@ -156,6 +159,7 @@ def _frame(batch: BatchEvaluation | None, ids: list[str], good: list[int], error
             data[f"{symbol}_assessed"] = spread(h.assessed, False)
             data[f"{symbol}_value"] = spread(np.where(h.assessed, h.value, np.nan))
             data[f"{symbol}_group"] = groups(np.where(h.assessed & grouped, h.group_index, -1))
+            data[f"{symbol}_lower_bound_group"] = groups(np.where(h.lower_bound_index >= 1, h.lower_bound_index, -1))
             data[f"{symbol}_t_max_s"] = spread(np.where(h.assessed, h.t_max_s, np.nan))
             for k, g in enumerate(limit_set.boundaries):
                 margin = h.compared[:, k] / h.limits[:, k] if grouped else np.nan
@@ -241,7 +245,7 @@ def assess_many(
     if not good:
         return _frame(None, ids, good, errors, limit_set)
     if len(good) < len(ids):
-        integrated = Integrated(integrated.raw[good], integrated.xyz[good], integrated.covered[good])
+        integrated = integrated.rows(good)
     usable = [k for k, ok in enumerate(is_record) if ok]
     renumber = np.full(len(validated), -1)
     renumber[usable] = np.arange(len(usable))

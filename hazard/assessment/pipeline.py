@@ -41,7 +41,7 @@ def source_shape(records: list[ProductRecord]) -> SourceShape:
 
 
 def product_arrays(
-    records: list[ProductRecord], raw: np.ndarray, covered: np.ndarray, index: np.ndarray | None = None
+    records: list[ProductRecord], integrated: Integrated, index: np.ndarray | None = None
 ) -> ProductArrays:
     """Stack records and their integrals for :func:`~hazard.method.evaluate.evaluate`.
 
@@ -54,8 +54,9 @@ def product_arrays(
     )
     shape = source_shape(records)
     return ProductArrays(
-        raw=np.atleast_2d(raw),
-        covered=np.atleast_2d(covered),
+        raw=np.atleast_2d(integrated.raw),
+        covered=np.atleast_2d(integrated.covered),
+        gap_free=np.atleast_2d(integrated.gap_free),
         is_radiance=np.array([r.effective_quantity == "radiance" for r in records])[take],
         measurement_distance_m=distance[take],
         shape=shape.take(take),
@@ -139,7 +140,7 @@ def evaluate_products(
     Colour only where V(λ) is covered and there is light. ``index`` maps products to ``records`` as in
     :func:`product_arrays`.
     """
-    arrays = product_arrays(records, integrated.raw, integrated.covered, index)
+    arrays = product_arrays(records, integrated, index)
     ev = evaluate(arrays, limit_set)
     standard = ev
     what_if = np.zeros(ev.group_index.size, dtype=bool)

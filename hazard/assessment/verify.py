@@ -109,7 +109,10 @@ def check_result(assessment: Assessment, path: str) -> None:
                 f"hazard {symbol} says {h.risk_group or 'no group'} but {shown} give {derived[symbol] or 'no group'}",
                 path,
             )
-    grouped = [limit_set.groups.index(g) for g in derived.values() if g is not None]
+    lower = {s: h.lower_bound_group for s, h in assessment.hazards.items() if h.lower_bound_group is not None}
+    if any(assessment.hazards[s].assessed for s in lower) or limit_set.groups[0] in lower.values():
+        raise _refuse("it gives a lower bound for an assessed hazard, or an Exempt one", path)
+    grouped = [limit_set.groups.index(g) for g in [*derived.values(), *lower.values()] if g is not None]
     overall = limit_set.groups[max(grouped)] if grouped else None
     if overall != assessment.risk_group:
         raise _refuse(

@@ -95,6 +95,9 @@ class ProductArrays:
         irradiance at the measurement distance [W m⁻²] or radiance [W m⁻² sr⁻¹].
     covered : numpy.ndarray
         (n, k) the spectrum spans the integral's band, or the record says there is no emission outside.
+    gap_free : numpy.ndarray
+        (n, k) the integral has no wide gap between samples, so over the measured part it is a lower bound of the
+        band's value (:class:`~hazard.method.integrals.Integrated`).
     is_radiance : numpy.ndarray
         (n,) the spectrum is a radiance.
     measurement_distance_m : numpy.ndarray
@@ -127,6 +130,7 @@ class ProductArrays:
 
     raw: np.ndarray
     covered: np.ndarray
+    gap_free: np.ndarray
     is_radiance: np.ndarray
     measurement_distance_m: np.ndarray
     shape: SourceShape
@@ -148,6 +152,7 @@ class ProductArrays:
         return ProductArrays(
             raw=self.raw[index],
             covered=self.covered[index],
+            gap_free=self.gap_free[index],
             is_radiance=self.is_radiance[index],
             measurement_distance_m=self.measurement_distance_m[index],
             shape=self.shape.take(index),
@@ -183,7 +188,15 @@ class HazardArrays:
     compared: np.ndarray
     alpha_bounded: np.ndarray
     raised_by_t_max: np.ndarray
+    lower_bound_index: np.ndarray
     pulse: PulseArrays | None = None
+
+    def at_least(self) -> np.ndarray:
+        """(n,) the group this hazard is known to reach (−1: nothing known).
+
+        Its group where assessed, else a lower bound above Exempt from the measured part of its band.
+        """
+        return np.maximum(self.group_index, np.where(self.lower_bound_index >= 1, self.lower_bound_index, -1))
 
 
 @dataclass(frozen=True)
@@ -304,8 +317,21 @@ class Viewed:
 
 
 def _hazard_arrays(
-    hazard: Hazard, limit_set: LimitSet, viewed: Viewed, covered: np.ndarray, alpha: np.ndarray, luminance: np.ndarray
+    hazard: Hazard,
+    limit_set: LimitSet,
+    viewed: Viewed,
+    covered: np.ndarray,
+    gap_free: np.ndarray,
+    alpha: np.ndarray,
+    luminance: np.ndarray,
+    luminance_known: np.ndarray,
 ) -> HazardArrays:
+    """One hazard for n products; where its band is only partly measured, the group of the measured part.
+
+    That part's integral is at most the band's value (non-negative spectra and weights), and the top-down reading
+    only rises with the values compared, so its group is a lower bound of the hazard's group. Not for the weak-stimulus
+    hazard while the luminance that selects it is itself only partly measured.
+    """
     n = alpha.size
     nan3 = np.full((n, 3), np.nan)
     radiance = hazard.kind == "radiance"
@@ -325,6 +351,9 @@ def _hazard_arrays(
         group, raised = hazard_groups(compared, limits, t_max, hazard.time_bases_s, limit_set.table_rounding)
     applicable = _applicable(hazard, limit_set, alpha, luminance)
     assessed = applicable & covered
+    partial = applicable & ~covered & gap_free
+    if hazard.applies == "weak_visual_stimulus":
+        partial &= luminance_known
     return HazardArrays(
         hazard=hazard,
         value=value,
@@ -336,6 +365,7 @@ def _hazard_arrays(
         compared=compared,
         alpha_bounded=alpha_bounded,
         raised_by_t_max=assessed & raised,
+        lower_bound_index=np.where(partial, group, -1),
     )
 
 
@@ -392,8 +422,11 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
         field=field,
         peak_to_mean=peak,
     )
+    luminance_known = arrays.covered[:, keys["V"]]
     hazards = {
-        h.symbol: _hazard_arrays(h, limit_set, viewed, arrays.covered[:, i], alpha, luminance)
+        h.symbol: _hazard_arrays(
+            h, limit_set, viewed, arrays.covered[:, i], arrays.gap_free[:, i], alpha, luminance, luminance_known
+        )
         for i, h in enumerate(limit_set.hazards)
     }
     if pulsed.any():
@@ -402,7 +435,7 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
         )
         checks = pulse_checks(peak_viewed, limit_set, pulse_duration, rate)
         hazards = {s: _with_pulses(h, checks[s], pulsed, train, rate) for s, h in hazards.items()}
-    group = np.max(np.column_stack([h.group_index for h in hazards.values()]), axis=1)
+    group = np.max(np.column_stack([h.at_least() for h in hazards.values()]), axis=1)
     complete = np.all(np.column_stack([h.assessed | ~h.applicable for h in hazards.values()]), axis=1)
     visible, total = raw[:, keys["VIS"]], raw[:, keys["ALL"]]
     return Evaluation(
@@ -441,11 +474,14 @@ def _with_pulses(
     grouped = h.group_index >= 0
     single = pulsed & ~train
     group = np.where(grouped & over & pulsed, 3, np.where(grouped & single, 0, h.group_index))
+    partial = h.lower_bound_index >= 0  # a pulse over its limit in the measured part alone is over it in the whole
+    lower = np.where(partial & over & pulsed, 3, np.where(partial & single, -1, h.lower_bound_index))
     with np.errstate(divide="ignore", invalid="ignore"):
         by_pulses = np.where(check.single > 1, 0.0, np.where(check.repeated > 1, check.single**-4.0 / rate_hz, np.nan))
     return dataclasses.replace(
         h,
         group_index=group,
+        lower_bound_index=lower,
         t_max_s=np.where(single, np.nan, np.where(train, np.fmin(h.t_max_s, by_pulses), h.t_max_s)),
         pulse=check,
         raised_by_t_max=h.raised_by_t_max & ~single,

@@ -44,12 +44,22 @@ class Integrated:
     xyz : numpy.ndarray
         (n, 3) CIE 1931 tristimulus integrals ∫X·x̄ dλ etc. (same scale as ``raw``).
     covered : numpy.ndarray
-        (n, k) the integral's band is spanned by the spectrum, or emission outside it is ruled out.
+        (n, k) the integral's band is spanned by the spectrum (or emission outside it is ruled out) and has no
+        gap between samples wider than :func:`widest_gap_nm` allows.
+    gap_free : numpy.ndarray
+        (n, k) no such gap: the integral over the measured part is then at most the band's true value (spectra
+        and weights are non-negative), a lower bound where the band is not covered.
     """
 
     raw: np.ndarray
     xyz: np.ndarray
     covered: np.ndarray
+    gap_free: np.ndarray
+
+    def rows(self, index) -> Integrated:
+        """The products at ``index`` (an int keeps a row of its own)."""
+        index = np.atleast_1d(index)
+        return Integrated(self.raw[index], self.xyz[index], self.covered[index], self.gap_free[index])
 
 
 _MATRICES = GridCache(32)
@@ -70,15 +80,60 @@ def integral_matrix(grid_nm: np.ndarray, limit_set: LimitSet) -> np.ndarray:
     return _MATRICES.get(grid_nm, specs, build)
 
 
-def coverage(range_nm: tuple[float, float], no_emission_outside: bool, limit_set: LimitSet) -> np.ndarray:
-    """Which integrals the spectrum can be trusted for.
+GAP_FLOOR_NM = 20.0
+"""A step between neighbouring samples up to this wide never makes a band unusable [nm]."""
+GAP_SHARE_OF_BAND = 0.1
+"""Nor does one up to this share of the band's width (a 222 nm step in the 780–3000 nm band) [1]."""
 
-    It spans the band, or the record rules out emission outside the measured range (method §5).
+
+def widest_gap_nm(grid_nm: np.ndarray, band_nm: tuple[float, float]) -> tuple[float, float] | None:
+    """The widest step between neighbouring samples within a band, when it is wider than the band allows.
+
+    A band allows steps up to max(:data:`GAP_FLOOR_NM`, :data:`GAP_SHARE_OF_BAND` × its width): coarse but
+    regular sampling (10 nm in the UV, 100 nm in the infrared) passes, while a hole (an export with the visible
+    rows missing, a few points read off a datasheet) does not; across a hole the spectrum is unknown, not
+    approximately linear (method §5, read on the safe side; the widths are common practice, no published source).
+
+    Returns
+    -------
+    tuple of float or None
+        (start, end) of that step [nm], or None.
+
+    Examples
+    --------
+    >>> widest_gap_nm(np.array([200.0, 300.0, 400.0, 900.0, 3000.0]), (380.0, 1400.0))
+    (400.0, 900.0)
+    >>> widest_gap_nm(np.arange(200.0, 3001.0, 10.0), (200.0, 400.0)) is None
+    True
     """
-    lo, hi = range_nm
-    return np.array(
-        [no_emission_outside or (lo <= s.band_nm[0] and hi >= s.band_nm[1]) for s in integral_specs(limit_set)]
-    )
+    lo, hi = band_nm
+    allowed = max(GAP_FLOOR_NM, GAP_SHARE_OF_BAND * (hi - lo))
+    starts, ends = grid_nm[:-1], grid_nm[1:]
+    inside = (ends > lo) & (starts < hi)
+    if not inside.any():
+        return None
+    steps = np.where(inside, np.minimum(ends, hi) - np.maximum(starts, lo), 0.0)
+    k = int(np.argmax(steps))
+    return (float(starts[k]), float(ends[k])) if steps[k] > allowed else None
+
+
+def coverage(grid_nm: np.ndarray, no_emission_outside: bool, limit_set: LimitSet) -> tuple[np.ndarray, np.ndarray]:
+    """Which integrals the spectrum can be trusted for, and which are free of wide gaps.
+
+    An integral is trusted when the spectrum spans its band, or the record rules out emission outside the measured
+    range (method §5), and no gap between samples inside the band is wider than :func:`widest_gap_nm` allows (the
+    record's statement is about what lies outside the measured range, not about holes in it).
+
+    Returns
+    -------
+    covered, gap_free : numpy.ndarray
+        (k,) bool each, in the order of :func:`integral_specs`.
+    """
+    lo, hi = float(grid_nm[0]), float(grid_nm[-1])
+    specs = integral_specs(limit_set)
+    gap_free = np.array([widest_gap_nm(grid_nm, s.band_nm) is None for s in specs])
+    spans = np.array([no_emission_outside or (lo <= s.band_nm[0] and hi >= s.band_nm[1]) for s in specs])
+    return spans & gap_free, gap_free
 
 
 def _fill(
@@ -92,13 +147,19 @@ def _fill(
     """Store the integrals ``products`` (rows × (k + 3)) of spectra on ``grid_nm`` into rows ``rows``."""
     k = out.raw.shape[1]
     out.raw[rows], out.xyz[rows] = products[:, :k], products[:, k:]
-    spans = coverage((float(grid_nm[0]), float(grid_nm[-1])), False, limit_set)
-    out.covered[rows] = spans[None, :] | np.asarray(no_emission_outside, dtype=bool)[:, None]
+    spans, gap_free = coverage(grid_nm, False, limit_set)
+    out.covered[rows] = (spans[None, :] | np.asarray(no_emission_outside, dtype=bool)[:, None]) & gap_free[None, :]
+    out.gap_free[rows] = gap_free[None, :]
 
 
 def _empty(n: int, limit_set: LimitSet) -> Integrated:
     k = len(integral_specs(limit_set))
-    return Integrated(raw=np.empty((n, k)), xyz=np.empty((n, 3)), covered=np.empty((n, k), dtype=bool))
+    return Integrated(
+        raw=np.empty((n, k)),
+        xyz=np.empty((n, 3)),
+        covered=np.empty((n, k), dtype=bool),
+        gap_free=np.empty((n, k), dtype=bool),
+    )
 
 
 def integrate_matrix(

@@ -56,7 +56,8 @@ def _rows(assessment: Assessment) -> list[tuple[str, ...]]:
                 _compared(h, boundaries),
                 *limits,
                 format_duration_s(h.t_max_s),
-                h.risk_group or ("EL only" if h.assessed else "—"),
+                h.risk_group
+                or ("EL only" if h.assessed else f"≥{h.lower_bound_group}" if h.lower_bound_group else "—"),
                 hazard_margin_text(h),
             )
         )
@@ -140,7 +141,11 @@ def overall_lines(a: Assessment) -> list[str]:
         status = "complete" if a.complete else f"INCOMPLETE, lower bound: not assessed {', '.join(a.not_assessed)}"
         decided = f"; set by {', '.join(a.deciding_hazards)}" if a.risk_group != "Exempt" else ""
         meaning = (
-            " — within the exposure limits for the Exempt time bases at the assessment distance"
+            (
+                " — within the exposure limits for the Exempt time bases at the assessment distance"
+                if a.complete
+                else " — the hazards assessed are within their Exempt limits; those not assessed can raise the group"
+            )
             if a.risk_group == "Exempt"
             else ""
         )
@@ -271,7 +276,9 @@ def _studies(a: Assessment) -> list[str]:
         if product:
             lines += [
                 "",
-                "What it would take: "
+                "What it would take"
+                + ("" if a.complete else " (measured data only: hazards not assessed may need more)")
+                + ": "
                 + "; ".join(
                     f"{group}: dim to {dimming_percent(factor)} of today's output" for group, factor in product
                 ),

@@ -37,8 +37,9 @@ _MISSING_FROM_380_780 = {
 
 @pytest.mark.parametrize(("diameter_mm", "blue"), [(5.0, "L_B"), (1.0, "E_B")])
 def test_band_not_covered_is_not_assessed(tmp_path, monkeypatch, diameter_mm, blue):
-    # α = D/200 mm: 0.025 rad → L_B, 0.005 rad → E_B (IEC 62471:2006 Table 6.1, α < 0.011 rad)
-    path = write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, white_lamp(VISIBLE_NM))
+    # α = D/200 mm: 0.025 rad → L_B, 0.005 rad → E_B (IEC 62471:2006 Table 6.1, α < 0.011 rad). The lamp is dim
+    # enough that no measured part alone exceeds an Exempt limit (L_B about 12 W/(m²·sr) against 100)
+    path = write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, 0.01 * white_lamp(VISIBLE_NM))
     a = hazard.assess(path, {"distance_mm": 200.0, "source_diameter_mm": diameter_mm})
     expected = {"E_S", "E_UVA", blue, "L_R", "E_IR", "E_H"}
     # method §5: a hazard is assessed only when the spectrum spans its band; method §3: with no hazard that has
@@ -60,6 +61,23 @@ def test_band_not_covered_is_not_assessed(tmp_path, monkeypatch, diameter_mm, bl
     overall = next(line for line in result.stdout.splitlines() if line.startswith("Overall risk group"))
     assert overall.startswith("Overall risk group: NOT DETERMINED") and "Exempt" not in overall
     assert "measure the missing wavelength range" in result.stdout  # the fix is named
+
+
+def test_a_bright_lamp_measured_in_part_is_at_least_what_its_measured_part_gives(tmp_path):
+    # The same spectrum at full brightness: its L_B over 380-700 nm alone, E_B/Ω_s = 1.2e3 W/(m²·sr) for a 5 mm disc
+    # at 200 mm, is over the L_B Exempt limit of 100 (IEC 62471:2006 Table 6.1). B(λ) and the spectrum are
+    # non-negative, so adding 300-380 nm can only raise it: at least RG1 (a lower bound), never "not determined".
+    path = write_spectrum(tmp_path / "lamp.csv", VISIBLE_NM, white_lamp(VISIBLE_NM))
+    a = hazard.assess(path, {"distance_mm": 200.0, "source_diameter_mm": 5.0})
+    l_b = a.hazards["L_B"]
+    assert not l_b.assessed and l_b.lower_bound_group == "RG1" and a.risk_group == "RG1" and not a.complete
+    full = hazard.assess(path, {"distance_mm": 200.0, "source_diameter_mm": 5.0, "no_emission_outside": True})
+    assert full.hazards["L_B"].compared["Exempt"] > 100 and full.hazards["L_B"].risk_group == "RG1"
+    holed = np.concatenate([np.arange(380.0, 430.0), np.arange(560.0, 781.0)])  # a 130 nm hole: no bound from it
+    path = write_spectrum(tmp_path / "holed.csv", holed, white_lamp(holed))
+    a = hazard.assess(path, {"distance_mm": 200.0, "source_diameter_mm": 5.0, "no_emission_outside": True})
+    assert not a.hazards["L_B"].assessed and a.hazards["L_B"].lower_bound_group is None
+    assert "no samples between 429 and 560 nm" in a.hazards["L_B"].note
 
 
 def test_band_gap_assumed_empty_with_no_emission_outside(tmp_path, monkeypatch):

@@ -130,6 +130,22 @@ def test_the_unit_factor_scales_every_integral():
 def test_an_integral_is_trusted_where_its_band_is_measured_or_nothing_is_emitted_outside():
     # method §5: a spectrum of 380–780 nm spans the visible band, not E_S's 200–400 nm, unless the record states that
     # nothing is emitted outside it
-    covered = coverage((380.0, 780.0), False, IEC_62471_2006)
-    assert covered[KEYS["VIS"]] and not covered[KEYS["E_S"]] and not covered[KEYS["E_IR"]]
-    assert coverage((380.0, 780.0), True, IEC_62471_2006).all()
+    visible = np.arange(380.0, 781.0, 5.0)
+    covered, gap_free = coverage(visible, False, IEC_62471_2006)
+    assert covered[KEYS["VIS"]] and not covered[KEYS["E_S"]] and not covered[KEYS["E_IR"]] and gap_free.all()
+    assert coverage(visible, True, IEC_62471_2006)[0].all()
+
+
+def test_a_hole_in_the_spectrum_is_not_covered_even_when_nothing_is_emitted_outside():
+    # method §5 read on the safe side: across a 500 nm hole (400–900 nm) the spectrum is unknown, so no band that
+    # holds the hole is trusted, and what the record says of the range outside the measurement does not fill it;
+    # bands clear of the hole (E_S, 200–400 nm) stay covered. Steps of 10 nm (UV) or 50 nm (IR) are no hole.
+    holed = np.concatenate([np.arange(200.0, 401.0, 1.0), np.arange(900.0, 3001.0, 1.0)])
+    for no_emission_outside in (False, True):
+        covered, gap_free = coverage(holed, no_emission_outside, IEC_62471_2006)
+        assert covered[KEYS["E_S"]] and not covered[KEYS["VIS"]] and not covered[KEYS["L_R"]]
+        # E_IR (780-3000 nm) holds only 780-900 nm of the hole, under its allowance of a tenth of the band
+        assert covered[KEYS["E_IR"]] == no_emission_outside or covered[KEYS["E_IR"]]
+        assert not gap_free[KEYS["V"]] and gap_free[KEYS["E_UVA"]]
+    coarse = np.concatenate([np.arange(200.0, 800.0, 10.0), np.arange(800.0, 3001.0, 50.0)])
+    assert coverage(coarse, False, IEC_62471_2006)[0].all()

@@ -93,11 +93,26 @@ def test_pdf_creation_date_is_the_report_date(lineup_pdfs):
     assert info.creation_date == RENDERED_AT.replace(tzinfo=None) or info.creation_date == RENDERED_AT
 
 
+def test_a_measured_part_over_a_limit_gives_a_lower_bound_on_page_one(lineup):
+    # examples/lineup/cl-ir-940.csv spans 700-1200 nm, E_IR's band is 780-3000 nm: not assessed. Yet 780-1200 nm
+    # alone is over the E_IR Exempt limit (100 W/m², IEC 62471:2006 Table 6.1), and spectra and weights are
+    # non-negative, so the whole band is too: the lamp is at least RG1, never "not determined"
+    a = hazard.assess(LINEUP / "cl-ir-940.toml", {"no_emission_outside": False})
+    e_ir = a.hazards["E_IR"]
+    assert not e_ir.assessed and e_ir.lower_bound_group == "RG1" and a.risk_group == "RG1" and not a.complete
+    assert "E_IR" in a.deciding_hazards and "at least RG1" in e_ir.note
+    full = hazard.assess(LINEUP / "cl-ir-940.toml")  # the record's own statement: nothing outside 700-1200 nm
+    assert full.hazards["E_IR"].value >= 100 and full.hazards["E_IR"].risk_group == "RG1"
+    first = pdf_pages(render_assessment_pdf(a, RENDERED_AT))[0]
+    assert "LOWER BOUND" in first and "Risk Group 1 (low risk) or higher" in first
+
+
 def test_not_determined_and_what_if_say_so_on_page_one(lineup):
-    # examples/lineup/cl-ir-940.csv spans 700-1200 nm; without the record's no-emission statement none of the
-    # hazards with groups has its band covered (design/method.md §5, coverage), so no group can be determined
-    nd = hazard.assess(LINEUP / "cl-ir-940.toml", {"no_emission_outside": False})
-    assert nd.risk_group is None
+    # examples/lineup/cl-pip-470.csv spans 380-600 nm; without the record's no-emission statement none of the
+    # hazards with groups has its band covered (design/method.md §5, coverage), and the measured parts alone stay
+    # within every Exempt limit, so no group can be determined
+    nd = hazard.assess(LINEUP / "cl-pip-470.toml", {"no_emission_outside": False})
+    assert nd.risk_group is None and not any(h.lower_bound_group for h in nd.hazards.values())
     first = pdf_pages(render_assessment_pdf(nd, RENDERED_AT))[0]
     assert "Risk group not determined" in first and "Do not read this as safe" in first
     for symbol in nd.not_assessed:
