@@ -140,7 +140,7 @@ def product_from_record(
     unit, unit_warnings = resolve_unit(record, raw, metadata, origin)
     metadata["unit_used"] = unit.text
     metadata["file_metadata"] = file_metadata(metadata)
-    warnings = (*raw.warnings, *unit_warnings, *metadata_warnings(record, metadata["file_metadata"], raw.path))
+    warnings = (*raw.warnings, *unit_warnings, *metadata_warnings(record, metadata, raw.path))
     factor, quantity = unit.factor_to_si, record.quantity
     if quantity == "radiant_exposure" and record.pulse_duration_s is not None:
         # one pulse's exposure over its half-peak width: the peak of a pulse of that width (method: pulsed sources)

@@ -1,6 +1,7 @@
 """What a spectrum file says about itself, checked against the record.
 
-The unit is never guessed, and a distance the file states that the record contradicts is named in a warning.
+The unit is never guessed, and a distance the file states that the record contradicts, or that cannot be read, is
+named in a warning (:mod:`hazard.inputs.stated_distance` reads it).
 
 A file states its unit in the value column's header cell (``Irradiance [mW/m²/nm]``), in a line before the
 table or a comment whose key names a unit (``Unit: uW/cm2/nm``, ``# Y units = W/cm2/nm``), in a JSON key that
@@ -14,15 +15,24 @@ from __future__ import annotations
 
 import math
 import re
+from collections.abc import Iterator
 from itertools import pairwise
 
-from hazard.errors import InputError
+from hazard.errors import InputError, excerpt
 from hazard.inputs.readers import RawSpectrum
 from hazard.inputs.readers.headers import HeaderStatement, header_statement
 from hazard.inputs.record import ProductRecord
+from hazard.inputs.stated_distance import MAX_STATEMENT_CHARS, read_distance, split_item
 from hazard.inputs.units import SpectralUnit, parse_spectral_unit
 
-__all__ = ["MAX_METADATA_ITEMS", "MAX_METADATA_TEXT", "file_metadata", "metadata_warnings", "resolve_unit"]
+__all__ = [
+    "MAX_DISTANCE_WARNINGS",
+    "MAX_METADATA_ITEMS",
+    "MAX_METADATA_TEXT",
+    "file_metadata",
+    "metadata_warnings",
+    "resolve_unit",
+]
 
 MAX_METADATA_ITEMS = 40
 """Metadata lines of a file kept in the result (the first ones) [1]."""
@@ -30,12 +40,11 @@ MAX_METADATA_TEXT = 120
 """Characters kept of each metadata key and value [1]."""
 DISTANCE_TOLERANCE = 0.01
 """A distance the file states differs from the record's beyond this relative amount: a warning [1]."""
+MAX_DISTANCE_WARNINGS = 5
+"""Distance statements of one file named in warnings; any more are counted in one more warning [1]."""
 
 _UNIT_KEY = re.compile(r"(?<![a-z])units?(?![a-z])", re.IGNORECASE)
 _COMMENT_ITEM = re.compile(r"^\s*([^:=]{1,80}?)\s*[:=]\s*(.+)$")
-_DISTANCE_KEY = re.compile(r"distance", re.IGNORECASE)
-_LENGTH = re.compile(r"([0-9]+(?:[.,][0-9]+)?)\s*(mm|cm|m)\b")
-_TO_MM = {"mm": 1.0, "cm": 10.0, "m": 1000.0}
 
 
 def _declared(text: str) -> HeaderStatement:
@@ -54,7 +63,7 @@ def _items(metadata: dict) -> list[tuple[str, str, str]]:
     items = [
         (str(k), str(v).strip(), f"metadata line {str(k)[:40]!r}") for k, v in metadata.get("metadata", {}).items()
     ]
-    for comment in metadata.get("comments", []):
+    for _, comment in metadata.get("comments", []):
         match = _COMMENT_ITEM.match(str(comment))
         if match:
             items.append((match.group(1), match.group(2).strip(), f"comment {str(comment)[:40]!r}"))
@@ -160,18 +169,71 @@ def file_metadata(metadata: dict) -> dict[str, str]:
     return {clean(key): clean(value) for key, value in items}
 
 
-def metadata_warnings(record: ProductRecord, kept: dict[str, str], path: str) -> list[str]:
-    """A distance the file states that differs from the record's ``distance_mm``, named in a warning."""
-    warnings = []
-    for key, value in kept.items():
-        match = _LENGTH.search(value) if _DISTANCE_KEY.search(key) else None
-        if match is None or record.distance_mm is None:
+def _distance_lines(metadata: dict) -> Iterator[tuple[str, object, int | None, str, str]]:
+    """(name, value, line, kind, text) of every metadata line and comment written as an item (``name: value``).
+
+    ``kind`` (``metadata`` or ``comment``) and ``text`` name it in a message. A line kept whole (a one-cell workbook
+    row, ``Distance: 500 mm``) is split at its separator.
+    """
+    items = metadata.get("metadata_items")
+    if items is None:  # a format without lines (JSON keys)
+        items = [(None, key, value) for key, value in metadata.get("metadata", {}).items()]
+    for line, key, value in items:
+        whole = value is None or value == ""
+        item = split_item(str(key)) if whole else (str(key), value)
+        if item is not None:
+            text = str(key) if whole else f"{str(key)[:MAX_STATEMENT_CHARS]}: {str(value)[:MAX_STATEMENT_CHARS]}"
+            yield item[0], item[1], line, "metadata", text
+    for line, comment in metadata.get("comments", []):
+        if (item := split_item(comment)) is not None:
+            yield item[0], item[1], line, "comment", comment
+
+
+def metadata_warnings(record: ProductRecord, metadata: dict, path: str) -> list[str]:
+    """Warnings for each distance the file states that differs from the record's ``distance_mm`` or cannot be read.
+
+    Every metadata line and comment before the table is examined (:func:`hazard.inputs.stated_distance.read_distance`);
+    the first :data:`MAX_DISTANCE_WARNINGS` are named, with the file and line, and any more counted. The record's
+    distance is the one used: a statement of the file never changes the result.
+
+    Parameters
+    ----------
+    record : ProductRecord
+    metadata : dict
+        What the reader found beside the numbers: ``metadata_items`` ((line, name, value) of each metadata line;
+        else ``metadata``, name → value, without lines) and ``comments`` ((line, text) pairs).
+    path : str
+        The spectrum file as the user named it.
+    """
+    if record.distance_mm is None:
+        return []
+    warnings: list[str] = []
+    more = 0
+    for name, value, line, kind, text in _distance_lines(metadata):
+        stated = read_distance(name, value)
+        if stated is None or (
+            stated.distance_mm is not None
+            and math.isclose(stated.distance_mm, record.distance_mm, rel_tol=DISTANCE_TOLERANCE)
+        ):
             continue
-        stated_mm = float(match.group(1).replace(",", ".")) * _TO_MM[match.group(2)]
-        if not math.isclose(stated_mm, record.distance_mm, rel_tol=DISTANCE_TOLERANCE):
+        if len(warnings) == MAX_DISTANCE_WARNINGS:
+            more += 1
+            continue
+        where = f"{path}:{line}: the file's {kind}" if line is not None else f"{path}: the file's {kind}"
+        quoted = excerpt(text[:MAX_STATEMENT_CHARS], 60)
+        if stated.distance_mm is None:
             warnings.append(
-                f"{path}: the file's metadata line '{key}: {value}' states {stated_mm:g} mm but the "
-                f"record's distance_mm is {record.distance_mm:g} mm; the record's value is used, "
-                f"check which is right"
+                f"{where} {quoted} states a distance this tool cannot read ({stated.problem}); the record's "
+                f"distance_mm of {record.distance_mm:g} mm is used, check that it is the measurement's"
             )
+        else:
+            warnings.append(
+                f"{where} {quoted} states {stated.distance_mm:g} mm but the record's distance_mm is "
+                f"{record.distance_mm:g} mm; the record's value is used, check which is right"
+            )
+    if more:
+        warnings.append(
+            f"{path}: {more} more distance statement(s) of the file differ from the record's distance_mm or cannot "
+            f"be read; check the file's metadata"
+        )
     return warnings

@@ -185,8 +185,9 @@ def read_delimited(
     Returns
     -------
     tuple of (RawSpectrum, dict)
-        The numbers, and metadata: ``header``, ``value_column``, ``comments``, ``metadata`` (key → value
-        from lines before the table), ``delimiter``, ``decimal_comma``, ``sha256``.
+        The numbers, and metadata: ``header``, ``value_column``, ``comments`` ((line, text) of the comment lines
+        before the table), ``metadata`` (key → value from lines before the table; the last of a repeated key),
+        ``metadata_items`` ((line, key, value) of every such line), ``delimiter``, ``decimal_comma``, ``sha256``.
 
     Raises
     ------
@@ -199,7 +200,7 @@ def read_delimited(
     text = decode_text(raw, display_path)
     if "\r" in text:
         text = text.replace("\r\n", "\n").replace("\r", "\n")
-    comments: list[str] = []
+    comments: list[tuple[int, str]] = []
     preamble: list[tuple[int, str]] = []
     start = None
     offset = 0
@@ -209,7 +210,7 @@ def read_delimited(
         if not stripped:
             continue
         if stripped.startswith("#"):
-            comments.append(stripped.lstrip("#").strip())
+            comments.append((index + 1, stripped.lstrip("#").strip()))
             continue
         delimiter, decimal_comma = _layout(stripped)
         cells = _cells(stripped, delimiter, decimal_comma)
@@ -255,7 +256,8 @@ def read_delimited(
                 _check_cell_length(cell, limits, display_path, last_number)
             header, header_number = header_cells, last_number
             preamble = preamble[:-1]
-    metadata = dict(item for _, line in preamble if (item := _metadata_item(line)) is not None)
+    items = [(number, *item) for number, line in preamble if (item := _metadata_item(line)) is not None]
+    metadata = {key: value for _, key, value in items}
     value_index = choose_value_column(header, width, column, display_path)
     rows, numbers = _data_rows(text[body_offset:], start + 1)
     if len(rows) > limits.max_rows:
@@ -290,6 +292,7 @@ def read_delimited(
         "value_column": header[value_index] if header else value_index,
         "comments": comments,
         "metadata": metadata,
+        "metadata_items": items,
         "delimiter": delimiter or "whitespace",
         "decimal_comma": decimal_comma,
         "sha256": digest,

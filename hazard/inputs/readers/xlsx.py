@@ -96,13 +96,16 @@ def read_xlsx(
     if preamble and len(preamble[-1][1]) == width:
         line, cells = preamble[-1]
         header = [_text(c, limits, display_path, line) for c in cells]
-    metadata = {
-        _text(p[0], limits, display_path, line): " ".join(
-            _text(c, limits, display_path, line) for c in p[1:] if c is not None
+    items = [
+        (
+            line,
+            _text(p[0], limits, display_path, line),
+            " ".join(_text(c, limits, display_path, line) for c in p[1:] if c is not None),
         )
         for line, p in (preamble[:-1] if header else preamble)
         if p and p[0] is not None
-    }
+    ]
+    metadata = {key: value for _, key, value in items}
     value_index = choose_value_column(header, width, column, display_path)
     table = np.array(data, dtype=float).reshape(-1, width)
     scale = wavelength_scale(header[0] if header else None, display_path, preamble[-1][0] if header else None)
@@ -119,5 +122,6 @@ def read_xlsx(
         "value_column": header[value_index] if header else value_index,
         "comments": [],
         "metadata": metadata,
+        "metadata_items": items,
         "sha256": digest,
     }

@@ -54,3 +54,14 @@ def test_header_unit_contradicting_the_record_is_refused():
     assert _load("semicolon_decimal_comma.csv", unit="mW/m2/nm").spectrum.value[0] == pytest.approx(
         REFERENCE[0, 1], rel=2e-6
     )
+
+
+@pytest.mark.parametrize(
+    ("name", "where"),
+    [("semicolon_decimal_comma.csv", "semicolon_decimal_comma.csv:4: "), ("arrays.json", "arrays.json: ")],
+)
+def test_the_measurement_distance_the_corpus_states_is_checked(name, where):
+    # both files state 500 mm (one in cells of a semicolon export, one as a JSON key), the distance of SIZE
+    assert _load(name).spectrum.warnings == ()
+    (warning,) = _load(name, distance_mm=200.0).spectrum.warnings
+    assert warning.startswith(where) and "states 500 mm but the record's distance_mm is 200 mm" in warning
