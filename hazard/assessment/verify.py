@@ -61,6 +61,12 @@ def _continuous_group(symbol: str, h, limit_set: LimitSet, path: str) -> str:
         raise _refuse(f"hazard {symbol} lacks its {missing} boundary", path) from None
     if not (np.all(np.isfinite(compared)) and np.all(np.isfinite(limits))):
         raise _refuse(f"hazard {symbol} holds a value that is not a finite number", path)
+    value = math.nan if h.value is None else h.value
+    if limit_set[symbol].kind == "irradiance":  # an irradiance is compared as it is
+        if not np.allclose(compared, value, rtol=1e-9, atol=0.0):
+            raise _refuse(f"hazard {symbol}: its value {value:.6g} is not the value it was compared with", path)
+    elif not np.all(compared <= value * (1 + 1e-9)):  # a field's average never exceeds the source's own radiance
+        raise _refuse(f"hazard {symbol}: a field-of-view average exceeds its value {value:.6g}", path)
     for b, c, lim in zip(limit_set.boundaries, compared[0], limits[0], strict=True):
         margin = h.margins.get(b)
         if margin is None or not math.isclose(margin, c / lim, rel_tol=1e-9):
@@ -150,7 +156,8 @@ def _check_against_set(a: Assessment, limit_set: LimitSet, path: str) -> None:
         except KeyError:
             raise _refuse(f"hazard {symbol} is not in {limit_set.name}", path) from None
         covered = no_emission_outside or (lo <= spec.band_nm[0] and hi >= spec.band_nm[1])
-        if h.assessed != covered or h.unit != spec.unit or tuple(h.band_nm) != tuple(spec.band_nm):
+        holed = not h.assessed and "no samples between" in h.note  # a hole inside the band (method §5)
+        if h.assessed != (covered and not holed) or h.unit != spec.unit or tuple(h.band_nm) != tuple(spec.band_nm):
             raise _refuse(
                 f"hazard {symbol}: band, unit or assessed flag differ from the spectrum and {limit_set.name}", path
             )

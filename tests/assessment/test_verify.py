@@ -51,6 +51,8 @@ def test_report_refuses_a_result_whose_groups_do_not_follow_from_its_numbers(tmp
             }
         ),
         lambda r: r.update(cautions=[]),  # cautions emptied
+        lambda r: r["hazards"]["E_UVA"].update(value=r["hazards"]["E_UVA"]["value"] / 100),  # value ≠ what was compared
+        lambda r: r["hazards"]["L_B"].update(value=r["hazards"]["L_B"]["compared"]["RG2"] / 2),  # average > radiance
         lambda r: r.update(assessment_distance_mm=20000.0),
     ):  # not the standard's
         tampered = json.loads(json.dumps(result))
