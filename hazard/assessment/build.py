@@ -267,7 +267,7 @@ def _studies(
         if record.effective_quantity == "radiance":
             geometric = float(ev.source_solid_angle_sr[i])
         else:
-            geometric = (record.irradiance_distance_mm * 1e-3 / d_a) ** 2
+            geometric = float(arrays.shape.irradiance_scaling(record.irradiance_distance_mm * 1e-3, d_a)[0])
         assessed = {symbol for symbol, h in ev.hazards.items() if h.assessed[i]}
         out["distances"], out["remedies"] = distances_and_remedies(
             arrays,

@@ -88,7 +88,7 @@ def switch_warnings(ev: Evaluation, i: int, limit_set: LimitSet) -> list[str]:
 
 
 def warnings_for(loaded: LoadedProduct, ev: Evaluation, i: int, v_covered: bool) -> list[str]:
-    """Warnings on product ``i``: what-if distance, coarse sampling, inverse-square scaling near the source.
+    """Warnings on product ``i``: what-if distance, coarse sampling, scaling of irradiance near the source.
 
     Also a spectrum that does not cover V(λ) (``v_covered`` false), implausible illuminance or peak irradiance, and
     a radiance measured over too wide a field. The spectrum's own warnings come first.
@@ -117,9 +117,9 @@ def warnings_for(loaded: LoadedProduct, ev: Evaluation, i: int, v_covered: bool)
         near = min(d_a_mm, d_ref)
         if near < FIVE_TIMES_RULE * size_mm:
             warnings.append(
-                f"inverse-square scaling from {d_ref:g} mm to {d_a_mm:.4g} mm with a "
-                f"{size_mm:g} mm source: {near:.4g} mm is under five source sizes, so the scaled "
-                f"values are approximate; measure at the assessment distance"
+                f"irradiance scaled from {d_ref:g} mm to {d_a_mm:.4g} mm with a {size_mm:g} mm source: "
+                f"{near:.4g} mm is under five source sizes, so the scaled values are approximate (the larger "
+                f"of the point-source and Lambertian-source laws was taken); measure at the assessment distance"
             )
     if not v_covered:
         warnings.append(
@@ -196,7 +196,8 @@ def assumptions_for(loaded: LoadedProduct, ev: Evaluation, i: int) -> list[str]:
         d_ref = record.irradiance_distance_mm
         if abs(d_a_mm - d_ref) > 1e-9:
             assumptions.append(
-                f"Irradiance scaled from {d_ref:g} mm to {d_a_mm:.4g} mm by the inverse-square law (point source)."
+                f"Irradiance scaled from {d_ref:g} mm to {d_a_mm:.4g} mm by the inverse-square law (point source), "
+                f"or by the law of a uniform Lambertian source where that gives more (near a large source)."
             )
         assumptions.append(
             "Radiance derived as E/Ω_s from the irradiance and the stated source size, i.e. a "

@@ -18,7 +18,6 @@ from hazard.method.geometry import (
     MIN_ASSESSMENT_DISTANCE_M,
     FieldGeometry,
     SourceShape,
-    inverse_square_factor,
 )
 from hazard.method.photometry import K_M_LM_PER_W, VISIBLE_BAND_NM
 from hazard.method.pulses import PulseArrays, pulse_checks
@@ -402,7 +401,7 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
     alpha = arrays.shape.alpha_rad(distance)
     d_m = np.nan_to_num(arrays.measurement_distance_m, nan=1.0)
     fill = np.ones(n) if arrays.radiance_fill is None else arrays.radiance_fill
-    scale = np.where(arrays.is_radiance, omega_s * fill, inverse_square_factor(d_m, distance))
+    scale = np.where(arrays.is_radiance, omega_s * fill, arrays.shape.irradiance_scaling(d_m, distance))
     irradiance = raw * scale[:, None]
     illuminance = K_M_LM_PER_W * irradiance[:, v]
     luminance = illuminance / omega_s

@@ -52,3 +52,33 @@ def test_disc_sources_keep_e_over_the_larger_solid_angle():
     for fov in (0.0017, 0.011, 0.1):
         omega_s, omega_g = shape.solid_angle_sr(0.2), cone_solid_angle_sr(fov)
         np.testing.assert_allclose(shape.field_fraction(0.2, fov), np.minimum(omega_s, omega_g) / omega_g, rtol=1e-12)
+
+
+@pytest.mark.parametrize(("width_m", "height_m"), [(0.05, math.nan), (0.06, 0.02)])
+def test_projected_solid_angle_against_a_dense_sum_of_cosine_weighted_elements(width_m, height_m):
+    # The on-axis irradiance of a uniform Lambertian source of radiance L is ∫ L·cos θ·cos θ' dA/r² = ∫ L·d²/r⁴ dA
+    # over its surface (r: distance to the element, both cosines d/r); summed here on a fine grid of surface
+    # elements, independently of the closed forms (disc: π r²/(r² + d²), the textbook result; rectangle: the
+    # corner configuration factor).
+    shape = SourceShape(np.array([width_m]), np.array([height_m]))
+    n = 1500
+    half_w, half_h = width_m / 2, (width_m if math.isnan(height_m) else height_m) / 2
+    x = (np.arange(n) + 0.5) / n * 2 * half_w - half_w
+    y = (np.arange(n) + 0.5) / n * 2 * half_h - half_h
+    xx, yy = np.meshgrid(x, y)
+    inside = xx**2 + yy**2 <= half_w**2 if math.isnan(height_m) else np.ones_like(xx, dtype=bool)
+    cell = (2 * half_w / n) * (2 * half_h / n)
+    for d in (0.02, 0.2):
+        dense = float(np.sum(np.where(inside, d**2 / (xx**2 + yy**2 + d**2) ** 2, 0.0)) * cell)
+        assert shape.projected_solid_angle_sr(d)[0] == pytest.approx(dense, rel=2e-3)
+
+
+def test_irradiance_scaling_never_below_either_law():
+    # A 50 mm disc measured at 20 mm and assessed at 200 mm: the point-source law gives (20/200)² = 0.01; a uniform
+    # Lambertian disc gives sin²θ(200)/sin²θ(20) = (25² + 20²)/(25² + 200²) = 0.02523, 2.52× more, and that is taken.
+    # Carried inward (measured at 1 m, assessed at 200 mm) the point-source law gives more and is kept.
+    disc = SourceShape(np.array([0.05]), np.array([np.nan]))
+    assert disc.irradiance_scaling(0.02, 0.2)[0] == pytest.approx((25**2 + 20**2) / (25**2 + 200**2), rel=1e-12)
+    assert disc.irradiance_scaling(1.0, 0.2)[0] == pytest.approx(25.0, rel=1e-12)
+    small = SourceShape(np.array([0.001]), np.array([0.001]))  # far from a small source the two laws agree
+    assert small.irradiance_scaling(0.5, 0.2)[0] == pytest.approx(6.25, rel=1e-5)
