@@ -592,10 +592,10 @@ def check(
             for claim in claim_rows(assessment):
                 click.echo(json.dumps(claim, ensure_ascii=False))
             continue
-        from hazard.output.formatting import group_words
+        from hazard.output.formatting import format_distance_mm, group_words
 
         what_if = (
-            f"; the record's what-if at {assessment.assessment_distance_mm:.0f} mm gives "
+            f"; the record's what-if at {format_distance_mm(assessment.assessment_distance_mm)} gives "
             f"{group_words(assessment.risk_group, assessment.complete)}, not used for claims"
             if assessment.basis == "what-if"
             else ""

@@ -17,6 +17,7 @@ from reportlab.graphics.shapes import Drawing, Group, Line, Polygon, Rect
 from reportlab.lib import colors
 from reportlab.pdfbase.pdfmetrics import stringWidth
 
+from hazard.output.formatting import format_distance_mm
 from hazard.reports.chart_parts import (
     chart_text,
     curve_lines,
@@ -147,7 +148,7 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
     d.add(Rect(left, bottom, pw, ph, fillColor=None, strokeColor=INK, strokeWidth=0.6))
     at = assessment.assessment_distance_mm
     shown = dmin <= at <= dmax
-    text = fonts.clean(f"assessed at {at:.0f} mm")
+    text = fonts.clean(f"assessed at {format_distance_mm(at)}")
     w = stringWidth(text, fonts.bold, 6.5)
     tx = min(max(px(at) - w / 2, left), left + pw - w)
     d.add(_strip(study, px, strip_bottom, strip_h, fonts, [(tx, tx + w)] if shown else []))
@@ -169,7 +170,7 @@ def distance_chart(assessment: Assessment, width: float, height: float, fonts: F
                 strokeWidth=0.4,
             )
         )
-        text = fonts.clean(f"near field, under {near:.0f} mm: approximate")
+        text = fonts.clean(f"near field, under {format_distance_mm(near)}: approximate")
         size = 6.2
         y = plot_top + 2.8
         if px(near) - px(dmin) >= stringWidth(text, fonts.regular, size) + 8:

@@ -12,7 +12,7 @@ import math
 
 from reportlab.graphics.shapes import Drawing, Line, Polygon, PolyLine, Rect
 
-from hazard.output.formatting import format_percent
+from hazard.output.formatting import format_percent, format_stated
 from hazard.reports.chart_parts import TICK, chart_text
 from hazard.reports.fonts import FontSet
 from hazard.reports.style import INK, MUTED, PANEL, RULE, SPECTRUM_EDGE, SPECTRUM_FILL
@@ -74,7 +74,7 @@ def contribution_chart(a: Assessment, width: float, fonts: FontSet) -> Drawing:
     d.add(Rect(_LABEL, y, pw, spectrum_h, fillColor=PANEL, strokeColor=None))
     for nm in _ticks(lo, hi, step):
         d.add(Line(px(nm), bottom - 2.5, px(nm), height - top, strokeColor=RULE, strokeWidth=0.3))
-        d.add(chart_text(px(nm), bottom - 10, f"{nm:g}", fonts, TICK, color=MUTED, anchor="middle"))
+        d.add(chart_text(px(nm), bottom - 10, format_stated(nm), fonts, TICK, color=MUTED, anchor="middle"))
 
     peak = max(s.preview_value_si, default=0.0)
     if peak > 0:
@@ -85,7 +85,11 @@ def contribution_chart(a: Assessment, width: float, fonts: FontSet) -> Drawing:
         d.add(Polygon([c for point in area for c in point], fillColor=SPECTRUM_FILL, strokeColor=None))
         d.add(PolyLine([c for point in outline for c in point], strokeColor=SPECTRUM_EDGE, strokeWidth=0.6))
     d.add(chart_text(0, y + spectrum_h / 2 - 2.5, "spectrum", fonts, 7, bold=True))
-    d.add(chart_text(_LABEL + pw + 6, y + spectrum_h / 2 - 2.5, f"peak at {s.peak_nm:g} nm", fonts, 7, color=MUTED))
+    d.add(
+        chart_text(
+            _LABEL + pw + 6, y + spectrum_h / 2 - 2.5, f"peak at {format_stated(s.peak_nm)} nm", fonts, 7, color=MUTED
+        )
+    )
     for symbol, shares in rows:
         y -= _GAP + _STRIP
         band = a.hazards[symbol].band_nm
@@ -100,7 +104,7 @@ def contribution_chart(a: Assessment, width: float, fonts: FontSet) -> Drawing:
             d.add(Rect(x0, y, max(x1 - x0, 0.5), h, fillColor=INK, strokeColor=None))
         d.add(chart_text(0, y + _STRIP / 2 - 2.7, symbol, fonts, 7.5, bold=True))
         start, end, share = largest_band(shares)
-        note = f"most from {start:g}–{end:g} nm ({format_percent(share)})"
+        note = f"most from {format_stated(start)}–{format_stated(end)} nm ({format_percent(share)})"
         d.add(chart_text(_LABEL + pw + 6, y + _STRIP / 2 - 2.7, note, fonts, 7))
     d.add(Line(_LABEL, bottom, _LABEL + pw, bottom, strokeColor=INK, strokeWidth=0.6))
     d.add(chart_text(_LABEL + pw / 2, 0, "wavelength [nm]", fonts, 7, color=MUTED, anchor="middle"))

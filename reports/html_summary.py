@@ -20,10 +20,10 @@ from pathlib import Path
 from typing import Protocol
 
 from hazard.output.atomic import write_atomic
-from hazard.output.formatting import group_words, hazard_margin_text, pulse_decides
+from hazard.output.formatting import group_words, hazard_margin_text, pulse_decides, what_if_at, what_if_prefix
 from hazard.reports.headroom import scale_position
 from hazard.reports.layout import start_report
-from hazard.reports.ranking import is_borderline, rank_assessments, tightest_margin
+from hazard.reports.ranking import is_borderline, rank_assessments, ranks_by_margin, tightest_margin
 from hazard.reports.studies import minimum_text
 from hazard.reports.style import GROUP_FILL, ZONE_TINT
 from hazard.reports.timestamp import format_report_time
@@ -67,8 +67,9 @@ def _hex(colour) -> str:
 
 
 def _flags(a: Assessment) -> list[str]:
+    """The product's flags (keys of :data:`_FLAG_NAMES`); borderline only of a classification (see :func:`_row`)."""
     flags = []
-    if is_borderline(a):
+    if ranks_by_margin(a) and is_borderline(a):
         flags.append("borderline")
     if not a.complete:
         flags.append("incomplete")
@@ -81,7 +82,10 @@ def _flags(a: Assessment) -> list[str]:
 
 
 def _headroom_svg(a: Assessment) -> str:
-    """Each grouped hazard of ``a`` as a row of the shared scale: four zones and a bar to the hazard's place."""
+    """Each grouped hazard of ``a`` as a row of the shared scale: four zones and a bar to the hazard's place.
+
+    A what-if's drawing is of its own distance and is headed so ("what-if at 30 mm").
+    """
     rows = [
         h
         for h in a.hazards.values()
@@ -92,11 +96,12 @@ def _headroom_svg(a: Assessment) -> str:
         return '<span class="muted">no scale to draw</span>'
     label_w, zone_w, row_h = 44, 34, 11
     width, height = label_w + zone_w * len(groups), row_h * len(rows)
-    words = "; ".join(f"{h.symbol} {h.risk_group}, {hazard_margin_text(h)}" for h in rows)
-    parts = [
+    words = what_if_prefix(a) + "; ".join(f"{h.symbol} {h.risk_group}, {hazard_margin_text(h)}" for h in rows)
+    parts = [f'<span class="muted">{escape(what_if_at(a))}</span><br>'] if a.basis == "what-if" else []
+    parts.append(
         f'<svg class="headroom" role="img" width="{width}" height="{height}" viewBox="0 0 {width} {height}" '
         f'aria-label="Headroom: {escape(words)}"><title>Headroom: {escape(words)}</title>'
-    ]
+    )
     for i, h in enumerate(rows):
         y = i * row_h
         parts.append(f'<text x="0" y="{y + 8.5}">{escape(h.symbol)}</text>')
@@ -140,10 +145,16 @@ def _links(stem: str, files: set[str]) -> str:
 
 
 def _row(rank: int, a: Assessment, stem: str, files: set[str]) -> str:
+    """One product's table row.
+
+    The group is the classification's; a what-if's own figures (deciding hazards, margin, headroom, a borderline
+    verdict) are headed "what-if at N mm" and its margin sorts as unknown (the classification's is not in the result).
+    """
     group_html, group_key = _group_cell(a)
     tightest = tightest_margin(a)
-    margin = "—" if tightest is None else f"{tightest.symbol}: {hazard_margin_text(a.hazards[tightest.symbol])}"
-    ratio = "" if tightest is None else repr(tightest.ratio)
+    at = what_if_prefix(a)
+    margin = "—" if tightest is None else f"{at}{tightest.symbol}: {hazard_margin_text(a.hazards[tightest.symbol])}"
+    ratio = "" if tightest is None or not ranks_by_margin(a) else repr(tightest.ratio)
     vendor = str(a.record.get("vendor", ""))
     flags = _flags(a)
     distance, distance_key = "—", ""
@@ -151,17 +162,22 @@ def _row(rank: int, a: Assessment, stem: str, files: set[str]) -> str:
         distance = minimum_text(a.distances, "Exempt", metres=False)
         found = a.distances.minimum_distance_mm.get("Exempt")
         distance_key = "1e99" if found is None else repr(found)
-    flag_text = ", ".join(_FLAG_NAMES[f] for f in flags) or "—"
+    names = [_FLAG_NAMES[f] for f in flags]
     if a.basis == "what-if":
-        flag_text += f" ({group_words(a.risk_group, a.complete, a.basis, a.assessment_distance_mm)})"
+        names[names.index(_FLAG_NAMES["what-if"])] += (
+            f" ({group_words(a.risk_group, a.complete, a.basis, a.assessment_distance_mm)}"
+            + (", borderline there" if is_borderline(a) else "")
+            + ")"
+        )
+    flag_text = ", ".join(names) or "—"
     group = a.classification_group or "not determined"
     cells = [
         (str(rank), str(rank), ""),
         (f'<span class="id">{escape(a.id)}</span><br><span class="name">{escape(a.name or "")}</span>', a.id, ""),
         (escape(vendor) or "—", vendor, ""),
         (group_html, group_key, ""),
-        (escape(a.basis), a.basis, ""),
-        (escape(", ".join(a.deciding_hazards) or "—"), ", ".join(a.deciding_hazards), ""),
+        (escape(what_if_at(a) or a.basis), a.basis, ""),
+        (escape(at + ", ".join(a.deciding_hazards) if a.deciding_hazards else "—"), ", ".join(a.deciding_hazards), ""),
         (escape(margin), ratio, ""),
         (escape(distance), distance_key, ""),
         (escape(flag_text), " ".join(flags), ""),
@@ -240,6 +256,7 @@ def render_summary_html(
     issuer = "" if identity is None else f" · {identity.header_text()}"
     counts = [(g, sum(a.classification_group == g for a in assessments)) for g in reversed(groups)]
     undetermined = sum(a.classification_group is None for a in assessments)
+    what_if = sum(a.basis == "what-if" for a in assessments)
     cautions: dict[str, list[str]] = {}
     for a in ranked:
         for caution in a.cautions:
@@ -280,17 +297,20 @@ def render_summary_html(
             [f'<span class="swatch" style="background:{_hex(GROUP_FILL[g])}"></span>{e(g)}: {n}' for g, n in counts]
             + ([f"not determined: {undetermined}"] if undetermined else [])
             + [f"incomplete: {sum(not a.complete for a in assessments)}"]
-            + [f"borderline: {sum(is_borderline(a) for a in assessments)}"]
+            + ([f"what-if: {what_if}"] if what_if else [])
+            + [f"borderline: {sum(ranks_by_margin(a) and is_borderline(a) for a in assessments)}"]
         ),
         "</p>",
         '<section id="products" aria-labelledby="products-h">',
         '<h2 id="products-h">Products, highest risk first</h2>',
         _filters(groups, vendors, bool(undetermined)),
         '<table id="ranked">',
-        "<caption>Ranked by group (RG3 first); within a group borderline products first, then the deciding hazard "
-        "closest to its next boundary. Column headings sort the table; the filters above narrow it. Headroom: each "
-        "hazard with risk groups on a scale of four zones (Exempt, RG1, RG2, RG3; the limits at the zone edges), the "
-        "bar ending at its value.</caption>",
+        "<caption>Ranked by group at the standard's distance (RG3 first); within a group borderline products first, "
+        "then the deciding hazard closest to its next boundary. Column headings sort the table; the filters above "
+        "narrow it. Headroom: each hazard with risk groups on a scale of four zones (Exempt, RG1, RG2, RG3; the "
+        "limits at the zone edges), the bar ending at its value. A what-if (assessed at a distance the record asks "
+        "for) is no classification: its Group is the standard's, its own figures are headed 'what-if at N mm', and "
+        "it ranks after its group's products assessed at the standard's distance.</caption>",
         "<thead><tr>",
         *[
             '<th scope="col"'

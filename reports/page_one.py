@@ -21,7 +21,13 @@ from reportlab.graphics.shapes import Drawing, Rect
 from reportlab.lib import colors
 from reportlab.platypus import Flowable, Spacer, Table
 
-from hazard.output.formatting import format_duration_s, format_fraction, hazard_margin_text, pulse_decides
+from hazard.output.formatting import (
+    format_distance_mm,
+    format_duration_s,
+    format_fraction,
+    hazard_margin_text,
+    pulse_decides,
+)
 from hazard.reports.chart_parts import chart_text
 from hazard.reports.charts import distance_chart
 from hazard.reports.contribution_chart import contribution_chart
@@ -133,16 +139,17 @@ def _staircase(a: Assessment, fonts: FontSet, width: float) -> Drawing:
 def _answer(a: Assessment, st: Styles, pages: Pages) -> list[Flowable]:
     """What it is: the group in words, its meaning, what sets it; banners for what-if and lower bounds."""
     group = a.risk_group
-    at = f"{a.assessment_distance_mm:.0f} mm"
+    at = format_distance_mm(a.assessment_distance_mm)
     big = st.title.clone("answer", fontSize=16, leading=19)
     text: list[Flowable] = []
     if a.basis == "what-if":
         standard = a.standard_risk_group
         standard_words = GROUP_NAME[standard] if standard else "no group (not determined)"
+        standard_mm = a.standard_assessment_distance_mm
         text.append(
             st.p(
-                f"WHAT-IF at {at} — not a classification. The standard's distance "
-                f"({a.standard_assessment_distance_mm:.0f} mm) gives {standard_words}"
+                f"WHAT-IF at {at} — not a classification. The standard's distance"
+                f"{'' if standard_mm is None else f' ({format_distance_mm(standard_mm)})'} gives {standard_words}"
                 f"{'' if a.complete or standard is None else ' (lower bound)'}.",
                 st.banner,
             )

@@ -20,8 +20,10 @@ from reportlab.platypus import CondPageBreak, Flowable, KeepTogether, PageBreak,
 from hazard.output.formatting import (
     UNIT_DISPLAY,
     computed_text,
+    format_distance_mm,
     format_duration_s,
     format_limit,
+    format_stated,
     format_value,
     group_words,
     hazard_margin_text,
@@ -223,7 +225,7 @@ def _geometry(a: Assessment, st: Styles) -> Flowable:
             "no risk group could be determined" if a.risk_group is None else "the overall group is a lower bound"
         )
     cells = [
-        ("Distance", f"{g.assessment_distance_mm:.0f} mm{measured} — {g.distance_rule}"),
+        ("Distance", f"{format_distance_mm(g.assessment_distance_mm)}{measured} — {g.distance_rule}"),
         ("Source", source),
         ("Photometry", photometry_text(a.photometry)),
         ("Completeness", completeness),
@@ -288,7 +290,7 @@ def _detail_table(a: Assessment, st: Styles) -> Flowable:
         cells.append(
             [
                 h.symbol,
-                f"{lo:g}–{hi:g} nm, {h.weighting or 'unweighted'}",
+                f"{format_stated(lo)}–{format_stated(hi)} nm, {h.weighting or 'unweighted'}",
                 h.exposure_limit or "—",
                 _triple(h.time_bases_s, format_duration_s),
                 _triple(h.fov_rad, format_limit, 1e3),
@@ -392,7 +394,10 @@ def _transfer(t: BlueLightTransfer) -> str:
 
 def _inputs(a: Assessment, st: Styles) -> list[Flowable]:
     s, ph = a.spectrum, a.photometry
-    spectrum = f"{s.quantity} in {unit_text(s.unit_given)}, {s.points} samples, {s.min_nm:g}–{s.max_nm:g} nm"
+    spectrum = (
+        f"{s.quantity} in {unit_text(s.unit_given)}, {s.points} samples, "
+        f"{format_stated(s.min_nm)}–{format_stated(s.max_nm)} nm"
+    )
     colour = [] if ph.cct_k is None else [f"CCT {format_value(ph.cct_k)} K, Duv {format_value(ph.duv)}"]
     if ph.chromaticity_xy is not None:
         colour.append(f"CIE 1931 x, y = {ph.chromaticity_xy[0]:.4f}, {ph.chromaticity_xy[1]:.4f}")

@@ -9,6 +9,10 @@ first (least headroom, or furthest over the RG2 limit); then by id.
 A product is *borderline* by its uncertainty study when the result holds one (``Assessment.uncertainty``: the
 overall group changes within the stated measurement uncertainty), else by the margin rule of
 :func:`is_borderline`.
+
+Both are figures of the result's own distance. A what-if result ranks by its classification (the group at the
+standard's distance, :attr:`Assessment.classification_group`), whose margins it does not hold: its own margin and
+borderline verdict belong to the what-if distance and do not move it within its group (:func:`ranks_by_margin`).
 """
 
 from __future__ import annotations
@@ -18,7 +22,7 @@ from typing import NamedTuple
 from hazard.output.formatting import PULSE_LIMIT, hazard_margin
 from hazard.result import Assessment
 
-__all__ = ["BORDERLINE_FACTOR", "Tightest", "is_borderline", "rank_assessments", "tightest_margin"]
+__all__ = ["BORDERLINE_FACTOR", "Tightest", "is_borderline", "rank_assessments", "ranks_by_margin", "tightest_margin"]
 
 BORDERLINE_FACTOR = 1.25
 """A value within this factor of a group boundary, on either side, is flagged borderline."""
@@ -86,6 +90,15 @@ def is_borderline(assessment: Assessment) -> bool:
     return any(1 / BORDERLINE_FACTOR <= hazard.margins[b] <= BORDERLINE_FACTOR for b in boundaries)
 
 
+def ranks_by_margin(assessment: Assessment) -> bool:
+    """The result's margins are those of its classification (a result at the standard's distance).
+
+    A what-if's margins and borderline verdict are at the what-if distance: a summary shows them as the what-if's
+    and neither ranks nor counts the product by them.
+    """
+    return assessment.basis == "standard"
+
+
 def rank_assessments(assessments: list[Assessment]) -> list[Assessment]:
     """The batch in summary order.
 
@@ -99,13 +112,16 @@ def rank_assessments(assessments: list[Assessment]) -> list[Assessment]:
     -------
     list of Assessment
         A new list; products whose group could not be determined first (nothing is known of them), products
-        without a tightest margin last within their group, ties by id.
+        without a tightest margin at their classification's distance (what-if results among them) last within their
+        group, ties by id.
     """
 
     def key(assessment: Assessment) -> tuple[int, bool, float, str]:
-        tightest = tightest_margin(assessment)
+        own = ranks_by_margin(assessment)
+        tightest = tightest_margin(assessment) if own else None
         groups, group = assessment.limit_set.groups, assessment.classification_group
         rank = len(groups) if group is None else groups.index(group)
-        return (-rank, not is_borderline(assessment), -(tightest.ratio if tightest else -1.0), assessment.id)
+        borderline = own and is_borderline(assessment)
+        return (-rank, not borderline, -(tightest.ratio if tightest else -1.0), assessment.id)
 
     return sorted(assessments, key=key)

@@ -15,7 +15,10 @@ from hazard.output.formatting import (
     UNIT_DISPLAY,
     dimming_percent,
     distance_beyond_mm,
+    format_distance_mm,
     format_percent,
+    format_stated,
+    format_times,
     format_value,
     round_up,
 )
@@ -67,9 +70,9 @@ def beyond(distance_mm: float | None, study: DistanceStudy, metres: bool = True)
     ('1590 mm (1.59 m)', '26 mm', 'from 10 mm', 'not within 100 m')
     """
     if distance_mm is None:
-        return f"not within {study.distance_mm[-1] / 1000:g} m"
+        return f"not within {format_stated(study.distance_mm[-1] / 1000)} m"
     if distance_mm == 0:
-        return f"from {study.distance_mm[0]:.0f} mm"
+        return f"from {format_distance_mm(study.distance_mm[0])}"
     text = distance_beyond_mm(distance_mm)
     return text + (f" ({round_up(distance_mm / 1000)} m)" if metres and distance_mm >= 1000 else "")
 
@@ -98,19 +101,19 @@ def dimming_text(factor: float | None) -> str:
 
 
 def area_text(factor: float | None) -> str:
-    """An area factor as an instruction, three significant digits: ``'enlarge emitting area ×836'``.
+    """An area factor as an instruction: ``'enlarge emitting area ×836'``.
 
-    An em dash when there is none.
+    Three significant digits rounded up (:func:`format_times`), so the printed enlargement always reaches the group;
+    an em dash when there is none.
 
     Examples
     --------
     >>> area_text(835.56), area_text(8069.6), area_text(1.41421), area_text(None)
-    ('enlarge emitting area ×836', 'enlarge emitting area ×8070', 'enlarge emitting area ×1.41', '—')
+    ('enlarge emitting area ×836', 'enlarge emitting area ×8070', 'enlarge emitting area ×1.42', '—')
     """
     if factor is None:
         return "—"
-    shown = f"{factor:.3g}" if factor < 1000 else f"{float(f'{factor:.3g}'):.0f}"
-    return f"enlarge emitting area ×{shown}"
+    return f"enlarge emitting area ×{format_times(factor)}"
 
 
 def _member(a: Assessment, family: str) -> str | None:
@@ -178,7 +181,7 @@ def remedy_lines(a: Assessment) -> list[str]:
         lines.append(
             "already in the lowest group"
             + ("" if a.complete else " for the assessed hazards")
-            + (f" at {a.assessment_distance_mm:.0f} mm (what-if)" if a.basis == "what-if" else "")
+            + (f" at {format_distance_mm(a.assessment_distance_mm)} (what-if)" if a.basis == "what-if" else "")
             if a.risk_group == a.limit_set.groups[0]
             else "no remedy in this result"
         )
@@ -242,7 +245,7 @@ def _distance_table(a: Assessment, s: DistanceStudy, st: Styles) -> Flowable:
 
 
 def _uncertainty_block(a: Assessment, u: UncertaintyStudy, st: Styles) -> list[Flowable]:
-    shift = f"{u.wavelength_uncertainty_nm:g} nm"
+    shift = f"{format_stated(u.wavelength_uncertainty_nm)} nm"
     head = ["Hazard family", "Lowest – highest value", f"λ −{shift} / +{shift}", "Unit", "Group within it"]
     rows = [[st.p(h, st.head) for h in head]]
     for h in u.hazards:
@@ -266,7 +269,11 @@ def _uncertainty_block(a: Assessment, u: UncertaintyStudy, st: Styles) -> list[F
     overall = _group_range(u.risk_group_low, u.risk_group_high)
     verdict = st.p(f" — overall group {overall}: {u.note}.", st.body, markup=f"<b>{u.verdict.upper()}</b>")
     return [
-        st.p(f"Within the measurement uncertainty (±{u.uncertainty_pct:g} % scale, k = 2; ±{shift} wavelength)", st.h3),
+        st.p(
+            f"Within the measurement uncertainty (±{format_stated(u.uncertainty_pct)} % scale, k = 2; ±{shift} "
+            f"wavelength)",
+            st.h3,
+        ),
         verdict,
         Spacer(1, 2),
         table,
@@ -332,7 +339,10 @@ def _remedies_block(a: Assessment, r: Remedies, st: Styles) -> list[Flowable]:
     bands = []
     for symbol, found in r.uv_bands.items():
         if found:
-            top = ", ".join(f"{b.band_nm[0]:g}–{b.band_nm[1]:g} nm ({format_percent(b.share)})" for b in found[:3])
+            top = ", ".join(
+                f"{format_stated(b.band_nm[0])}–{format_stated(b.band_nm[1])} nm ({format_percent(b.share)})"
+                for b in found[:3]
+            )
             bands.append(
                 st.bold_lead(f"{symbol} comes mostly from", top + " (5 nm bands, share of the total)", st.small)
             )
@@ -415,7 +425,7 @@ def studies_section(a: Assessment, st: Styles) -> list[list[Flowable]]:
                         else "Incomplete result: the whole-product distances cover the assessed hazards only. "
                     )
                     + f'"by L_B": the family member that applies there. Studied from '
-                    f"{s.distance_mm[0]:.0f} mm to {s.distance_mm[-1] / 1000:g} m.",
+                    f"{format_distance_mm(s.distance_mm[0])} to {format_stated(s.distance_mm[-1] / 1000)} m.",
                     st.caption,
                 ),
             ],

@@ -14,10 +14,10 @@ import datetime
 from reportlab.platypus import Flowable, KeepTogether, Spacer, Table
 
 from hazard.assessment.lab_plan import PlanItem
-from hazard.output.formatting import group_words, hazard_margin_text
+from hazard.output.formatting import format_distance_mm, format_stated, group_words, hazard_margin_text, what_if_prefix
 from hazard.reports.layout import FRAME_WIDTH, LEAST_SCALE, build_pdf, fit_page, heading_table, start_report
 from hazard.reports.plan_section import plan_section
-from hazard.reports.ranking import BORDERLINE_FACTOR, is_borderline, rank_assessments, tightest_margin
+from hazard.reports.ranking import BORDERLINE_FACTOR, is_borderline, rank_assessments, ranks_by_margin, tightest_margin
 from hazard.reports.studies import minimum_text
 from hazard.reports.style import INK, NEUTRAL, Styles, group_fill, group_ink, table_style
 from hazard.reports.timestamp import format_report_time
@@ -61,7 +61,8 @@ def _counts(assessments: list[Assessment], st: Styles) -> Flowable:
     what_if = sum(a.basis == "what-if" for a in assessments)
     if what_if:
         cells.append(st.p(f"what-if: {what_if}", st.cell_bold))
-    cells.append(st.p(f"borderline: {sum(is_borderline(a) for a in assessments)}", st.cell_bold))
+    borderline = sum(ranks_by_margin(a) and is_borderline(a) for a in assessments)  # of the classifications
+    cells.append(st.p(f"borderline: {borderline}", st.cell_bold))
     table = Table([cells], colWidths=[FRAME_WIDTH / len(cells)] * len(cells))
     table.setStyle(
         [
@@ -76,22 +77,30 @@ def _counts(assessments: list[Assessment], st: Styles) -> Flowable:
 
 
 def _flags(a: Assessment, st: Styles) -> Flowable:
-    """BORDERLINE, contradicted and inconclusive vendor claims, in words; an em dash when there is none."""
+    """WHAT-IF, BORDERLINE, contradicted and inconclusive vendor claims, in words; an em dash when there is none.
+
+    A what-if's BORDERLINE is at its own distance, and says so.
+    """
     contradicted = sum(c.verdict == "contradicted" for c in a.claims)
     inconclusive = sum(c.verdict == "inconclusive" for c in a.claims)
     by_study = (
         ""
         if a.uncertainty is None
-        else (f" (within ±{a.uncertainty.uncertainty_pct:g} %, ±{a.uncertainty.wavelength_uncertainty_nm:g} nm)")
+        else (
+            f" (within ±{format_stated(a.uncertainty.uncertainty_pct)} %, "
+            f"±{format_stated(a.uncertainty.wavelength_uncertainty_nm)} nm)"
+        )
     )
+    at = format_distance_mm(a.assessment_distance_mm)
     what_if = (
-        [f"<b>WHAT-IF</b> at {a.assessment_distance_mm:.0f} mm gives {st.text(group_words(a.risk_group, a.complete))}"]
+        [f"<b>WHAT-IF</b> at {at} gives {st.text(group_words(a.risk_group, a.complete))}"]
         if a.basis == "what-if"
         else []
     )
+    where = "" if ranks_by_margin(a) else f" at the what-if distance ({at})"
     flags = (
         what_if
-        + ([f"<b>BORDERLINE</b>{by_study}"] if is_borderline(a) else [])
+        + ([f"<b>BORDERLINE</b>{where}{by_study}"] if is_borderline(a) else [])
         + (
             [f"<b>{contradicted}</b> vendor claim{'s' if contradicted > 1 else ''} <b>CONTRADICTED</b>"]
             if contradicted
@@ -122,11 +131,12 @@ def _ranked_table(assessments: list[Assessment], st: Styles) -> Flowable:
     extra: list[tuple] = []
     for rank, a in enumerate(rank_assessments(assessments), start=1):
         tightest = tightest_margin(a)
+        at = what_if_prefix(a)  # a what-if's deciding hazards and margin are at its own distance
         if tightest is None:
             margin = "—"
         else:
             h = a.hazards[tightest.symbol]
-            margin = f"{tightest.symbol}: {hazard_margin_text(h)}"
+            margin = f"{at}{tightest.symbol}: {hazard_margin_text(h)}"
         rows.append(
             [
                 st.p(str(rank), st.cell),
@@ -139,7 +149,7 @@ def _ranked_table(assessments: list[Assessment], st: Styles) -> Flowable:
                 st.p("yes", st.cell)
                 if a.complete
                 else st.bold_lead("INCOMPLETE", f"lower bound; not assessed: {', '.join(a.not_assessed)}", st.cell),
-                st.p(", ".join(a.deciding_hazards) or "—", st.cell),
+                st.p(at + ", ".join(a.deciding_hazards) if a.deciding_hazards else "—", st.cell),
                 st.p(margin, st.cell),
                 *([st.p(_min_distance(a), st.cell)] if distances else []),
                 _flags(a, st),
@@ -237,15 +247,18 @@ def render_summary_pdf(
         _ranked_table(assessments, st),
         Spacer(1, 2),
         st.p(
-            f"Ranked by overall group (RG3 first); within a group BORDERLINE products first (the ones to send to "
-            f"the laboratory), then by the deciding hazard closest to its next boundary (largest value ÷ limit "
-            f"first), then by id. Tightest margin: that hazard's value ÷ limit at its group's upper boundary "
-            f"(RG3: multiple of the RG2 limit). BORDERLINE: with an uncertainty study (the record states its "
+            f"Ranked by the group at the standard's distance (RG3 first); within a group BORDERLINE products first "
+            f"(the ones to send to the laboratory), then by the deciding hazard closest to its next boundary (largest "
+            f"value ÷ limit first), then by id. Tightest margin: that hazard's value ÷ limit at its group's upper "
+            f"boundary (RG3: multiple of the RG2 limit). BORDERLINE: with an uncertainty study (the record states its "
             f"measurement uncertainty), the overall group changes within it; without one, the tightest hazard "
-            f"lies within a factor {high:g} of a group boundary on either side ({low:g}–{high:g} × the limit), so "
+            f"lies within a factor {format_stated(high)} of a group boundary on either side ({format_stated(low)}–"
+            f"{format_stated(high)} × the limit), so "
             f"a modest measurement error could change its group. An INCOMPLETE product's group is a lower bound; "
             f"'not determined': no hazard with risk groups could be assessed, nothing is known. WHAT-IF: assessed "
-            f"at a distance the record asks for, not a classification; the standard's group is named beside it. "
+            f"at a distance the record asks for, not a classification: the Group column holds the standard's group, "
+            f"and the what-if's own figures (deciding hazards, margin, BORDERLINE) are marked as the what-if's; it "
+            f"ranks after the products of its group assessed at the standard's distance. "
             f"CONTRADICTED: a vendor claim in the record that the result does not bear out at any variant of its "
             f"stated uncertainty; INCONCLUSIVE: it holds at some variants and fails at others (see its report)."
             + (

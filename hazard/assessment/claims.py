@@ -26,7 +26,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from hazard.inputs.record import ProductRecord
-from hazard.output.formatting import format_duration_s
+from hazard.output.formatting import format_distance_mm, format_duration_s, format_signed, format_stated, format_value
 from hazard.result import ClaimCheck, HazardBounds, HazardResult, UncertaintyStudy
 from hazard.standards import GROUPS
 
@@ -95,7 +95,9 @@ class ClaimBasis:
     def uncertainty_text(self) -> str:
         """The stated uncertainty in words, e.g. "±20 % (k = 2) and ±0.5 nm"."""
         u = self.variants
-        return "" if u is None else f"±{u.uncertainty_pct:g} % (k = 2) and ±{u.wavelength_uncertainty_nm:g} nm"
+        if u is None:
+            return ""
+        return f"±{format_stated(u.uncertainty_pct)} % (k = 2) and ±{format_stated(u.wavelength_uncertainty_nm)} nm"
 
 
 def _verdict(holds_everywhere: bool, holds_somewhere: bool) -> str:
@@ -132,7 +134,7 @@ def _group_claim(claimed: str, basis: ClaimBasis) -> ClaimCheck:
             verdict="not checkable",
             reason=f"no risk group could be determined: {', '.join(basis.not_assessed)} not assessed",
         )
-    where = f"at {basis.distance_mm:.0f} mm"
+    where = f"at {format_distance_mm(basis.distance_mm)}"
     qualifier = "at least " if not basis.complete else ""
     low_rank = -1 if low is None else rank[low]
     verdict = _verdict(rank[claimed] >= rank[high], rank[claimed] >= low_rank)
@@ -169,7 +171,7 @@ def _close_claim(
     missing: str,
 ) -> ClaimCheck:
     """A value claim (CCT, illuminance) against ``computed`` = (lowest, nominal, highest) over the variants."""
-    base = dict(claim=claim, field=field, claimed=f"{claimed:g} {unit}", tolerance=tolerance_text)
+    base = dict(claim=claim, field=field, claimed=f"{format_stated(claimed)} {unit}", tolerance=tolerance_text)
     if computed is None:
         return ClaimCheck(**base, computed=None, verdict="not checkable", reason=missing)
     low, nominal, high = computed
@@ -179,15 +181,18 @@ def _close_claim(
         claimed - tolerance <= high and claimed + tolerance >= low,
     )
     difference = nominal - claimed
-    reason = f"computed differs by {difference:+.3g} {unit}"
+    reason = f"computed differs by {format_signed(difference)} {unit}"
     if spread:
-        reason += f" (from {low - claimed:+.3g} to {high - claimed:+.3g} {unit} across the stated uncertainty)"
+        reason += (
+            f" (from {format_signed(low - claimed)} to {format_signed(high - claimed)} {unit} across the stated "
+            f"uncertainty)"
+        )
     reason += {"consistent": ", within", "inconclusive": ", partly beyond", "contradicted": ", beyond"}[verdict]
-    reason += f" ±{tolerance:.3g} {unit}"
+    reason += f" ±{format_value(tolerance)} {unit}"
     return ClaimCheck(
         **base,
-        computed=f"{nominal:.4g} {unit}",
-        computed_range=f"{low:.4g} to {high:.4g} {unit}" if spread else None,
+        computed=f"{format_value(nominal, 4)} {unit}",
+        computed_range=f"{format_value(low, 4)} to {format_value(high, 4)} {unit}" if spread else None,
         verdict=verdict,
         reason=reason,
     )
@@ -204,8 +209,8 @@ def _t_max_claim(symbol: str, claimed: float, basis: ClaimBasis, tolerances: Cla
     base = dict(
         claim=f"t_max of {symbol}",
         field=f"claimed_t_max_s_{symbol}",
-        claimed=f"{claimed:g} s",
-        tolerance=f"{tolerances.t_max_pct:g} % shorter than claimed",
+        claimed=f"{format_stated(claimed)} s",
+        tolerance=f"{format_stated(tolerances.t_max_pct)} % shorter than claimed",
         distance_mm=basis.distance_mm,
     )
     if hazard is None:
@@ -213,7 +218,10 @@ def _t_max_claim(symbol: str, claimed: float, basis: ClaimBasis, tolerances: Cla
             **base,
             computed=None,
             verdict="not checkable",
-            reason=f"{symbol} does not apply to this source at {basis.distance_mm:.0f} mm (see the hazards assessed)",
+            reason=(
+                f"{symbol} does not apply to this source at {format_distance_mm(basis.distance_mm)} (see the "
+                f"hazards assessed)"
+            ),
         )
     if not hazard.assessed:
         return ClaimCheck(**base, computed=None, verdict="not checkable", reason=hazard.note)
@@ -228,7 +236,7 @@ def _t_max_claim(symbol: str, claimed: float, basis: ClaimBasis, tolerances: Cla
     if bounds is not None:
         words = [("not reached" if t is None else format_duration_s(t)) for t in (shortest, longest)]
         spread = f"{words[0]} to {words[1]}"
-    where = f"at {basis.distance_mm:.0f} mm"
+    where = f"at {format_distance_mm(basis.distance_mm)}"
     outcome = {
         "consistent": "is not shorter than claimed",
         "inconclusive": f"is shorter than claimed at some variants of {basis.uncertainty_text}, not at others",
@@ -241,7 +249,7 @@ def _t_max_claim(symbol: str, claimed: float, basis: ClaimBasis, tolerances: Cla
         reason += f" {outcome}"
     return ClaimCheck(
         **base,
-        computed="not reached" if hazard.t_max_s is None else f"{hazard.t_max_s:.4g} s",
+        computed="not reached" if hazard.t_max_s is None else f"{format_value(hazard.t_max_s, 4)} s",
         computed_range=spread,
         verdict=verdict,
         reason=reason,
@@ -275,7 +283,7 @@ def check_claims(
                 cct,
                 tolerance,
                 "K",
-                f"±max({tolerances.cct_k:g} K, {tolerances.cct_pct:g} %)",
+                f"±max({format_stated(tolerances.cct_k)} K, {format_stated(tolerances.cct_pct)} %)",
                 basis.cct_reason,
             )
         )
@@ -296,7 +304,7 @@ def check_claims(
                 None if e is None else (e * (1 - u), e, e * (1 + u)),
                 tolerance,
                 "lx",
-                f"±{tolerances.illuminance_pct:g} %",
+                f"±{format_stated(tolerances.illuminance_pct)} %",
                 missing,
             )
         )

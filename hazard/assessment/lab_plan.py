@@ -55,7 +55,15 @@ from collections.abc import Iterable
 from dataclasses import dataclass, replace
 from typing import Literal
 
-from hazard.output.formatting import format_percent, group_words, round_down, round_up
+from hazard.output.formatting import format_distance_mm as _mm
+from hazard.output.formatting import (
+    format_percent,
+    format_stated,
+    format_value,
+    group_words,
+    round_down,
+    round_up,
+)
 from hazard.result import Assessment, ClaimCheck, HazardResult
 from hazard.standards import limit_set_named
 
@@ -190,12 +198,8 @@ def _priority(change: Change, evidence: int, group_index: int, closeness: float)
     return round(10 * c, 1)
 
 
-def _mm(distance_mm: float) -> str:
-    return f"{distance_mm:.0f} mm"
-
-
 def _mrad(angle_rad: float) -> str:
-    return f"{angle_rad * 1e3:.3g} mrad"
+    return f"{format_value(angle_rad * 1e3)} mrad"
 
 
 def _words(items: list[str]) -> str:
@@ -244,8 +248,8 @@ class _Product:
 
     def window_text(self) -> str:
         if self.stated:
-            return f"the stated ±{self.window:g} % uncertainty"
-        return f"±{self.window:g} %, the default window (the record states no uncertainty)"
+            return f"the stated ±{format_stated(self.window)} % uncertainty"
+        return f"±{format_stated(self.window)} %, the default window (the record states no uncertainty)"
 
     def up(self, h: HazardResult) -> tuple[float, str, int] | None:
         """(ratio, limit, group index after) at the nearest limit above the current group this hazard could pass."""
@@ -343,15 +347,15 @@ def _not_assessed(p: _Product) -> list[PlanItem]:
     covered = (a.spectrum.min_nm, a.spectrum.max_nm)
     for symbol in a.not_assessed:
         h = a.hazards[symbol]
-        gaps = " and ".join(f"{lo:g}–{hi:g} nm" for lo, hi in _gaps_nm(covered, h.band_nm))
+        gaps = " and ".join(f"{format_stated(lo)}–{format_stated(hi)} nm" for lo, hi in _gaps_nm(covered, h.band_nm))
         grouped = p.family.get(symbol) in a.limit_set.grouped_families
         measure = (
             f"Extend the spectrum to {gaps} so that {symbol} ({h.title}) can be assessed, or have the laboratory "
             f"confirm the source emits nothing there (then set no_emission_outside)."
         )
         why = (
-            f"{symbol} needs {h.band_nm[0]:g}–{h.band_nm[1]:g} nm and the spectrum covers {covered[0]:g}–"
-            f"{covered[1]:g} nm"
+            f"{symbol} needs {format_stated(h.band_nm[0])}–{format_stated(h.band_nm[1])} nm and the spectrum covers "
+            f"{format_stated(covered[0])}–{format_stated(covered[1])} nm"
         )
         settles = f"a spectrum over {gaps} (or a statement that nothing is emitted there)"
         if grouped and p.g < p.top:
@@ -386,7 +390,10 @@ def _borderline(p: _Product) -> list[PlanItem]:
     study_text = (
         ""
         if study is None
-        else f"; the uncertainty study (±{study.uncertainty_pct:g} %, ±{study.wavelength_uncertainty_nm:g} nm)"
+        else (
+            f"; the uncertainty study (±{format_stated(study.uncertainty_pct)} %, "
+            f"±{format_stated(study.wavelength_uncertainty_nm)} nm)"
+        )
     )
     for symbol, h in a.hazards.items():
         up = p.up(h) if h.assessed else None
@@ -487,10 +494,10 @@ def _imaging_reasons(p: _Product, h: HazardResult) -> tuple[list[str], bool, boo
                 f"field of the {boundary} limit sees only part of the {_mrad(alpha)} source"
             )
         elif measured_fov is None or measured_fov * 1e-3 > field:
-            through = "an unstated field" if measured_fov is None else f"a {measured_fov:g} mrad field"
+            through = "an unstated field" if measured_fov is None else f"a {format_stated(measured_fov)} mrad field"
             reasons.append(f"the radiance was measured through {through}, wider than the {_mrad(field)} one")
     if peak_to_mean > 1 and _is_radiance(h):
-        reasons.append(f"the peak-to-mean radiance of {peak_to_mean:g} is an estimate")
+        reasons.append(f"the peak-to-mean radiance of {format_stated(peak_to_mean)} is an estimate")
     hot_spot = bool(reasons)
     size = alpha < NEAR_SMALL_FACTOR * small
     if size:
@@ -536,7 +543,8 @@ def _imaging(p: _Product) -> list[PlanItem]:
                 because = f"if the criterion for the measured size gives {round_down(factor)}× the value"
                 settles = (
                     f"{h.symbol} is {format_percent(up[0])} of the {up[1]} ({high}); the criteria either side of "
-                    f"{_mrad(a.limit_set.small_source_alpha_rad)} differ by up to {CRITERION_SWITCH_FACTOR:g}×"
+                    f"{_mrad(a.limit_set.small_source_alpha_rad)} differ by up to "
+                    f"{format_stated(CRITERION_SWITCH_FACTOR)}×"
                 )
             items.append(
                 p.item(
@@ -564,7 +572,7 @@ def _imaging(p: _Product) -> list[PlanItem]:
                     "could lower",
                     2,
                     _closeness(down[0], peak_to_mean),
-                    f"if the source is more uniform than the stated {peak_to_mean:g}",
+                    f"if the source is more uniform than the stated {format_stated(peak_to_mean)}",
                     measure,
                     why,
                     settles,
@@ -577,7 +585,10 @@ def _imaging(p: _Product) -> list[PlanItem]:
         if p.g == p.top:
             settles = f"already {p.groups[p.top]}: the radiance completes the record"
         elif hot_spot:
-            settles = f"no plausible hot spot (up to {HOT_SPOT_FACTOR:g}× the radiance assumed) changes the group"
+            settles = (
+                f"no plausible hot spot (up to {format_stated(HOT_SPOT_FACTOR)}× the radiance assumed) changes the "
+                f"group"
+            )
         else:
             settles = f"{h.symbol} is too far from its next limit for the criterion at the measured size to matter"
         items.append(

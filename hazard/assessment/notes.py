@@ -17,7 +17,7 @@ from hazard.method.evaluate import Evaluation
 from hazard.method.geometry import FIVE_TIMES_RULE
 from hazard.method.photometry import VISIBLE_BAND_NM
 from hazard.method.weighting import coarse_steps_in
-from hazard.output.formatting import UNIT_DISPLAY
+from hazard.output.formatting import UNIT_DISPLAY, format_distance_mm, format_stated, format_value
 from hazard.standards import LimitSet
 
 __all__ = [
@@ -71,10 +71,10 @@ def switch_warnings(ev: Evaluation, i: int, limit_set: LimitSet) -> list[str]:
             spec = other.hazard
             if spec.applies in ("small_source", "large_source"):
                 quantity, threshold, shown = ev.alpha_rad[i], limit_set.small_source_alpha_rad, "α"
-                text = f"{quantity * 1e3:.3g} mrad, switch at {threshold * 1e3:g} mrad"
+                text = f"{format_value(quantity * 1e3)} mrad, switch at {format_stated(threshold * 1e3)} mrad"
             else:
                 quantity, threshold, shown = ev.luminance_cd_m2[i], limit_set.weak_stimulus_luminance_cd_m2, "L_v"
-                text = f"{quantity:.3g} cd/m², switch at {threshold:g} cd/m²"
+                text = f"{format_value(quantity)} cd/m², switch at {format_stated(threshold)} cd/m²"
             near = 1 / SWITCH_NEIGHBOURHOOD <= quantity / threshold <= SWITCH_NEIGHBOURHOOD
             reading = int(top_down_groups(other.compared[i : i + 1], other.limits[i : i + 1])[0])
             if near and reading > used.group_index[i]:
@@ -98,15 +98,16 @@ def warnings_for(loaded: LoadedProduct, ev: Evaluation, i: int, v_covered: bool)
     lo, hi = spectrum.range_nm
     if record.at_distance_mm is not None:
         warnings.append(
-            f"assessed at {record.at_distance_mm:g} mm by request (at_distance_mm), not at the "
+            f"assessed at {format_distance_mm(record.at_distance_mm)} by request (at_distance_mm), not at the "
             f"standard's distance: the risk groups are a what-if, not a classification"
         )
     for region in STEEP_REGIONS_NM:
         step = coarse_steps_in(spectrum.wavelength_nm, region, MAX_STEEP_STEP_NM)
         if step is not None and lo < region[1] and hi > region[0]:
             warnings.append(
-                f"sampling step up to {step:g} nm in {region[0]:g}–{region[1]:g} nm, where the "
-                f"weights change steeply; values there are approximate (use ≤ {MAX_STEEP_STEP_NM:g} "
+                f"sampling step up to {format_stated(step)} nm in {format_stated(region[0])}–"
+                f"{format_stated(region[1])} nm, where the weights change steeply; values there are approximate (use ≤ "
+                f"{format_stated(MAX_STEEP_STEP_NM)} "
                 f"nm)"
             )
     d_a_mm = float(ev.assessment_distance_m[i]) * 1e3
@@ -117,20 +118,21 @@ def warnings_for(loaded: LoadedProduct, ev: Evaluation, i: int, v_covered: bool)
         near = min(d_a_mm, d_ref)
         if near < FIVE_TIMES_RULE * size_mm:
             warnings.append(
-                f"irradiance scaled from {d_ref:g} mm to {d_a_mm:.4g} mm with a {size_mm:g} mm source: "
-                f"{near:.4g} mm is under five source sizes, so the scaled values are approximate (the larger "
-                f"of the point-source and Lambertian-source laws was taken); measure at the assessment distance"
+                f"irradiance scaled from {format_stated(d_ref)} mm to {format_distance_mm(d_a_mm)} with a "
+                f"{format_stated(size_mm)} mm source: {format_distance_mm(near)} is under five source sizes, so the "
+                f"scaled values are approximate (the larger of the point-source and Lambertian-source laws was "
+                f"taken); measure at the assessment distance"
             )
     if not v_covered:
         warnings.append(
-            f"the spectrum covers {lo:g}–{hi:g} nm, not all of V(λ)'s {VISIBLE_BAND_NM[0]:g}–"
-            f"{VISIBLE_BAND_NM[1]:g} nm: illuminance and luminance are lower bounds, and so is the "
-            f"weak-visual-stimulus test"
+            f"the spectrum covers {format_stated(lo)}–{format_stated(hi)} nm, not all of V(λ)'s "
+            f"{format_stated(VISIBLE_BAND_NM[0])}–{format_stated(VISIBLE_BAND_NM[1])} nm: illuminance and luminance "
+            f"are lower bounds, and so is the weak-visual-stimulus test"
         )
     if ev.illuminance_lx[i] > PLAUSIBLE_MAX_ILLUMINANCE_LX:
         warnings.append(
-            f"illuminance {ev.illuminance_lx[i]:.3g} lx at the assessment distance is above "
-            f"{PLAUSIBLE_MAX_ILLUMINANCE_LX:.0f} lx: check the unit and the distance"
+            f"illuminance {format_value(ev.illuminance_lx[i])} lx at the assessment distance is above "
+            f"{format_stated(PLAUSIBLE_MAX_ILLUMINANCE_LX)} lx: check the unit and the distance"
         )
     if irradiance_input:
         peak = float(spectrum.value.max() * ev.anchor_scale[i])
@@ -141,7 +143,7 @@ def warnings_for(loaded: LoadedProduct, ev: Evaluation, i: int, v_covered: bool)
                 else f"the unit ({record.unit_text!r}); a factor of 10³ or 10⁴ is a common slip"
             )
             warnings.append(
-                f"peak spectral irradiance {peak:.3g} {UNIT_DISPLAY[IRRADIANCE_SI]} is implausible for a "
+                f"peak spectral irradiance {format_value(peak)} {UNIT_DISPLAY[IRRADIANCE_SI]} is implausible for a "
                 f"lamp: check {cause}"
             )
     if record.quantity == "radiance":
@@ -153,7 +155,7 @@ def warnings_for(loaded: LoadedProduct, ev: Evaluation, i: int, v_covered: bool)
             )
         elif fov > 11.0:
             warnings.append(
-                f"radiance measured over {fov:g} mrad, wider than the 11 and 1.7 mrad fields of the "
+                f"radiance measured over {format_stated(fov)} mrad, wider than the 11 and 1.7 mrad fields of the "
                 f"RG1/RG2 limits: hot spots may be underestimated"
             )
     return warnings
@@ -170,34 +172,36 @@ def assumptions_for(loaded: LoadedProduct, ev: Evaluation, i: int) -> list[str]:
     assumptions = []
     if record.no_emission_outside:
         assumptions.append(
-            f"The record states the source emits nothing outside {lo:g}–{hi:g} nm; band parts "
-            f"outside that range count as zero."
+            f"The record states the source emits nothing outside {format_stated(lo)}–{format_stated(hi)} nm; band "
+            f"parts outside that range count as zero."
         )
     if record.source_alpha_mrad is not None:
         assumptions.append(
-            f"Source given by its angular subtense {record.source_alpha_mrad:g} mrad at "
-            f"{record.distance_mm:g} mm, treated as a disc of {record.largest_dimension_mm:.4g} mm."
+            f"Source given by its angular subtense {format_stated(record.source_alpha_mrad)} mrad at "
+            f"{format_stated(record.distance_mm)} mm, treated as a disc of "
+            f"{format_value(record.largest_dimension_mm, 4)} mm."
         )
     d_a_mm = float(ev.assessment_distance_m[i]) * 1e3
     if record.quantity == "relative":
         assumptions.append(anchor_text(record, float(ev.anchor_scale[i])))
     if record.lamp_type == "gls" and record.at_distance_mm is None and d_a_mm > 200.0 + 1e-9:
         assumptions.append(
-            f"General lighting service lamp: assessed where it gives 500 lx, {d_a_mm:.0f} mm away; "
+            f"General lighting service lamp: assessed where it gives 500 lx, {format_distance_mm(d_a_mm)} away; "
             f"nearer than that (e.g. at 200 mm, as other lamps are assessed) its group can be "
             f"higher: see the distances"
         )
     if record.peak_to_mean_radiance > 1:
         assumptions.append(
-            f"Peak-to-mean radiance {record.peak_to_mean_radiance:g} (record): radiance values and "
+            f"Peak-to-mean radiance {format_stated(record.peak_to_mean_radiance)} (record): radiance values and "
             f"the radiance seen by fields of view smaller than the source are multiplied by it."
         )
     if record.effective_quantity == "irradiance":
         d_ref = record.irradiance_distance_mm
         if abs(d_a_mm - d_ref) > 1e-9:
             assumptions.append(
-                f"Irradiance scaled from {d_ref:g} mm to {d_a_mm:.4g} mm by the inverse-square law (point source), "
-                f"or by the law of a uniform Lambertian source where that gives more (near a large source)."
+                f"Irradiance scaled from {format_stated(d_ref)} mm to {format_distance_mm(d_a_mm)} by the "
+                f"inverse-square law (point source), or by the law of a uniform Lambertian source where that gives "
+                f"more (near a large source)."
             )
         assumptions.append(
             "Radiance derived as E/Ω_s from the irradiance and the stated source size, i.e. a "
@@ -225,17 +229,17 @@ def anchor_text(record: ProductRecord, scale: float) -> str:
     if anchor is None:
         return ""
     if anchor.field == "illuminance_lx":
-        target = f"{anchor.value:g} lx at {record.distance_mm:g} mm"
+        target = f"{format_stated(anchor.value)} lx at {format_stated(record.distance_mm)} mm"
     elif anchor.field == "luminous_intensity_cd":
         target = (
-            f"{anchor.value:g} cd, i.e. {anchor_photometric(record):.4g} lx at "
-            f"{record.reference_distance_mm:g} mm by the inverse-square law"
+            f"{format_stated(anchor.value)} cd, i.e. {format_value(anchor_photometric(record), 4)} lx at "
+            f"{format_stated(record.reference_distance_mm)} mm by the inverse-square law"
         )
     else:
-        target = f"{anchor.value:g} cd/m² (so the spectrum is read as a radiance)"
+        target = f"{format_stated(anchor.value)} cd/m² (so the spectrum is read as a radiance)"
     unit = UNIT_DISPLAY[record.unit_text]  # the SI unit the anchor scales the relative spectrum into
     return (
-        f"Relative spectrum scaled by {scale:.6g} {unit} per unit so that 683 lm/W · ∫S(λ)V(λ)dλ reproduces "
+        f"Relative spectrum scaled by {format_stated(scale)} {unit} per unit so that 683 lm/W · ∫S(λ)V(λ)dλ reproduces "
         f"the stated {target}; every absolute value rests on that figure and on the spectrum's shape."
     )
 
@@ -244,8 +248,8 @@ def distance_rule(record: ProductRecord, d_a_mm: float) -> str:
     """Which rule set the assessment distance ``d_a_mm`` [mm]: a what-if, 200 mm, or the GLS lamps' 500 lx."""
     if record.at_distance_mm is not None:
         return (
-            f"{record.at_distance_mm:g} mm as the record asks (at_distance_mm): a what-if study, not the "
-            f"standard's classification distance"
+            f"{format_distance_mm(record.at_distance_mm)} as the record asks (at_distance_mm): a what-if study, not "
+            f"the standard's classification distance"
         )
     if record.lamp_type != "gls":
         return "200 mm: the standard's distance for lamps other than general lighting service"

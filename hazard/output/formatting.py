@@ -5,19 +5,23 @@ from __future__ import annotations
 import math
 import re
 
-from hazard.result import ClaimCheck, Emission, HazardResult, Photometry
+from hazard.result import Assessment, ClaimCheck, Emission, HazardResult, Photometry
 
 __all__ = [
     "NOT_DETERMINED",
     "PLAIN_RANGE",
     "PULSE_LIMIT",
     "UNIT_DISPLAY",
+    "format_distance_mm",
     "format_duration_s",
     "format_fraction",
     "format_limit",
     "format_margin",
     "format_percent",
     "format_pulse_count",
+    "format_signed",
+    "format_stated",
+    "format_times",
     "format_value",
     "group_words",
     "hazard_margin",
@@ -28,6 +32,8 @@ __all__ = [
     "source_size_text",
     "superscript",
     "unit_text",
+    "what_if_at",
+    "what_if_prefix",
 ]
 
 _SUPERSCRIPT = str.maketrans("0123456789-+", "⁰¹²³⁴⁵⁶⁷⁸⁹⁻⁺")
@@ -118,6 +124,62 @@ def format_value(value: float | None, digits: int = 3) -> str:
     return f"{significand}×10{superscript(str(exponent))}"
 
 
+def format_stated(value: float | None) -> str:
+    """A number stated by the user or a standard (a distance, a tolerance, a wavelength), up to six significant digits.
+
+    Written as :func:`format_value` writes numbers, so a stated 10⁸ mm never reads ``1e+08``.
+
+    Examples
+    --------
+    >>> format_stated(1000.0), format_stated(0.5), format_stated(380.25), format_stated(1e8), format_stated(1e-5)
+    ('1000', '0.5', '380.25', '1×10⁸', '1×10⁻⁵')
+    """
+    return format_value(value, 6)
+
+
+def format_signed(value: float) -> str:
+    """A difference with its sign, three significant digits (:func:`format_value`).
+
+    Examples
+    --------
+    >>> format_signed(12.345), format_signed(-995000.0), format_signed(0.0)
+    ('+12.3', '-9.95×10⁵', '+0')
+    """
+    return format_value(value) if value < 0 else "+" + format_value(value)
+
+
+def format_distance_mm(distance_mm: float) -> str:
+    """A distance as written for people: whole millimetres from 10 mm to 10⁵ mm, else three significant digits.
+
+    Examples
+    --------
+    >>> format_distance_mm(200.0), format_distance_mm(2323.46), format_distance_mm(2.5), format_distance_mm(0.002)
+    ('200 mm', '2323 mm', '2.5 mm', '0.002 mm')
+    >>> format_distance_mm(447213.6), format_distance_mm(1e8)
+    ('4.47×10⁵ mm', '1×10⁸ mm')
+    """
+    if 10 <= distance_mm < PLAIN_RANGE[1]:
+        return f"{distance_mm:.0f} mm"
+    return f"{format_value(distance_mm)} mm"
+
+
+def what_if_at(assessment: Assessment) -> str:
+    """``'what-if at 30 mm'`` for a what-if result; empty for one at the standard's distance."""
+    if assessment.basis != "what-if":
+        return ""
+    return f"what-if at {format_distance_mm(assessment.assessment_distance_mm)}"
+
+
+def what_if_prefix(assessment: Assessment) -> str:
+    """``'what-if at 30 mm: '`` before a figure of a what-if result; nothing before one at the standard's distance.
+
+    Every summary puts it before the what-if's own figures (deciding hazards, margins, the uncertainty verdict), so
+    none of them can be read as the standard's classification beside which they stand.
+    """
+    at = what_if_at(assessment)
+    return f"{at}: " if at else ""
+
+
 def _significant(value: float, digits: int, direction: str) -> float:
     """``value`` > 0 rounded to ``digits`` significant digits towards ``"up"`` or ``"down"``."""
     exponent = math.floor(math.log10(value)) - digits + 1
@@ -128,9 +190,14 @@ def _significant(value: float, digits: int, direction: str) -> float:
 
 
 def plain(value: float) -> str:
-    """A positive number already rounded, without exponent or trailing zeros: ``'1.02'``, ``'227'``, ``'0.0015'``."""
-    text = f"{value:.12f}".rstrip("0").rstrip(".")
-    return text if "." in text or len(text) <= 15 else f"{value:.0f}"
+    """A positive number already rounded, without trailing zeros, written as :func:`format_value` writes numbers.
+
+    Examples
+    --------
+    >>> plain(1.02), plain(227.0), plain(0.0015), plain(2.5e14), plain(3e-7)
+    ('1.02', '227', '0.0015', '2.5×10¹⁴', '3×10⁻⁷')
+    """
+    return format_value(value, 15)  # every digit the rounding kept, none of the float's noise beyond them
 
 
 def round_up(value: float, digits: int = 3) -> str:
@@ -144,6 +211,19 @@ def round_up(value: float, digits: int = 3) -> str:
     ('1.01', '99.6', '227', '25300')
     """
     return plain(_significant(value, digits, "up"))
+
+
+def format_times(factor: float) -> str:
+    """A factor > 0 rounded up at three significant digits, written as :func:`format_value` writes numbers.
+
+    The safe way to print how far a limit is exceeded or by how much a source must be enlarged.
+
+    Examples
+    --------
+    >>> format_times(1.0001), format_times(835.56), format_times(1593.2), format_times(2.3412e6)
+    ('1.01', '836', '1600', '2.35×10⁶')
+    """
+    return format_value(_significant(factor, 3, "up"))
 
 
 def round_down(value: float, digits: int = 3) -> str:
@@ -160,13 +240,16 @@ def round_down(value: float, digits: int = 3) -> str:
 def distance_beyond_mm(distance_mm: float) -> str:
     """A distance beyond which something holds, rounded up.
 
-    Whole millimetres from 10 mm, else two significant digits (a product is never said to be safe nearer than it is).
+    Whole millimetres from 10 mm to 10⁵ mm, two significant digits below, three with a power of ten above (a product
+    is never said to be safe nearer than it is).
 
     Examples
     --------
-    >>> distance_beyond_mm(226.04), distance_beyond_mm(0.2501)
-    ('227 mm', '0.26 mm')
+    >>> distance_beyond_mm(226.04), distance_beyond_mm(0.2501), distance_beyond_mm(2.3412e6)
+    ('227 mm', '0.26 mm', '2.35×10⁶ mm')
     """
+    if distance_mm >= PLAIN_RANGE[1]:
+        return f"{format_times(distance_mm)} mm"
     return f"{math.ceil(distance_mm)} mm" if distance_mm >= 10 else f"{round_up(distance_mm, 2)} mm"
 
 
@@ -203,11 +286,10 @@ def format_duration_s(seconds: float | None) -> str:
     --------
     >>> format_duration_s(263.49), format_duration_s(0.2499), format_duration_s(9000), format_duration_s(None)
     ('4.3 min', '0.24 s', '2.5 h', '—')
+    >>> format_duration_s(2e-9), format_duration_s(0.0)
+    ('0.002 µs', 'at once')
 
     Zero: the limit is exceeded by any exposure, however brief (a limit held at its shortest-time value).
-
-    >>> format_duration_s(0.0)
-    'at once'
     """
     if seconds is None:
         return "—"
@@ -242,7 +324,7 @@ def format_pulse_count(count: float) -> str:
     Examples
     --------
     >>> format_pulse_count(438012.7), format_pulse_count(4.1e9)
-    ('438000', 'over a million')
+    ('4.38×10⁵', 'over a million')
     """
     return round_down(count) if count < 1e6 else "over a million"
 
@@ -260,7 +342,7 @@ def format_fraction(ratio: float) -> str:
 
 def _times(ratio: float) -> str:
     """A ratio > 1 as a multiple, rounded up at three significant digits (never "1×"): ``'1.02×'``, ``'99.6×'``."""
-    return f"{round_up(ratio)}×"
+    return f"{format_times(ratio)}×"
 
 
 def margin_to_next(risk_group: str | None, margins: dict[str, float]) -> tuple[str, float] | None:
@@ -323,7 +405,8 @@ def group_words(
     """
     text = NOT_DETERMINED if risk_group is None else risk_group + ("" if complete else " (lower bound)")
     if basis == "what-if":
-        return f"what-if at {distance_mm:.0f} mm: {text}"
+        at = "" if distance_mm is None else f" at {format_distance_mm(distance_mm)}"
+        return f"what-if{at}: {text}"
     return text
 
 

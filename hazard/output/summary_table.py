@@ -1,17 +1,21 @@
 """One row per product for people who open the batch summary in a spreadsheet (``summary.csv``, ``summary.xlsx``).
 
-The columns name the product (id, name, vendor, model, its own file stem), say on what basis and at what distance it
-was assessed, then give each hazard's value, group and t_max with the unit in the header, the flags (uncertainty,
-claims, pulses, the day's exposure) and any error. Numbers are rounded to 3 significant digits here; full precision
-stays in ``results.jsonl``. Units in headers are written in ASCII SI notation (``W m-2 sr-1``) so that every
-spreadsheet program shows them alike.
+The columns name the product (id, name, vendor, model, its own file stem), give its classification (the group at the
+standard's distance) and, for a what-if, the group at the distance the record asks for, then the distance the
+per-hazard figures were computed at (``hazard_columns_at [mm]``) followed by those figures: each hazard's value, group
+and t_max with the unit in the header, the pulse fraction, the uncertainty verdict; then the claims, the day's
+exposure and any error. A what-if result holds no per-hazard figures at the standard's distance, so a what-if row's
+hazard columns are the what-if's: ``hazard_columns_at [mm]`` says so by its distance, and every text figure of the
+what-if (deciding hazards, margin, uncertainty, group range) starts with "what-if at N mm:". Numbers are rounded to
+3 significant digits here; full precision stays in ``results.jsonl``. Units in headers are written in ASCII SI notation
+(``W m-2 sr-1``) so that every spreadsheet program shows them alike.
 """
 
 from __future__ import annotations
 
 import math
 
-from hazard.output.formatting import NOT_DETERMINED, hazard_margin, hazard_margin_text
+from hazard.output.formatting import NOT_DETERMINED, hazard_margin, hazard_margin_text, what_if_prefix
 from hazard.result import Assessment
 from hazard.standards import DEFAULT_LIMIT_SET, LimitSet
 
@@ -29,6 +33,9 @@ Cell = str | int | float | bool | None
 """A cell of the summary: text, a count, a number (already rounded), a yes/no, or empty."""
 SIGNIFICANT_DIGITS = 3
 """Digits kept of every number in the summary [1]."""
+HAZARD_COLUMNS_AT = "hazard_columns_at [mm]"
+"""The column holding the distance the per-hazard figures of the row were computed at: the standard's assessment
+distance, or a what-if's own distance."""
 
 
 def ascii_unit(unit: str) -> str:
@@ -70,15 +77,16 @@ def summary_columns(limit_set: LimitSet = DEFAULT_LIMIT_SET) -> list[str]:
         "what_if_risk_group",
         "deciding_hazards",
         "margin",
+        HAZARD_COLUMNS_AT,
         *(c for h in limit_set.hazards for c in hazard_headers(h.symbol, h.unit)),
+        "emission",
+        "pulse_max_fraction [1]",
         "uncertainty",
         "group_range",
         "claims_contradicted",
         "claims_inconclusive",
         "claims",
         "min_distance_exempt [mm]",
-        "emission",
-        "pulse_max_fraction [1]",
         "day_within_limits",
         "day_max_fraction [1]",
         "day_max_family",
@@ -157,8 +165,11 @@ def summary_row(
 ) -> dict[str, Cell]:
     """One product's row: the columns of :func:`summary_columns` with typed, rounded cells.
 
-    The risk group is the standard's classification (a what-if has its own columns), "not determined" when there is
-    none. A failed product keeps what its manifest row says of it (``fields``: name, vendor, model) and its error.
+    ``risk_group`` and ``assessment_distance [mm]`` are the standard's classification ("not determined" when there is
+    none); a what-if adds its own group and distance in the ``what_if_*`` columns. The per-hazard columns hold the
+    figures computed at ``hazard_columns_at [mm]``: the classification's distance, or the what-if's, whose text
+    figures then start with "what-if at N mm:". A failed product keeps what its manifest row says of it (``fields``:
+    name, vendor, model) and its error.
     """
     row: dict[str, Cell] = dict.fromkeys(summary_columns(limit_set))
     described = assessment.record if assessment is not None else (fields or {})
@@ -187,19 +198,21 @@ def summary_row(
     row["assessment_distance [mm]"] = round_significant(
         a.standard_assessment_distance_mm if what_if else a.assessment_distance_mm
     )
+    row[HAZARD_COLUMNS_AT] = round_significant(a.assessment_distance_mm)
     if what_if:
         row["what_if_distance [mm]"] = round_significant(a.assessment_distance_mm)
         row["what_if_risk_group"] = a.risk_group or NOT_DETERMINED
-    else:
-        row["deciding_hazards"] = ", ".join(a.deciding_hazards)
-        margins = {s: m for s in a.deciding_hazards if (m := hazard_margin(a.hazards[s])) is not None}
-        if margins:  # the deciding hazard nearest to the next group up (or furthest over, in RG3)
-            nearest = max(margins, key=lambda s: margins[s][1])
-            row["margin"] = f"{nearest}: {hazard_margin_text(a.hazards[nearest])}"
+    at = what_if_prefix(a)  # the figures below are the what-if's own: never to be read as the classification's
+    if a.deciding_hazards:
+        row["deciding_hazards"] = at + ", ".join(a.deciding_hazards)
+    margins = {s: m for s in a.deciding_hazards if (m := hazard_margin(a.hazards[s])) is not None}
+    if margins:  # the deciding hazard nearest to the next group up (or furthest over, in RG3)
+        nearest = max(margins, key=lambda s: margins[s][1])
+        row["margin"] = f"{at}{nearest}: {hazard_margin_text(a.hazards[nearest])}"
     if a.uncertainty is not None:
         row.update(
-            uncertainty=a.uncertainty.verdict,
-            group_range=f"{a.uncertainty.risk_group_low}-{a.uncertainty.risk_group_high}",
+            uncertainty=at + a.uncertainty.verdict,
+            group_range=f"{at}{a.uncertainty.risk_group_low}-{a.uncertainty.risk_group_high}",
         )
     if a.distances is not None and "Exempt" in a.distances.minimum_distance_mm:
         found = a.distances.minimum_distance_mm["Exempt"]

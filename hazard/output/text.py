@@ -9,16 +9,20 @@ from hazard.output.formatting import (
     dimming_percent,
     distance_beyond_mm,
     emission_text,
+    format_distance_mm,
     format_duration_s,
     format_fraction,
     format_limit,
     format_percent,
     format_pulse_count,
+    format_stated,
+    format_times,
     format_value,
     group_words,
     hazard_margin,
     hazard_margin_text,
     source_size_text,
+    what_if_at,
 )
 from hazard.result import Assessment
 
@@ -92,7 +96,7 @@ def render_text(assessment: Assessment) -> str:
     lines = [
         title,
         *overall_lines(a),
-        f"Assessed at {a.assessment_distance_mm:.0f} mm ({g.distance_rule})",
+        f"Assessed at {format_distance_mm(a.assessment_distance_mm)} ({g.distance_rule})",
         f"Source: α = {format_value(g.alpha_rad * 1e3)} mrad, "
         f"{source_size_text(a.record) or format_value(g.largest_dimension_mm) + ' mm'}"
         f"{', small source (E_B)' if g.small_source else ''}"
@@ -110,7 +114,7 @@ def render_text(assessment: Assessment) -> str:
     if t is not None:
         lines += [
             "",
-            f"Blue-light transfer (IEC TR 62778): K_B,v = {t.k_bv_w_per_lm * 1e3:.3g} mW/lm; the "
+            f"Blue-light transfer (IEC TR 62778): K_B,v = {format_value(t.k_bv_w_per_lm * 1e3)} mW/lm; the "
             f"blue-light irradiance reaches its threshold at E_thr = "
             f"{format_value(t.threshold_illuminance_lx)} lx, i.e. nearer than "
             f"d_thr = {distance_beyond_mm(t.threshold_distance_mm)} "
@@ -129,11 +133,14 @@ def render_text(assessment: Assessment) -> str:
 def overall_lines(a: Assessment) -> list[str]:
     """The overall group in words, what it means and what decides it.
 
-    A what-if names the standard's group beside it; an undetermined group names the fix.
+    A what-if opens with the standard's group and calls its own a what-if group, never the overall risk group; an
+    undetermined group names the fix.
     """
+    what_if = a.basis == "what-if"
+    label = f"What-if group at {format_distance_mm(a.assessment_distance_mm)}" if what_if else "Overall risk group"
     if a.risk_group is None:
         head = [
-            f"Overall risk group: {NOT_DETERMINED.upper()} — no hazard with risk groups could be assessed "
+            f"{label}: {NOT_DETERMINED.upper()} — no hazard with risk groups could be assessed "
             f"(not assessed: {', '.join(a.not_assessed) or 'none'}); measure the missing wavelength range, or "
             f"state no_emission_outside if the source truly emits nothing outside the measured range"
         ]
@@ -157,12 +164,14 @@ def overall_lines(a: Assessment) -> list[str]:
                 if a.emission.mode == "single_pulse"
                 else meaning + " (time-averaged values; every pulse within its own limit)"
             )
-        head = [f"Overall risk group: {group_words(a.risk_group, a.complete)}{meaning}  ({status}{decided})"]
-    if a.basis == "what-if":
+        words = group_words(a.risk_group, a.complete) + (" (not a classification)" if what_if else "")
+        head = [f"{label}: {words}{meaning}  ({status}{decided})"]
+    if what_if:
+        standard_mm = a.standard_assessment_distance_mm
         head.insert(
             0,
-            f"WHAT-IF at {a.assessment_distance_mm:.0f} mm, not a classification: the standard's "
-            f"distance ({a.standard_assessment_distance_mm:.0f} mm) gives "
+            f"WHAT-IF at {format_distance_mm(a.assessment_distance_mm)}, not a classification: the standard's "
+            f"distance{'' if standard_mm is None else f' ({format_distance_mm(standard_mm)})'} gives "
             f"{group_words(a.standard_risk_group, a.complete)}",
         )
     return head
@@ -183,7 +192,9 @@ def _emission_lines(a: Assessment) -> list[str]:
         unit = UNIT_DISPLAY.get(h.unit, h.unit).replace("W", "J", 1)
         parts = [f"{format_value(p.dose_per_pulse)} {unit} per pulse, {format_fraction(p.fraction)} at its duration"]
         if p.fraction_in_train is not None:
-            parts.append(f"{format_fraction(p.fraction_in_train)} with {p.pulses_in_window:.3g} pulses in the window")
+            parts.append(
+                f"{format_fraction(p.fraction_in_train)} with {format_value(p.pulses_in_window)} pulses in the window"
+            )
         if p.pulses_to_limit is not None:
             parts.append(f"{format_pulse_count(p.pulses_to_limit)} pulses reach the limit")
         lines.append(f"  {symbol}: " + "; ".join(parts))
@@ -245,9 +256,11 @@ def _exposure_lines(a: Assessment) -> list[str]:
 def _studies(a: Assessment) -> list[str]:
     """Uncertainty, hazard distances and remedies, as short lines."""
     lines = []
+    at = what_if_at(a)  # the uncertainty and the remedies of a what-if are at its own distance
+    where = f" ({at})" if at else ""
     if a.uncertainty is not None:
         u = a.uncertainty
-        lines += ["", f"Uncertainty: {u.verdict.upper()} — {u.note}"]
+        lines += ["", f"Uncertainty{where}: {u.verdict.upper()} — {u.note}"]
     if a.distances is not None:
         shown = []
         for group, d in a.distances.minimum_distance_mm.items():
@@ -276,7 +289,7 @@ def _studies(a: Assessment) -> list[str]:
         if product:
             lines += [
                 "",
-                "What it would take"
+                f"What it would take{where}"
                 + ("" if a.complete else " (measured data only: hazards not assessed may need more)")
                 + ": "
                 + "; ".join(
@@ -285,10 +298,15 @@ def _studies(a: Assessment) -> list[str]:
             ]
         for r in a.remedies.remedies:
             if r.area_factor is not None:
-                lines.append(f"  {r.target} → {r.group}: or enlarge the emitting area ×{r.area_factor:.3g} (diffuser)")
+                lines.append(
+                    f"  {r.target} → {r.group}: or enlarge the emitting area ×{format_times(r.area_factor)} (diffuser)"
+                )
         for symbol, bands in a.remedies.uv_bands.items():
             main = [b for k, b in enumerate(bands[:3]) if k == 0 or b.share >= 0.01]  # the rest is noise
-            top = ", ".join(f"{b.band_nm[0]:g}–{b.band_nm[1]:g} nm {format_percent(b.share)}" for b in main)
+            top = ", ".join(
+                f"{format_stated(b.band_nm[0])}–{format_stated(b.band_nm[1])} nm {format_percent(b.share)}"
+                for b in main
+            )
             lines.append(f"  {symbol} comes mostly from {top}")
     return lines
 
@@ -355,11 +373,12 @@ def render_batch_table(ids: list[str], assessments: dict[str, Assessment], error
         flags = []
         if not standard:
             flags.append(
-                f"WHAT-IF at {a.assessment_distance_mm:.0f} mm gives "
+                f"WHAT-IF at {format_distance_mm(a.assessment_distance_mm)} gives "
                 f"{group_words(a.risk_group, a.complete)} (not a classification)"
             )
         if a.uncertainty is not None and a.uncertainty.verdict == "borderline":
-            flags.append(f"BORDERLINE {a.uncertainty.risk_group_low}-{a.uncertainty.risk_group_high}")
+            span = f"{a.uncertainty.risk_group_low}-{a.uncertainty.risk_group_high}"
+            flags.append(f"BORDERLINE {span}" if standard else f"BORDERLINE {span} at the what-if distance")
         for verdict in ("contradicted", "inconclusive"):
             count = sum(c.verdict == verdict for c in a.claims)
             if count:

@@ -19,6 +19,7 @@ from hazard.method.contributions import NEGLIGIBLE_SHARE_OF_EXEMPT
 from hazard.method.evaluate import Evaluation, ProductArrays
 from hazard.method.families import evaluate_rows, family_groups
 from hazard.method.weighting import GridCache, quadrature_matrix
+from hazard.output.formatting import format_stated
 from hazard.result import BandContribution, Remedies, Remedy
 from hazard.standards import LimitSet
 from hazard.studies.group_search import PRODUCT, GroupJob, evaluate_variants, groups_of, search_groups
@@ -124,7 +125,7 @@ def _why_none(target: str, dimming: float | None, area: float | None, radiance: 
         notes.append("dimming alone does not reach this group")
     if area is None:
         if target in radiance:
-            notes.append(f"enlarging the area up to ×{_MAX_AREA_FACTOR:g} does not reach this group")
+            notes.append(f"enlarging the area up to ×{format_stated(_MAX_AREA_FACTOR)} does not reach this group")
         else:
             notes.append(
                 f"a diffuser changes radiance only; see the "

@@ -14,6 +14,7 @@ from hazard.inputs.spectrum import Spectrum
 from hazard.method.evaluate import ProductArrays
 from hazard.method.families import evaluate_rows, family_groups, family_member, family_t_max, family_values
 from hazard.method.integrals import integrate_spectra
+from hazard.output.formatting import format_stated
 from hazard.result import HazardBounds, UncertaintyStudy
 from hazard.standards import LimitSet
 
@@ -83,11 +84,15 @@ def uncertainty_study(
         note = "no risk group could be determined at any variant"
     elif verdict == "borderline":
         note = (
-            f"within ±{uncertainty_pct:g} % (k = 2) and ±{shift:g} nm the product may be {low or 'undetermined'} "
+            f"within ±{format_stated(uncertainty_pct)} % (k = 2) and ±{format_stated(shift)} nm the product may be "
+            f"{low or 'undetermined'} "
             f"or {high}: send it to the laboratory"
         )
     else:
-        note = f"the group {group_of[nominal]} holds across ±{uncertainty_pct:g} % (k = 2) and ±{shift:g} nm"
+        note = (
+            f"the group {group_of[nominal]} holds across ±{format_stated(uncertainty_pct)} % (k = 2) and "
+            f"±{format_stated(shift)} nm"
+        )
     return UncertaintyStudy(
         uncertainty_pct=uncertainty_pct,
         wavelength_uncertainty_nm=shift,

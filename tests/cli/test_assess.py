@@ -90,6 +90,52 @@ def test_what_if_is_never_mistaken_for_a_classification(tmp_path, monkeypatch):
     assert rows[0]["what_if_risk_group"] == "Exempt" and rows[0]["what_if_distance [mm]"] == "5000"
 
 
+def test_a_what_if_row_reads_at_one_distance_in_every_summary(tmp_path, monkeypatch):
+    # The same 365 nm lamp twice: B at the standard's 200 mm (E_UVA = 2 W/m², Exempt), A as a what-if at 30 mm,
+    # where the inverse-square law gives 2 × (200/30)² = 88.9 W/m²: RG2 (IEC 62471:2006 Table 6.1, E_UVA 33 to
+    # 100 W/m²). Every summary keeps the classification (Exempt) as the product's group and marks the what-if's own
+    # figures, so no row carries a group its hazard columns contradict.
+    import csv
+
+    from openpyxl import load_workbook
+    from pypdf import PdfReader
+
+    write_spectrum(tmp_path / "uv.csv", GRID, triangle_line(GRID, 365.0, 2.0))
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "manifest.csv").write_text(
+        "id,spectrum,distance_mm,source_diameter_mm,no_emission_outside,at_distance_mm\n"
+        "A,uv.csv,200,5,true,30\nB,uv.csv,200,5,true,\n"
+    )
+    batch = CliRunner().invoke(main, ["batch", "manifest.csv", "--output", "out", "--html", "--pdf"])
+    assert batch.exit_code == 0, batch.stderr
+    with (tmp_path / "out" / "summary.csv").open(newline="") as handle:
+        header = next(csv.reader(handle))
+        handle.seek(0)
+        rows = {r["id"]: r for r in csv.DictReader(handle)}
+    assert header[header.index("hazard_columns_at [mm]") + 1] == "E_S value [W m-2]"  # right before the hazards
+    a, b = rows["A"], rows["B"]
+    assert a["risk_group"] == b["risk_group"] == "Exempt" and a["assessment_distance [mm]"] == "200"
+    assert (a["hazard_columns_at [mm]"], a["E_UVA value [W m-2]"], a["E_UVA group"]) == ("30.0", "88.9", "RG2")
+    assert (b["hazard_columns_at [mm]"], b["E_UVA value [W m-2]"], b["E_UVA group"]) == ("200", "2.00", "Exempt")
+    assert a["what_if_risk_group"] == "RG2" and a["deciding_hazards"] == "what-if at 30 mm: E_S, E_UVA"
+    assert a["margin"].startswith("what-if at 30 mm: E_UVA: 2.7× RG1 limit")  # 88.9 / 33
+    sheet = load_workbook(tmp_path / "out" / "summary.xlsx", read_only=True)["products"]
+    cells = [list(r) for r in sheet.iter_rows(values_only=True)]
+    assert list(cells[0]) == header  # the workbook has the same columns
+    row_a = dict(zip(header, next(r for r in cells[1:] if r[0] == "A"), strict=False))  # trailing empty cells cut
+    assert row_a["hazard_columns_at [mm]"] == 30 and row_a["risk_group"] == "Exempt"
+    # summary.pdf: the what-if's deciding hazards and margin are marked; it ranks after B, whose margin is the
+    # classification's (reports/ranking.py), and its borderline margin (88.9 % of the RG2 limit) counts for none
+    first = " ".join(PdfReader(tmp_path / "out" / "summary.pdf").pages[0].extract_text().split())
+    assert "what-if at 30 mm: E_S, E_UVA" in first and "what-if at 30 mm: E_UVA: 2.7× RG1 limit" in first
+    assert first.index("2 A") > first.index("1 B") and "borderline: 0" in first
+    assert "WHAT-IF at 30 mm gives RG2" in first and "BORDERLINE at the what-if distance (30 mm)" in first
+    page = (tmp_path / "out" / "summary.html").read_text(encoding="utf-8")
+    html_a = re.search(r'<tr [^>]*data-id="A">(.*?)</tr>', page, re.S).group(1)
+    assert ">Exempt<" in html_a and "what-if at 30 mm: E_S, E_UVA" in html_a
+    assert 'aria-label="Headroom: what-if at 30 mm: ' in html_a  # the drawing is of the what-if distance
+
+
 def test_a_what_if_names_its_own_deciding_hazards_and_both_groups(tmp_path, monkeypatch):
     # The small red emitter of method §3 (0.1 mm at 200 mm, E_R = 150 W/m², R = 1 at 650 nm, IEC 62471:2006
     # Table 4.2) is RG3 at the standard's 200 mm by L_R. At 1000 mm it is Exempt: the what-if's deciding
