@@ -64,7 +64,8 @@ class PulseCheck(_Frozen):
     pulses_to_limit: float | None = Field(
         None,
         description="Pulses that together reach the limit: dose limits 1/fraction (within the limit's dose period), "
-        "thermal limits fraction^−4 (the N^−0.25 rule) [1]; null where a pulse alone exceeds it.",
+        "thermal limits fraction^−4 (the N^−0.25 rule) [1]; null where a pulse alone exceeds it, or where the "
+        "count is beyond any number (a pulse far within its limit).",
     )
 
     @property

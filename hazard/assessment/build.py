@@ -187,10 +187,9 @@ def _pulse_check(ev: Evaluation, h: HazardArrays, i: int) -> PulseCheck:
     peak = float(h.value[i]) / duty  # a train's values are of its time average
     single = float(check.single[i])
     thermal_train = h.hazard.effect == "thermal" and not ev.single_pulse[i]
-    if h.hazard.effect == "photochemical":
-        to_limit = 1 / single if 0 < single <= 1 else None
-    else:
-        to_limit = single**-4 if 0 < single <= 1 else None
+    with np.errstate(over="ignore", divide="ignore"):  # a pulse far below its limit: beyond any count, none
+        count = np.float64(single) ** (-1.0 if h.hazard.effect == "photochemical" else -4.0)
+    to_limit = float(count) if 0 < single <= 1 and np.isfinite(count) else None
     return PulseCheck(
         duration_s=duration,
         dose_per_pulse=peak * duration,

@@ -475,7 +475,7 @@ def _with_pulses(
     group = np.where(grouped & over & pulsed, 3, np.where(grouped & single, 0, h.group_index))
     partial = h.lower_bound_index >= 0  # a pulse over its limit in the measured part alone is over it in the whole
     lower = np.where(partial & over & pulsed, 3, np.where(partial & single, -1, h.lower_bound_index))
-    with np.errstate(divide="ignore", invalid="ignore"):
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):  # a pulse far within: never (inf)
         by_pulses = np.where(check.single > 1, 0.0, np.where(check.repeated > 1, check.single**-4.0 / rate_hz, np.nan))
     return dataclasses.replace(
         h,

@@ -184,6 +184,21 @@ def test_a_limit_exceeded_at_once_prints_and_renders(tmp_path, monkeypatch):
     assert "t_max at once" in " ".join(PdfReader(tmp_path / "g.pdf").pages[0].extract_text().split())
 
 
+def test_a_pulse_far_within_its_limit_counts_no_pulses_to_reach_it(tmp_path, monkeypatch):
+    # A 450 nm Gaussian (σ 10 nm) pulsed at 10 µs and 2 kHz: its far tail in 780-3000 nm is ~1e-290 of its peak,
+    # so E_IR's pulse is so far within its limit that fraction^-4 pulses (the N^-0.25 rule) overflow a float:
+    # that count is "none" (null), never a crash (it once stopped the text output with exit 1)
+    wl = np.arange(300.0, 3001.0, 1.0)
+    write_spectrum(tmp_path / "pt.csv", wl, np.exp(-0.5 * ((wl - 450.0) / 10.0) ** 2))
+    monkeypatch.chdir(tmp_path)
+    options = ["--distance-mm", "200", "--source-diameter-mm", "5", "--no-emission-outside", "--format", "json"]
+    pulses = ["--emission", "pulse_train", "--pulse-duration-s", "10us", "--pulse-rate-hz", "2000"]
+    ran = CliRunner().invoke(main, ["assess", "pt.csv", *options, *pulses])
+    assert ran.exit_code == 0, ran.stderr
+    assert json.loads(ran.stdout)["hazards"]["E_IR"]["pulse"]["pulses_to_limit"] is None
+    assert CliRunner().invoke(main, ["assess", "pt.csv", *options[:-2], *pulses]).exit_code == 0
+
+
 def _assess_in_a_process(args, cwd):
     """The real command in a fresh interpreter, as a user runs it."""
     env = {**os.environ, "PYTHONPATH": os.pathsep.join(filter(None, [str(REPO), os.environ.get("PYTHONPATH")]))}
