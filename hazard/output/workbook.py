@@ -9,6 +9,7 @@ not be assessed, with the reason and the fix). Every sheet has a frozen header r
 
 from __future__ import annotations
 
+import contextlib
 from collections.abc import Iterable, Sequence
 from pathlib import Path
 
@@ -108,4 +109,25 @@ class SummaryWorkbook:
             width, rows = self._counts[name]
             sheet.auto_filter.ref = f"A1:{get_column_letter(width)}{rows}"
         with atomic_file(path) as handle:
-            self._book.save(handle)
+            try:
+                self._book.save(handle)
+            except (OSError, ValueError) as exc:  # a failed write; openpyxl may then fail to close its XML
+                self._abandon()
+                raise _os_error_behind(exc) from None
+
+    def _abandon(self) -> None:
+        """Close the sheets' row writers of a failed save now, quietly, so none complains later when collected."""
+        for sheet in self._book.worksheets:
+            writer = getattr(sheet, "_writer", None)
+            for generator in (getattr(sheet, "_rows", None), getattr(writer, "xf", None)):
+                if generator is not None:
+                    with contextlib.suppress(Exception):
+                        generator.close()
+
+
+def _os_error_behind(exc: BaseException) -> BaseException:
+    """The OSError (a full disk, a lost device) that ``exc`` was raised while handling, else ``exc`` itself."""
+    cause: BaseException | None = exc
+    while cause is not None and not isinstance(cause, OSError):
+        cause = cause.__context__
+    return cause if cause is not None else exc

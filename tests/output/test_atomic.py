@@ -28,3 +28,33 @@ def test_full_disk_and_read_only_folder_are_one_line(tmp_path, monkeypatch):
         )
         assert_exit_2(result, "cannot write", os.strerror(code))
         assert not (tmp_path / "out.json").exists()
+
+
+def test_a_disk_that_fills_while_the_workbook_is_written_is_one_line(tmp_path, monkeypatch):
+    # A full disk found half-way through summary.xlsx: openpyxl then fails to close its XML (a ValueError on the
+    # closed file) and that hid the disk's own error behind an internal error (exit 1). The user sees the disk's
+    # error on one line (exit 2), and no workbook, whole or half, is left.
+    import contextlib
+    import errno
+    import io
+
+    import hazard.output.workbook as workbook
+
+    class FillingFile(io.BytesIO):
+        def write(self, data):
+            if self.tell() + len(data) > 2000:
+                raise OSError(errno.ENOSPC, os.strerror(errno.ENOSPC))
+            return super().write(data)
+
+    @contextlib.contextmanager
+    def filling(path):
+        yield FillingFile()
+
+    monkeypatch.setattr(workbook, "atomic_file", filling)
+    write_lamp(tmp_path)
+    (tmp_path / "m.csv").write_text(
+        "id,spectrum,distance_mm,source_diameter_mm,no_emission_outside\nA,lamp.csv,500,30,true\n"
+    )
+    result = run_cli(["batch", "m.csv", "--output", "out"], tmp_path)
+    assert_exit_2(result, os.strerror(errno.ENOSPC))
+    assert not (tmp_path / "out" / "summary.xlsx").exists()
