@@ -232,7 +232,11 @@ def summary_row(
     for symbol, h in a.hazards.items():
         value_column, group_column, t_max_column = hazard_headers(symbol, limit_set[symbol].unit)
         row[value_column] = round_significant(h.value)
-        row[group_column] = h.risk_group or ("not assessed" if not h.assessed else None)
+        row[group_column] = h.risk_group or (
+            (f"not assessed, at least {h.lower_bound_group}" if h.lower_bound_group else "not assessed")
+            if not h.assessed
+            else None
+        )
         row[t_max_column] = round_significant(h.t_max_s)
     return row
 

@@ -62,3 +62,23 @@ def test_the_hazard_groups_of_every_row_agree_with_the_group_at_their_distance(r
         group = row["risk_group"] if at_standard else row["what_if_risk_group"]
         hazard_groups = [row[hazard_headers(h.symbol, h.unit)[1]] for h in DEFAULT_LIMIT_SET.hazards]
         assert max(rank(g) for g in hazard_groups if g in DEFAULT_LIMIT_SET.groups) == rank(group), row["id"]
+
+
+def test_a_lower_bound_reads_as_one_in_its_row():
+    # The 365 nm line of 2 W/m² measured only from 300 nm: E_S (200-400 nm) is not assessed, yet its measured part,
+    # S_UV(365) = 1.1e-4 (IEC 62471:2006 Table 4.1) × 2 W/m² ≈ 2.4e-4 W/m², is under the Exempt limit (0.001): no
+    # bound. At 20 W/m² it is 2.4e-3, over it: E_S is at least RG1, and so is the lamp (a lower bound).
+    measured = GRID >= 300.0
+    for peak, bound in ((2.0, None), (20.0, "RG1")):
+        a = assess_spectrum(
+            GRID[measured],
+            triangle_line(GRID, 365.0, peak)[measured],
+            product_id="P",
+            distance_mm=200.0,
+            source_diameter_mm=5.0,
+        )
+        row = summary_row(a.id, a.id, a, None)
+        assert a.hazards["E_S"].lower_bound_group == bound
+        assert row["E_S group"] == ("not assessed" if bound is None else f"not assessed, at least {bound}")
+        assert row["group_note"] == "lower bound" and row["complete"] is False
+        assert rank(row["risk_group"]) >= rank(bound or "Exempt")
