@@ -324,12 +324,15 @@ def _hazard_arrays(
     alpha: np.ndarray,
     luminance: np.ndarray,
     luminance_known: np.ndarray,
+    bounds_valid: np.ndarray,
 ) -> HazardArrays:
     """One hazard for n products; where its band is only partly measured, the group of the measured part.
 
     That part's integral is at most the band's value (non-negative spectra and weights), and the top-down reading
-    only rises with the values compared, so its group is a lower bound of the hazard's group. Not for the weak-stimulus
-    hazard while the luminance that selects it is itself only partly measured.
+    only rises with the values compared, so its group is a lower bound of the hazard's group. Only where
+    ``bounds_valid`` (nothing else rests on a partly measured V(λ): the scale of a relative spectrum, the 500 lx
+    distance of a GLS lamp), and not for the weak-stimulus hazard while the luminance that selects it is itself
+    only partly measured (``luminance_known``).
     """
     n = alpha.size
     nan3 = np.full((n, 3), np.nan)
@@ -350,7 +353,7 @@ def _hazard_arrays(
         group, raised = hazard_groups(compared, limits, t_max, hazard.time_bases_s, limit_set.table_rounding)
     applicable = _applicable(hazard, limit_set, alpha, luminance)
     assessed = applicable & covered
-    partial = applicable & ~covered & gap_free
+    partial = applicable & ~covered & gap_free & bounds_valid
     if hazard.applies == "weak_visual_stimulus":
         partial &= luminance_known
     return HazardArrays(
@@ -422,9 +425,18 @@ def evaluate(arrays: ProductArrays, limit_set: LimitSet) -> Evaluation:
         peak_to_mean=peak,
     )
     luminance_known = arrays.covered[:, keys["V"]]
+    bounds_valid = luminance_known | (np.isnan(arrays.anchor_photometric) & ~arrays.is_gls)
     hazards = {
         h.symbol: _hazard_arrays(
-            h, limit_set, viewed, arrays.covered[:, i], arrays.gap_free[:, i], alpha, luminance, luminance_known
+            h,
+            limit_set,
+            viewed,
+            arrays.covered[:, i],
+            arrays.gap_free[:, i],
+            alpha,
+            luminance,
+            luminance_known,
+            bounds_valid,
         )
         for i, h in enumerate(limit_set.hazards)
     }

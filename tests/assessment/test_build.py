@@ -107,3 +107,18 @@ def test_valid_input_raises_no_python_warnings(tmp_path):
         warnings.simplefilter("error")  # a valid input must not make numpy or Python warn (style.md, habit 8)
         a = hazard.assess(path, {**SIZE, "no_emission_outside": True})
     assert a.hazards["E_S"].t_max_s is None  # method §1: 30/E_S is far beyond 30000 s
+
+
+def test_no_lower_bound_rests_on_a_partly_measured_v_lambda(tmp_path):
+    # A relative spectrum is scaled so that ∫V reproduces its stated illuminance; measured only up to 700 nm, its
+    # ∫V misses 700-830 nm, so the scale and every value are overstated, and the measured UV part is no longer a
+    # true lower bound of E_S. No bound is given then (the product stays "not determined" for that hazard); the same
+    # spectrum as an absolute irradiance, whose scale is its own, gives one.
+    wl = np.arange(250.0, 700.5, 1.0)
+    values = 0.02 * np.exp(-0.5 * ((wl - 300.0) / 5.0) ** 2) + 0.01 * np.exp(-0.5 * ((wl - 550.0) / 60.0) ** 2)
+    path = write_spectrum(tmp_path / "lamp.csv", wl, values)
+    size = {"distance_mm": 200.0, "source_diameter_mm": 5.0}
+    absolute = hazard.assess(path, size)
+    assert absolute.hazards["E_S"].lower_bound_group is not None  # S_UV(300) = 0.3: far over 0.001 W/m²
+    relative = hazard.assess(path, {**size, "quantity": "relative", "illuminance_lx": 500.0})
+    assert not relative.hazards["E_S"].assessed and relative.hazards["E_S"].lower_bound_group is None
