@@ -623,8 +623,12 @@ def run_batch(
             workbook.save(folder / WORKBOOK_NAME)
             outcome.written.append(WORKBOOK_NAME)
         except OSError as exc:  # a full disk, a folder made read-only meanwhile: name the folder
+            workbook.discard()
             if exc.filename is None:
                 raise OSError(exc.errno, exc.strerror, str(folder)) from exc
+            raise
+        except BaseException:  # an interrupt, a defect: the unsaved workbook must not complain when collected
+            workbook.discard()
             raise
         finally:
             if pool is not None:

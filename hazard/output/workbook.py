@@ -112,11 +112,15 @@ class SummaryWorkbook:
             try:
                 self._book.save(handle)
             except (OSError, ValueError) as exc:  # a failed write; openpyxl may then fail to close its XML
-                self._abandon()
+                self.discard()
                 raise _os_error_behind(exc) from None
 
-    def _abandon(self) -> None:
-        """Close the sheets' row writers of a failed save now, quietly, so none complains later when collected."""
+    def discard(self) -> None:
+        """Close the row writers of a workbook that will not be saved (a failed run), now and quietly.
+
+        openpyxl's write-only sheets otherwise report a closed file on stderr when they are collected at exit,
+        which would add lines to the one-line error the user gets.
+        """
         for sheet in self._book.worksheets:
             writer = getattr(sheet, "_writer", None)
             for generator in (getattr(sheet, "_rows", None), getattr(writer, "xf", None)):

@@ -58,3 +58,44 @@ def test_a_disk_that_fills_while_the_workbook_is_written_is_one_line(tmp_path, m
     result = run_cli(["batch", "m.csv", "--output", "out"], tmp_path)
     assert_exit_2(result, os.strerror(errno.ENOSPC))
     assert not (tmp_path / "out" / "summary.xlsx").exists()
+
+
+def test_a_disk_that_fills_while_results_are_written_leaves_nothing_on_stderr_at_exit(tmp_path, monkeypatch):
+    # The disk fills while results.jsonl is written: the user gets the disk's error on one line, and the summary
+    # workbook that will now never be saved is closed at once: collected later, openpyxl's unsaved sheets wrote
+    # "Exception ignored ... I/O operation on closed file" tracebacks to stderr at exit (found on a full tmpfs).
+    import contextlib
+    import errno
+    import gc
+    import sys
+
+    import hazard.assessment.batch as batch
+
+    class FillingFile:
+        def __init__(self, handle):
+            self.handle = handle
+
+        def write(self, data):
+            raise OSError(errno.ENOSPC, os.strerror(errno.ENOSPC))
+
+        def __getattr__(self, name):
+            return getattr(self.handle, name)
+
+    real = batch.atomic_file
+
+    @contextlib.contextmanager
+    def filling(path):
+        with real(path) as handle:
+            yield FillingFile(handle) if path.name == "results.jsonl" else handle
+
+    unraisable = []
+    monkeypatch.setattr(sys, "unraisablehook", unraisable.append)
+    monkeypatch.setattr(batch, "atomic_file", filling)
+    write_lamp(tmp_path)
+    (tmp_path / "m.csv").write_text(
+        "id,spectrum,distance_mm,source_diameter_mm,no_emission_outside\nA,lamp.csv,500,30,true\n"
+    )
+    result = run_cli(["batch", "m.csv", "--output", "out"], tmp_path)
+    gc.collect()
+    assert_exit_2(result, os.strerror(errno.ENOSPC))
+    assert unraisable == []
