@@ -80,6 +80,9 @@ def integral_matrix(grid_nm: np.ndarray, limit_set: LimitSet) -> np.ndarray:
     return _MATRICES.get(grid_nm, specs, build)
 
 
+_GAP_FREE = GridCache(32)
+"""Which integrals of the most recent grids have no hole (:func:`coverage`)."""
+
 GAP_FLOOR_NM = 20.0
 """A step between neighbouring samples up to this wide never makes a band unusable [nm]."""
 GAP_SHARE_OF_BAND = 0.1
@@ -130,8 +133,10 @@ def coverage(grid_nm: np.ndarray, no_emission_outside: bool, limit_set: LimitSet
         (k,) bool each, in the order of :func:`integral_specs`.
     """
     lo, hi = float(grid_nm[0]), float(grid_nm[-1])
-    specs = integral_specs(limit_set)
-    gap_free = np.array([widest_gap_nm(grid_nm, s.band_nm) is None for s in specs])
+    specs = tuple(integral_specs(limit_set))
+    gap_free = _GAP_FREE.get(
+        grid_nm, specs, lambda grid: np.array([widest_gap_nm(grid, s.band_nm) is None for s in specs])
+    )
     spans = np.array([no_emission_outside or (lo <= s.band_nm[0] and hi >= s.band_nm[1]) for s in specs])
     return spans & gap_free, gap_free
 
