@@ -116,6 +116,11 @@ class HazardResult(_Frozen):
     exposure_limit: str | None = Field(description="The exposure limit formula.")
     note: str = Field(description="Why the hazard was or was not assessed, in a sentence.")
     pulse: PulseCheck | None = Field(None, description="Pulsed sources: the pulses against the exposure limit.")
+    hole_nm: tuple[float, float] | None = Field(
+        None,
+        description="Not assessed because the spectrum has no samples between these wavelengths inside the band "
+        "(a step wider than max(20 nm, a tenth of the band)) [nm].",
+    )
     lower_bound_group: RiskGroup | None = Field(
         None,
         description="Not assessed, yet the measured part of the band alone already gives this group (above "

@@ -19,7 +19,7 @@ from __future__ import annotations
 
 from typing import NamedTuple
 
-from hazard.output.formatting import PULSE_LIMIT, hazard_margin
+from hazard.output.formatting import PULSE_LIMIT, tightest_deciding
 from hazard.result import Assessment
 
 __all__ = ["BORDERLINE_FACTOR", "Tightest", "is_borderline", "rank_assessments", "ranks_by_margin", "tightest_margin"]
@@ -48,13 +48,8 @@ def tightest_margin(assessment: Assessment) -> Tightest | None:
     Tightest or None
         None when no deciding hazard has groups (e.g. nothing could be assessed).
     """
-    found = []
-    for symbol in assessment.deciding_hazards:
-        hazard = assessment.hazards[symbol]
-        margin = hazard_margin(hazard)
-        if margin is not None:
-            found.append(Tightest(symbol, *margin))
-    return max(found, key=lambda t: (t.ratio, t.symbol), default=None)
+    found = tightest_deciding(assessment)
+    return None if found is None else Tightest(*found)
 
 
 def is_borderline(assessment: Assessment) -> bool:

@@ -99,8 +99,8 @@ def _hazard_results(ev: Evaluation, i: int, wavelength_nm: np.ndarray, limit_set
         compared = {g: float(h.compared[i, k]) for k, g in enumerate(boundaries)} if grouped else {}
         band = f"{spec.band_nm[0]:g}–{spec.band_nm[1]:g} nm"
         lower = int(h.lower_bound_index[i])
+        hole = None if h.assessed[i] else widest_gap_nm(wavelength_nm, spec.band_nm)
         if not h.assessed[i]:
-            hole = widest_gap_nm(wavelength_nm, spec.band_nm)
             note = (
                 f"Not assessed: the spectrum has no samples between {hole[0]:g} and {hole[1]:g} nm, inside the band "
                 f"{band}; across such a gap the spectrum is unknown: measure it without the gap."
@@ -172,6 +172,7 @@ def _hazard_results(ev: Evaluation, i: int, wavelength_nm: np.ndarray, limit_set
             exposure_limit=spec.exposure_limit.text,
             note=note,
             pulse=pulse,
+            hole_nm=hole,
             lower_bound_group=GROUPS[lower] if (lower >= 1 and not h.assessed[i]) else None,
         )
     return results

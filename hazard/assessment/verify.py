@@ -156,7 +156,7 @@ def _check_against_set(a: Assessment, limit_set: LimitSet, path: str) -> None:
         except KeyError:
             raise _refuse(f"hazard {symbol} is not in {limit_set.name}", path) from None
         covered = no_emission_outside or (lo <= spec.band_nm[0] and hi >= spec.band_nm[1])
-        holed = not h.assessed and "no samples between" in h.note  # a hole inside the band (method §5)
+        holed = h.hole_nm is not None and spec.band_nm[0] < h.hole_nm[1] and h.hole_nm[0] < spec.band_nm[1]
         if h.assessed != (covered and not holed) or h.unit != spec.unit or tuple(h.band_nm) != tuple(spec.band_nm):
             raise _refuse(
                 f"hazard {symbol}: band, unit or assessed flag differ from the spectrum and {limit_set.name}", path

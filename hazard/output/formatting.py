@@ -31,6 +31,7 @@ __all__ = [
     "pulse_decides",
     "source_size_text",
     "superscript",
+    "tightest_deciding",
     "unit_text",
     "what_if_at",
     "what_if_prefix",
@@ -423,6 +424,16 @@ def hazard_margin(h: HazardResult) -> tuple[str, float] | None:
     if pulse_decides(h) and h.pulse is not None:
         return PULSE_LIMIT, h.pulse.worst
     return margin_to_next(h.risk_group, h.margins)
+
+
+def tightest_deciding(assessment: Assessment) -> tuple[str, str, float] | None:
+    """(symbol, boundary, ratio) of the deciding hazard nearest its boundary (:func:`hazard_margin`).
+
+    The largest ratio value/limit among ``deciding_hazards`` (least headroom, or furthest over the RG2 limit), ties
+    to the later symbol; None when no deciding hazard has groups.
+    """
+    found = [(s, *m) for s in assessment.deciding_hazards if (m := hazard_margin(assessment.hazards[s])) is not None]
+    return max(found, key=lambda t: (t[2], t[0]), default=None)
 
 
 def hazard_margin_text(h: HazardResult) -> str:

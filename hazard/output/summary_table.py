@@ -15,7 +15,7 @@ from __future__ import annotations
 
 import math
 
-from hazard.output.formatting import NOT_DETERMINED, hazard_margin, hazard_margin_text, what_if_prefix
+from hazard.output.formatting import NOT_DETERMINED, hazard_margin_text, tightest_deciding, what_if_prefix
 from hazard.result import Assessment
 from hazard.standards import DEFAULT_LIMIT_SET, LimitSet
 
@@ -205,10 +205,9 @@ def summary_row(
     at = what_if_prefix(a)  # the figures below are the what-if's own: never to be read as the classification's
     if a.deciding_hazards:
         row["deciding_hazards"] = at + ", ".join(a.deciding_hazards)
-    margins = {s: m for s in a.deciding_hazards if (m := hazard_margin(a.hazards[s])) is not None}
-    if margins:  # the deciding hazard nearest to the next group up (or furthest over, in RG3)
-        nearest = max(margins, key=lambda s: margins[s][1])
-        row["margin"] = f"{at}{nearest}: {hazard_margin_text(a.hazards[nearest])}"
+    tightest = tightest_deciding(a)
+    if tightest is not None:  # the deciding hazard nearest to the next group up (or furthest over, in RG3)
+        row["margin"] = f"{at}{tightest[0]}: {hazard_margin_text(a.hazards[tightest[0]])}"
     if a.uncertainty is not None:
         row.update(
             uncertainty=at + a.uncertainty.verdict,

@@ -19,9 +19,9 @@ from hazard.output.formatting import (
     format_times,
     format_value,
     group_words,
-    hazard_margin,
     hazard_margin_text,
     source_size_text,
+    tightest_deciding,
     what_if_at,
 )
 from hazard.result import Assessment
@@ -333,12 +333,6 @@ def render_claims(assessment: Assessment) -> list[str]:
     return ["Vendor claims:", line(header), *(line(r) for r in rows)]
 
 
-def _closest_deciding(a: Assessment) -> str | None:
-    """The deciding hazard with the largest ratio value/limit at the boundary that matters (None: none has groups)."""
-    found = [(m[1], symbol) for symbol in a.deciding_hazards if (m := hazard_margin(a.hazards[symbol])) is not None]
-    return max(found, default=(0.0, None))[1]
-
-
 def render_batch_table(ids: list[str], assessments: dict[str, Assessment], errors: dict[str, str]) -> str:
     """One line per product: id, overall group, completeness, the deciding hazards and margin, flags.
 
@@ -363,7 +357,8 @@ def render_batch_table(ids: list[str], assessments: dict[str, Assessment], error
         standard = a.basis == "standard"  # a what-if row shows the standard's group; its own is a flag
         deciding = ", ".join(a.deciding_hazards) if standard and a.risk_group not in (None, "Exempt") else ""
         margin = ""
-        closest = _closest_deciding(a) if standard else None
+        tightest = tightest_deciding(a) if standard else None
+        closest = None if tightest is None else tightest[0]
         if closest is not None:  # for an Exempt product: the hazard nearest its Exempt limit, named
             margin = (
                 hazard_margin_text(a.hazards[closest])

@@ -77,7 +77,10 @@ def test_a_bright_lamp_measured_in_part_is_at_least_what_its_measured_part_gives
     path = write_spectrum(tmp_path / "holed.csv", holed, white_lamp(holed))
     a = hazard.assess(path, {"distance_mm": 200.0, "source_diameter_mm": 5.0, "no_emission_outside": True})
     assert not a.hazards["L_B"].assessed and a.hazards["L_B"].lower_bound_group is None
-    assert "no samples between 429 and 560 nm" in a.hazards["L_B"].note
+    assert "no samples between 429 and 560 nm" in a.hazards["L_B"].note and a.hazards["L_B"].hole_nm == (429.0, 560.0)
+    from hazard.assessment.verify import check_result
+
+    check_result(a, "holed.json")  # a result with a hole reads back as made (hazard report checks it so)
 
 
 def test_band_gap_assumed_empty_with_no_emission_outside(tmp_path, monkeypatch):
